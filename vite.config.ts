@@ -1,0 +1,76 @@
+/// <reference types="vitest/config" />
+import { fileURLToPath, URL } from 'node:url'
+import { defineConfig } from 'vite'
+import vue from '@vitejs/plugin-vue'
+import vuetify from 'vite-plugin-vuetify'
+
+const alias = {
+  '@': fileURLToPath(new URL('./src', import.meta.url)),
+  '@shared': fileURLToPath(new URL('./shared', import.meta.url)),
+}
+
+// The API listens here in development; Vite proxies /api to it so the browser sees one origin.
+const apiPort = Number(process.env.API_PORT ?? 3001)
+
+export default defineConfig({
+  plugins: [vue(), vuetify({ autoImport: true })],
+  resolve: { alias },
+  server: {
+    port: 5173,
+    proxy: { '/api': { target: `http://127.0.0.1:${apiPort}`, changeOrigin: false } },
+  },
+  build: {
+    outDir: 'dist/client',
+    emptyOutDir: true,
+    sourcemap: false,
+    chunkSizeWarningLimit: 900,
+  },
+  test: {
+    projects: [
+      {
+        resolve: { alias },
+        test: {
+          name: 'unit',
+          environment: 'node',
+          include: ['tests/unit/**/*.test.ts'],
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: 'api',
+          environment: 'node',
+          include: ['tests/api/**/*.test.ts'],
+          // Each file gets its own temporary database; argon2 hashing makes tests CPU-bound.
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
+        },
+      },
+      {
+        plugins: [vue(), vuetify({ autoImport: true })],
+        resolve: { alias },
+        test: {
+          name: 'component',
+          environment: 'happy-dom',
+          include: ['tests/component/**/*.test.ts'],
+          setupFiles: ['tests/component/setup.ts'],
+          // Vuetify ships .css imports that Node cannot load unless Vite transforms them.
+          server: { deps: { inline: ['vuetify'] } },
+        },
+      },
+      {
+        resolve: { alias },
+        test: {
+          name: 'e2e',
+          environment: 'node',
+          include: ['tests/e2e/**/*.test.ts'],
+          globalSetup: ['tests/e2e/global-setup.ts'],
+          testTimeout: 120_000,
+          hookTimeout: 180_000,
+          // One browser at a time: two cores are shared with the server under test.
+          fileParallelism: false,
+        },
+      },
+    ],
+  },
+})
