@@ -23,6 +23,8 @@ export default defineConfig({
     outDir: 'dist/client',
     emptyOutDir: true,
     sourcemap: false,
+    // The manifest lets the bundle benchmark measure what each route really loads.
+    manifest: true,
     chunkSizeWarningLimit: 900,
   },
   test: {

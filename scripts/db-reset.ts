@@ -1,0 +1,19 @@
+// `npm run db:reset`: delete the database and recreate it with the demo seed.
+import { rmSync } from 'node:fs'
+import { pino } from 'pino'
+import { loadConfig } from '../server/config'
+import { openDatabase } from '../server/data-source'
+import { SCENARIOS_DIR } from '../server/main'
+import { demoSignInTable } from '../server/services/demo-accounts'
+import { createPasswordHasher } from '../server/services/passwords'
+import { importShippedScenarios } from '../server/services/scenarios'
+import { seedDemo } from '../server/services/seed'
+
+const config = loadConfig(process.env)
+const log = pino({ level: config.logLevel })
+for (const suffix of ['', '-wal', '-shm', '-journal']) rmSync(config.databasePath + suffix, { force: true })
+const dataSource = await openDatabase({ databasePath: config.databasePath })
+await importShippedScenarios(dataSource, SCENARIOS_DIR)
+await seedDemo(dataSource, createPasswordHasher(config.passwordHashing), log)
+await dataSource.destroy()
+console.log(`Database recreated at ${config.databasePath}\n${demoSignInTable()}`)

@@ -1,0 +1,119 @@
+// createApp(deps): the whole Express app (API, and the built client in production) without listening.
+import { existsSync } from 'node:fs'
+import { join } from 'node:path'
+import { fileURLToPath } from 'node:url'
+import cookieParser from 'cookie-parser'
+import express, { type Express } from 'express'
+import helmet from 'helmet'
+import { pino, type Logger } from 'pino'
+import { pinoHttp } from 'pino-http'
+import type { DataSource } from 'typeorm'
+import type { AppConfig } from './config'
+import type { AppContext } from './context'
+import { apiNotFound, errorHandler } from './middleware/errors'
+import { adminRouter } from './routes/admin'
+import { assignmentsRouter } from './routes/assignments'
+import { attemptsRouter } from './routes/attempts'
+import { authRouter } from './routes/auth'
+import { cohortsRouter } from './routes/cohorts'
+import { gradebookRouter } from './routes/gradebook'
+import { healthRouter } from './routes/health'
+import { invitationsRouter } from './routes/invitations'
+import { scenariosRouter, scenarioVersionsRouter } from './routes/scenarios'
+import type { Mailer } from './services/mailer'
+import { createPasswordHasher, type PasswordHasher } from './services/passwords'
+import { createAccessTokens } from './services/tokens'
+
+export interface AppDeps {
+  dataSource: DataSource
+  config: AppConfig
+  mailer: Mailer
+  jwtSecret: string
+  log?: Logger
+  passwords?: PasswordHasher
+  /** Where the built client lives (default dist/client). */
+  clientDir?: string
+}
+
+export const DEFAULT_CLIENT_DIR = fileURLToPath(new URL('../dist/client', import.meta.url))
+
+export function createApp(deps: AppDeps): Express {
+  const log = deps.log ?? pino({ level: deps.config.logLevel })
+  const ctx: AppContext = {
+    dataSource: deps.dataSource,
+    config: deps.config,
+    mailer: deps.mailer,
+    passwords: deps.passwords ?? createPasswordHasher(deps.config.passwordHashing),
+    tokens: createAccessTokens(deps.jwtSecret),
+    log,
+  }
+  const app = express()
+  app.disable('x-powered-by')
+  app.set('trust proxy', 'loopback')
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          // Vuetify sets inline styles for theme variables and positioning.
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'", 'data:'],
+          connectSrc: ["'self'"],
+          // Pixi compiles shaders and may spin up workers from blob: URLs.
+          workerSrc: ["'self'", 'blob:'],
+          objectSrc: ["'none'"],
+          frameAncestors: ["'none'"],
+          upgradeInsecureRequests: null,
+        },
+      },
+    }),
+  )
+  app.use(
+    pinoHttp({
+      logger: log,
+      autoLogging: { ignore: (req) => req.url === '/api/health' },
+      // Method, path and status only: no headers, so no tokens or cookies in the log.
+      serializers: {
+        req: (req: { id: unknown; method: string; url: string }) => ({
+          id: req.id,
+          method: req.method,
+          url: req.url.split('?')[0],
+        }),
+        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
+      },
+    }),
+  )
+  app.use(cookieParser())
+  // Attempt logs and scenario documents are large; everything else stays small.
+  app.use('/api/attempts', express.json({ limit: '2mb' }))
+  app.use('/api/scenarios', express.json({ limit: '1mb' }))
+  app.use('/api', express.json({ limit: '100kb' }))
+
+  app.use('/api/health', healthRouter(ctx))
+  app.use('/api/auth', authRouter(ctx))
+  app.use('/api/invitations', invitationsRouter(ctx))
+  app.use('/api/admin', adminRouter(ctx))
+  app.use('/api/cohorts', cohortsRouter(ctx))
+  app.use('/api/cohorts', gradebookRouter(ctx))
+  app.use('/api/scenarios', scenariosRouter(ctx))
+  app.use('/api/scenario-versions', scenarioVersionsRouter(ctx))
+  app.use('/api/attempts', attemptsRouter(ctx))
+  app.use('/api', assignmentsRouter(ctx))
+  app.use('/api', apiNotFound)
+
+  const clientDir = deps.clientDir ?? DEFAULT_CLIENT_DIR
+  if (deps.config.serveClient && existsSync(join(clientDir, 'index.html'))) {
+    app.use(express.static(clientDir, { index: false, maxAge: '1h' }))
+    // Hashed assets may be cached for long; index.html must always be fresh after a deploy.
+    app.get(/^(?!\/api\/).*/, (req, res, next) => {
+      if (req.method !== 'GET' || !req.accepts('html')) return next()
+      res.setHeader('Cache-Control', 'no-cache')
+      res.sendFile(join(clientDir, 'index.html'))
+    })
+  }
+
+  app.use(errorHandler)
+  return app
+}

@@ -1,0 +1,120 @@
+// Environment validated at boot: one typed AppConfig, with clear messages for wrong values.
+import { resolve } from 'node:path'
+import { z } from 'zod'
+
+const port = z.coerce.number().int().min(0).max(65535)
+const optionalText = z
+  .string()
+  .trim()
+  .transform((value) => (value === '' ? undefined : value))
+  .optional()
+
+const envSchema = z.object({
+  NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
+  PORT: port.optional(),
+  API_PORT: port.optional(),
+  DATA_DIR: z.string().trim().min(1).default('./data'),
+  DATABASE_URL: optionalText.refine((value) => value === undefined || /^(sqlite|file):/i.test(value), {
+    error:
+      'Only SQLite is supported for now (sqlite:<path> or leave unset for DATA_DIR/slipway.sqlite). ' +
+      'PostgreSQL support through DATABASE_URL=postgres://… is planned; the migrations are already portable.',
+  }),
+  JWT_SECRET: optionalText.refine((value) => value === undefined || value.length >= 32, {
+    error: 'JWT_SECRET must be at least 32 characters (or leave it unset to generate one in DATA_DIR)',
+  }),
+  PUBLIC_BASE_URL: optionalText.pipe(
+    z.url({ error: 'PUBLIC_BASE_URL must be a URL like http://localhost:3000' }).optional(),
+  ),
+  SMTP_HOST: optionalText,
+  SMTP_PORT: port.optional(),
+  SMTP_USER: optionalText,
+  SMTP_PASS: optionalText,
+  SMTP_SECURE: z.enum(['true', 'false']).optional(),
+  SMTP_FROM: optionalText.default('Slipway <no-reply@slipway.test>'),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
+  SERVE_CLIENT: z.enum(['true', 'false']).optional(),
+})
+
+export interface RateLimitRule {
+  windowMs: number
+  limit: number
+}
+export interface RateLimits {
+  signIn: RateLimitRule
+  passwordReset: RateLimitRule
+  invitations: RateLimitRule
+}
+
+/** argon2id cost; the OWASP Password Storage Cheat Sheet minimum is 19 MiB, 2 iterations, 1 lane. */
+export interface PasswordHashing {
+  memoryCost: number // KiB
+  timeCost: number
+  parallelism: number
+}
+export const OWASP_ARGON2ID: PasswordHashing = { memoryCost: 19 * 1024, timeCost: 2, parallelism: 1 }
+
+export interface AppConfig {
+  env: 'development' | 'production' | 'test'
+  port: number
+  dataDir: string
+  databasePath: string
+  jwtSecret?: string
+  publicBaseUrl: string
+  smtp?: { host: string; port: number; user?: string; pass?: string; secure: boolean }
+  mailFrom: string
+  logLevel: string
+  serveClient: boolean
+  rateLimits: RateLimits | false
+  passwordHashing: PasswordHashing
+  version: string
+}
+
+export const DEFAULT_RATE_LIMITS: RateLimits = {
+  signIn: { windowMs: 15 * 60_000, limit: 20 },
+  passwordReset: { windowMs: 15 * 60_000, limit: 5 },
+  invitations: { windowMs: 15 * 60_000, limit: 60 },
+}
+
+export class ConfigError extends Error {}
+
+/** `mode`: dev runs the API alone on API_PORT behind Vite; start/production serves everything on PORT. */
+export function loadConfig(
+  env: NodeJS.ProcessEnv = process.env,
+  options: { mode?: 'api' | 'app'; version?: string } = {},
+): AppConfig {
+  const parsed = envSchema.safeParse(env)
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((issue) => `  ${issue.path.join('.')}: ${issue.message}`)
+    throw new ConfigError(`Invalid environment:\n${lines.join('\n')}`)
+  }
+  const e = parsed.data
+  const production = e.NODE_ENV === 'production'
+  const port = production || options.mode === 'app' ? (e.PORT ?? 3000) : (e.API_PORT ?? e.PORT ?? 3001)
+  const dataDir = resolve(e.DATA_DIR)
+  const databasePath = e.DATABASE_URL
+    ? resolve(e.DATABASE_URL.replace(/^(sqlite|file):(\/\/)?/i, ''))
+    : resolve(dataDir, 'slipway.sqlite')
+  return {
+    env: e.NODE_ENV,
+    port,
+    dataDir,
+    databasePath,
+    jwtSecret: e.JWT_SECRET,
+    publicBaseUrl: (e.PUBLIC_BASE_URL ?? `http://localhost:${production ? port : 5173}`).replace(/\/+$/, ''),
+    smtp: e.SMTP_HOST
+      ? {
+          host: e.SMTP_HOST,
+          port: e.SMTP_PORT ?? 587,
+          user: e.SMTP_USER,
+          pass: e.SMTP_PASS,
+          secure: e.SMTP_SECURE === 'true',
+        }
+      : undefined,
+    mailFrom: e.SMTP_FROM ?? 'Slipway <no-reply@slipway.test>',
+    logLevel: e.LOG_LEVEL ?? (e.NODE_ENV === 'test' ? 'silent' : 'info'),
+    serveClient: e.SERVE_CLIENT ? e.SERVE_CLIENT === 'true' : production,
+    rateLimits: DEFAULT_RATE_LIMITS,
+    passwordHashing: OWASP_ARGON2ID,
+    version: options.version ?? '0.0.0',
+  }
+}

@@ -1,0 +1,19 @@
+// What every route needs, built once per app: database, settings, mail, hashing and tokens.
+import type { DataSource } from 'typeorm'
+import type { Logger } from 'pino'
+import type { AppConfig } from './config'
+import type { Mailer } from './services/mailer'
+import type { PasswordHasher } from './services/passwords'
+import type { AccessTokens } from './services/tokens'
+
+export interface AppContext {
+  dataSource: DataSource
+  config: AppConfig
+  mailer: Mailer
+  passwords: PasswordHasher
+  tokens: AccessTokens
+  log: Logger
+}
+
+/** A link into the client, from the configured public base URL. */
+export const appLink = (ctx: AppContext, path: string) => `${ctx.config.publicBaseUrl}${path}`

@@ -1,0 +1,73 @@
+// An attempt is its event log plus the server's grade; `id` is the client-generated UUID.
+import { EntitySchema, type EntitySchemaOptions } from 'typeorm'
+import type { AttemptStatus } from '@shared/api/attempts'
+import {
+  bool,
+  integer,
+  nullableBool,
+  nullableReal,
+  nullableText,
+  nullableTimestamp,
+  nullableUuid,
+  text,
+  timestamp,
+  uuidColumn,
+  uuidPrimary,
+  varchar,
+  belongsTo,
+} from './columns'
+
+export interface AttemptRow {
+  id: string
+  userId: string
+  assignmentId: string | null
+  scenarioId: string
+  status: AttemptStatus
+  /** JSON text of the event log. */
+  events: string
+  eventCount: number
+  late: boolean
+  startedAt: string
+  updatedAt: string
+  submittedAt: string | null
+  autoScore: number | null
+  autoPassed: boolean | null
+  score: number | null
+  passed: boolean | null
+  /** JSON text of the grader's per-objective evidence. */
+  evidence: string | null
+  gradedAt: string | null
+}
+
+export const AttemptEntity = new EntitySchema<AttemptRow>({
+  name: 'Attempt',
+  tableName: 'attempts',
+  columns: {
+    id: uuidPrimary,
+    userId: uuidColumn,
+    assignmentId: nullableUuid,
+    scenarioId: uuidColumn,
+    status: varchar(16),
+    events: text,
+    eventCount: integer,
+    late: bool,
+    startedAt: timestamp,
+    updatedAt: timestamp,
+    submittedAt: nullableTimestamp,
+    autoScore: nullableReal,
+    autoPassed: nullableBool,
+    score: nullableReal,
+    passed: nullableBool,
+    evidence: nullableText,
+    gradedAt: nullableTimestamp,
+  },
+  indices: [
+    { name: 'idx_attempts_user', columns: ['userId'] },
+    { name: 'idx_attempts_assignment', columns: ['assignmentId'] },
+  ],
+  relations: {
+    user: belongsTo('User', 'userId', 'CASCADE'),
+    assignment: belongsTo('Assignment', 'assignmentId', 'CASCADE', true),
+    scenario: belongsTo('Scenario', 'scenarioId', 'RESTRICT'),
+  } as EntitySchemaOptions<AttemptRow>['relations'],
+})

@@ -1,0 +1,27 @@
+import { EntitySchema, type EntitySchemaOptions } from 'typeorm'
+import { bool, text, timestamp, uuidColumn, uuidPrimary, varchar, belongsTo } from './columns'
+
+export interface CohortRow {
+  id: string
+  name: string
+  description: string
+  ownerId: string
+  archived: boolean
+  createdAt: string
+}
+
+export const CohortEntity = new EntitySchema<CohortRow>({
+  name: 'Cohort',
+  tableName: 'cohorts',
+  columns: {
+    id: uuidPrimary,
+    name: varchar(120),
+    description: text,
+    ownerId: uuidColumn,
+    archived: bool,
+    createdAt: timestamp,
+  },
+  relations: {
+    owner: belongsTo('User', 'ownerId', 'RESTRICT'),
+  } as EntitySchemaOptions<CohortRow>['relations'],
+})

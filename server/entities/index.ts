@@ -1,0 +1,44 @@
+// Every entity, listed explicitly for the DataSource.
+import { AssignmentEntity } from './assignment'
+import { AttemptEntity } from './attempt'
+import { AuditEntryEntity } from './audit-entry'
+import { CohortEntity } from './cohort'
+import { EnrollmentEntity } from './enrollment'
+import { FeedbackEntity } from './feedback'
+import { InvitationEntity } from './invitation'
+import { MailMessageEntity } from './mail-message'
+import { PasswordResetEntity } from './password-reset'
+import { RefreshTokenEntity } from './refresh-token'
+import { ScenarioEntity } from './scenario'
+import { UploadEntity } from './upload'
+import { UserEntity } from './user'
+
+export * from './assignment'
+export * from './attempt'
+export * from './audit-entry'
+export * from './cohort'
+export * from './enrollment'
+export * from './feedback'
+export * from './invitation'
+export * from './mail-message'
+export * from './password-reset'
+export * from './refresh-token'
+export * from './scenario'
+export * from './upload'
+export * from './user'
+
+export const entities = [
+  UserEntity,
+  RefreshTokenEntity,
+  PasswordResetEntity,
+  CohortEntity,
+  EnrollmentEntity,
+  InvitationEntity,
+  ScenarioEntity,
+  AssignmentEntity,
+  AttemptEntity,
+  FeedbackEntity,
+  AuditEntryEntity,
+  MailMessageEntity,
+  UploadEntity,
+]

@@ -1,0 +1,86 @@
+// Boots the server: config, database (migrate, shipped scenarios, demo seed if empty), mail, HTTP, shutdown.
+import type { Server } from 'node:http'
+import { mkdirSync } from 'node:fs'
+import { fileURLToPath } from 'node:url'
+import { pino } from 'pino'
+import { createApp } from './app'
+import { ConfigError, loadConfig } from './config'
+import { openDatabase } from './data-source'
+import { UserEntity } from './entities'
+import { DEMO_ACCOUNTS, demoSignInTable } from './services/demo-accounts'
+import { createMailer, type SmtpTarget } from './services/mailer'
+import { startOutboxSmtp, type OutboxSmtp } from './services/outbox-smtp'
+import { createPasswordHasher } from './services/passwords'
+import { importShippedScenarios } from './services/scenarios'
+import { loadOrCreateJwtSecret } from './services/secrets'
+import { isDatabaseEmpty, seedDemo } from './services/seed'
+import { APP_VERSION } from './version'
+
+export const SCENARIOS_DIR = fileURLToPath(new URL('../scenarios', import.meta.url))
+
+export interface StartOptions {
+  mode?: 'api' | 'app'
+  env?: NodeJS.ProcessEnv
+}
+
+export async function startServer({ mode = 'api', env = process.env }: StartOptions = {}) {
+  let config
+  try {
+    config = loadConfig(env, { mode, version: APP_VERSION })
+  } catch (error) {
+    if (error instanceof ConfigError) {
+      console.error(error.message)
+      process.exit(2)
+    }
+    throw error
+  }
+  const log = pino({ level: config.logLevel })
+  mkdirSync(config.dataDir, { recursive: true })
+  const jwtSecret = loadOrCreateJwtSecret(config.dataDir, config.jwtSecret)
+  const dataSource = await openDatabase({ databasePath: config.databasePath })
+  const passwords = createPasswordHasher(config.passwordHashing)
+  const shipped = await importShippedScenarios(dataSource, SCENARIOS_DIR)
+  if (shipped.added) log.info({ added: shipped.added }, 'shipped scenarios imported')
+  for (const skip of shipped.skipped) log.warn(skip, 'shipped scenario skipped')
+  if (await isDatabaseEmpty(dataSource)) await seedDemo(dataSource, passwords, log)
+
+  let outbox: OutboxSmtp | undefined
+  let target: SmtpTarget
+  if (config.smtp) {
+    target = { ...config.smtp, requireTls: true }
+  } else {
+    outbox = await startOutboxSmtp(dataSource, log)
+    target = { host: outbox.host, port: outbox.port, secure: false }
+    log.info({ port: outbox.port }, 'embedded SMTP outbox listening on loopback')
+  }
+  const mailer = createMailer({ target, from: config.mailFrom, log })
+  const app = createApp({ dataSource, config, mailer, jwtSecret, log, passwords })
+
+  const server: Server = await new Promise((resolve, reject) => {
+    const s = app.listen(config.port, env.HOST ?? '0.0.0.0', () => resolve(s))
+    s.once('error', reject)
+  })
+  const demoAdmin = await dataSource.getRepository(UserEntity).findOneBy({ email: DEMO_ACCOUNTS[0]!.email })
+  const url = config.serveClient ? config.publicBaseUrl : `http://localhost:${config.port}`
+  console.log(`\nSlipway ${APP_VERSION} listening on ${url}${config.serveClient ? '' : ' (API only)'}`)
+  if (demoAdmin) console.log(demoSignInTable() + '\n')
+
+  let stopping = false
+  async function stop(signal: string) {
+    if (stopping) return
+    stopping = true
+    log.info({ signal }, 'shutting down')
+    const force = setTimeout(() => process.exit(1), 10_000).unref()
+    await new Promise<void>((resolve) => server.close(() => resolve()))
+    server.closeAllConnections?.()
+    await Promise.race([mailer.idle(), new Promise((r) => setTimeout(r, 3000))])
+    mailer.close()
+    await outbox?.close()
+    await dataSource.destroy()
+    clearTimeout(force)
+    process.exit(0)
+  }
+  process.once('SIGTERM', () => void stop('SIGTERM'))
+  process.once('SIGINT', () => void stop('SIGINT'))
+  return { server, config, dataSource }
+}

@@ -1,0 +1,49 @@
+// authenticate (Bearer access token → req.auth, checked against the live user) and requireRole(...).
+import type { Request, RequestHandler } from 'express'
+import type { Role } from '@shared/api/auth'
+import type { AppContext } from '../context'
+import { UserEntity, type UserRow } from '../entities'
+import { HttpError } from '../http-error'
+
+export interface AuthInfo {
+  user: UserRow
+}
+
+declare module 'express-serve-static-core' {
+  interface Request {
+    auth?: AuthInfo
+  }
+}
+
+export function authenticate(ctx: AppContext): RequestHandler {
+  return async (req, _res, next) => {
+    const header = req.headers.authorization
+    if (!header?.startsWith('Bearer ')) {
+      throw new HttpError(401, 'unauthenticated', 'Sign in first (no access token was sent)')
+    }
+    const claims = ctx.tokens.verify(header.slice('Bearer '.length).trim())
+    const user = await ctx.dataSource.getRepository(UserEntity).findOneBy({ id: claims.sub })
+    if (!user || user.tokenVersion !== claims.tv) {
+      throw new HttpError(401, 'token_invalid', 'This session has ended; sign in again')
+    }
+    if (!user.active) throw new HttpError(401, 'account_inactive', 'This account has been deactivated')
+    req.auth = { user }
+    next()
+  }
+}
+
+export function requireRole(...roles: Role[]): RequestHandler {
+  return (req, _res, next) => {
+    const role = req.auth?.user.role
+    if (!role) throw new HttpError(401, 'unauthenticated', 'Sign in first')
+    if (!roles.includes(role))
+      throw new HttpError(403, 'forbidden', `Only ${roles.join(' or ')} accounts may do this`)
+    next()
+  }
+}
+
+/** The signed-in user of a request that passed authenticate(). */
+export function currentUser(req: Request): UserRow {
+  if (!req.auth) throw new HttpError(401, 'unauthenticated', 'Sign in first')
+  return req.auth.user
+}

@@ -1,0 +1,58 @@
+// Central error handling: every failure leaves as { error: { code, message, details } }, never a stack trace.
+import type { ErrorRequestHandler, RequestHandler } from 'express'
+import { MulterError } from 'multer'
+import { ZodError, z } from 'zod'
+import { HttpError } from '../http-error'
+
+export function zodDetails(error: ZodError) {
+  const fields: Record<string, string[]> = {}
+  for (const issue of error.issues) {
+    const key = issue.path.length ? issue.path.map(String).join('.') : '(root)'
+    ;(fields[key] ??= []).push(issue.message)
+  }
+  return { fields }
+}
+
+export const apiNotFound: RequestHandler = (req) => {
+  throw new HttpError(404, 'route_not_found', `No API route ${req.method} ${req.path}`)
+}
+
+interface BodyParserError extends Error {
+  type?: string
+  status?: number
+}
+
+export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
+  const send = (status: number, code: string, message: string, details?: unknown) => {
+    if (res.headersSent) return
+    res.status(status).json({ error: { code, message, ...(details === undefined ? {} : { details }) } })
+  }
+  if (err instanceof HttpError) {
+    for (const [name, value] of Object.entries(err.headers ?? {})) res.setHeader(name, value)
+    return send(err.status, err.code, err.message, err.details)
+  }
+  if (err instanceof ZodError) {
+    return send(400, 'validation_failed', 'Some fields are not valid', zodDetails(err))
+  }
+  if (err instanceof MulterError) {
+    if (err.code === 'LIMIT_FILE_SIZE') return send(413, 'payload_too_large', 'The file is too large')
+    return send(400, 'bad_request', `Upload refused: ${err.message}`, { field: err.field })
+  }
+  const bodyError = err as BodyParserError
+  if (bodyError?.type === 'entity.too.large')
+    return send(413, 'payload_too_large', 'The request body is too large')
+  if (bodyError?.type === 'entity.parse.failed')
+    return send(400, 'invalid_json', 'The request body is not valid JSON')
+  if (typeof bodyError?.status === 'number' && bodyError.status >= 400 && bodyError.status < 500) {
+    return send(bodyError.status, 'bad_request', 'The request could not be read')
+  }
+  req.log?.error({ err }, 'unhandled error')
+  send(500, 'internal_error', 'Something went wrong on the server')
+}
+
+/** For routes that parse by hand (uploads): throw a 400 with the same details shape as validate(). */
+export function parseOrThrow<T extends z.ZodType>(schema: T, value: unknown): z.infer<T> {
+  const result = schema.safeParse(value)
+  if (!result.success) throw result.error
+  return result.data
+}

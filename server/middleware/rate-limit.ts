@@ -1,0 +1,27 @@
+// Per-route rate limits (express-rate-limit), configurable per app so tests can lower or disable them.
+import type { RequestHandler } from 'express'
+import { rateLimit } from 'express-rate-limit'
+import type { RateLimitRule, RateLimits } from '../config'
+import { HttpError } from '../http-error'
+
+const pass: RequestHandler = (_req, _res, next) => next()
+
+export function limiter(limits: RateLimits | false, which: keyof RateLimits): RequestHandler {
+  if (!limits) return pass
+  const rule: RateLimitRule = limits[which]
+  return rateLimit({
+    windowMs: rule.windowMs,
+    limit: rule.limit,
+    standardHeaders: 'draft-8',
+    legacyHeaders: false,
+    handler: (_req, res, next) => {
+      // Retry-After is set by the library in seconds; keep it and answer in our error format.
+      const retryAfter = res.getHeader('Retry-After') ?? String(Math.ceil(rule.windowMs / 1000))
+      next(
+        new HttpError(429, 'rate_limited', 'Too many requests; wait a little and try again', undefined, {
+          'Retry-After': String(retryAfter),
+        }),
+      )
+    },
+  })
+}

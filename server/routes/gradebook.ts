@@ -1,0 +1,79 @@
+// /api/cohorts/:id/gradebook (JSON, paged) and /api/cohorts/:id/gradebook.csv (the same rows, all of them).
+import { Router } from 'express'
+import { idParamsSchema } from '@shared/api/common'
+import { gradebookQuerySchema } from '@shared/api/gradebook'
+import type { AppContext } from '../context'
+import { authenticate, currentUser, requireRole } from '../middleware/auth'
+import { validate } from '../middleware/validate'
+import { cohortFor } from '../services/access'
+import { toCsv } from '../services/csv-safe'
+import { buildGradebook, type GradebookFilter } from '../services/gradebook'
+import { nowIso } from '../services/clock'
+
+export function gradebookRouter(ctx: AppContext): Router {
+  const router = Router()
+  router.use(authenticate(ctx), requireRole('instructor', 'admin'))
+
+  router.get(
+    '/:id/gradebook',
+    validate({ params: idParamsSchema, query: gradebookQuerySchema }),
+    async (req, res) => {
+      const cohort = await cohortFor(ctx.dataSource, currentUser(req), String(req.params.id), 'manage')
+      const query = req.query as unknown as GradebookFilter & { page: number; pageSize: number }
+      const { assignments, rows } = await buildGradebook(ctx.dataSource, cohort, query)
+      const start = (query.page - 1) * query.pageSize
+      res.json({
+        cohortId: cohort.id,
+        assignments: assignments.map((a) => ({ id: a.id, title: a.title, dueAt: a.dueAt })),
+        rows: rows.slice(start, start + query.pageSize),
+        total: rows.length,
+        page: query.page,
+        pageSize: query.pageSize,
+      })
+    },
+  )
+
+  router.get(
+    '/:id/gradebook.csv',
+    validate({ params: idParamsSchema, query: gradebookQuerySchema }),
+    async (req, res) => {
+      const cohort = await cohortFor(ctx.dataSource, currentUser(req), String(req.params.id), 'manage')
+      const { assignments, rows } = await buildGradebook(
+        ctx.dataSource,
+        cohort,
+        req.query as unknown as GradebookFilter,
+      )
+      const header = [
+        'Name',
+        'E-mail',
+        'Average',
+        'Last activity',
+        ...assignments.flatMap((a) => [`${a.title} — best`, `${a.title} — attempts`, `${a.title} — status`]),
+      ]
+      const body = rows.map((row) => [
+        row.name,
+        row.email,
+        row.average === null ? '' : row.average.toFixed(1),
+        row.lastActivity ?? '',
+        ...row.cells.flatMap((c) => [
+          c.bestScore === null ? '' : c.bestScore.toFixed(1),
+          c.attempts,
+          c.status,
+        ]),
+      ])
+      const safeName =
+        cohort.name
+          .replace(/[^A-Za-z0-9-]+/g, '-')
+          .replace(/^-|-$/g, '')
+          .slice(0, 60) || 'cohort'
+      res.setHeader('Content-Type', 'text/csv; charset=utf-8')
+      res.setHeader(
+        'Content-Disposition',
+        `attachment; filename="gradebook-${safeName}-${nowIso().slice(0, 10)}.csv"`,
+      )
+      res.send('\uFEFF' + toCsv(header, body))
+    },
+  )
+
+  return router
+}

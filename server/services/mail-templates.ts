@@ -1,0 +1,126 @@
+// The messages Slipway sends, each as plain text and HTML built from the same words.
+import type { OutgoingMail } from './mailer'
+
+const escapeHtml = (value: string) =>
+  value.replace(
+    /[&<>"']/g,
+    (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!,
+  )
+
+interface Template {
+  to: string
+  subject: string
+  greeting: string
+  paragraphs: string[]
+  action?: { label: string; url: string }
+}
+
+const SIGN_OFF = 'Slipway — the drive-wiring training bench'
+
+function render({ to, subject, greeting, paragraphs, action }: Template): OutgoingMail {
+  const text = [
+    greeting,
+    '',
+    ...paragraphs.flatMap((p) => [p, '']),
+    ...(action ? [`${action.label}: ${action.url}`, ''] : []),
+    SIGN_OFF,
+  ].join('\n')
+  const html = [
+    `<p>${escapeHtml(greeting)}</p>`,
+    ...paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`),
+    action ? `<p><a href="${escapeHtml(action.url)}">${escapeHtml(action.label)}</a></p>` : '',
+    `<p style="color:#555">${escapeHtml(SIGN_OFF)}</p>`,
+  ].join('\n')
+  return { to, subject, text, html }
+}
+
+export function invitationMail(input: {
+  to: string
+  name: string
+  invitedBy: string
+  cohortName: string | null
+  role: string
+  url: string
+  expiresAt: string
+}): OutgoingMail {
+  const where = input.cohortName ? `the cohort “${input.cohortName}”` : `Slipway as an ${input.role}`
+  return render({
+    to: input.to,
+    subject: input.cohortName
+      ? `You are invited to ${input.cohortName} on Slipway`
+      : 'You are invited to Slipway',
+    greeting: `Hello ${input.name},`,
+    paragraphs: [
+      `${input.invitedBy} has invited you to join ${where}.`,
+      `Open the link below to choose your password. The link works once and expires on ${input.expiresAt.slice(0, 10)}.`,
+    ],
+    action: { label: 'Accept the invitation', url: input.url },
+  })
+}
+
+export function passwordResetMail(input: {
+  to: string
+  name: string
+  url: string
+  minutes: number
+}): OutgoingMail {
+  return render({
+    to: input.to,
+    subject: 'Reset your Slipway password',
+    greeting: `Hello ${input.name},`,
+    paragraphs: [
+      `Someone asked to reset the password of this account. The link below works once, within ${input.minutes} minutes.`,
+      'If it was not you, ignore this message: your password stays as it is.',
+    ],
+    action: { label: 'Choose a new password', url: input.url },
+  })
+}
+
+export function assignmentPublishedMail(input: {
+  to: string
+  name: string
+  title: string
+  cohortName: string
+  dueAt: string
+  url: string
+}): OutgoingMail {
+  return render({
+    to: input.to,
+    subject: `New assignment: ${input.title}`,
+    greeting: `Hello ${input.name},`,
+    paragraphs: [
+      `A new exercise, “${input.title}”, has been set for ${input.cohortName}. It is due by ${input.dueAt.replace('T', ' ').slice(0, 16)} UTC.`,
+      'Before any work on a real drive: isolate, lock out and tag out, wait for the DC bus to discharge and prove absence of voltage.',
+    ],
+    action: { label: 'Open the assignment', url: input.url },
+  })
+}
+
+export function attemptReviewedMail(input: {
+  to: string
+  name: string
+  title: string
+  what: 'graded' | 'overridden' | 'feedback'
+  score?: number
+  passed?: boolean
+  url: string
+}): OutgoingMail {
+  const verdict = `${input.score} / 100 (${input.passed ? 'pass' : 'not yet a pass'})`
+  const detail = {
+    graded: `Your attempt at “${input.title}” has been graded: ${verdict}.`,
+    overridden: `Your instructor has changed your grade for “${input.title}”: ${verdict}.`,
+    feedback: `Your instructor has left feedback on your attempt at “${input.title}”.`,
+  }[input.what]
+  const subject = {
+    graded: `Graded: ${input.title}`,
+    overridden: `Grade updated: ${input.title}`,
+    feedback: `Feedback on ${input.title}`,
+  }[input.what]
+  return render({
+    to: input.to,
+    subject,
+    greeting: `Hello ${input.name},`,
+    paragraphs: [detail],
+    action: { label: 'See your attempt', url: input.url },
+  })
+}

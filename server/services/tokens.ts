@@ -1,0 +1,55 @@
+// Access tokens (short-lived JWT) and opaque one-time tokens (refresh, invitation, reset) stored as hashes.
+import { createHash, randomBytes } from 'node:crypto'
+import jwt from 'jsonwebtoken'
+import { ACCESS_TOKEN_TTL_SECONDS, type Role } from '@shared/api/auth'
+import { HttpError } from '../http-error'
+
+export interface AccessClaims {
+  sub: string
+  role: Role
+  tv: number // the user's token version when issued
+}
+
+export interface AccessTokens {
+  issue(claims: AccessClaims): { token: string; expiresAt: string }
+  verify(token: string): AccessClaims
+}
+
+const ISSUER = 'slipway'
+
+export function createAccessTokens(secret: string, ttlSeconds = ACCESS_TOKEN_TTL_SECONDS): AccessTokens {
+  return {
+    issue(claims) {
+      const token = jwt.sign({ role: claims.role, tv: claims.tv }, secret, {
+        algorithm: 'HS256',
+        subject: claims.sub,
+        issuer: ISSUER,
+        expiresIn: ttlSeconds,
+      })
+      return { token, expiresAt: new Date(Date.now() + ttlSeconds * 1000).toISOString() }
+    },
+    verify(token) {
+      try {
+        const payload = jwt.verify(token, secret, { algorithms: ['HS256'], issuer: ISSUER }) as jwt.JwtPayload
+        if (typeof payload.sub !== 'string' || typeof payload.tv !== 'number')
+          throw new Error('claims missing')
+        return { sub: payload.sub, role: payload.role as Role, tv: payload.tv }
+      } catch (error) {
+        if (error instanceof jwt.TokenExpiredError) {
+          throw new HttpError(401, 'token_expired', 'Your session has expired; refresh or sign in again')
+        }
+        throw new HttpError(401, 'token_invalid', 'The access token is not valid')
+      }
+    },
+  }
+}
+
+/** A random URL-safe token; only its SHA-256 is stored. */
+export function newOpaqueToken(): { token: string; hash: string } {
+  const token = randomBytes(32).toString('base64url')
+  return { token, hash: hashToken(token) }
+}
+
+export function hashToken(token: string): string {
+  return createHash('sha256').update(token).digest('hex')
+}

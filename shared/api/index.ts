@@ -1,0 +1,11 @@
+// The API contract: zod schemas for every request and response, used by server and client alike.
+export * from './common'
+export * from './auth'
+export * from './users'
+export * from './cohorts'
+export * from './invitations'
+export * from './scenarios'
+export * from './assignments'
+export * from './attempts'
+export * from './gradebook'
+export * from './admin'

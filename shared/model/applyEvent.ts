@@ -1,0 +1,276 @@
+// Applying one attempt event: advance to its time, change the state, settle. User mistakes are
+// refused with a message (never thrown); only out-of-order times throw.
+import { busVoltsAt } from './bus'
+import { pointsOf } from './circuit/config'
+import { sendDrive, type DrivePlain } from './driveTransitions'
+import { ModelInputError } from './errors'
+import type { AttemptEvent } from './events'
+import { driveConfig, sameConfig } from './functions'
+import { isDrivePowerPoint } from './points'
+import {
+  crossCheckSettings,
+  settingDef,
+  SETTINGS,
+  validateSetting,
+  type SettingKey,
+  type SettingValue,
+  type SettingValues,
+} from './settings'
+import { settle } from './settle'
+import { advanceTo, type BreakpointSink } from './time'
+import type { BreakpointKind, DeviceState, EventMessage, SimState } from './types'
+
+function withDrive(state: SimState, drive: DrivePlain): SimState {
+  return drive === state.drive ? state : { ...state, drive }
+}
+
+
+function refuse(state: SimState, message: EventMessage): SimState {
+  return { ...state, messages: [message] }
+}
+
+function withDevice(state: SimState, id: string, change: Partial<DeviceState>): SimState {
+  return { ...state, devices: { ...state.devices, [id]: { ...state.devices[id], ...change } } }
+}
+
+function deviceFor(
+  state: SimState,
+  id: string,
+  kinds: readonly DeviceState['spec']['kind'][],
+  action: string,
+): DeviceState | EventMessage {
+  const device = state.devices[id]
+  if (!device) return { code: 'unknownDevice', text: `There is no device "${id}" on this panel.` }
+  if (!kinds.includes(device.spec.kind)) {
+    return { code: 'wrongDeviceKind', text: `${device.spec.label} is a ${device.spec.kind}: it cannot be ${action}.` }
+  }
+  return device
+}
+
+function isKnownPoint(state: SimState, point: string): boolean {
+  return pointsOf(state).index.has(point) || isDrivePowerPoint(point)
+}
+
+function saveSettings(state: SimState): SimState {
+  if (!state.bus.controlOn) {
+    return refuse(state, {
+      code: 'saveNeedsPower',
+      text: 'The drive is not powered (keypad dark): settings cannot be saved. Your edits are kept.',
+    })
+  }
+  const messages: EventMessage[] = []
+  const turning = state.drive.value.control !== 'stopped'
+  const candidate: Record<string, SettingValue> = { ...state.settings.active }
+  const accepted: SettingKey[] = []
+  const refused: Partial<Record<SettingKey, SettingValue>> = {}
+  for (const def of SETTINGS) {
+    const key = def.key as SettingKey
+    if (!(key in state.settings.pending)) continue
+    const value = state.settings.pending[key]
+    const check = validateSetting(key, value)
+    if (!check.ok) {
+      messages.push({ code: 'settingRefused', key, text: check.message })
+      refused[key] = value
+    } else if (turning && !settingDef(key).changeWhileRunning && check.value !== state.settings.active[key]) {
+      messages.push({ code: 'settingRefused', key, text: `Stop the drive before changing ${def.label.toLowerCase()}.` })
+      refused[key] = value
+    } else {
+      candidate[key] = check.value
+      accepted.push(key)
+    }
+  }
+  for (const problem of crossCheckSettings(candidate as SettingValues)) {
+    for (const key of problem.keys) {
+      if (!accepted.includes(key)) continue
+      accepted.splice(accepted.indexOf(key), 1)
+      candidate[key] = state.settings.active[key]
+      refused[key] = state.settings.pending[key]
+      messages.push({ code: 'settingRefused', key, text: problem.message })
+    }
+  }
+  messages.push({
+    code: 'settingsSaved',
+    text:
+      accepted.length === 1 ? 'Saved 1 setting.' : `Saved ${accepted.length} settings.`,
+  })
+  const active = candidate as SettingValues
+  let next: SimState = { ...state, settings: { active, pending: refused }, messages }
+  const config = driveConfig(active)
+  if (!sameConfig(config, next.drive.context.config)) {
+    next = withDrive(next, sendDrive(next.drive, { type: 'CONFIGURE', config }))
+  }
+  return next
+}
+
+function pressKey(state: SimState, key: 'run' | 'stop' | 'reset'): SimState {
+  if (!state.bus.controlOn) return refuse(state, { code: 'keypadDark', text: 'The keypad is dark: the drive has no power.' })
+  const next = withDrive(state, sendDrive(state.drive, { type: 'KEY', key }))
+  if (key === 'reset' && state.drive.value.fault === 'tripped' && next.drive.value.fault === 'tripped') {
+    return refuse(next, {
+      code: 'resetRefused',
+      text: 'Reset refused: the cause of the fault is still there. Find and clear it first.',
+    })
+  }
+  return next
+}
+
+function powerOn(state: SimState): SimState {
+  if (state.power.on) return state
+  if (state.power.locked) {
+    return refuse(state, {
+      code: 'powerOnLocked',
+      text: 'The disconnect is locked off. Remove your lock only when work is finished and everyone is clear.',
+    })
+  }
+  const volts = busVoltsAt(state.bus, state.t, state.lineVolts)
+  const next: SimState = {
+    ...state,
+    power: { ...state.power, on: true },
+    bus: { mode: 'charging', since: state.t, volts, controlOn: state.bus.controlOn },
+  }
+  return withDrive(next, sendDrive(next.drive, { type: 'POWER_ON' }))
+}
+
+function powerOff(state: SimState): SimState {
+  if (!state.power.on) return state
+  const volts = busVoltsAt(state.bus, state.t, state.lineVolts)
+  const controlOn = state.bus.controlOn
+  const next: SimState = {
+    ...state,
+    power: { ...state.power, on: false },
+    bus: { mode: controlOn ? 'decayLoaded' : 'decayIdle', since: state.t, volts, controlOn },
+  }
+  return withDrive(next, sendDrive(next.drive, { type: 'POWER_OFF', controlOn }))
+}
+
+function applyToState(state: SimState, event: AttemptEvent): SimState {
+  switch (event.type) {
+    case 'wire.added': {
+      if (state.wires.some((w) => w.id === event.id)) {
+        return refuse(state, { code: 'wireRefused', text: `A wire called "${event.id}" is already fitted.` })
+      }
+      for (const point of [event.from, event.to]) {
+        if (isDrivePowerPoint(point)) {
+          return refuse(state, {
+            code: 'wireRefused',
+            text: 'Power terminals are not wired on this panel; measure them with the meter.',
+          })
+        }
+        if (!pointsOf(state).index.has(point)) {
+          return refuse(state, { code: 'unknownPoint', text: `There is no terminal "${point}" on this panel.` })
+        }
+      }
+      if (event.from === event.to) {
+        return refuse(state, { code: 'wireRefused', text: 'A wire needs two different terminals.' })
+      }
+      const { id, from, to, colour } = event
+      return { ...state, wires: [...state.wires, { id, from, to, colour }] }
+    }
+    case 'wire.removed': {
+      if (!state.wires.some((w) => w.id === event.id)) {
+        return refuse(state, { code: 'unknownWire', text: `There is no wire "${event.id}".` })
+      }
+      return {
+        ...state,
+        wires: state.wires.filter((w) => w.id !== event.id),
+        brokenWires: state.brokenWires.filter((id) => id !== event.id),
+      }
+    }
+    case 'device.pressed':
+    case 'device.released': {
+      const device = deviceFor(state, event.device, ['pushbutton'], 'pressed')
+      if (!('spec' in device)) return refuse(state, device)
+      const pressed = event.type === 'device.pressed'
+      return device.pressed === pressed ? state : withDevice(state, event.device, { pressed })
+    }
+    case 'device.switched': {
+      const device = deviceFor(state, event.device, ['selector'], 'switched')
+      if (!('spec' in device)) return refuse(state, device)
+      return withDevice(state, event.device, { position: event.position })
+    }
+    case 'device.turned': {
+      const device = deviceFor(state, event.device, ['potentiometer'], 'turned')
+      if (!('spec' in device)) return refuse(state, device)
+      return withDevice(state, event.device, { position: event.position })
+    }
+    case 'device.contactFitted': {
+      const device = deviceFor(state, event.device, ['pushbutton', 'selector'], 'fitted with a contact block')
+      if (!('spec' in device)) return refuse(state, device)
+      return withDevice(state, event.device, { contact: event.contact, fault: 'none' })
+    }
+    case 'fuse.replaced':
+      return state.fuseBlown ? { ...state, fuseBlown: false } : state
+    case 'setting.changed':
+      return {
+        ...state,
+        settings: { ...state.settings, pending: { ...state.settings.pending, [event.key]: event.value } },
+      }
+    case 'settings.saved':
+      return saveSettings(state)
+    case 'power.on':
+      return powerOn(state)
+    case 'power.off':
+      return powerOff(state)
+    case 'lock.applied':
+      if (state.power.on) {
+        return refuse(state, { code: 'lockNeedsPowerOff', text: 'Switch the disconnect off before applying your lock.' })
+      }
+      return state.power.locked ? state : { ...state, power: { ...state.power, locked: true } }
+    case 'lock.removed':
+      return state.power.locked ? { ...state, power: { ...state.power, locked: false } } : state
+    case 'meter.probes': {
+      for (const point of [event.red, event.black]) {
+        if (point !== null && !isKnownPoint(state, point)) {
+          return refuse(state, { code: 'unknownPoint', text: `There is no terminal "${point}" to probe.` })
+        }
+      }
+      return { ...state, meter: { red: event.red, black: event.black } }
+    }
+    case 'keypad.key':
+      if (event.key === 'run' || event.key === 'stop' || event.key === 'reset') return pressKey(state, event.key)
+      return state
+    case 'hint.revealed':
+    case 'attempt.ended':
+      return state
+  }
+}
+
+function needsSettling(before: SimState, after: SimState): boolean {
+  return (
+    before.devices !== after.devices ||
+    before.wires !== after.wires ||
+    before.brokenWires !== after.brokenWires ||
+    before.fuseBlown !== after.fuseBlown ||
+    before.settings.active !== after.settings.active ||
+    before.drive !== after.drive ||
+    before.power !== after.power ||
+    before.bus !== after.bus
+  )
+}
+
+function applyEventWith(state: SimState, event: AttemptEvent, sink: BreakpointSink): SimState {
+  if (!Number.isInteger(event.t) || event.t < state.t) {
+    throw new ModelInputError(
+      `Event "${event.type}" at ${event.t} ms is before the simulation time ${state.t} ms (events must be in order).`,
+    )
+  }
+  const current = advanceTo(state, event.t, sink)
+  const cleared = current.messages.length > 0 ? { ...current, messages: [] } : current
+  const next = applyToState(cleared, event)
+  // Events that touch nothing physical (meter probes, pending edits, navigation keys, hints) need no settling.
+  if (!needsSettling(current, next)) return next
+  return settle(next, event.t, current.drive.value)
+}
+
+export function applyEvent(state: SimState, event: AttemptEvent): SimState {
+  return applyEventWith(state, event, undefined)
+}
+
+/** applyEvent that also reports the breakpoints passed on the way (for replay). */
+export function applyEventCollecting(
+  state: SimState,
+  event: AttemptEvent,
+  sink: { t: number; what: BreakpointKind }[],
+): SimState {
+  return applyEventWith(state, event, sink)
+}

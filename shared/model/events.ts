@@ -1,0 +1,62 @@
+// Attempt events: the log an attempt is made of. Validated at the edge with these schemas.
+import { z } from 'zod'
+import { CONTACT_TYPES, WIRE_COLOURS, pointIdSchema } from './setup'
+import { SETTING_KEYS } from './settings'
+
+const t = z.number().int().min(0).max(7 * 24 * 3600 * 1000)
+const id = z.string().min(1).max(64)
+
+export const KEYPAD_KEYS = ['run', 'stop', 'reset', 'up', 'down', 'left', 'right', 'enter', 'back'] as const
+export type KeypadKey = (typeof KEYPAD_KEYS)[number]
+
+export const attemptEventSchema = z.discriminatedUnion('type', [
+  z.object({
+    t,
+    type: z.literal('wire.added'),
+    id: id.regex(/^[A-Za-z0-9_-]+$/),
+    from: pointIdSchema,
+    to: pointIdSchema,
+    colour: z.enum(WIRE_COLOURS),
+  }),
+  z.object({ t, type: z.literal('wire.removed'), id }),
+  z.object({ t, type: z.literal('device.pressed'), device: id }),
+  z.object({ t, type: z.literal('device.released'), device: id }),
+  z.object({ t, type: z.literal('device.switched'), device: id, position: z.union([z.literal(0), z.literal(1)]) }),
+  z.object({ t, type: z.literal('device.turned'), device: id, position: z.number().min(0).max(1) }),
+  z.object({ t, type: z.literal('device.contactFitted'), device: id, contact: z.enum(CONTACT_TYPES) }),
+  z.object({ t, type: z.literal('fuse.replaced') }),
+  z.object({
+    t,
+    type: z.literal('setting.changed'),
+    key: z.enum(SETTING_KEYS),
+    value: z.union([z.number().finite(), z.string().max(32), z.boolean()]),
+  }),
+  z.object({ t, type: z.literal('settings.saved') }),
+  z.object({ t, type: z.literal('power.on') }),
+  z.object({ t, type: z.literal('power.off') }),
+  z.object({ t, type: z.literal('lock.applied') }),
+  z.object({ t, type: z.literal('lock.removed') }),
+  z.object({ t, type: z.literal('meter.probes'), red: pointIdSchema.nullable(), black: pointIdSchema.nullable() }),
+  z.object({ t, type: z.literal('keypad.key'), key: z.enum(KEYPAD_KEYS) }),
+  z.object({ t, type: z.literal('hint.revealed'), hintId: id }),
+  z.object({ t, type: z.literal('attempt.ended') }),
+])
+export type AttemptEvent = z.infer<typeof attemptEventSchema>
+export type AttemptEventType = AttemptEvent['type']
+
+/** A whole log: events in time order (equal times keep their order). */
+export const attemptLogSchema = z
+  .array(attemptEventSchema)
+  .max(200_000)
+  .superRefine((events, ctx) => {
+    for (let i = 1; i < events.length; i++) {
+      if (events[i].t < events[i - 1].t) {
+        ctx.addIssue({
+          code: 'custom',
+          path: [i, 't'],
+          message: `event ${i} at ${events[i].t} ms is earlier than the event before it (${events[i - 1].t} ms)`,
+        })
+        return
+      }
+    }
+  })

@@ -1,0 +1,93 @@
+// From input ON/OFF states and the saved settings to the drive's logical signals and configuration.
+import { DIGITAL_INPUT_NUMBERS } from './points'
+import { inputFunctionKey, type InputFunction, type SettingValues } from './settings'
+import type { DriveConfig, DriveSignals } from './types'
+
+const functionsCache = new WeakMap<SettingValues, InputFunction[]>()
+
+/** Function of DI1..DI6 (cached per settings object: settings are replaced, never mutated). */
+export function inputFunctions(settings: SettingValues): InputFunction[] {
+  let fns = functionsCache.get(settings)
+  if (!fns) {
+    fns = DIGITAL_INPUT_NUMBERS.map((n) => settings[inputFunctionKey(n)] as InputFunction)
+    functionsCache.set(settings, fns)
+  }
+  return fns
+}
+
+const levelsCache = new WeakMap<readonly boolean[], { settings: SettingValues; levels: Record<InputFunction, boolean> }>()
+
+/** ON if any input with that function is ON (cached per inputs array and settings object). */
+export function functionLevels(settings: SettingValues, inputs: readonly boolean[]): Record<InputFunction, boolean> {
+  const cached = levelsCache.get(inputs)
+  if (cached && cached.settings === settings) return cached.levels
+  const levels: Record<InputFunction, boolean> = {
+    none: false,
+    run: false,
+    start: false,
+    stop: false,
+    raise: false,
+    lower: false,
+    reverse: false,
+    faultReset: false,
+    externalFault: false,
+    preset: false,
+  }
+  const fns = inputFunctions(settings)
+  for (let i = 0; i < fns.length; i++) if (inputs[i]) levels[fns[i]] = true
+  levelsCache.set(inputs, { settings, levels })
+  return levels
+}
+
+export function isAssigned(settings: SettingValues, fn: InputFunction): boolean {
+  return inputFunctions(settings).includes(fn)
+}
+
+/**
+ * The signals the drive logic sees. The external-fault input is fail-safe (normally closed): the
+ * fault is present while the assigned input is OFF (common practice for monitoring contacts).
+ */
+export function driveSignals(settings: SettingValues, inputs: readonly boolean[], controlOn: boolean): DriveSignals {
+  const levels = functionLevels(settings, inputs)
+  const externalFault = controlOn && isAssigned(settings, 'externalFault') && !levels.externalFault
+  let cached = signalsCache.get(levels)
+  if (!cached || cached.externalFault !== externalFault) {
+    cached = {
+      run: levels.run,
+      start: levels.start,
+      stop: levels.stop,
+      reverse: levels.reverse,
+      faultReset: levels.faultReset,
+      externalFault,
+    }
+    signalsCache.set(levels, cached)
+  }
+  return cached
+}
+
+const signalsCache = new WeakMap<Record<InputFunction, boolean>, DriveSignals>()
+
+export function driveConfig(settings: SettingValues): DriveConfig {
+  const fns = inputFunctions(settings)
+  return {
+    source: settings['control.source'],
+    stopMode: settings['stop.mode'],
+    runMode: fns.includes('run') ? 'run' : fns.includes('start') ? 'start' : 'none',
+    reverseAllowed: settings['direction.reverseAllowed'],
+  }
+}
+
+export function sameSignals(a: DriveSignals, b: DriveSignals): boolean {
+  return (
+    a.run === b.run &&
+    a.start === b.start &&
+    a.stop === b.stop &&
+    a.reverse === b.reverse &&
+    a.faultReset === b.faultReset &&
+    a.externalFault === b.externalFault
+  )
+}
+
+export function sameConfig(a: DriveConfig, b: DriveConfig): boolean {
+  return a.source === b.source && a.stopMode === b.stopMode && a.runMode === b.runMode && a.reverseAllowed === b.reverseAllowed
+}

@@ -1,0 +1,13 @@
+// Public interface of the drive, control-circuit and motor model (contract: README.md beside this file).
+export * from './points'
+export * from './settings'
+export * from './setup'
+export * from './events'
+export type * from './types'
+export { createSimulation, applyEvent, advance } from './simulation'
+export { readCircuit, readDrive } from './readings'
+export { replay, sampleTimeline } from './replay'
+export { simulationMachine } from './simulationMachine'
+export { driveMachine } from './driveMachine'
+export { synchronousRpm, shaftRpm, frequencyForRpm, slipFraction } from './motor'
+export { ModelInputError } from './errors'

@@ -1,0 +1,230 @@
+// Settling the model at one instant: circuit → inputs → drive machine → continuous pieces → machine,
+// repeated until nothing changes. Works on a private shallow copy of the state (one per step).
+import { circuitConfig, pointsOf } from './circuit/config'
+import { solveCircuit } from './circuit/controlCircuit'
+import { inputRegion, nextInputState } from './circuit/inputThresholds'
+import { NO_SIGNALS, type DriveEvent } from './driveMachine'
+import { sendDrive } from './driveTransitions'
+import { driveSignals, functionLevels, sameSignals } from './functions'
+import { decelerationOf, isAtStandstill, planSpeed, referenceAt, speedAt, trendOf, type SpeedPlan } from './motion'
+import { alarmsFor } from './notices'
+import type { SettingValues } from './settings'
+import type { ControlState, DriveMachineValue, ReferencePiece, SimState } from './types'
+
+const RUNNING: ReadonlySet<ControlState> = new Set(['accelerating', 'atSpeed', 'decelerating'])
+/** Output stage on: running, or ramping down to a controlled stop. */
+const OUTPUT_ON: ReadonlySet<ControlState> = new Set(['accelerating', 'atSpeed', 'decelerating', 'rampStopping'])
+
+export function isRunning(control: ControlState): boolean {
+  return RUNNING.has(control)
+}
+export function isOutputOn(control: ControlState): boolean {
+  return OUTPUT_ON.has(control)
+}
+
+function relayCondition(value: DriveMachineValue, fn: SettingValues['relay.function']): boolean {
+  switch (fn) {
+    case 'running':
+      return isOutputOn(value.control)
+    case 'ready':
+      return value.power === 'ready' && value.fault === 'clear'
+    case 'fault':
+      return value.fault === 'tripped'
+    case 'atSpeed':
+      return value.control === 'atSpeed'
+  }
+}
+
+/** Re-solves the control network if its configuration changed; updates inputs (with hysteresis). */
+function refreshCircuit(draft: SimState): void {
+  const controlOn = draft.bus.controlOn
+  const relay = controlOn && relayCondition(draft.drive.value, draft.settings.active['relay.function'])
+  const config = circuitConfig(draft, controlOn, relay)
+  if (config.key === draft.circuit.key) return
+  const solution = solveCircuit(config)
+  let inputsChanged = false
+  const inputs = solution.inputs.map((input, i) => {
+    const on = nextInputState(draft.inputs[i], inputRegion(input.volts, input.milliamps))
+    if (on !== draft.inputs[i]) inputsChanged = true
+    return on
+  })
+  const { index } = pointsOf(draft)
+  const analogVolts =
+    solution.netVolts[solution.netOfPoint[index.get('drive.ai')!]] -
+    solution.netVolts[solution.netOfPoint[index.get('drive.acom')!]]
+  if (inputsChanged) draft.inputs = inputs
+  draft.circuit = {
+    key: config.key,
+    analogVolts,
+    supplyOverloaded: solution.supplyOverloaded,
+    referenceOverloaded: solution.referenceOverloaded,
+    relayClosed: relay,
+  }
+}
+
+function trackRaiseLowerOrder(draft: SimState): void {
+  const levels = functionLevels(draft.settings.active, draft.inputs)
+  const raise = draft.bus.controlOn && levels.raise
+  const lower = draft.bus.controlOn && levels.lower
+  let first = draft.raiseLowerFirst
+  if (raise && !lower) first = 'raise'
+  else if (lower && !raise) first = 'lower'
+  else if (!raise && !lower) first = null
+  if (first !== draft.raiseLowerFirst) draft.raiseLowerFirst = first
+}
+
+/** +1 raise, −1 lower, 0 neither (or both held with "hold"). */
+function raiseLowerDirection(state: SimState): number {
+  if (!state.bus.controlOn) return 0
+  const levels = functionLevels(state.settings.active, state.inputs)
+  if (levels.raise && levels.lower) {
+    if (state.settings.active['raiseLower.bothHeld'] === 'hold') return 0
+    return state.raiseLowerFirst === 'raise' ? 1 : state.raiseLowerFirst === 'lower' ? -1 : 0
+  }
+  return levels.raise ? 1 : levels.lower ? -1 : 0
+}
+
+export interface ActiveReference {
+  source: 'keypad' | 'analog' | 'raiseLower' | 'preset'
+  hz: number
+  /** Hz per ms (raise/lower only). */
+  slope: number
+}
+
+/** The reference the drive follows now, from the control place and the remote source. */
+export function activeReference(state: SimState, emop: ReferencePiece, t: number): ActiveReference {
+  const a = state.settings.active
+  if (a['control.source'] === 'keypad') return { source: 'keypad', hz: a['reference.keypadSetpoint'], slope: 0 }
+  if (state.bus.controlOn && functionLevels(a, state.inputs).preset) {
+    return { source: 'preset', hz: a['preset.speed1'], slope: 0 }
+  }
+  switch (a['reference.remoteSource']) {
+    case 'keypad':
+      return { source: 'keypad', hz: a['reference.keypadSetpoint'], slope: 0 }
+    case 'preset':
+      return { source: 'preset', hz: a['preset.speed1'], slope: 0 }
+    case 'analog': {
+      // 0–10 V scaled between minimum and maximum speed.
+      const fraction = Math.min(1, Math.max(0, state.circuit.analogVolts / 10))
+      return { source: 'analog', hz: a['speed.min'] + (a['speed.max'] - a['speed.min']) * fraction, slope: 0 }
+    }
+    case 'raiseLower':
+      return { source: 'raiseLower', hz: referenceAt(emop, t), slope: emop.slope }
+  }
+}
+
+function clamp(value: number, min: number, max: number): number {
+  return Math.min(max, Math.max(min, value))
+}
+
+/** Clamps, and treats a value within rounding of a limit as on it (a limit breakpoint lands there). */
+function snapToLimits(value: number, min: number, max: number): number {
+  const tolerance = 1e-9 * Math.max(1, max)
+  if (value <= min + tolerance) return min
+  if (value >= max - tolerance) return max
+  return value
+}
+
+export function rampRates(settings: SettingValues) {
+  return {
+    accel: settings['speed.max'] / (settings['ramp.accelSeconds'] * 1000),
+    decel: settings['speed.max'] / (settings['ramp.decelSeconds'] * 1000),
+  }
+}
+
+/** Re-anchors the reference and speed pieces at `now` for the drive's current state. */
+function replan(draft: SimState, now: number): void {
+  const a = draft.settings.active
+  const min = a['speed.min']
+  const max = a['speed.max']
+  const control = draft.drive.value.control
+  const running = isRunning(control)
+  const emopHz = snapToLimits(referenceAt(draft.reference, now), min, max)
+  let emopSlope = 0
+  const raiseLowerActs =
+    running && a['control.source'] === 'terminals' && a['reference.remoteSource'] === 'raiseLower'
+  if (raiseLowerActs && !functionLevels(a, draft.inputs).preset) {
+    const direction = raiseLowerDirection(draft)
+    if ((direction > 0 && emopHz < max) || (direction < 0 && emopHz > min)) {
+      emopSlope = (direction * a['raiseLower.rate']) / 1000
+    }
+  }
+  const reference: ReferencePiece = { since: now, hz: emopHz, slope: emopSlope }
+  const active = activeReference(draft, reference, now)
+  const sign = draft.drive.context.direction === 'reverse' ? -1 : 1
+  const targetHz = running ? sign * clamp(active.hz, min, max) : 0
+  const targetSlope = running ? sign * active.slope : 0
+  const plan: SpeedPlan = control === 'stopped' ? 'stopped' : control === 'coasting' ? 'coasting' : 'toTarget'
+  const hzNow = speedAt(draft.speed, now, draft.machine.coastSeconds * 1000)
+  draft.reference = reference
+  draft.speed = planSpeed(hzNow, now, plan, targetHz, targetSlope, rampRates(a))
+}
+
+/** Raise/lower memory: back to minimum at a stop or at power loss when the settings say so. */
+function applyMemories(before: DriveMachineValue, draft: SimState, now: number): void {
+  const after = draft.drive.value
+  if (after === before) return
+  const a = draft.settings.active
+  const stopped = isRunning(before.control) && !isRunning(after.control) && a['raiseLower.memoryAtStop'] === 'reset'
+  const powerLost = before.power !== 'off' && after.power === 'off' && a['raiseLower.memoryAtPowerLoss'] === 'reset'
+  if (stopped || powerLost) draft.reference = { since: now, hz: a['speed.min'], slope: 0 }
+}
+
+/** The event that tells the machine what the continuous part is doing, if it does not know yet. */
+function machineFollowsMotion(state: SimState): DriveEvent | null {
+  const control = state.drive.value.control
+  const speed = state.speed
+  if (isRunning(control)) {
+    const trend = trendOf(speed)
+    const wanted = trend === 'up' ? 'accelerating' : trend === 'down' ? 'decelerating' : 'atSpeed'
+    if (wanted !== control) return { type: 'TREND', trend }
+  }
+  if (isOutputOn(control) && state.drive.value.fault === 'clear' && state.machine.minDecelSeconds > 0) {
+    const tolerated = state.settings.active['speed.max'] / (state.machine.minDecelSeconds * 1000)
+    if (decelerationOf(speed) > tolerated * (1 + 1e-9)) return { type: 'OVERVOLTAGE' }
+  }
+  if (control === 'rampStopping' && speed.mode === 'still') return { type: 'STANDSTILL' }
+  if (control === 'coasting' && (speed.mode === 'still' || isAtStandstill(speed.hz))) return { type: 'STANDSTILL' }
+  return null
+}
+
+function send(draft: SimState, event: DriveEvent, now: number): void {
+  const before = draft.drive.value
+  const next = sendDrive(draft.drive, event)
+  if (next === draft.drive) return
+  draft.drive = next
+  applyMemories(before, draft, now)
+}
+
+/**
+ * Settles a state at `now` (ms, fractional at breakpoints). `before` is the drive state before the
+ * step began (for the raise/lower memories). Returns a new state object.
+ */
+export function settle(input: SimState, now: number, before: DriveMachineValue = input.drive.value): SimState {
+  const draft: SimState = { ...input }
+  applyMemories(before, draft, now)
+  for (let round = 0; round < 32; round++) {
+    const startDrive = draft.drive
+    const startKey = draft.circuit.key
+    refreshCircuit(draft)
+    trackRaiseLowerOrder(draft)
+    const a = draft.settings.active
+    const signals = draft.bus.controlOn ? driveSignals(a, draft.inputs, true) : NO_SIGNALS
+    if (!sameSignals(signals, draft.drive.context.signals)) send(draft, { type: 'SIGNALS', signals }, now)
+    if (draft.bus.controlOn && draft.circuit.supplyOverloaded !== draft.drive.context.causes.supplyOverload) {
+      send(draft, { type: 'SUPPLY', overloaded: draft.circuit.supplyOverloaded }, now)
+    }
+    const alarmsPresent = alarmsFor(a, draft.circuit.referenceOverloaded).length > 0
+    if (alarmsPresent !== (draft.drive.value.alarm === 'present')) {
+      send(draft, { type: 'ALARMS', present: alarmsPresent }, now)
+    }
+    replan(draft, now)
+    const follow = machineFollowsMotion(draft)
+    if (follow) {
+      send(draft, follow, now)
+      replan(draft, now)
+    }
+    if (draft.drive === startDrive && draft.circuit.key === startKey) return draft
+  }
+  return draft
+}

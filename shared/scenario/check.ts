@@ -1,0 +1,279 @@
+// checkScenario: the schema plus the checks a schema cannot express (references that must exist,
+// settings against the catalogue, objectives that could never be met). Every problem has a JSON path.
+import {
+  crossCheckSettings,
+  DEFAULT_SETTINGS,
+  DEVICE_TERMINALS,
+  frequencyForRpm,
+  INPUT_FUNCTIONS,
+  isDriveControlPoint,
+  isDrivePowerPoint,
+  isSettingKey,
+  settingDef,
+  validateSetting,
+  type SettingValues,
+} from '../model'
+import type { Objective } from './objectiveSchema'
+import { scenarioSchema, type Scenario, type ScenarioDevice } from './schema'
+
+export interface ScenarioProblem {
+  /** JSON path, e.g. `$.objectives[3].target`. */
+  path: string
+  message: string
+}
+
+export type ScenarioCheck = { ok: true; scenario: Scenario } | { ok: false; problems: ScenarioProblem[] }
+
+export function jsonPath(path: readonly PropertyKey[]): string {
+  return path.reduce<string>((acc, part) => {
+    if (typeof part === 'number') return `${acc}[${part}]`
+    const key = String(part)
+    return /^[A-Za-z_$][\w$]*$/.test(key) ? `${acc}.${key}` : `${acc}[${JSON.stringify(key)}]`
+  }, '$')
+}
+
+export function checkScenario(input: unknown): ScenarioCheck {
+  const parsed = scenarioSchema.safeParse(input)
+  if (!parsed.success) {
+    return {
+      ok: false,
+      problems: parsed.error.issues.map((issue) => ({ path: jsonPath(issue.path), message: issue.message })),
+    }
+  }
+  const problems = semanticProblems(parsed.data)
+  return problems.length === 0 ? { ok: true, scenario: parsed.data } : { ok: false, problems }
+}
+
+function semanticProblems(scenario: Scenario): ScenarioProblem[] {
+  const problems: ScenarioProblem[] = []
+  const add = (path: readonly PropertyKey[], message: string) =>
+    problems.push({ path: jsonPath(path), message })
+  const devices = new Map<string, ScenarioDevice>()
+
+  scenario.start.devices.forEach((device, i) => {
+    if (device.id === 'drive' || device.id === 'meter')
+      add(['start', 'devices', i, 'id'], `"${device.id}" is reserved`)
+    if (devices.has(device.id)) add(['start', 'devices', i, 'id'], `device id "${device.id}" is used twice`)
+    devices.set(device.id, device)
+  })
+  const isPoint = (point: string) => {
+    if (isDriveControlPoint(point)) return true
+    const [deviceId, terminal] = point.split('.')
+    const device = devices.get(deviceId)
+    return device !== undefined && DEVICE_TERMINALS[device.kind].includes(terminal)
+  }
+  const wireIds = new Set<string>()
+  scenario.start.wires.forEach((wire, i) => {
+    if (wireIds.has(wire.id)) add(['start', 'wires', i, 'id'], `wire id "${wire.id}" is used twice`)
+    wireIds.add(wire.id)
+    for (const end of ['from', 'to'] as const) {
+      const point = wire[end]
+      if (isDrivePowerPoint(point))
+        add(['start', 'wires', i, end], `${point} is a power terminal and cannot be wired`)
+      else if (!isPoint(point))
+        add(['start', 'wires', i, end], `${point} is not a terminal of the drive or of a declared device`)
+    }
+    if (wire.from === wire.to) add(['start', 'wires', i, 'to'], 'a wire must join two different points')
+  })
+
+  // Settings: known keys, values in range, then the rules between settings.
+  const merged: Record<string, unknown> = { ...DEFAULT_SETTINGS }
+  for (const [key, value] of Object.entries(scenario.start.settings)) {
+    const check = validateSetting(key, value)
+    if (!check.ok) add(['start', 'settings', key], check.message)
+    else merged[key] = value
+  }
+  for (const problem of crossCheckSettings(merged as SettingValues)) {
+    // Point at a setting the scenario itself gives, when one of those is involved.
+    const key = problem.keys.find((k) => k in scenario.start.settings) ?? problem.keys[0]
+    add(['start', 'settings', key], problem.message)
+  }
+
+  scenario.faults.forEach((fault, i) => {
+    if (fault.kind === 'brokenWire') {
+      if (!wireIds.has(fault.wireId))
+        add(['faults', i, 'wireId'], `no starting wire has the id "${fault.wireId}"`)
+    } else if (fault.kind !== 'blownFuse') {
+      const device = devices.get(fault.device)
+      if (!device) add(['faults', i, 'device'], `no device has the id "${fault.device}"`)
+      else if (device.kind === 'potentiometer')
+        add(['faults', i, 'device'], `${fault.device} is a potentiometer and has no contact`)
+    }
+  })
+
+  const hintIds = new Set<string>()
+  scenario.hints.forEach((hint, i) => {
+    if (hintIds.has(hint.id)) add(['hints', i, 'id'], `hint id "${hint.id}" is used twice`)
+    hintIds.add(hint.id)
+  })
+
+  const limits = speedLimits(scenario, merged as SettingValues)
+  const objectiveIds = new Set<string>()
+  scenario.objectives.forEach((objective, i) => {
+    if (objectiveIds.has(objective.id))
+      add(['objectives', i, 'id'], `objective id "${objective.id}" is used twice`)
+    objectiveIds.add(objective.id)
+    objective.hints?.forEach((hintId, j) => {
+      if (!hintIds.has(hintId)) add(['objectives', i, 'hints', j], `no hint has the id "${hintId}"`)
+    })
+    checkObjective(objective, (path, message) => add(['objectives', i, ...path], message), {
+      scenario,
+      devices,
+      isPoint,
+      limits,
+      merged: merged as SettingValues,
+    })
+  })
+
+  const total = scenario.objectives.reduce((a, o) => a + o.weight, 0)
+  if (scenario.passMark > total) {
+    add(
+      ['passMark'],
+      `the pass mark (${scenario.passMark}) is above the total weight of the objectives (${total})`,
+    )
+  }
+  return problems
+}
+
+interface ObjectiveCheckContext {
+  scenario: Scenario
+  devices: Map<string, ScenarioDevice>
+  isPoint: (point: string) => boolean
+  limits: { minHz: number; maxHz: number }
+  merged: SettingValues
+}
+
+/**
+ * The speed range an attempt can reach: the starting limits, or the limits the scenario itself
+ * asks for with a settingEquals objective (the apprentice is not expected to go past either).
+ */
+function speedLimits(scenario: Scenario, merged: SettingValues): { minHz: number; maxHz: number } {
+  const asked = (key: 'speed.min' | 'speed.max') => {
+    const objective = scenario.objectives.find((o) => o.kind === 'settingEquals' && o.key === key)
+    return objective && objective.kind === 'settingEquals' && typeof objective.value === 'number'
+      ? objective.value
+      : merged[key]
+  }
+  return { minHz: asked('speed.min'), maxHz: asked('speed.max') }
+}
+
+function checkObjective(
+  objective: Objective,
+  add: (path: readonly PropertyKey[], message: string) => void,
+  { scenario, devices, isPoint, limits, merged }: ObjectiveCheckContext,
+): void {
+  const needDevice = (path: readonly PropertyKey[], id: string, kinds: ScenarioDevice['kind'][]) => {
+    const device = devices.get(id)
+    if (!device) add(path, `no device has the id "${id}"`)
+    else if (!kinds.includes(device.kind))
+      add(path, `${id} is a ${device.kind}; this needs a ${kinds.join(' or ')}`)
+    return device
+  }
+  switch (objective.kind) {
+    case 'settingEquals': {
+      const check = validateSetting(objective.key, objective.value)
+      if (check.ok) return
+      if (isSettingKey(objective.key)) add(['value'], `unreachable: ${check.message}`)
+      else add(['key'], check.message)
+      return
+    }
+    case 'settingInRange': {
+      if (!isSettingKey(objective.key)) return add(['key'], `"${objective.key}" is not a drive setting.`)
+      const def = settingDef(objective.key)
+      if (def.kind !== 'number') return add(['key'], `${def.label} is not a number setting`)
+      if (objective.min > objective.max) return add(['max'], 'max must not be below min')
+      if (objective.max < def.min || objective.min > def.max) {
+        add(['min'], `unreachable: ${def.label} can only be ${def.min} to ${def.max} ${def.unit}`)
+      }
+      return
+    }
+    case 'wiringCondition': {
+      const condition = objective.while
+      condition.held?.forEach((id, j) => needDevice(['while', 'held', j], id, ['pushbutton']))
+      condition.released?.forEach((id, j) => needDevice(['while', 'released', j], id, ['pushbutton']))
+      for (const [id, position] of Object.entries(condition.positions ?? {})) {
+        const device = needDevice(['while', 'positions', id], id, ['selector', 'potentiometer'])
+        if (device?.kind === 'selector' && position !== 0 && position !== 1) {
+          add(['while', 'positions', id], 'a selector is in position 0 or 1')
+        }
+      }
+      const { input, expect } = objective
+      if ('function' in input) {
+        if (!(INPUT_FUNCTIONS as readonly string[]).includes(input.function) || input.function === 'none') {
+          add(
+            ['input', 'function'],
+            `"${input.function}" is not an input function (${INPUT_FUNCTIONS.slice(1).join(', ')})`,
+          )
+        }
+      } else if (!isPoint(input.point)) {
+        add(
+          ['input', 'point'],
+          `${input.point} is not a control terminal of the drive or of a declared device`,
+        )
+      }
+      if (typeof expect === 'object' && expect.minVolts > expect.maxVolts)
+        add(['expect', 'maxVolts'], 'maxVolts must not be below minVolts')
+      return
+    }
+    case 'functionalCheck':
+      needDevice(['device'], objective.device, ['pushbutton'])
+      return
+    case 'speedHeld': {
+      const toHz = (rpm: number) =>
+        frequencyForRpm(
+          rpm,
+          merged['motor.poles'],
+          merged['motor.ratedFrequency'],
+          merged['motor.ratedSpeed'],
+        )
+      const lo =
+        objective.unit === 'rpm'
+          ? toHz(objective.target - objective.tolerance)
+          : objective.target - objective.tolerance
+      const hi =
+        objective.unit === 'rpm'
+          ? toHz(objective.target + objective.tolerance)
+          : objective.target + objective.tolerance
+      const shown = `${objective.target} ${objective.unit}`
+      if (lo > limits.maxHz) {
+        add(
+          ['target'],
+          `unreachable: ${shown} needs at least ${lo.toFixed(1)} Hz but the maximum speed is ${limits.maxHz} Hz`,
+        )
+      } else if (hi < limits.minHz) {
+        add(['target'], `unreachable: ${shown} is below the minimum speed of ${limits.minHz} Hz`)
+      }
+      if (objective.tolerance >= objective.target)
+        add(['tolerance'], 'the tolerance must be smaller than the target')
+      return
+    }
+    case 'stoppedBy':
+      if ((objective.fromAtLeastHz ?? 0) > limits.maxHz) {
+        add(['fromAtLeastHz'], `unreachable: above the maximum speed of ${limits.maxHz} Hz`)
+      }
+      return
+    case 'restartedWithRememberedReference':
+      if ((objective.minReferenceHz ?? 0) > limits.maxHz) {
+        add(['minReferenceHz'], `unreachable: above the maximum speed of ${limits.maxHz} Hz`)
+      }
+      return
+    case 'absenceOfVoltageProved':
+      objective.pairs?.forEach((pair, j) =>
+        pair.forEach((point, k) => {
+          if (!isDrivePowerPoint(point) && !isPoint(point))
+            add(['pairs', j, k], `${point} is not a terminal the meter can reach`)
+        }),
+      )
+      return
+    case 'faultFoundAndCleared':
+      if (objective.fault >= scenario.faults.length) {
+        add(
+          ['fault'],
+          `there is no injected fault number ${objective.fault} (the scenario has ${scenario.faults.length})`,
+        )
+      }
+      return
+    default:
+      return
+  }
+}

@@ -1,0 +1,114 @@
+// wiringCondition: judged electrically from the model's circuit solution, never from terminal names.
+// The verdict comes from the last moment the condition held with the control supply on, so the
+// wiring as finally left is what counts.
+import type { InputReading, SimState } from '../../model'
+import { pointLabel } from '../safety'
+import { formatTime, formatVolts } from '../format'
+import type { DeviceCondition, InputSelector, ObjectiveOf } from '../objectiveSchema'
+import type { AttemptTrace, Sample } from '../samples'
+import type { Evaluator } from './types'
+
+const POSITION_TOLERANCE = 1e-3
+
+function conditionHolds(condition: DeviceCondition, state: SimState): boolean {
+  const device = (id: string) => state.devices[id]
+  if (condition.held?.some((id) => !device(id)?.pressed)) return false
+  if (condition.released?.some((id) => device(id)?.pressed ?? true)) return false
+  for (const [id, position] of Object.entries(condition.positions ?? {})) {
+    const d = device(id)
+    if (!d || Math.abs(d.position - position) > POSITION_TOLERANCE) return false
+  }
+  if (condition.nothingHeld) {
+    for (const id of state.deviceOrder) {
+      if (state.devices[id].spec.kind === 'pushbutton' && state.devices[id].pressed) return false
+    }
+  }
+  return true
+}
+
+export function describeCondition(condition: DeviceCondition, state: SimState): string {
+  const label = (id: string) => state.devices[id]?.spec.label ?? id
+  const parts: string[] = []
+  for (const id of condition.held ?? []) parts.push(`${label(id)} held`)
+  for (const id of condition.released ?? []) parts.push(`${label(id)} released`)
+  for (const [id, position] of Object.entries(condition.positions ?? {})) {
+    const kind = state.devices[id]?.spec.kind
+    parts.push(
+      kind === 'potentiometer'
+        ? `${label(id)} at ${Math.round(position * 100)} %`
+        : `${label(id)} in position ${position}`,
+    )
+  }
+  if (condition.nothingHeld) parts.push('nothing pressed')
+  return parts.join(', ')
+}
+
+function selectorName(selector: InputSelector): string {
+  return 'function' in selector ? `the input assigned to ${selector.function}` : pointLabel(selector.point)
+}
+
+interface Judgement {
+  ok: boolean
+  text: string
+}
+
+function judgeMoment(
+  objective: ObjectiveOf<'wiringCondition'>,
+  sample: Sample,
+  trace: AttemptTrace,
+): Judgement {
+  const circuit = trace.circuit(sample)
+  const { expect, input } = objective
+  if ('function' in input) {
+    const assigned = circuit.inputs.filter((i) => i.function === input.function)
+    if (assigned.length === 0) return { ok: false, text: `no input was assigned to ${input.function}` }
+    const describe = (i: InputReading) =>
+      `DI${i.input} (${i.function}) was ${i.on ? 'ON' : 'OFF'} at ${formatVolts(i.volts)}`
+    if (typeof expect === 'string') {
+      const ok = assigned.every((i) => i.on === (expect === 'on'))
+      return { ok, text: assigned.map(describe).join('; ') }
+    }
+    const ok = assigned.every((i) => i.volts >= expect.minVolts && i.volts <= expect.maxVolts)
+    return { ok, text: assigned.map(describe).join('; ') }
+  }
+  const digital = circuit.inputs.find((i) => i.point === input.point)
+  if (typeof expect === 'string') {
+    if (!digital) return { ok: false, text: `${pointLabel(input.point)} is not a digital input` }
+    return {
+      ok: digital.on === (expect === 'on'),
+      text: `${pointLabel(input.point)} was ${digital.on ? 'ON' : 'OFF'} at ${formatVolts(digital.volts)}`,
+    }
+  }
+  const volts = digital
+    ? digital.volts
+    : input.point === 'drive.ai'
+      ? circuit.analogVolts
+      : (circuit.nodes[input.point] ?? 0)
+  return {
+    ok: volts >= expect.minVolts && volts <= expect.maxVolts,
+    text: `${pointLabel(input.point)} read ${formatVolts(volts)} (wanted ${formatVolts(expect.minVolts)} to ${formatVolts(expect.maxVolts)})`,
+  }
+}
+
+export const wiringCondition: Evaluator<'wiringCondition'> = (objective, { trace }) => {
+  let last: { sample: Sample; judgement: Judgement } | undefined
+  for (const sample of trace.samples) {
+    if (!conditionHolds(objective.while, sample.state)) continue
+    if (!trace.circuit(sample).supplyOn) continue
+    last = { sample, judgement: judgeMoment(objective, sample, trace) }
+  }
+  const initial = trace.samples[0].state
+  const situation = describeCondition(objective.while, initial)
+  if (!last) {
+    return {
+      met: false,
+      evidence: `Never tried with ${situation} while the control supply was on, so ${selectorName(objective.input)} was not checked.`,
+    }
+  }
+  const { sample, judgement } = last
+  return {
+    met: judgement.ok,
+    evidence: `At ${formatTime(sample.t)}, with ${situation}, ${judgement.text}.`,
+    at: sample.t,
+  }
+}

@@ -1,0 +1,8 @@
+// Public interface of the scenario format and the grading engine (see README.md beside this file).
+export * from './schema'
+export * from './objectiveSchema'
+export { checkScenario, jsonPath, type ScenarioCheck, type ScenarioProblem } from './check'
+export { toSimulationSetup } from './setup'
+export { grade, type GradeOptions, type GradeResult, type HintUse, type ObjectiveResult } from './grade'
+export { type SafetyViolation } from './safety'
+export { formatTime } from './format'

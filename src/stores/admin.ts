@@ -1,0 +1,34 @@
+// Administration: accounts and roles, the local mail outbox, the database backup.
+import { defineStore } from 'pinia'
+import {
+  outboxPageSchema,
+  userPageSchema,
+  userSchema,
+  inviteOutcomeSchema,
+  type InviteRequest,
+  type OutboxQuery,
+  type UpdateUserRequest,
+  type UserListQuery,
+} from '@shared/api'
+import { downloadFile, request } from '@/api/client'
+import { endpoints } from '@/api/endpoints'
+
+type Query = Record<string, string | number>
+
+export const useAdminStore = defineStore('admin', () => {
+  const users = (query: UserListQuery) =>
+    request(endpoints.admin.users, userPageSchema, { query: query as Query })
+  const updateUser = (id: string, body: UpdateUserRequest) =>
+    request(endpoints.admin.user(id), userSchema, { method: 'PATCH', body })
+  const inviteInstructor = (body: InviteRequest) =>
+    request(endpoints.admin.inviteInstructor, inviteOutcomeSchema, { method: 'POST', body })
+  const outbox = (query: OutboxQuery) =>
+    request(endpoints.admin.outbox, outboxPageSchema, { query: query as Query })
+
+  function downloadBackup() {
+    const stamp = new Date().toISOString().slice(0, 19).replace(/[:T]/g, '-')
+    return downloadFile(endpoints.admin.backup, `slipway-backup-${stamp}.sqlite`)
+  }
+
+  return { users, updateUser, inviteInstructor, outbox, downloadBackup }
+})

@@ -1,0 +1,55 @@
+// Assignments: for an apprentice their own (with progress), for an instructor those of a cohort.
+import { ref } from 'vue'
+import { defineStore } from 'pinia'
+import {
+  assignmentListSchema,
+  assignmentSchema,
+  assignmentStatsSchema,
+  type Assignment,
+  type CreateAssignmentRequest,
+  type UpdateAssignmentRequest,
+} from '@shared/api'
+import { request } from '@/api/client'
+import { endpoints } from '@/api/endpoints'
+
+export const useAssignmentsStore = defineStore('assignments', () => {
+  const items = ref<Assignment[]>([])
+  const loading = ref(false)
+  const error = ref<unknown>(null)
+
+  async function load(cohortId?: string) {
+    loading.value = true
+    error.value = null
+    try {
+      items.value = (
+        await request(endpoints.assignments.list, assignmentListSchema, { query: { cohortId } })
+      ).items
+    } catch (e) {
+      error.value = e
+    } finally {
+      loading.value = false
+    }
+  }
+
+  async function list(cohortId?: string) {
+    return (await request(endpoints.assignments.list, assignmentListSchema, { query: { cohortId } })).items
+  }
+
+  async function get(id: string) {
+    return request(endpoints.assignments.one(id), assignmentSchema)
+  }
+
+  async function create(cohortId: string, body: CreateAssignmentRequest) {
+    return request(endpoints.cohorts.assignments(cohortId), assignmentSchema, { method: 'POST', body })
+  }
+
+  async function update(id: string, body: UpdateAssignmentRequest) {
+    return request(endpoints.assignments.one(id), assignmentSchema, { method: 'PATCH', body })
+  }
+
+  async function stats(id: string) {
+    return request(endpoints.assignments.stats(id), assignmentStatsSchema)
+  }
+
+  return { items, loading, error, load, list, get, create, update, stats }
+})

@@ -1,0 +1,44 @@
+// Attempts: history, one attempt's detail, submission, and the instructor's feedback and overrides.
+import { defineStore } from 'pinia'
+import {
+  attemptDetailSchema,
+  attemptPageSchema,
+  attemptSummarySchema,
+  feedbackSchema,
+  type AttemptListQuery,
+  type FeedbackRequest,
+  type GradeOverrideRequest,
+  type SubmitAttemptRequest,
+} from '@shared/api'
+import { z } from 'zod'
+import { request } from '@/api/client'
+import { endpoints } from '@/api/endpoints'
+
+export const useAttemptsStore = defineStore('attempts', () => {
+  async function page(query: AttemptListQuery = {}) {
+    return request(endpoints.attempts.list, attemptPageSchema, {
+      query: query as Record<string, string | number>,
+    })
+  }
+
+  async function get(id: string) {
+    return request(endpoints.attempts.one(id), attemptDetailSchema)
+  }
+
+  async function submit(body: SubmitAttemptRequest) {
+    return request(endpoints.attempts.submit, attemptSummarySchema, { method: 'POST', body })
+  }
+
+  async function addFeedback(id: string, body: FeedbackRequest) {
+    return request(endpoints.attempts.feedback(id), z.union([feedbackSchema, z.unknown()]), {
+      method: 'POST',
+      body,
+    })
+  }
+
+  async function overrideGrade(id: string, body: GradeOverrideRequest) {
+    return request(endpoints.attempts.override(id), z.unknown(), { method: 'POST', body })
+  }
+
+  return { page, get, submit, addFeedback, overrideGrade }
+})

@@ -1,0 +1,94 @@
+// Cohorts an instructor owns, their members and invitations.
+import { ref } from 'vue'
+import { defineStore } from 'pinia'
+import {
+  cohortListSchema,
+  cohortMemberListSchema,
+  cohortSchema,
+  invitationListSchema,
+  inviteOutcomeSchema,
+  rosterImportResultSchema,
+  type Cohort,
+  type CreateCohortRequest,
+  type InviteRequest,
+  type UpdateCohortRequest,
+} from '@shared/api'
+import { request, requestVoid } from '@/api/client'
+import { endpoints } from '@/api/endpoints'
+
+export const useCohortsStore = defineStore('cohorts', () => {
+  const items = ref<Cohort[]>([])
+  const loading = ref(false)
+  const error = ref<unknown>(null)
+
+  async function load(includeArchived = false) {
+    loading.value = true
+    error.value = null
+    try {
+      items.value = (
+        await request(endpoints.cohorts.list, cohortListSchema, {
+          query: { includeArchived: String(includeArchived) },
+        })
+      ).items
+    } catch (e) {
+      error.value = e
+    } finally {
+      loading.value = false
+    }
+  }
+
+  async function get(id: string) {
+    return request(endpoints.cohorts.one(id), cohortSchema)
+  }
+
+  async function create(body: CreateCohortRequest) {
+    const cohort = await request(endpoints.cohorts.list, cohortSchema, { method: 'POST', body })
+    items.value = [cohort, ...items.value]
+    return cohort
+  }
+
+  async function update(id: string, body: UpdateCohortRequest) {
+    const cohort = await request(endpoints.cohorts.one(id), cohortSchema, { method: 'PATCH', body })
+    items.value = items.value.map((c) => (c.id === id ? cohort : c))
+    return cohort
+  }
+
+  async function members(id: string) {
+    return (await request(endpoints.cohorts.members(id), cohortMemberListSchema)).items
+  }
+
+  async function removeMember(id: string, userId: string) {
+    await requestVoid(endpoints.cohorts.member(id, userId), { method: 'DELETE' })
+  }
+
+  async function invitations(id: string) {
+    return (await request(endpoints.cohorts.invitations(id), invitationListSchema)).items
+  }
+
+  async function invite(id: string, body: InviteRequest) {
+    return request(endpoints.cohorts.invitations(id), inviteOutcomeSchema, { method: 'POST', body })
+  }
+
+  async function uploadRoster(id: string, file: File) {
+    const form = new FormData()
+    form.append('roster', file)
+    return (
+      await request(endpoints.cohorts.roster(id), rosterImportResultSchema, { method: 'POST', body: form })
+    ).items
+  }
+
+  return {
+    items,
+    loading,
+    error,
+    load,
+    get,
+    create,
+    update,
+    members,
+    removeMember,
+    invitations,
+    invite,
+    uploadRoster,
+  }
+})

@@ -1,0 +1,355 @@
+// Every route × every role (and no token), with the status each must get. "apprentice" is Ada (cohort A,
+// owns the attempt), "peer" is Abel (cohort A, not the owner), "outsider" is Bea (cohort B); "instructor"
+// owns cohort A, "otherInstructor" owns cohort B.
+import { randomUUID } from 'node:crypto'
+import { readFileSync } from 'node:fs'
+import supertest from 'supertest'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { EnrollmentEntity } from '../../server/entities'
+import { createTestApi, type TestApi, type TestUser } from '../support/api-harness'
+import { buildWorld, EMPTY_LOG, type World } from '../support/world'
+
+type Who = 'none' | 'apprentice' | 'peer' | 'outsider' | 'instructor' | 'otherInstructor' | 'admin'
+const WHO: Who[] = ['none', 'apprentice', 'peer', 'outsider', 'instructor', 'otherInstructor', 'admin']
+
+interface Expect {
+  none?: number
+  apprentice: number
+  peer?: number // defaults to apprentice
+  outsider?: number // defaults to peer
+  instructor: number
+  otherInstructor?: number // defaults to instructor
+  admin: number
+}
+
+interface Route {
+  method: 'get' | 'post' | 'put' | 'patch' | 'delete'
+  path: (w: World) => string
+  body?: (w: World) => object
+  attach?: { field: string; filename: string; contentType: string; content: (w: World) => string }
+  expect: Expect
+  /** The call ends the caller's sessions; sign them in again afterwards. */
+  endsSessions?: boolean
+  /** Puts back what a successful call changes, so every role meets the same state. Runs before and after. */
+  restore?: (w: World, api: TestApi) => Promise<void>
+}
+
+const shipped = (name: string) => JSON.parse(readFileSync(`scenarios/${name}.json`, 'utf8'))
+const everyone = (status: number): Expect => ({
+  none: status,
+  apprentice: status,
+  instructor: status,
+  admin: status,
+})
+const signedIn = (status: number): Expect => ({
+  none: 401,
+  apprentice: status,
+  instructor: status,
+  admin: status,
+})
+const staffOnly = (ok: number): Expect => ({ none: 401, apprentice: 403, instructor: ok, admin: ok })
+const ownCohortStaff = (ok: number): Expect => ({ ...staffOnly(ok), otherInstructor: 403 })
+const adminOnly = (ok: number): Expect => ({ none: 401, apprentice: 403, instructor: 403, admin: ok })
+const future = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString()
+const FAKE_TOKEN = 'x'.repeat(43)
+
+const ROUTES: Route[] = [
+  { method: 'get', path: () => '/api/health', expect: everyone(200) },
+  { method: 'get', path: () => '/api/no-such-route', expect: everyone(404) },
+  // auth
+  {
+    method: 'post',
+    path: () => '/api/auth/sign-in',
+    body: () => ({ email: 'no@slipway.test', password: 'wrong-password' }),
+    expect: everyone(401),
+  },
+  { method: 'post', path: () => '/api/auth/refresh', expect: everyone(401) },
+  { method: 'post', path: () => '/api/auth/sign-out', expect: everyone(204) },
+  { method: 'post', path: () => '/api/auth/sign-out-everywhere', expect: signedIn(204), endsSessions: true },
+  { method: 'get', path: () => '/api/auth/me', expect: signedIn(200) },
+  {
+    method: 'patch',
+    path: () => '/api/auth/me',
+    body: () => ({ name: 'Same Name Kept' }),
+    expect: signedIn(200),
+  },
+  {
+    method: 'post',
+    path: () => '/api/auth/change-password',
+    body: () => ({ currentPassword: 'definitely-wrong', newPassword: 'a long enough new password' }),
+    expect: signedIn(400),
+  },
+  {
+    method: 'post',
+    path: () => '/api/auth/password-reset',
+    body: () => ({ email: 'no@slipway.test' }),
+    expect: everyone(202),
+  },
+  {
+    method: 'post',
+    path: () => '/api/auth/password-reset/confirm',
+    body: () => ({ token: FAKE_TOKEN, password: 'a long enough new password' }),
+    expect: everyone(400),
+  },
+  // public invitation links
+  { method: 'get', path: () => `/api/invitations/${FAKE_TOKEN}`, expect: everyone(404) },
+  {
+    method: 'post',
+    path: () => `/api/invitations/${FAKE_TOKEN}/accept`,
+    body: () => ({ password: 'a long enough password' }),
+    expect: everyone(404),
+  },
+  // cohorts
+  { method: 'get', path: () => '/api/cohorts', expect: signedIn(200) },
+  {
+    method: 'post',
+    path: () => '/api/cohorts',
+    body: () => ({ name: 'Matrix cohort' }),
+    expect: staffOnly(201),
+  },
+  {
+    method: 'get',
+    path: (w) => `/api/cohorts/${w.cohortA.id}`,
+    expect: { none: 401, apprentice: 200, outsider: 403, instructor: 200, otherInstructor: 403, admin: 200 },
+  },
+  {
+    method: 'patch',
+    path: (w) => `/api/cohorts/${w.cohortA.id}`,
+    body: () => ({ description: 'Edited by the matrix' }),
+    expect: ownCohortStaff(200),
+  },
+  { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/members`, expect: ownCohortStaff(200) },
+  {
+    method: 'delete',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/members/${w.apprenticeA2.user.id}`,
+    expect: ownCohortStaff(204),
+    restore: async (w, api) => {
+      const repo = api.dataSource.getRepository(EnrollmentEntity)
+      if (!(await repo.countBy({ cohortId: w.cohortA.id, userId: w.apprenticeA2.user.id }))) {
+        await repo.insert({
+          id: randomUUID(),
+          cohortId: w.cohortA.id,
+          userId: w.apprenticeA2.user.id,
+          createdAt: new Date().toISOString(),
+        })
+      }
+    },
+  },
+  { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/invitations`, expect: ownCohortStaff(200) },
+  {
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/invitations`,
+    body: () => ({ email: `invitee-${randomUUID().slice(0, 8)}@slipway.test`, name: 'Matrix Invitee' }),
+    expect: ownCohortStaff(201),
+  },
+  {
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/invitations/roster`,
+    attach: {
+      field: 'roster',
+      filename: 'roster.csv',
+      contentType: 'text/csv',
+      content: () => `name,email\nRow Person,row-${randomUUID().slice(0, 8)}@slipway.test\n`,
+    },
+    expect: ownCohortStaff(201),
+  },
+  // gradebook
+  { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/gradebook`, expect: ownCohortStaff(200) },
+  { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/gradebook.csv`, expect: ownCohortStaff(200) },
+  // scenarios
+  { method: 'get', path: () => '/api/scenarios', expect: signedIn(200) },
+  { method: 'get', path: () => '/api/scenarios/safe-isolation', expect: signedIn(200) },
+  { method: 'get', path: () => '/api/scenarios/safe-isolation/versions', expect: staffOnly(200) },
+  { method: 'get', path: () => '/api/scenarios/safe-isolation/versions/1', expect: signedIn(200) },
+  { method: 'get', path: (w) => `/api/scenario-versions/${w.scenario.id}`, expect: signedIn(200) },
+  {
+    method: 'post',
+    path: () => '/api/scenarios',
+    body: () => ({ ...shipped('safe-isolation'), id: `matrix-${randomUUID().slice(0, 8)}` }),
+    expect: staffOnly(201),
+  },
+  {
+    method: 'put',
+    path: () => '/api/scenarios/potentiometer-reference',
+    body: () => shipped('potentiometer-reference'),
+    expect: staffOnly(201),
+  },
+  {
+    method: 'post',
+    path: () => '/api/scenarios/safe-isolation/duplicate',
+    body: () => ({ newKey: `copy-${randomUUID().slice(0, 8)}` }),
+    expect: staffOnly(201),
+  },
+  { method: 'post', path: () => '/api/scenarios/fan-ramp-or-coast/retire', expect: staffOnly(200) },
+  { method: 'post', path: () => '/api/scenarios/fan-ramp-or-coast/restore', expect: staffOnly(200) },
+  {
+    method: 'post',
+    path: () => '/api/scenarios/upload',
+    attach: {
+      field: 'pack',
+      filename: 'pack.json',
+      contentType: 'application/json',
+      content: () => JSON.stringify(shipped('reference-memory')),
+    },
+    expect: staffOnly(201),
+  },
+  // assignments
+  { method: 'get', path: () => '/api/assignments', expect: signedIn(200) },
+  {
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/assignments`,
+    body: (w) => ({
+      scenarioId: w.scenario.id,
+      opensAt: future(-1),
+      dueAt: future(5),
+      attemptLimit: null,
+      hintsAllowed: true,
+    }),
+    expect: ownCohortStaff(201),
+  },
+  {
+    method: 'get',
+    path: (w) => `/api/assignments/${w.assignmentA.id}`,
+    expect: { none: 401, apprentice: 200, outsider: 403, instructor: 200, otherInstructor: 403, admin: 200 },
+  },
+  {
+    method: 'patch',
+    path: (w) => `/api/assignments/${w.assignmentA.id}`,
+    body: () => ({ hintsAllowed: true }),
+    expect: ownCohortStaff(200),
+  },
+  { method: 'delete', path: (w) => `/api/assignments/${w.assignmentA.id}`, expect: ownCohortStaff(409) },
+  { method: 'get', path: (w) => `/api/assignments/${w.assignmentA.id}/stats`, expect: ownCohortStaff(200) },
+  // attempts
+  {
+    method: 'post',
+    path: () => '/api/attempts',
+    body: (w) => ({
+      id: randomUUID(),
+      assignmentId: w.assignmentA.id,
+      status: 'submitted',
+      events: EMPTY_LOG,
+    }),
+    expect: { none: 401, apprentice: 201, outsider: 403, instructor: 403, admin: 403 },
+  },
+  { method: 'get', path: () => '/api/attempts', expect: signedIn(200) },
+  {
+    method: 'get',
+    path: (w) => `/api/attempts/${w.attemptA1.id}`,
+    expect: { none: 401, apprentice: 200, peer: 403, instructor: 200, otherInstructor: 403, admin: 200 },
+  },
+  {
+    method: 'post',
+    path: (w) => `/api/attempts/${w.attemptA1.id}/feedback`,
+    body: () => ({ body: 'Matrix feedback' }),
+    expect: ownCohortStaff(201),
+  },
+  {
+    method: 'post',
+    path: (w) => `/api/attempts/${w.attemptA1.id}/grade-override`,
+    body: () => ({ score: 55, passed: false, reason: 'Matrix override' }),
+    expect: ownCohortStaff(200),
+  },
+  // admin
+  { method: 'get', path: () => '/api/admin/users', expect: adminOnly(200) },
+  {
+    method: 'patch',
+    path: (w) => `/api/admin/users/${w.apprenticeA2.user.id}`,
+    body: () => ({ active: true }),
+    expect: adminOnly(200),
+  },
+  {
+    method: 'post',
+    path: () => '/api/admin/users/00000000-0000-4000-8000-000000000000/sign-out',
+    expect: adminOnly(404),
+  },
+  {
+    method: 'post',
+    path: () => '/api/admin/invitations',
+    body: () => ({ email: `staff-${randomUUID().slice(0, 8)}@slipway.test`, name: 'New Staff' }),
+    expect: adminOnly(201),
+  },
+  { method: 'get', path: () => '/api/admin/outbox', expect: adminOnly(200) },
+  { method: 'get', path: () => '/api/admin/backup', expect: adminOnly(200) },
+]
+
+function expected(e: Expect, who: Who): number {
+  const peer = e.peer ?? e.apprentice
+  const table: Record<Who, number> = {
+    none: e.none ?? 401,
+    apprentice: e.apprentice,
+    peer,
+    outsider: e.outsider ?? peer,
+    instructor: e.instructor,
+    otherInstructor: e.otherInstructor ?? e.instructor,
+    admin: e.admin,
+  }
+  return table[who]
+}
+
+describe('access matrix: every route × every role', () => {
+  let api: TestApi
+  let w: World
+  const users = () =>
+    ({
+      apprentice: w.apprenticeA1,
+      peer: w.apprenticeA2,
+      outsider: w.apprenticeB1,
+      instructor: w.instructorA,
+      otherInstructor: w.instructorB,
+      admin: w.admin,
+    }) as Record<Exclude<Who, 'none'>, TestUser>
+
+  beforeAll(async () => {
+    api = await createTestApi()
+    w = await buildWorld(api)
+  })
+  afterAll(() => api.close())
+
+  const cases = ROUTES.flatMap((route) =>
+    WHO.map((who) => ({ route, who, status: expected(route.expect, who) })),
+  )
+
+  it.each(
+    cases.map(
+      (c) =>
+        [
+          `${c.route.method.toUpperCase()} ${c.route.path
+            .toString()
+            .replace(/^.*=>\s*/, '')
+            .replace(/[`"']/g, '')} as ${c.who} → ${c.status}`,
+          c,
+        ] as const,
+    ),
+  )('%s', async (_name, { route, who, status }) => {
+    await route.restore?.(w, api)
+    let request = supertest(api.app)[route.method](route.path(w))
+    const user = who === 'none' ? undefined : users()[who]
+    if (user) request = request.set('Authorization', `Bearer ${user.token}`)
+    if (route.attach) {
+      request = request.attach(route.attach.field, Buffer.from(route.attach.content(w)), {
+        filename: route.attach.filename,
+        contentType: route.attach.contentType,
+      })
+    } else if (route.body) {
+      request = request.send(route.body(w))
+    }
+    const response = await request
+    if (user && route.endsSessions) user.token = (await api.signIn(user.email, user.password)).token
+    await route.restore?.(w, api)
+    expect(response.status, response.text.slice(0, 300)).toBe(status)
+    if (status >= 400) expect(response.body.error?.code, 'error body').toEqual(expect.any(String))
+  })
+
+  it('keeps one apprentice from changing another’s attempt by reusing its id', async () => {
+    const response = await supertest(api.app)
+      .post('/api/attempts')
+      .set('Authorization', `Bearer ${w.apprenticeA2.token}`)
+      .send({ id: w.attemptA1.id, assignmentId: w.assignmentA.id, status: 'inProgress', events: [] })
+    expect(response.status).toBe(409)
+    const stored = await supertest(api.app)
+      .get(`/api/attempts/${w.attemptA1.id}`)
+      .set('Authorization', `Bearer ${w.apprenticeA1.token}`)
+    expect(stored.body.status).toBe('submitted')
+  })
+})

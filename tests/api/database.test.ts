@@ -1,0 +1,55 @@
+// The database layer: migrations build exactly the schema the entities describe, undo cleanly, and the
+// connection runs with WAL, foreign keys and a busy timeout.
+import { mkdtempSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { DataSource } from 'typeorm'
+import { openDatabase } from '../../server/data-source'
+
+describe('database', () => {
+  let dir: string
+  let ds: DataSource
+  beforeAll(async () => {
+    dir = mkdtempSync(join(tmpdir(), 'slipway-db-test-'))
+    ds = await openDatabase({ databasePath: join(dir, 'test.sqlite') })
+  })
+  afterAll(async () => {
+    await ds.destroy()
+    rmSync(dir, { recursive: true, force: true })
+  })
+
+  it('leaves nothing for synchronize to change after the migrations (entities and migrations agree)', async () => {
+    const pending = await ds.driver.createSchemaBuilder().log()
+    expect(pending.upQueries.map((q) => q.query)).toEqual([])
+  })
+
+  it('runs with WAL journalling, foreign keys on and a busy timeout', async () => {
+    expect(await ds.query('PRAGMA journal_mode')).toEqual([{ journal_mode: 'wal' }])
+    expect(await ds.query('PRAGMA foreign_keys')).toEqual([{ foreign_keys: 1 }])
+    const [{ timeout }] = await ds.query('PRAGMA busy_timeout')
+    expect(timeout).toBeGreaterThanOrEqual(1000)
+  })
+
+  it('refuses a row that points at nothing (foreign keys are enforced)', async () => {
+    await expect(
+      ds.query(
+        `INSERT INTO enrollments (id, cohortId, userId, createdAt) VALUES ('e1', 'no-cohort', 'no-user', '2026-01-01T00:00:00.000Z')`,
+      ),
+    ).rejects.toThrow(/FOREIGN KEY/)
+  })
+
+  it('undoes every migration, leaving no application tables', async () => {
+    const scratch = await openDatabase({ databasePath: join(dir, 'scratch.sqlite') })
+    try {
+      while ((await scratch.query('SELECT COUNT(*) AS n FROM migrations'))[0].n > 0)
+        await scratch.undoLastMigration()
+      const tables = (await scratch.query(`SELECT name FROM sqlite_master WHERE type = 'table'`)).map(
+        (t: { name: string }) => t.name,
+      )
+      expect(tables.filter((name: string) => !['migrations', 'sqlite_sequence'].includes(name))).toEqual([])
+    } finally {
+      await scratch.destroy()
+    }
+  })
+})

@@ -1,0 +1,35 @@
+// Steps the client's browser tests share: signing in as a demo user, waiting for a screen to settle.
+import type { Page } from 'playwright-core'
+import { DEMO_ACCOUNTS, type DemoAccount } from '../../server/services/demo-accounts'
+
+export function demo(role: DemoAccount['role'], index = 0): DemoAccount {
+  const account = DEMO_ACCOUNTS.filter((a) => a.role === role)[index]
+  if (!account) throw new Error(`No demo ${role} #${index}`)
+  return account
+}
+
+export async function signIn(page: Page, baseUrl: string, account: DemoAccount) {
+  await page.goto(`${baseUrl}/sign-in`)
+  await page.getByLabel('E-mail').fill(account.email)
+  await page.getByLabel('Password', { exact: true }).fill(account.password)
+  await page.getByRole('button', { name: 'Sign in' }).click()
+  await page.waitForURL((url) => !url.pathname.startsWith('/sign-in'))
+}
+
+/** Waits until no spinner is showing, so screenshots show data, not loading states. */
+export async function settled(page: Page) {
+  await page.waitForLoadState('networkidle')
+  await page.locator('[role="status"] .v-progress-circular').first().waitFor({ state: 'detached', timeout: 10_000 }).catch(() => {})
+  // Let transitions (dialogs, menus) finish.
+  await page.waitForTimeout(300)
+}
+
+/** Console errors and page errors, apart from the expected 401 of a refused session refresh. */
+export function collectErrors(page: Page) {
+  const errors: string[] = []
+  page.on('pageerror', (e) => errors.push(`pageerror: ${e.message}`))
+  page.on('console', (m) => {
+    if (m.type() === 'error' && !/status of 40[13]/.test(m.text())) errors.push(m.text())
+  })
+  return errors
+}

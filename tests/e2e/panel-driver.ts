@@ -1,0 +1,108 @@
+// Drives the simulator panel in a browser the way an apprentice does: real pointer events on the
+// canvas at the scene positions of terminals, buttons and keys (from the panel's own layout).
+import type { Page } from 'playwright-core'
+import { layoutPanel, SCENE_WIDTH, SCENE_HEIGHT } from '../../src/panel/layout'
+import { probeTip } from '../../src/panel/hitTest'
+import type { KeypadKey, PanelDevice, PanelLayout, Vec } from '../../src/panel/types'
+
+export class PanelDriver {
+  readonly layout: PanelLayout
+
+  constructor(
+    readonly page: Page,
+    devices: PanelDevice[],
+  ) {
+    this.layout = layoutPanel(devices)
+  }
+
+  private async toPage(p: Vec): Promise<Vec> {
+    const box = await this.page.getByTestId('panel-canvas').boundingBox()
+    if (!box) throw new Error('the panel canvas is not visible')
+    return { x: box.x + (p.x / SCENE_WIDTH) * box.width, y: box.y + (p.y / SCENE_HEIGHT) * box.height }
+  }
+
+  terminal(id: string): Vec {
+    const t = this.layout.terminals[id]
+    if (!t) throw new Error(`no terminal ${id} on the panel`)
+    return t
+  }
+
+  async drag(from: Vec, to: Vec) {
+    const a = await this.toPage(from)
+    const b = await this.toPage(to)
+    await this.page.mouse.move(a.x, a.y)
+    await this.page.mouse.down()
+    await this.page.mouse.move((a.x + b.x) / 2, Math.max(a.y, b.y) + 40, { steps: 4 })
+    await this.page.mouse.move(b.x, b.y, { steps: 4 })
+    await this.page.mouse.up()
+  }
+
+  async click(p: Vec) {
+    const a = await this.toPage(p)
+    await this.page.mouse.click(a.x, a.y)
+  }
+
+  async wire(from: string, to: string) {
+    await this.drag(this.terminal(from), this.terminal(to))
+  }
+
+  /** Moves a probe from wherever it is (meter or a point) to a point, or back to the meter (null). */
+  async probe(probe: 'red' | 'black', at: string | null, from: string | null) {
+    const tip = probeTip(this.layout, probe, from)
+    const target = at ? this.terminal(at) : this.layout.meter.holsters[probe]
+    await this.drag({ x: tip.x, y: tip.y - 10 }, target)
+  }
+
+  async key(key: KeypadKey, times = 1) {
+    const k = this.layout.drive.keys.find((x) => x.key === key)
+    if (!k) throw new Error(`no keypad key ${key}`)
+    for (let i = 0; i < times; i++) await this.click({ x: k.rect.x + k.rect.w / 2, y: k.rect.y + k.rect.h / 2 })
+  }
+
+  device(id: string): Vec {
+    const d = this.layout.devices.find((x) => x.id === id)
+    if (!d) throw new Error(`no device ${id}`)
+    return d.actuator
+  }
+
+  async pressDevice(id: string) {
+    const a = await this.toPage(this.device(id))
+    await this.page.mouse.move(a.x, a.y)
+    await this.page.mouse.down()
+  }
+
+  async release() {
+    await this.page.mouse.up()
+  }
+
+  async disconnect() {
+    const h = this.layout.disconnect.handle
+    await this.click({ x: h.x + h.w / 2, y: h.y + h.h / 2 })
+  }
+
+  async lock() {
+    const l = this.layout.disconnect.lock
+    await this.click({ x: l.x + l.w / 2, y: l.y + l.h / 2 })
+  }
+
+  /** The canvas's accessible name, which states the drive's state and speed. */
+  async summary(): Promise<string> {
+    return (await this.page.getByTestId('panel-canvas').getAttribute('aria-label')) ?? ''
+  }
+
+  async rpm(): Promise<number> {
+    const m = /(-?\d+) rpm/.exec(await this.summary())
+    return m ? Number(m[1]) : NaN
+  }
+
+  async waitFor(predicate: (summary: string) => boolean, timeoutMs = 20_000) {
+    const deadline = Date.now() + timeoutMs
+    let last = ''
+    while (Date.now() < deadline) {
+      last = await this.summary()
+      if (predicate(last)) return last
+      await this.page.waitForTimeout(50)
+    }
+    throw new Error(`the panel never reached the expected state; last: ${last}`)
+  }
+}

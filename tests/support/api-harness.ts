@@ -1,0 +1,162 @@
+// A fresh app per test file: temporary data folder and database (migrated, shipped scenarios loaded),
+// the embedded SMTP outbox on a random loopback port, and helpers to create users and sign in.
+import { randomUUID } from 'node:crypto'
+import { mkdtempSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
+import type { Express } from 'express'
+import { pino } from 'pino'
+import supertest from 'supertest'
+import type { DataSource } from 'typeorm'
+import type { Role } from '../../shared/api/auth'
+import { createApp } from '../../server/app'
+import {
+  DEFAULT_RATE_LIMITS,
+  loadConfig,
+  type AppConfig,
+  type PasswordHashing,
+  type RateLimits,
+} from '../../server/config'
+import { openDatabase } from '../../server/data-source'
+import { MailMessageEntity, UserEntity, type MailMessageRow, type UserRow } from '../../server/entities'
+import { SCENARIOS_DIR } from '../../server/main'
+import { createMailer, type Mailer } from '../../server/services/mailer'
+import { startOutboxSmtp, type OutboxSmtp } from '../../server/services/outbox-smtp'
+import { createPasswordHasher, type PasswordHasher } from '../../server/services/passwords'
+import { importShippedScenarios } from '../../server/services/scenarios'
+
+/**
+ * Cheaper argon2id cost for tests only (1 MiB, 1 pass), passed explicitly; production always
+ * uses the OWASP parameters (server/config.ts OWASP_ARGON2ID).
+ */
+export const TEST_PASSWORD_HASHING: PasswordHashing = { memoryCost: 1024, timeCost: 1, parallelism: 1 }
+export const TEST_PASSWORD = 'correct-horse-battery-test'
+export const TEST_JWT_SECRET = 'test-secret-'.padEnd(48, 'x')
+
+export interface TestApiOptions {
+  /** Default: off, so tests are not throttled; pass limits to test throttling itself. */
+  rateLimits?: RateLimits | false
+  passwordHashing?: PasswordHashing
+  scenarios?: boolean
+  config?: Partial<AppConfig>
+  /** A built client to serve (with config.serveClient). */
+  clientDir?: string
+}
+
+export interface TestUser {
+  user: UserRow
+  email: string
+  password: string
+  token: string
+}
+
+export interface TestApi {
+  app: Express
+  http: supertest.Agent
+  dataSource: DataSource
+  config: AppConfig
+  mailer: Mailer
+  passwords: PasswordHasher
+  outbox: OutboxSmtp
+  dataDir: string
+  /** Creates an active user directly in the database and signs them in. */
+  createUser(role: Role, fields?: Partial<Pick<UserRow, 'name' | 'email'>>): Promise<TestUser>
+  signIn(email: string, password: string): Promise<{ token: string; cookie: string }>
+  /** Waits for queued mail to reach the outbox, then returns every message (oldest first). */
+  mail(): Promise<MailMessageRow[]>
+  close(): Promise<void>
+}
+
+export { DEFAULT_RATE_LIMITS }
+
+export async function createTestApi(options: TestApiOptions = {}): Promise<TestApi> {
+  const dataDir = mkdtempSync(join(tmpdir(), 'slipway-api-test-'))
+  const log = pino({ level: process.env.TEST_LOG_LEVEL ?? 'silent' })
+  const base = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, PUBLIC_BASE_URL: 'http://slipway.test' })
+  const config: AppConfig = {
+    ...base,
+    rateLimits: options.rateLimits ?? false,
+    passwordHashing: options.passwordHashing ?? TEST_PASSWORD_HASHING,
+    serveClient: false,
+    ...options.config,
+  }
+  const dataSource = await openDatabase({ databasePath: config.databasePath })
+  if (options.scenarios !== false) await importShippedScenarios(dataSource, SCENARIOS_DIR)
+  const outbox = await startOutboxSmtp(dataSource, log)
+  const mailer = createMailer({
+    target: { host: outbox.host, port: outbox.port, secure: false },
+    from: config.mailFrom,
+    log,
+    retryDelaysMs: [50, 100],
+  })
+  const passwords = createPasswordHasher(config.passwordHashing)
+  const app = createApp({
+    dataSource,
+    config,
+    mailer,
+    jwtSecret: TEST_JWT_SECRET,
+    log,
+    passwords,
+    clientDir: options.clientDir,
+  })
+  const http = supertest.agent(app)
+
+  async function signIn(email: string, password: string) {
+    const response = await supertest(app).post('/api/auth/sign-in').send({ email, password })
+    if (response.status !== 200)
+      throw new Error(`sign-in failed for ${email}: ${response.status} ${response.text}`)
+    const cookie = ([] as string[]).concat(response.headers['set-cookie'] ?? [])[0]?.split(';')[0] ?? ''
+    return { token: response.body.accessToken as string, cookie }
+  }
+
+  let counter = 0
+  async function createUser(
+    role: Role,
+    fields: Partial<Pick<UserRow, 'name' | 'email'>> = {},
+  ): Promise<TestUser> {
+    counter++
+    const now = new Date().toISOString()
+    const user: UserRow = {
+      id: randomUUID(),
+      email: fields.email ?? `${role}${counter}-${randomUUID().slice(0, 6)}@slipway.test`,
+      name: fields.name ?? `Test ${role} ${counter}`,
+      role,
+      passwordHash: await passwords.hash(TEST_PASSWORD),
+      active: true,
+      tokenVersion: 0,
+      createdAt: now,
+      updatedAt: now,
+      lastSignInAt: null,
+    }
+    await dataSource.getRepository(UserEntity).insert(user)
+    const { token } = await signIn(user.email, TEST_PASSWORD)
+    return { user, email: user.email, password: TEST_PASSWORD, token }
+  }
+
+  return {
+    app,
+    http,
+    dataSource,
+    config,
+    mailer,
+    passwords,
+    outbox,
+    dataDir,
+    createUser,
+    signIn,
+    async mail() {
+      await mailer.idle()
+      return dataSource.getRepository(MailMessageEntity).find({ order: { receivedAt: 'ASC' } })
+    },
+    async close() {
+      await mailer.idle()
+      mailer.close()
+      await outbox.close()
+      await dataSource.destroy()
+      rmSync(dataDir, { recursive: true, force: true })
+    },
+  }
+}
+
+/** `Authorization` header value for a token. */
+export const bearer = (token: string) => ({ Authorization: `Bearer ${token}` })

@@ -1,0 +1,421 @@
+// Attempt scripts: for every scenario a reference solution and typical mistakes, each with the
+// objectives it is expected to miss. `npm run fixtures:build` writes them to tests/fixtures/attempts/.
+import { frequencyForRpm } from '@shared/model'
+import type { LogBuilder } from './logBuilder'
+import {
+  isolateAndProve,
+  restorePower,
+  running,
+  standstill,
+  wireRaiseLower,
+  wireRunSelector,
+} from './procedures'
+
+export interface AttemptScript {
+  scenario: string
+  name: string
+  description: string
+  /** Objective ids this attempt should miss (empty for a reference solution). */
+  misses: string[]
+  build(b: LogBuilder): void
+}
+
+// ---------- 1. safe-isolation ----------
+const safeIsolation: AttemptScript[] = [
+  {
+    scenario: 'safe-isolation',
+    name: 'reference',
+    description:
+      'Meter proved on the live line, switched off, locked, waited for the bus, proved every pair dead.',
+    misses: [],
+    build: (b) => {
+      b.wait(3000)
+      isolateAndProve(b, { proveMeter: true })
+      b.wait(5000)
+    },
+  },
+  {
+    scenario: 'safe-isolation',
+    name: 'mistake-bus-measured-too-soon',
+    description:
+      'Measured the DC bus seconds after switching off (still ~500 V), moved on to the lines and never re-measured it.',
+    misses: ['proved-dead'],
+    build: (b) => {
+      b.wait(3000).probe('drive.l1', 'drive.l2').wait(2000).powerOff().wait(1000).lock().wait(1000)
+      b.probe('drive.dcp', 'drive.dcn').wait(3000)
+      b.probe('drive.l1', 'drive.l2').wait(2000).probe('drive.l2', 'drive.l3').wait(2000)
+      b.probe('drive.l1', 'drive.l3').wait(2000).probe(null, null)
+      b.waitUntil((d) => d.busVolts < 40, 'the bus discharging', 1000).wait(5000)
+    },
+  },
+  {
+    scenario: 'safe-isolation',
+    name: 'mistake-no-lock',
+    description: 'Switched off and proved dead properly but never applied a lock.',
+    misses: ['isolated'],
+    build: (b) => {
+      b.wait(3000)
+      isolateAndProve(b, { proveMeter: true, lock: false })
+      b.wait(5000)
+    },
+  },
+]
+
+// ---------- 2. two-wire-run-stop ----------
+function twoWire(b: LogBuilder, proveDead: boolean): void {
+  b.wait(2000)
+  isolateAndProve(b, { proveDead })
+  wireRunSelector(b)
+  restorePower(b)
+  b.configure({ 'control.source': 'terminals', 'di1.function': 'run' }).wait(1000)
+  b.switchTo('runSwitch', 1).waitUntil(running, 'reaching 35 Hz').wait(8000)
+  b.switchTo('runSwitch', 0).waitUntil(standstill, 'the ramp stop').wait(2000)
+}
+const twoWireRunStop: AttemptScript[] = [
+  {
+    scenario: 'two-wire-run-stop',
+    name: 'reference',
+    description:
+      'Proved dead, wired DCM to 0V and the selector from +24 to DI1, assigned run, terminal control, ran and stopped.',
+    misses: [],
+    build: (b) => twoWire(b, true),
+  },
+  {
+    scenario: 'two-wire-run-stop',
+    name: 'mistake-not-proved-dead',
+    description: 'Trusted the lock that was already on and wired without testing for absence of voltage.',
+    misses: ['proved-dead'],
+    build: (b) => twoWire(b, false),
+  },
+]
+
+// ---------- 3. raise-lower-commissioning ----------
+/** 1200 rpm on the sawmill motor (4 poles, 60 Hz, 1750 rpm rated), as the drive computes it. */
+const sawmillHz = frequencyForRpm(1200, 4, 60, 1750)
+
+function commission(b: LogBuilder, options: { raiseToHz: number; hint?: string }): void {
+  b.wait(2000)
+  if (options.hint) b.hint(options.hint).wait(5000)
+  isolateAndProve(b)
+  wireRaiseLower(b)
+  restorePower(b)
+  b.configure({
+    'control.source': 'terminals',
+    'di1.function': 'run',
+    'di2.function': 'raise',
+    'di3.function': 'lower',
+    'reference.remoteSource': 'raiseLower',
+  }).wait(1000)
+  b.switchTo('runSwitch', 1).waitUntil(running, 'reaching minimum speed').wait(3000)
+  b.holdUntil('raiseButton', (d) => d.referenceHz >= options.raiseToHz, 'raising the reference')
+  b.waitUntil(running, 'reaching the raised speed').wait(15_000)
+  b.hold('lowerButton', 3000).wait(3000)
+  b.switchTo('runSwitch', 0).waitUntil(standstill, 'the ramp stop').wait(2000)
+}
+const raiseLowerCommissioning: AttemptScript[] = [
+  {
+    scenario: 'raise-lower-commissioning',
+    name: 'reference',
+    description:
+      'Locked out, proved dead, wired run/raise/lower in sink logic, programmed, raised to 1200 rpm, held, lowered, stopped.',
+    misses: [],
+    build: (b) => commission(b, { raiseToHz: sawmillHz }),
+  },
+  {
+    scenario: 'raise-lower-commissioning',
+    name: 'mistake-released-raise-early',
+    description:
+      'Everything right, but FASTER was released at about 1100 rpm and the speed was never brought to 1200 rpm.',
+    misses: ['target-speed'],
+    build: (b) => commission(b, { raiseToHz: frequencyForRpm(1100, 4, 60, 1750) }),
+  },
+  {
+    scenario: 'raise-lower-commissioning',
+    name: 'reference-with-hint',
+    description: 'The reference solution after revealing the reference-source hint (costs 10 points).',
+    misses: [],
+    build: (b) => commission(b, { raiseToHz: sawmillHz, hint: 'hint-reference' }),
+  },
+]
+
+// ---------- 4. configuration-conflict-alarm ----------
+function clearAlarm(b: LogBuilder, options: { rewireLive?: boolean; save?: boolean }): void {
+  b.waitUntil((d) => d.power === 'ready', 'the drive becoming ready').wait(3000)
+  if (options.rewireLive) {
+    b.unwire('wRaiseOut').wait(4000).wire('wRaiseOut2', 'raiseButton.b', 'drive.di2').wait(3000)
+  }
+  b.set('reference.remoteSource', 'raiseLower').wait(1000)
+  if (options.save !== false) b.save().wait(1000)
+  b.switchTo('runSwitch', 1).waitUntil(running, 'reaching minimum speed').wait(2000)
+  b.hold('raiseButton', 3000).wait(4000)
+  b.switchTo('runSwitch', 0).waitUntil(standstill, 'the ramp stop').wait(2000)
+}
+const configurationConflictAlarm: AttemptScript[] = [
+  {
+    scenario: 'configuration-conflict-alarm',
+    name: 'reference',
+    description:
+      'Read the alarm, set the remote reference to raise/lower and saved, then proved RAISE works and holds.',
+    misses: [],
+    build: (b) => clearAlarm(b, {}),
+  },
+  {
+    scenario: 'configuration-conflict-alarm',
+    name: 'mistake-rewired-live',
+    description:
+      'Suspected the wiring and moved the RAISE wire with the drive powered, then fixed the setting.',
+    misses: ['not-energised'],
+    build: (b) => clearAlarm(b, { rewireLive: true }),
+  },
+  {
+    scenario: 'configuration-conflict-alarm',
+    name: 'mistake-never-saved',
+    description:
+      'Changed the reference source but never saved it, so the alarm stayed and RAISE still did nothing.',
+    misses: ['reference-source', 'alarm-cleared', 'raise-works'],
+    build: (b) => clearAlarm(b, { save: false }),
+  },
+]
+
+// ---------- 5. reference-memory ----------
+function rememberSpeed(b: LogBuilder, options: { powerCycle: boolean }): void {
+  b.waitUntil((d) => d.power === 'ready', 'the drive becoming ready').wait(2000)
+  b.configure({ 'raiseLower.memoryAtStop': 'keep', 'raiseLower.memoryAtPowerLoss': 'keep' }).wait(1000)
+  b.switchTo('runSwitch', 1).waitUntil(running, 'reaching minimum speed').wait(2000)
+  b.hold('raiseButton', 8000).waitUntil(running, 'reaching the raised speed').wait(3000)
+  b.switchTo('runSwitch', 0).waitUntil(standstill, 'the first stop').wait(3000)
+  b.switchTo('runSwitch', 1).waitUntil(running, 'the restart').wait(3000)
+  b.switchTo('runSwitch', 0).waitUntil(standstill, 'the second stop').wait(3000)
+  if (options.powerCycle) {
+    b.powerOff()
+      .waitUntil((d) => !d.displayOn, 'the drive shutting down', 1000)
+      .wait(5000)
+    b.powerOn()
+      .waitUntil((d) => d.power === 'ready', 'the drive becoming ready')
+      .wait(2000)
+    b.switchTo('runSwitch', 1).waitUntil(running, 'the restart after power-up').wait(3000)
+    b.switchTo('runSwitch', 0).waitUntil(standstill, 'the last stop').wait(2000)
+  }
+}
+const referenceMemory: AttemptScript[] = [
+  {
+    scenario: 'reference-memory',
+    name: 'reference',
+    description:
+      'Set both memory options to keep, showed a restart at the remembered speed after a stop and after a power cycle.',
+    misses: [],
+    build: (b) => rememberSpeed(b, { powerCycle: true }),
+  },
+  {
+    scenario: 'reference-memory',
+    name: 'mistake-power-option-not-proved',
+    description:
+      'Set both options but only demonstrated the stop and restart, never the supply being switched off and on.',
+    misses: ['restart-after-power'],
+    build: (b) => rememberSpeed(b, { powerCycle: false }),
+  },
+]
+
+// ---------- 6. creeping-speed-wrong-contact ----------
+function replaceContact(b: LogBuilder, options: { lock: boolean }): void {
+  b.waitUntil((d) => d.power === 'ready', 'the drive becoming ready').wait(2000)
+  b.switchTo('runSwitch', 1).wait(8000) // the reference creeps up on its own
+  b.switchTo('runSwitch', 0).waitUntil(standstill, 'the ramp stop').wait(2000)
+  b.probe('raiseButton.a', 'raiseButton.b').wait(3000).probe(null, null).wait(1000) // ~0 V: closed at rest
+  isolateAndProve(b, { lock: options.lock })
+  b.fitContact('raiseButton', 'NO').wait(5000)
+  restorePower(b)
+  b.switchTo('runSwitch', 1).waitUntil(running, 'reaching minimum speed').wait(3000)
+  b.hold('raiseButton', 4000).waitUntil(running, 'reaching the raised speed').wait(5000)
+  b.switchTo('runSwitch', 0).waitUntil(standstill, 'the ramp stop').wait(2000)
+}
+const creepingSpeed: AttemptScript[] = [
+  {
+    scenario: 'creeping-speed-wrong-contact',
+    name: 'reference',
+    description:
+      'Saw the creep and the raise input ON at rest, measured ~0 V across the button, isolated, fitted an NO block, verified.',
+    misses: [],
+    build: (b) => replaceContact(b, { lock: true }),
+  },
+  {
+    scenario: 'creeping-speed-wrong-contact',
+    name: 'mistake-no-lock',
+    description:
+      'Switched off, waited and proved dead, but changed the contact block without locking the disconnect.',
+    misses: ['locked-first'],
+    build: (b) => replaceContact(b, { lock: false }),
+  },
+]
+
+// ---------- 7. inputs-never-on ----------
+function fixInputs(b: LogBuilder, options: { proveDead?: boolean; logic?: boolean }): void {
+  b.waitUntil((d) => d.power === 'ready', 'the drive becoming ready').wait(2000)
+  b.switchTo('runSwitch', 1).wait(3000).switchTo('runSwitch', 0).wait(2000) // nothing happens
+  if (options.logic !== false) b.configure({ 'inputs.logic': 'sink' }).wait(1000)
+  isolateAndProve(b, { proveDead: options.proveDead ?? true })
+  b.wire('wCom', 'drive.dcom', 'drive.0v').wait(4000)
+  restorePower(b)
+  b.switchTo('runSwitch', 1).wait(3000)
+  // Raise to 30 Hz (10 s at 2 Hz/s from the 10 Hz minimum); give up after 15 s if nothing moves.
+  const pressedAt = b.t
+  b.holdUntil('raiseButton', (d) => d.referenceHz >= 30 || b.t >= pressedAt + 15_000, 'raising to 30 Hz')
+  b.wait(12_000)
+  b.switchTo('runSwitch', 0).wait(12_000)
+}
+const inputsNeverOn: AttemptScript[] = [
+  {
+    scenario: 'inputs-never-on',
+    name: 'reference',
+    description:
+      'Set the input logic to sink, isolated and proved dead, added the missing DCM-0V common, ran at 30 Hz.',
+    misses: [],
+    build: (b) => fixInputs(b, {}),
+  },
+  {
+    scenario: 'inputs-never-on',
+    name: 'mistake-not-proved-dead',
+    description: 'Switched off and locked, but added the common without testing for absence of voltage.',
+    misses: ['proved-dead'],
+    build: (b) => fixInputs(b, { proveDead: false }),
+  },
+  {
+    scenario: 'inputs-never-on',
+    name: 'mistake-logic-left-at-source',
+    description:
+      'Added the missing common but left the input logic at source: the inputs still never turn on.',
+    misses: ['logic-setting', 'run-on', 'raise-on', 'feeder-speed'],
+    build: (b) => fixInputs(b, { logic: false }),
+  },
+]
+
+// ---------- 8. three-wire-start-stop ----------
+function threeWire(b: LogBuilder, options: { proveDead: boolean }): void {
+  b.wait(2000)
+  isolateAndProve(b, { proveDead: options.proveDead })
+  b.wire('wCom', 'drive.dcom', 'drive.0v').wait(3000)
+  b.wire('wStopFeed', 'drive.p24', 'stopButton.a').wait(3000)
+  b.wire('wStopOut', 'stopButton.b', 'drive.di2').wait(3000)
+  b.wire('wStartFeed', 'stopButton.a', 'startButton.a').wait(3000)
+  b.wire('wStartOut', 'startButton.b', 'drive.di1').wait(3000)
+  restorePower(b)
+  b.configure({ 'control.source': 'terminals', 'di1.function': 'start', 'di2.function': 'stop' }).wait(1000)
+  b.hold('startButton', 500).waitUntil(running, 'reaching 40 Hz').wait(8000)
+  b.hold('stopButton', 500).waitUntil(standstill, 'the ramp stop').wait(2000)
+}
+const threeWireStartStop: AttemptScript[] = [
+  {
+    scenario: 'three-wire-start-stop',
+    name: 'reference',
+    description:
+      'Proved dead, wired the NC stop and NO start from +24, assigned start and stop, started, ran at 40 Hz, stopped.',
+    misses: [],
+    build: (b) => threeWire(b, { proveDead: true }),
+  },
+  {
+    scenario: 'three-wire-start-stop',
+    name: 'mistake-not-proved-dead',
+    description: 'Relied on the existing lock and wired without testing for absence of voltage.',
+    misses: ['proved-dead'],
+    build: (b) => threeWire(b, { proveDead: false }),
+  },
+]
+
+// ---------- 9. potentiometer-reference ----------
+/** The knob position that gives a reference (the input loads the wiper, so it is found by search). */
+function knobFor(b: LogBuilder, hz: number): number {
+  let lo = 0
+  let hi = 1
+  for (let i = 0; i < 30; i++) {
+    const mid = (lo + hi) / 2
+    if (b.peek({ type: 'device.turned', device: 'speedPot', position: mid }).referenceHz < hz) lo = mid
+    else hi = mid
+  }
+  return Math.round(((lo + hi) / 2) * 1e6) / 1e6
+}
+
+function potentiometer(b: LogBuilder, options: { wireLow: boolean }): void {
+  b.wait(2000)
+  isolateAndProve(b)
+  wireRunSelector(b)
+  b.wire('wPotHi', 'drive.p10', 'speedPot.hi').wait(3000)
+  if (options.wireLow) b.wire('wPotLo', 'speedPot.lo', 'drive.acom').wait(3000)
+  b.wire('wPotWiper', 'speedPot.wiper', 'drive.ai').wait(3000)
+  restorePower(b)
+  b.configure({ 'control.source': 'terminals', 'di1.function': 'run' }).wait(1000)
+  b.turn('speedPot', 1).wait(2000).turn('speedPot', 0).wait(2000)
+  b.switchTo('runSwitch', 1).wait(2000)
+  b.turn('speedPot', knobFor(b, 45)).waitUntil(running, 'reaching 45 Hz').wait(8000)
+  b.switchTo('runSwitch', 0).waitUntil(standstill, 'the ramp stop').wait(2000)
+}
+const potentiometerReference: AttemptScript[] = [
+  {
+    scenario: 'potentiometer-reference',
+    name: 'reference',
+    description:
+      'Proved dead, wired the pot across +10/AC with the wiper to AI, checked both ends of the knob, ran at 45 Hz.',
+    misses: [],
+    build: (b) => potentiometer(b, { wireLow: true }),
+  },
+  {
+    scenario: 'potentiometer-reference',
+    name: 'mistake-low-end-not-wired',
+    description:
+      'Left the potentiometer low end off AC: the knob still sets a speed but never gets below about two thirds.',
+    misses: ['pot-zero'],
+    build: (b) => potentiometer(b, { wireLow: false }),
+  },
+]
+
+// ---------- 10. fan-ramp-or-coast ----------
+function fanStop(b: LogBuilder, options: { stopBeforeFix?: boolean; coast?: boolean }): void {
+  b.waitUntil((d) => d.power === 'ready', 'the drive becoming ready').wait(2000)
+  if (options.stopBeforeFix) {
+    b.switchTo('runSwitch', 1).waitUntil(running, 'reaching 50 Hz').wait(5000)
+    b.switchTo('runSwitch', 0).waitUntil((d) => d.tripped, 'the bus overvoltage trip', 100, 60_000)
+    b.waitUntil(standstill, 'the fan coasting to rest', 1000).wait(2000)
+    b.key('reset').wait(2000)
+  }
+  if (options.coast) b.configure({ 'stop.mode': 'coast' }).wait(1000)
+  else b.configure({ 'ramp.decelSeconds': 60 }).wait(1000)
+  b.switchTo('runSwitch', 1).waitUntil(running, 'reaching 50 Hz').wait(12_000)
+  b.switchTo('runSwitch', 0).waitUntil(standstill, 'the stop', 1000).wait(2000)
+}
+const fanRampOrCoast: AttemptScript[] = [
+  {
+    scenario: 'fan-ramp-or-coast',
+    name: 'reference',
+    description: 'Kept the ramp stop, set a 60 s deceleration, ran at 50 Hz and stopped without a trip.',
+    misses: [],
+    build: (b) => fanStop(b, {}),
+  },
+  {
+    scenario: 'fan-ramp-or-coast',
+    name: 'mistake-tripped-first',
+    description:
+      'Tried a stop with the 10 s ramp first: bus overvoltage trip, reset, then fixed the ramp and stopped cleanly.',
+    misses: ['no-trips'],
+    build: (b) => fanStop(b, { stopBeforeFix: true }),
+  },
+  {
+    scenario: 'fan-ramp-or-coast',
+    name: 'mistake-chose-coast',
+    description:
+      'Chose a coast stop instead of a controlled ramp: no trip, but not the stop that was asked for.',
+    misses: ['stop-method', 'decel-time', 'ramp-stop'],
+    build: (b) => fanStop(b, { coast: true }),
+  },
+]
+
+export const ATTEMPT_SCRIPTS: AttemptScript[] = [
+  ...safeIsolation,
+  ...twoWireRunStop,
+  ...raiseLowerCommissioning,
+  ...configurationConflictAlarm,
+  ...referenceMemory,
+  ...creepingSpeed,
+  ...inputsNeverOn,
+  ...threeWireStartStop,
+  ...potentiometerReference,
+  ...fanRampOrCoast,
+]
