@@ -11,6 +11,7 @@ import type { DataSource } from 'typeorm'
 import type { AppConfig } from './config'
 import type { AppContext } from './context'
 import { apiNotFound, errorHandler } from './middleware/errors'
+import { createLimiters } from './middleware/rate-limit'
 import { adminRouter } from './routes/admin'
 import { assignmentsRouter } from './routes/assignments'
 import { attemptsRouter } from './routes/attempts'
@@ -46,6 +47,7 @@ export function createApp(deps: AppDeps): Express {
     passwords: deps.passwords ?? createPasswordHasher(deps.config.passwordHashing),
     tokens: createAccessTokens(deps.jwtSecret),
     log,
+    limits: createLimiters(deps.config.rateLimits),
   }
   const app = express()
   app.disable('x-powered-by')

@@ -33,6 +33,7 @@ const envSchema = z.object({
   SMTP_FROM: optionalText.default('Slipway <no-reply@slipway.test>'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
   SERVE_CLIENT: z.enum(['true', 'false']).optional(),
+  HOST: optionalText,
 })
 
 export interface RateLimitRule {
@@ -56,6 +57,8 @@ export const OWASP_ARGON2ID: PasswordHashing = { memoryCost: 19 * 1024, timeCost
 export interface AppConfig {
   env: 'development' | 'production' | 'test'
   port: number
+  /** Interface to listen on (default all). */
+  host: string
   dataDir: string
   databasePath: string
   jwtSecret?: string
@@ -97,6 +100,7 @@ export function loadConfig(
   return {
     env: e.NODE_ENV,
     port,
+    host: e.HOST ?? '0.0.0.0',
     dataDir,
     databasePath,
     jwtSecret: e.JWT_SECRET,

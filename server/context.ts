@@ -2,6 +2,7 @@
 import type { DataSource } from 'typeorm'
 import type { Logger } from 'pino'
 import type { AppConfig } from './config'
+import type { Limiters } from './middleware/rate-limit'
 import type { Mailer } from './services/mailer'
 import type { PasswordHasher } from './services/passwords'
 import type { AccessTokens } from './services/tokens'
@@ -13,6 +14,7 @@ export interface AppContext {
   passwords: PasswordHasher
   tokens: AccessTokens
   log: Logger
+  limits: Limiters
 }
 
 /** A link into the client, from the configured public base URL. */

@@ -57,7 +57,7 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
   const app = createApp({ dataSource, config, mailer, jwtSecret, log, passwords })
 
   const server: Server = await new Promise((resolve, reject) => {
-    const s = app.listen(config.port, env.HOST ?? '0.0.0.0', () => resolve(s))
+    const s = app.listen(config.port, config.host, () => resolve(s))
     s.once('error', reject)
   })
   const demoAdmin = await dataSource.getRepository(UserEntity).findOneBy({ email: DEMO_ACCOUNTS[0]!.email })

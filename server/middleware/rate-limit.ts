@@ -25,3 +25,14 @@ export function limiter(limits: RateLimits | false, which: keyof RateLimits): Re
     },
   })
 }
+
+export type Limiters = Record<keyof RateLimits, RequestHandler>
+
+/** One limiter per kind for the whole app, so e.g. every invitation route draws on the same budget. */
+export function createLimiters(limits: RateLimits | false): Limiters {
+  return {
+    signIn: limiter(limits, 'signIn'),
+    passwordReset: limiter(limits, 'passwordReset'),
+    invitations: limiter(limits, 'invitations'),
+  }
+}

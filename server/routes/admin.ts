@@ -15,7 +15,6 @@ import { sqliteHandle } from '../data-source'
 import { AuditEntryEntity, MailMessageEntity, UserEntity } from '../entities'
 import { HttpError, conflict, notFound } from '../http-error'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
-import { limiter } from '../middleware/rate-limit'
 import { validate } from '../middleware/validate'
 import { nowIso } from '../services/clock'
 import { invite } from '../services/invitations'
@@ -102,7 +101,7 @@ export function adminRouter(ctx: AppContext): Router {
 
   router.post(
     '/invitations',
-    limiter(ctx.config.rateLimits, 'invitations'),
+    ctx.limits.invitations,
     validate({ body: inviteRequestSchema }),
     async (req, res) => {
       const { email, name } = req.body as Required<InviteRequest>

@@ -18,7 +18,6 @@ import { appLink, type AppContext } from '../context'
 import { PasswordResetEntity, UserEntity } from '../entities'
 import { HttpError } from '../http-error'
 import { authenticate, currentUser } from '../middleware/auth'
-import { limiter } from '../middleware/rate-limit'
 import { validate } from '../middleware/validate'
 import { HOUR, isoIn, nowIso } from '../services/clock'
 import { passwordResetMail } from '../services/mail-templates'
@@ -37,21 +36,16 @@ export function authRouter(ctx: AppContext): Router {
   let decoyHash: Promise<string> | undefined
   const decoy = () => (decoyHash ??= ctx.passwords.hash(randomUUID()))
 
-  router.post(
-    '/sign-in',
-    limiter(ctx.config.rateLimits, 'signIn'),
-    validate({ body: signInRequestSchema }),
-    async (req, res) => {
-      const { email, password } = req.body as SignInRequest
-      const user = await users().findOneBy({ email })
-      const ok = await ctx.passwords.verify(user?.passwordHash ?? (await decoy()), password)
-      if (!user || !ok) throw new HttpError(401, 'invalid_credentials', 'The e-mail or password is not right')
-      if (!user.active) throw new HttpError(401, 'account_inactive', 'This account has been deactivated')
-      user.lastSignInAt = nowIso()
-      await users().update({ id: user.id }, { lastSignInAt: user.lastSignInAt })
-      res.json(await startSession(ctx, res, user))
-    },
-  )
+  router.post('/sign-in', ctx.limits.signIn, validate({ body: signInRequestSchema }), async (req, res) => {
+    const { email, password } = req.body as SignInRequest
+    const user = await users().findOneBy({ email })
+    const ok = await ctx.passwords.verify(user?.passwordHash ?? (await decoy()), password)
+    if (!user || !ok) throw new HttpError(401, 'invalid_credentials', 'The e-mail or password is not right')
+    if (!user.active) throw new HttpError(401, 'account_inactive', 'This account has been deactivated')
+    user.lastSignInAt = nowIso()
+    await users().update({ id: user.id }, { lastSignInAt: user.lastSignInAt })
+    res.json(await startSession(ctx, res, user))
+  })
 
   router.post('/refresh', async (req, res) => {
     res.json(await refreshSession(ctx, req, res))
@@ -96,7 +90,7 @@ export function authRouter(ctx: AppContext): Router {
     res.json(await startSession(ctx, res, fresh))
   })
 
-  const resetLimit = limiter(ctx.config.rateLimits, 'passwordReset')
+  const resetLimit = ctx.limits.passwordReset
 
   // Always 202, known address or not, so the answer reveals nothing about who has an account.
   router.post(
@@ -142,7 +136,8 @@ export function authRouter(ctx: AppContext): Router {
         if (!reset || reset.expiresAt <= nowIso()) {
           throw new HttpError(400, 'reset_token_invalid', 'This reset link has expired or was already used')
         }
-        await resets.update({ id: reset.id }, { usedAt: nowIso() })
+        // Using one link spends every other outstanding link of the account too.
+        await resets.update({ userId: reset.userId, usedAt: IsNull() }, { usedAt: nowIso() })
         await manager
           .getRepository(UserEntity)
           .update({ id: reset.userId }, { passwordHash, updatedAt: nowIso() })

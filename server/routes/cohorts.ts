@@ -12,6 +12,7 @@ import {
   type UpdateCohortRequest,
 } from '@shared/api/cohorts'
 import {
+  cohortInvitationParamsSchema,
   inviteRequestSchema,
   ROSTER_MAX_BYTES,
   type InviteRequest,
@@ -21,7 +22,6 @@ import type { AppContext } from '../context'
 import { CohortEntity, EnrollmentEntity, InvitationEntity, UserEntity, type CohortRow } from '../entities'
 import { HttpError, notFound } from '../http-error'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
-import { limiter } from '../middleware/rate-limit'
 import { validate } from '../middleware/validate'
 import { cohortFor, readableCohortIds } from '../services/access'
 import { nowIso } from '../services/clock'
@@ -180,7 +180,25 @@ export function cohortsRouter(ctx: AppContext): Router {
     res.json({ items: rows.filter((r) => r.expiresAt > nowIso()).map(presentInvitation) })
   })
 
-  const inviteLimit = limiter(ctx.config.rateLimits, 'invitations')
+  router.delete(
+    '/:id/invitations/:invitationId',
+    staff,
+    validate({ params: cohortInvitationParamsSchema }),
+    async (req, res) => {
+      const cohort = await cohortFor(ds, currentUser(req), String(req.params.id), 'manage')
+      // Withdrawn = expired now; the link stops working and the record stays for the history.
+      const result = await ds
+        .getRepository(InvitationEntity)
+        .update(
+          { id: String(req.params.invitationId), cohortId: cohort.id, acceptedAt: IsNull() },
+          { expiresAt: nowIso() },
+        )
+      if (!result.affected) throw notFound('Pending invitation')
+      res.status(204).end()
+    },
+  )
+
+  const inviteLimit = ctx.limits.invitations
 
   async function manageableOpenCohort(req: Parameters<typeof currentUser>[0]) {
     const cohort = await cohortFor(ds, currentUser(req), String(req.params.id), 'manage')

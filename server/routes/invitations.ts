@@ -10,7 +10,6 @@ import {
 import type { AppContext } from '../context'
 import { CohortEntity, EnrollmentEntity, InvitationEntity, UserEntity, type UserRow } from '../entities'
 import { HttpError, conflict } from '../http-error'
-import { limiter } from '../middleware/rate-limit'
 import { validate } from '../middleware/validate'
 import { nowIso } from '../services/clock'
 import { startSession } from '../services/sessions'
@@ -22,7 +21,7 @@ const invalid = () =>
 export function invitationsRouter(ctx: AppContext): Router {
   const router = Router()
   const ds = ctx.dataSource
-  const limit = limiter(ctx.config.rateLimits, 'invitations')
+  const limit = ctx.limits.invitations
 
   async function pending(token: string) {
     const row = await ds
@@ -78,11 +77,23 @@ export function invitationsRouter(ctx: AppContext): Router {
           lastSignInAt: now,
         }
         await users.insert(row)
-        if (invitation.cohortId) {
+        // Other pending invitations of the same address (other cohorts) are honoured at once.
+        const others = await manager
+          .getRepository(InvitationEntity)
+          .findBy({ email: invitation.email, acceptedAt: IsNull() })
+        const cohortIds = new Set(
+          [invitation, ...others.filter((o) => o.expiresAt > now && o.role === invitation.role)]
+            .map((i) => i.cohortId)
+            .filter((id): id is string => id !== null),
+        )
+        for (const cohortId of cohortIds) {
           await manager
             .getRepository(EnrollmentEntity)
-            .insert({ id: randomUUID(), cohortId: invitation.cohortId, userId: row.id, createdAt: now })
+            .insert({ id: randomUUID(), cohortId, userId: row.id, createdAt: now })
         }
+        await manager
+          .getRepository(InvitationEntity)
+          .update({ email: invitation.email, acceptedAt: IsNull() }, { acceptedAt: now })
         return row
       })
       res.status(201).json(await startSession(ctx, res, user))

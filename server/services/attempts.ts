@@ -130,6 +130,8 @@ function checkRules(assignment: AssignmentRow, events: AttemptEvent[], usedAttem
   }
 }
 
+class LostRace extends Error {}
+
 export interface SubmitResult {
   created: boolean
   attempt: AttemptRow
@@ -183,8 +185,15 @@ export async function submitAttempt(
   }
   try {
     await ds.transaction(async (manager) => {
-      if (existing) await manager.getRepository(AttemptEntity).update({ id: row.id }, row)
-      else await manager.getRepository(AttemptEntity).insert(row)
+      if (existing) {
+        // Only a draft may change; if a racing request submitted it meanwhile, that one wins.
+        const changed = await manager
+          .getRepository(AttemptEntity)
+          .update({ id: row.id, status: 'inProgress' }, row)
+        if (!changed.affected) throw new LostRace()
+      } else {
+        await manager.getRepository(AttemptEntity).insert(row)
+      }
       if (grade) {
         await manager.getRepository(AuditEntryEntity).insert({
           id: randomUUID(),
@@ -202,7 +211,8 @@ export async function submitAttempt(
   } catch (error) {
     // Two identical submissions racing: the loser returns the winner's stored result.
     const winner = await attempts.findOneBy({ id: body.id })
-    if (winner?.userId === user.id && !existing) return { created: false, attempt: winner }
+    if (winner?.userId === user.id && (error instanceof LostRace || !existing))
+      return { created: false, attempt: winner }
     throw error
   }
   if (grade && assignment) {

@@ -13,6 +13,10 @@ import { hashToken, newOpaqueToken } from './tokens'
 
 /** Inactivity limit: a refresh token unused for this long expires (each refresh starts a new one). */
 export const REFRESH_TTL_MS = 7 * DAY
+/** Absolute limit: however active, a session ends this long after its sign-in (OWASP ASVS). */
+export const SESSION_MAX_MS = 30 * DAY
+/** How long a just-rotated refresh token may still be presented (parallel requests of one client). */
+export const ROTATION_GRACE_MS = 10_000
 const COOKIE_PATH = '/api/auth'
 
 function cookieOptions(ctx: AppContext) {
@@ -31,11 +35,24 @@ export async function startSession(
   familyId: string = randomUUID(),
   manager: EntityManager = ctx.dataSource.manager,
 ): Promise<SessionResponse> {
+  await issueRefreshToken(ctx, res, manager, user.id, familyId)
+  const access = ctx.tokens.issue({ sub: user.id, role: user.role, tv: user.tokenVersion })
+  return { accessToken: access.token, expiresAt: access.expiresAt, user: presentUser(user) }
+}
+
+/** Stores a new refresh token of the family, sets its cookie, and returns its row id. */
+async function issueRefreshToken(
+  ctx: AppContext,
+  res: Response,
+  manager: EntityManager,
+  userId: string,
+  familyId: string,
+): Promise<string> {
   const { token, hash } = newOpaqueToken()
   const id = randomUUID()
   await manager.getRepository(RefreshTokenEntity).insert({
     id,
-    userId: user.id,
+    userId,
     familyId,
     tokenHash: hash,
     expiresAt: isoIn(REFRESH_TTL_MS),
@@ -44,8 +61,7 @@ export async function startSession(
     replacedById: null,
   })
   res.cookie(REFRESH_COOKIE_NAME, token, { ...cookieOptions(ctx), maxAge: REFRESH_TTL_MS })
-  const access = ctx.tokens.issue({ sub: user.id, role: user.role, tv: user.tokenVersion })
-  return { accessToken: access.token, expiresAt: access.expiresAt, user: presentUser(user) }
+  return id
 }
 
 export function clearSessionCookie(ctx: AppContext, res: Response) {
@@ -66,7 +82,13 @@ export async function refreshSession(ctx: AppContext, req: Request, res: Respons
     const row = await repo.findOneBy({ tokenHash: hashToken(token) })
     if (!row)
       return { error: new HttpError(401, 'refresh_token_invalid', 'This session is not valid; sign in') }
-    if (row.revokedAt) {
+    // Two requests of one browser refreshing at once both present the same token: a token replaced
+    // by rotation moments ago still rotates (within the grace period); anything later is reuse.
+    const justRotated =
+      row.revokedAt !== null &&
+      row.replacedById !== null &&
+      Date.now() - Date.parse(row.revokedAt) < ROTATION_GRACE_MS
+    if (row.revokedAt && !justRotated) {
       await repo.update({ familyId: row.familyId, revokedAt: IsNull() }, { revokedAt: nowIso() })
       return {
         error: new HttpError(
@@ -76,15 +98,18 @@ export async function refreshSession(ctx: AppContext, req: Request, res: Respons
         ),
       }
     }
-    if (row.expiresAt <= nowIso()) {
+    const first = await repo.findOne({ where: { familyId: row.familyId }, order: { createdAt: 'ASC' } })
+    const absoluteEnd = new Date(Date.parse(first?.createdAt ?? row.createdAt) + SESSION_MAX_MS).toISOString()
+    if (row.expiresAt <= nowIso() || absoluteEnd <= nowIso()) {
       return { error: new HttpError(401, 'refresh_token_invalid', 'This session has expired; sign in') }
     }
     const user = await manager.getRepository(UserEntity).findOneBy({ id: row.userId })
     if (!user?.active)
       return { error: new HttpError(401, 'account_inactive', 'This account has been deactivated') }
-    const session = await startSession(ctx, res, user, row.familyId, manager)
-    await repo.update({ id: row.id }, { revokedAt: nowIso() })
-    return { session }
+    const nextId = await issueRefreshToken(ctx, res, manager, user.id, row.familyId)
+    if (!row.revokedAt) await repo.update({ id: row.id }, { revokedAt: nowIso(), replacedById: nextId })
+    const access = ctx.tokens.issue({ sub: user.id, role: user.role, tv: user.tokenVersion })
+    return { session: { accessToken: access.token, expiresAt: access.expiresAt, user: presentUser(user) } }
   })
   if (outcome.error) {
     clearSessionCookie(ctx, res)

@@ -41,6 +41,9 @@ export type RosterRowError = z.infer<typeof rosterRowErrorSchema>
 export const rosterImportResultSchema = z.object({ items: z.array(inviteOutcomeSchema) })
 export type RosterImportResult = z.infer<typeof rosterImportResultSchema>
 
+/** DELETE /api/cohorts/:id/invitations/:invitationId withdraws a pending invitation. */
+export const cohortInvitationParamsSchema = z.object({ id: idSchema, invitationId: idSchema })
+
 export const invitationTokenParamsSchema = z.object({ token: z.string().min(16).max(200) })
 
 /** What the invitee sees before setting a password (public, by token). */

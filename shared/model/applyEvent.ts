@@ -17,13 +17,12 @@ import {
   type SettingValues,
 } from './settings'
 import { settle } from './settle'
-import { advanceTo, type BreakpointSink } from './time'
+import { advancePieces, type BreakpointSink } from './time'
 import type { BreakpointKind, DeviceState, EventMessage, SimState } from './types'
 
 function withDrive(state: SimState, drive: DrivePlain): SimState {
   return drive === state.drive ? state : { ...state, drive }
 }
-
 
 function refuse(state: SimState, message: EventMessage): SimState {
   return { ...state, messages: [message] }
@@ -42,7 +41,10 @@ function deviceFor(
   const device = state.devices[id]
   if (!device) return { code: 'unknownDevice', text: `There is no device "${id}" on this panel.` }
   if (!kinds.includes(device.spec.kind)) {
-    return { code: 'wrongDeviceKind', text: `${device.spec.label} is a ${device.spec.kind}: it cannot be ${action}.` }
+    return {
+      code: 'wrongDeviceKind',
+      text: `${device.spec.label} is a ${device.spec.kind}: it cannot be ${action}.`,
+    }
   }
   return device
 }
@@ -72,7 +74,11 @@ function saveSettings(state: SimState): SimState {
       messages.push({ code: 'settingRefused', key, text: check.message })
       refused[key] = value
     } else if (turning && !settingDef(key).changeWhileRunning && check.value !== state.settings.active[key]) {
-      messages.push({ code: 'settingRefused', key, text: `Stop the drive before changing ${def.label.toLowerCase()}.` })
+      messages.push({
+        code: 'settingRefused',
+        key,
+        text: `Stop the drive before changing ${def.label.toLowerCase()}.`,
+      })
       refused[key] = value
     } else {
       candidate[key] = check.value
@@ -90,8 +96,7 @@ function saveSettings(state: SimState): SimState {
   }
   messages.push({
     code: 'settingsSaved',
-    text:
-      accepted.length === 1 ? 'Saved 1 setting.' : `Saved ${accepted.length} settings.`,
+    text: accepted.length === 1 ? 'Saved 1 setting.' : `Saved ${accepted.length} settings.`,
   })
   const active = candidate as SettingValues
   let next: SimState = { ...state, settings: { active, pending: refused }, messages }
@@ -103,7 +108,8 @@ function saveSettings(state: SimState): SimState {
 }
 
 function pressKey(state: SimState, key: 'run' | 'stop' | 'reset'): SimState {
-  if (!state.bus.controlOn) return refuse(state, { code: 'keypadDark', text: 'The keypad is dark: the drive has no power.' })
+  if (!state.bus.controlOn)
+    return refuse(state, { code: 'keypadDark', text: 'The keypad is dark: the drive has no power.' })
   const next = withDrive(state, sendDrive(state.drive, { type: 'KEY', key }))
   if (key === 'reset' && state.drive.value.fault === 'tripped' && next.drive.value.fault === 'tripped') {
     return refuse(next, {
@@ -157,7 +163,10 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
           })
         }
         if (!pointsOf(state).index.has(point)) {
-          return refuse(state, { code: 'unknownPoint', text: `There is no terminal "${point}" on this panel.` })
+          return refuse(state, {
+            code: 'unknownPoint',
+            text: `There is no terminal "${point}" on this panel.`,
+          })
         }
       }
       if (event.from === event.to) {
@@ -213,7 +222,10 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
       return powerOff(state)
     case 'lock.applied':
       if (state.power.on) {
-        return refuse(state, { code: 'lockNeedsPowerOff', text: 'Switch the disconnect off before applying your lock.' })
+        return refuse(state, {
+          code: 'lockNeedsPowerOff',
+          text: 'Switch the disconnect off before applying your lock.',
+        })
       }
       return state.power.locked ? state : { ...state, power: { ...state.power, locked: true } }
     case 'lock.removed':
@@ -227,7 +239,8 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
       return { ...state, meter: { red: event.red, black: event.black } }
     }
     case 'keypad.key':
-      if (event.key === 'run' || event.key === 'stop' || event.key === 'reset') return pressKey(state, event.key)
+      if (event.key === 'run' || event.key === 'stop' || event.key === 'reset')
+        return pressKey(state, event.key)
       return state
     case 'hint.revealed':
     case 'attempt.ended':
@@ -248,18 +261,20 @@ function needsSettling(before: SimState, after: SimState): boolean {
   )
 }
 
+const NO_MESSAGES: EventMessage[] = []
+
 function applyEventWith(state: SimState, event: AttemptEvent, sink: BreakpointSink): SimState {
   if (!Number.isInteger(event.t) || event.t < state.t) {
     throw new ModelInputError(
       `Event "${event.type}" at ${event.t} ms is before the simulation time ${state.t} ms (events must be in order).`,
     )
   }
-  const current = advanceTo(state, event.t, sink)
-  const cleared = current.messages.length > 0 ? { ...current, messages: [] } : current
-  const next = applyToState(cleared, event)
+  const current = advancePieces(state, event.t, sink)
+  // Handlers return their input unchanged or a fresh copy of it: either way the result is ours to finish.
+  const next = applyToState({ ...current, t: event.t, messages: NO_MESSAGES }, event)
   // Events that touch nothing physical (meter probes, pending edits, navigation keys, hints) need no settling.
   if (!needsSettling(current, next)) return next
-  return settle(next, event.t, current.drive.value)
+  return settle(next, event.t, current.drive.value, true)
 }
 
 export function applyEvent(state: SimState, event: AttemptEvent): SimState {

@@ -59,7 +59,10 @@ export function nextBusBreakpoint(piece: BusPieceLike, lineVolts: number): BusBr
     return { t: piece.since + Math.max(0, nominal - piece.volts) / rate, what: 'busCharged' }
   }
   if (piece.mode === 'decayLoaded') {
-    return { t: piece.since + LOADED_TAU_MS * Math.log(Math.max(1, piece.volts / threshold)), what: 'controlOff' }
+    return {
+      t: piece.since + LOADED_TAU_MS * Math.log(Math.max(1, piece.volts / threshold)),
+      what: 'controlOff',
+    }
   }
   return null
 }

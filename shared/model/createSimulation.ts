@@ -13,7 +13,6 @@ export const DEFAULT_LINE_VOLTS = 400
 /** Default load: coast time constant 4 s; any decel ramp tolerated (ours, for the demo machine). */
 export const DEFAULT_MACHINE = { coastSeconds: 4, minDecelSeconds: 0 }
 
-
 function fail(message: string): never {
   throw new ModelInputError(message)
 }
@@ -30,11 +29,13 @@ function checkSetup(setup: SimulationSetup): SettingValues {
     wireIds.add(w.id)
   }
   for (const f of setup.faults) {
-    if (f.kind === 'brokenWire' && !wireIds.has(f.wireId)) fail(`The broken-wire fault names no wire "${f.wireId}".`)
+    if (f.kind === 'brokenWire' && !wireIds.has(f.wireId))
+      fail(`The broken-wire fault names no wire "${f.wireId}".`)
     if ('device' in f) {
       const device = setup.devices.find((d) => d.id === f.device)
       if (!device) fail(`The ${f.kind} fault names no device "${f.device}".`)
-      if (device.kind === 'potentiometer') fail(`The ${f.kind} fault needs a device with a contact, not "${f.device}".`)
+      if (device.kind === 'potentiometer')
+        fail(`The ${f.kind} fault needs a device with a contact, not "${f.device}".`)
     }
   }
   if (setup.power.on && setup.power.locked) fail('The disconnect cannot be locked while it is on.')
@@ -88,7 +89,13 @@ export function createSimulation(setup: SimulationSetup): SimState {
     inputs: [false, false, false, false, false, false],
     raiseLowerFirst: null,
     drive: sendDrive(initialDrive(), { type: 'CONFIGURE', config: driveConfig(active) }),
-    circuit: { key: '', analogVolts: 0, supplyOverloaded: false, referenceOverloaded: false, relayClosed: false },
+    circuit: {
+      key: '',
+      analogVolts: 0,
+      supplyOverloaded: false,
+      referenceOverloaded: false,
+      relayClosed: false,
+    },
     bus: valid.power.on
       ? { mode: 'steady', since: 0, volts: nominalBusVolts(lineVolts), controlOn: true }
       : { mode: 'decayIdle', since: 0, volts: 0, controlOn: false },
@@ -103,4 +110,3 @@ export function createSimulation(setup: SimulationSetup): SimState {
   }
   return settle(state, 0)
 }
-

@@ -166,7 +166,10 @@ export const driveMachine = setup({
     causes: { externalFault: false, supplyOverload: false },
   },
   on: {
-    SIGNALS: [{ guard: 'resetEdgeAllowed', actions: ['takeSignals', 'clearFaults'] }, { actions: 'takeSignals' }],
+    SIGNALS: [
+      { guard: 'resetEdgeAllowed', actions: ['takeSignals', 'clearFaults'] },
+      { actions: 'takeSignals' },
+    ],
     CONFIGURE: { actions: 'takeConfig' },
     SUPPLY: { actions: 'takeSupply' },
     // Run and stop keys act in every state; run is only honoured in keypad control.
@@ -184,12 +187,18 @@ export const driveMachine = setup({
         charging: {
           on: {
             BUS_CHARGED: { target: 'ready', actions: 'armRestartInterlock' },
-            POWER_OFF: [{ guard: 'controlStaysOn', target: 'discharging' }, { target: 'off', actions: 'resetElectronics' }],
+            POWER_OFF: [
+              { guard: 'controlStaysOn', target: 'discharging' },
+              { target: 'off', actions: 'resetElectronics' },
+            ],
           },
         },
         ready: {
           on: {
-            POWER_OFF: [{ guard: 'controlStaysOn', target: 'discharging' }, { target: 'off', actions: 'resetElectronics' }],
+            POWER_OFF: [
+              { guard: 'controlStaysOn', target: 'discharging' },
+              { target: 'off', actions: 'resetElectronics' },
+            ],
           },
         },
         discharging: {
@@ -267,7 +276,10 @@ export const driveMachine = setup({
         tripped: {
           always: { guard: 'noFaults', target: 'clear' },
           on: {
-            KEY: { guard: and(['resetAllowed', ({ event }) => event.key === 'reset']), actions: 'clearFaults' },
+            KEY: {
+              guard: and(['resetAllowed', ({ event }) => event.key === 'reset']),
+              actions: 'clearFaults',
+            },
           },
         },
       },

@@ -13,7 +13,10 @@ export interface DrivePlain {
 type DriveSnapshot = SnapshotFrom<typeof driveMachine>
 
 const snapshotOf = new WeakMap<DrivePlain, DriveSnapshot>()
-const keyOf = new WeakMap<DrivePlain, string>()
+/** Each distinct drive state gets a small id (by its JSON), so memo keys stay short. */
+const idOf = new WeakMap<DrivePlain, number>()
+const idByJson = new Map<string, number>()
+let nextId = 0
 const memo = new Map<string, DrivePlain>()
 const MEMO_LIMIT = 20_000
 let machineSteps = 0
@@ -37,13 +40,20 @@ function snapshotFor(plain: DrivePlain): DriveSnapshot {
   return snapshot
 }
 
-function stateKey(plain: DrivePlain): string {
-  let key = keyOf.get(plain)
-  if (key === undefined) {
-    key = JSON.stringify(plain)
-    keyOf.set(plain, key)
+function stateId(plain: DrivePlain): number {
+  let id = idOf.get(plain)
+  if (id === undefined) {
+    const json = JSON.stringify(plain)
+    id = idByJson.get(json)
+    if (id === undefined) {
+      // Ids are never reused (even after a clear), so a cached id can never name another state.
+      id = nextId++
+      if (idByJson.size >= 100_000) idByJson.clear()
+      idByJson.set(json, id)
+    }
+    idOf.set(plain, id)
   }
-  return key
+  return id
 }
 
 export function initialDrive(): DrivePlain {
@@ -51,15 +61,36 @@ export function initialDrive(): DrivePlain {
   return toPlain(snapshot)
 }
 
+function eventKey(event: DriveEvent): string {
+  switch (event.type) {
+    case 'SIGNALS': {
+      const s = event.signals
+      return `G${+s.run}${+s.start}${+s.stop}${+s.reverse}${+s.faultReset}${+s.externalFault}`
+    }
+    case 'POWER_OFF':
+      return `O${+event.controlOn}`
+    case 'SUPPLY':
+      return `U${+event.overloaded}`
+    case 'ALARMS':
+      return `A${+event.present}`
+    case 'KEY':
+      return `K${event.key}`
+    case 'TREND':
+      return `T${event.trend}`
+    default:
+      return JSON.stringify(event)
+  }
+}
+
 export function sendDrive(plain: DrivePlain, event: DriveEvent): DrivePlain {
-  const key = `${stateKey(plain)}|${JSON.stringify(event)}`
+  const key = `${stateId(plain)}|${eventKey(event)}`
   const hit = memo.get(key)
   if (hit) return hit
   machineSteps++
   const [next] = transition(driveMachine, snapshotFor(plain), event)
   let result = toPlain(next)
   // Keep identity when nothing changed, so callers can compare states with ===.
-  if (stateKey(result) === stateKey(plain)) result = plain
+  if (stateId(result) === stateId(plain)) result = plain
   if (memo.size >= MEMO_LIMIT) memo.clear()
   memo.set(key, result)
   return result
@@ -72,4 +103,5 @@ export function driveStepCount(): number {
 
 export function clearDriveMemo(): void {
   memo.clear()
+  idByJson.clear()
 }

@@ -3,7 +3,11 @@ import { z } from 'zod'
 import { CONTACT_TYPES, WIRE_COLOURS, pointIdSchema } from './setup'
 import { SETTING_KEYS } from './settings'
 
-const t = z.number().int().min(0).max(7 * 24 * 3600 * 1000)
+const t = z
+  .number()
+  .int()
+  .min(0)
+  .max(7 * 24 * 3600 * 1000)
 const id = z.string().min(1).max(64)
 
 export const KEYPAD_KEYS = ['run', 'stop', 'reset', 'up', 'down', 'left', 'right', 'enter', 'back'] as const
@@ -21,7 +25,12 @@ export const attemptEventSchema = z.discriminatedUnion('type', [
   z.object({ t, type: z.literal('wire.removed'), id }),
   z.object({ t, type: z.literal('device.pressed'), device: id }),
   z.object({ t, type: z.literal('device.released'), device: id }),
-  z.object({ t, type: z.literal('device.switched'), device: id, position: z.union([z.literal(0), z.literal(1)]) }),
+  z.object({
+    t,
+    type: z.literal('device.switched'),
+    device: id,
+    position: z.union([z.literal(0), z.literal(1)]),
+  }),
   z.object({ t, type: z.literal('device.turned'), device: id, position: z.number().min(0).max(1) }),
   z.object({ t, type: z.literal('device.contactFitted'), device: id, contact: z.enum(CONTACT_TYPES) }),
   z.object({ t, type: z.literal('fuse.replaced') }),
@@ -36,7 +45,12 @@ export const attemptEventSchema = z.discriminatedUnion('type', [
   z.object({ t, type: z.literal('power.off') }),
   z.object({ t, type: z.literal('lock.applied') }),
   z.object({ t, type: z.literal('lock.removed') }),
-  z.object({ t, type: z.literal('meter.probes'), red: pointIdSchema.nullable(), black: pointIdSchema.nullable() }),
+  z.object({
+    t,
+    type: z.literal('meter.probes'),
+    red: pointIdSchema.nullable(),
+    black: pointIdSchema.nullable(),
+  }),
   z.object({ t, type: z.literal('keypad.key'), key: z.enum(KEYPAD_KEYS) }),
   z.object({ t, type: z.literal('hint.revealed'), hintId: id }),
   z.object({ t, type: z.literal('attempt.ended') }),

@@ -15,10 +15,16 @@ export function inputFunctions(settings: SettingValues): InputFunction[] {
   return fns
 }
 
-const levelsCache = new WeakMap<readonly boolean[], { settings: SettingValues; levels: Record<InputFunction, boolean> }>()
+const levelsCache = new WeakMap<
+  readonly boolean[],
+  { settings: SettingValues; levels: Record<InputFunction, boolean> }
+>()
 
 /** ON if any input with that function is ON (cached per inputs array and settings object). */
-export function functionLevels(settings: SettingValues, inputs: readonly boolean[]): Record<InputFunction, boolean> {
+export function functionLevels(
+  settings: SettingValues,
+  inputs: readonly boolean[],
+): Record<InputFunction, boolean> {
   const cached = levelsCache.get(inputs)
   if (cached && cached.settings === settings) return cached.levels
   const levels: Record<InputFunction, boolean> = {
@@ -47,7 +53,11 @@ export function isAssigned(settings: SettingValues, fn: InputFunction): boolean 
  * The signals the drive logic sees. The external-fault input is fail-safe (normally closed): the
  * fault is present while the assigned input is OFF (common practice for monitoring contacts).
  */
-export function driveSignals(settings: SettingValues, inputs: readonly boolean[], controlOn: boolean): DriveSignals {
+export function driveSignals(
+  settings: SettingValues,
+  inputs: readonly boolean[],
+  controlOn: boolean,
+): DriveSignals {
   const levels = functionLevels(settings, inputs)
   const externalFault = controlOn && isAssigned(settings, 'externalFault') && !levels.externalFault
   let cached = signalsCache.get(levels)
@@ -89,5 +99,10 @@ export function sameSignals(a: DriveSignals, b: DriveSignals): boolean {
 }
 
 export function sameConfig(a: DriveConfig, b: DriveConfig): boolean {
-  return a.source === b.source && a.stopMode === b.stopMode && a.runMode === b.runMode && a.reverseAllowed === b.reverseAllowed
+  return (
+    a.source === b.source &&
+    a.stopMode === b.stopMode &&
+    a.runMode === b.runMode &&
+    a.reverseAllowed === b.reverseAllowed
+  )
 }

@@ -100,7 +100,11 @@ export function trendOf(piece: SpeedPiece): 'up' | 'down' | 'steady' {
 
 /** Deceleration rate (Hz per ms, ≥ 0) the piece asks of the motor; 0 when not slowing down. */
 export function decelerationOf(piece: SpeedPiece): number {
-  if ((piece.mode === 'ramp' || piece.mode === 'track') && piece.slope !== 0 && !magnitudeRises(piece.hz, piece.slope)) {
+  if (
+    (piece.mode === 'ramp' || piece.mode === 'track') &&
+    piece.slope !== 0 &&
+    !magnitudeRises(piece.hz, piece.slope)
+  ) {
     return Math.abs(piece.slope)
   }
   return 0

@@ -17,13 +17,23 @@ export function slipFraction(ratedFrequencyHz: number, poles: number, ratedRpm: 
  * the motor model has no torque or load estimate, so slip is assumed to be the rated slip fraction
  * (common practice for a V/Hz drive display without slip compensation).
  */
-export function shaftRpm(frequencyHz: number, poles: number, ratedFrequencyHz: number, ratedRpm: number): number {
+export function shaftRpm(
+  frequencyHz: number,
+  poles: number,
+  ratedFrequencyHz: number,
+  ratedRpm: number,
+): number {
   const s = slipFraction(ratedFrequencyHz, poles, ratedRpm)
   return synchronousRpm(frequencyHz, poles) * (1 - s)
 }
 
 /** The output frequency that gives a shaft speed (inverse of shaftRpm). */
-export function frequencyForRpm(rpm: number, poles: number, ratedFrequencyHz: number, ratedRpm: number): number {
+export function frequencyForRpm(
+  rpm: number,
+  poles: number,
+  ratedFrequencyHz: number,
+  ratedRpm: number,
+): number {
   const s = slipFraction(ratedFrequencyHz, poles, ratedRpm)
   return (rpm * poles) / (120 * (1 - s))
 }

@@ -10,7 +10,10 @@ function fnLabel(fn: InputFunction): string {
   return option ? option.label.toLowerCase() : fn
 }
 
-const alarmCache = new WeakMap<SettingValues, { normal?: Notice<AlarmCode>[]; overloaded?: Notice<AlarmCode>[] }>()
+const alarmCache = new WeakMap<
+  SettingValues,
+  { normal?: Notice<AlarmCode>[]; overloaded?: Notice<AlarmCode>[] }
+>()
 
 /** Alarms for the saved settings (cached per settings object: settings are replaced, never mutated). */
 export function alarmsFor(settings: SettingValues, referenceOverloaded: boolean): Notice<AlarmCode>[] {

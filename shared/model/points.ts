@@ -22,7 +22,14 @@ export const DRIVE_CONTROL_POINTS = [
 export type DriveControlPoint = (typeof DRIVE_CONTROL_POINTS)[number]
 
 /** Power terminals: reachable by the meter only (never wired in the simulator). */
-export const DRIVE_POWER_POINTS = ['drive.l1', 'drive.l2', 'drive.l3', 'drive.dcp', 'drive.dcn', 'drive.pe'] as const
+export const DRIVE_POWER_POINTS = [
+  'drive.l1',
+  'drive.l2',
+  'drive.l3',
+  'drive.dcp',
+  'drive.dcn',
+  'drive.pe',
+] as const
 export type DrivePowerPoint = (typeof DRIVE_POWER_POINTS)[number]
 
 export type PointId = string

@@ -60,13 +60,25 @@ function meterReading(state: SimState): MeterReading {
     const b = powerPotential(black, state, bus)
     // An auto-ranging meter: AC when a line terminal is probed, DC otherwise.
     if (isLineTerminal(red) || isLineTerminal(black)) {
-      return { red, black, volts: round(Math.hypot(a.re - b.re, a.im - b.im), 6), mode: 'AC', floating: false }
+      return {
+        red,
+        black,
+        volts: round(Math.hypot(a.re - b.re, a.im - b.im), 6),
+        mode: 'AC',
+        floating: false,
+      }
     }
     return { red, black, volts: round(a.dc - b.dc, 6), mode: 'DC', floating: false }
   }
   if (redPower || blackPower) {
     // The control circuit is isolated from the power circuit: nothing to close the meter's loop.
-    return { red, black, volts: 0, mode: isLineTerminal(red) || isLineTerminal(black) ? 'AC' : 'DC', floating: true }
+    return {
+      red,
+      black,
+      volts: 0,
+      mode: isLineTerminal(red) || isLineTerminal(black) ? 'AC' : 'DC',
+      floating: true,
+    }
   }
   const { index } = pointsOf(state)
   const config = circuitConfig(state, state.bus.controlOn, state.circuit.relayClosed)
@@ -136,7 +148,10 @@ export function readDrive(state: SimState): DriveReading {
     faults: context.faults.map(faultNotice),
     tripped: value.fault === 'tripped',
     restartInterlock:
-      context.interlock && context.signals.run && a['control.source'] === 'terminals' && value.control === 'stopped',
+      context.interlock &&
+      context.signals.run &&
+      a['control.source'] === 'terminals' &&
+      value.control === 'stopped',
     relayClosed: state.circuit.relayClosed,
     inputs: [...state.inputs],
     messages: state.messages,

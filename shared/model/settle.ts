@@ -1,19 +1,32 @@
 // Settling the model at one instant: circuit → inputs → drive machine → continuous pieces → machine,
 // repeated until nothing changes. Works on a private shallow copy of the state (one per step).
-import { circuitConfig, pointsOf } from './circuit/config'
-import { solveCircuit } from './circuit/controlCircuit'
+import { circuitConfig } from './circuit/config'
+import { solveForDrive } from './circuit/controlCircuit'
 import { inputRegion, nextInputState } from './circuit/inputThresholds'
 import { NO_SIGNALS, type DriveEvent } from './driveMachine'
 import { sendDrive } from './driveTransitions'
 import { driveSignals, functionLevels, sameSignals } from './functions'
-import { decelerationOf, isAtStandstill, planSpeed, referenceAt, speedAt, trendOf, type SpeedPlan } from './motion'
+import {
+  decelerationOf,
+  isAtStandstill,
+  planSpeed,
+  referenceAt,
+  speedAt,
+  trendOf,
+  type SpeedPlan,
+} from './motion'
 import { alarmsFor } from './notices'
 import type { SettingValues } from './settings'
 import type { ControlState, DriveMachineValue, ReferencePiece, SimState } from './types'
 
 const RUNNING: ReadonlySet<ControlState> = new Set(['accelerating', 'atSpeed', 'decelerating'])
 /** Output stage on: running, or ramping down to a controlled stop. */
-const OUTPUT_ON: ReadonlySet<ControlState> = new Set(['accelerating', 'atSpeed', 'decelerating', 'rampStopping'])
+const OUTPUT_ON: ReadonlySet<ControlState> = new Set([
+  'accelerating',
+  'atSpeed',
+  'decelerating',
+  'rampStopping',
+])
 
 export function isRunning(control: ControlState): boolean {
   return RUNNING.has(control)
@@ -35,31 +48,65 @@ function relayCondition(value: DriveMachineValue, fn: SettingValues['relay.funct
   }
 }
 
+interface CircuitSources {
+  wires: SimState['wires']
+  brokenWires: SimState['brokenWires']
+  devices: SimState['devices']
+  settings: SettingValues
+  fuseBlown: boolean
+  controlOn: boolean
+  relay: boolean
+}
+/** What each circuit summary was computed from, to skip rebuilding an unchanged configuration. */
+const sourcesOf = new WeakMap<SimState['circuit'], CircuitSources>()
+
 /** Re-solves the control network if its configuration changed; updates inputs (with hysteresis). */
 function refreshCircuit(draft: SimState): void {
   const controlOn = draft.bus.controlOn
   const relay = controlOn && relayCondition(draft.drive.value, draft.settings.active['relay.function'])
+  const last = sourcesOf.get(draft.circuit)
+  if (
+    last !== undefined &&
+    last.wires === draft.wires &&
+    last.brokenWires === draft.brokenWires &&
+    last.devices === draft.devices &&
+    last.settings === draft.settings.active &&
+    last.fuseBlown === draft.fuseBlown &&
+    last.controlOn === controlOn &&
+    last.relay === relay
+  ) {
+    return
+  }
+  const sources: CircuitSources = {
+    wires: draft.wires,
+    brokenWires: draft.brokenWires,
+    devices: draft.devices,
+    settings: draft.settings.active,
+    fuseBlown: draft.fuseBlown,
+    controlOn,
+    relay,
+  }
   const config = circuitConfig(draft, controlOn, relay)
-  if (config.key === draft.circuit.key) return
-  const solution = solveCircuit(config)
+  if (config.key === draft.circuit.key) {
+    sourcesOf.set(draft.circuit, sources)
+    return
+  }
+  const solution = solveForDrive(config)
   let inputsChanged = false
   const inputs = solution.inputs.map((input, i) => {
     const on = nextInputState(draft.inputs[i], inputRegion(input.volts, input.milliamps))
     if (on !== draft.inputs[i]) inputsChanged = true
     return on
   })
-  const { index } = pointsOf(draft)
-  const analogVolts =
-    solution.netVolts[solution.netOfPoint[index.get('drive.ai')!]] -
-    solution.netVolts[solution.netOfPoint[index.get('drive.acom')!]]
   if (inputsChanged) draft.inputs = inputs
   draft.circuit = {
     key: config.key,
-    analogVolts,
+    analogVolts: solution.analogVolts,
     supplyOverloaded: solution.supplyOverloaded,
     referenceOverloaded: solution.referenceOverloaded,
     relayClosed: relay,
   }
+  sourcesOf.set(draft.circuit, sources)
 }
 
 function trackRaiseLowerOrder(draft: SimState): void {
@@ -94,7 +141,8 @@ export interface ActiveReference {
 /** The reference the drive follows now, from the control place and the remote source. */
 export function activeReference(state: SimState, emop: ReferencePiece, t: number): ActiveReference {
   const a = state.settings.active
-  if (a['control.source'] === 'keypad') return { source: 'keypad', hz: a['reference.keypadSetpoint'], slope: 0 }
+  if (a['control.source'] === 'keypad')
+    return { source: 'keypad', hz: a['reference.keypadSetpoint'], slope: 0 }
   if (state.bus.controlOn && functionLevels(a, state.inputs).preset) {
     return { source: 'preset', hz: a['preset.speed1'], slope: 0 }
   }
@@ -149,7 +197,15 @@ function replan(draft: SimState, now: number): void {
       emopSlope = (direction * a['raiseLower.rate']) / 1000
     }
   }
-  const reference: ReferencePiece = { since: now, hz: emopHz, slope: emopSlope }
+  const old = draft.reference
+  // Keep an unchanged piece as it is (fewer objects, and the same breakpoints as before).
+  const reference: ReferencePiece =
+    old.slope === emopSlope &&
+    (emopSlope !== 0 || old.hz === emopHz) &&
+    emopHz === snapToLimits(emopHz, min, max) &&
+    Math.abs(referenceAt(old, now) - emopHz) <= 1e-12 * Math.max(1, max)
+      ? old
+      : { since: now, hz: emopHz, slope: emopSlope }
   const active = activeReference(draft, reference, now)
   const sign = draft.drive.context.direction === 'reverse' ? -1 : 1
   const targetHz = running ? sign * clamp(active.hz, min, max) : 0
@@ -157,7 +213,18 @@ function replan(draft: SimState, now: number): void {
   const plan: SpeedPlan = control === 'stopped' ? 'stopped' : control === 'coasting' ? 'coasting' : 'toTarget'
   const hzNow = speedAt(draft.speed, now, draft.machine.coastSeconds * 1000)
   draft.reference = reference
-  draft.speed = planSpeed(hzNow, now, plan, targetHz, targetSlope, rampRates(a))
+  const speed = planSpeed(hzNow, now, plan, targetHz, targetSlope, rampRates(a))
+  if (!samePiece(draft.speed, speed, now)) draft.speed = speed
+}
+
+/** The new piece describes the same future as the old one. */
+function samePiece(old: SimState['speed'], next: SimState['speed'], now: number): boolean {
+  if (old.mode !== next.mode || old.slope !== next.slope || old.targetSlope !== next.targetSlope) return false
+  const oldTarget = old.targetHz + old.targetSlope * (now - old.since)
+  if (Math.abs(oldTarget - next.targetHz) > 1e-12) return false
+  if (old.mode === 'still') return true
+  if (old.mode === 'coast') return old === next || (old.since === next.since && old.hz === next.hz)
+  return Math.abs(old.hz + old.slope * (now - old.since) - next.hz) <= 1e-12
 }
 
 /** Raise/lower memory: back to minimum at a stop or at power loss when the settings say so. */
@@ -165,8 +232,10 @@ function applyMemories(before: DriveMachineValue, draft: SimState, now: number):
   const after = draft.drive.value
   if (after === before) return
   const a = draft.settings.active
-  const stopped = isRunning(before.control) && !isRunning(after.control) && a['raiseLower.memoryAtStop'] === 'reset'
-  const powerLost = before.power !== 'off' && after.power === 'off' && a['raiseLower.memoryAtPowerLoss'] === 'reset'
+  const stopped =
+    isRunning(before.control) && !isRunning(after.control) && a['raiseLower.memoryAtStop'] === 'reset'
+  const powerLost =
+    before.power !== 'off' && after.power === 'off' && a['raiseLower.memoryAtPowerLoss'] === 'reset'
   if (stopped || powerLost) draft.reference = { since: now, hz: a['speed.min'], slope: 0 }
 }
 
@@ -184,7 +253,8 @@ function machineFollowsMotion(state: SimState): DriveEvent | null {
     if (decelerationOf(speed) > tolerated * (1 + 1e-9)) return { type: 'OVERVOLTAGE' }
   }
   if (control === 'rampStopping' && speed.mode === 'still') return { type: 'STANDSTILL' }
-  if (control === 'coasting' && (speed.mode === 'still' || isAtStandstill(speed.hz))) return { type: 'STANDSTILL' }
+  if (control === 'coasting' && (speed.mode === 'still' || isAtStandstill(speed.hz)))
+    return { type: 'STANDSTILL' }
   return null
 }
 
@@ -198,10 +268,16 @@ function send(draft: SimState, event: DriveEvent, now: number): void {
 
 /**
  * Settles a state at `now` (ms, fractional at breakpoints). `before` is the drive state before the
- * step began (for the raise/lower memories). Returns a new state object.
+ * step began (for the raise/lower memories). `owned`: the caller made `input` in this step and
+ * nobody else holds it, so it may be completed in place; otherwise a copy is returned.
  */
-export function settle(input: SimState, now: number, before: DriveMachineValue = input.drive.value): SimState {
-  const draft: SimState = { ...input }
+export function settle(
+  input: SimState,
+  now: number,
+  before: DriveMachineValue = input.drive.value,
+  owned = false,
+): SimState {
+  const draft: SimState = owned ? input : { ...input }
   applyMemories(before, draft, now)
   for (let round = 0; round < 32; round++) {
     const startDrive = draft.drive

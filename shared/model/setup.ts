@@ -39,7 +39,11 @@ export const deviceSpecSchema = z
   })
   .superRefine((d, ctx) => {
     if (d.kind !== 'potentiometer' && !d.contact) {
-      ctx.addIssue({ code: 'custom', path: ['contact'], message: `a ${d.kind} needs a contact type (NO or NC)` })
+      ctx.addIssue({
+        code: 'custom',
+        path: ['contact'],
+        message: `a ${d.kind} needs a contact type (NO or NC)`,
+      })
     }
     if (d.kind === 'selector' && d.position !== undefined && d.position !== 0 && d.position !== 1) {
       ctx.addIssue({ code: 'custom', path: ['position'], message: 'a selector is in position 0 or 1' })

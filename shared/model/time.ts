@@ -38,21 +38,29 @@ function atBreakpoint(state: SimState, bp: Breakpoint): SimState {
       drive: sendDrive(state.drive, { type: 'CONTROL_OFF' }),
     }
   }
-  return settle(next, bp.t, before)
+  return settle(next, bp.t, before, next !== state)
 }
 
 const MAX_BREAKPOINTS_PER_STEP = 100_000
 
-/** Advances to `target` (ms), passing every breakpoint on the way; reports them to `sink`. */
-export function advanceTo(state: SimState, target: number, sink: BreakpointSink): SimState {
+/**
+ * Processes every breakpoint up to `target` (ms) and reports them to `sink`. The result's `t` is not
+ * moved to `target` (the caller sets it): the pieces already describe every moment up to the next breakpoint.
+ */
+export function advancePieces(state: SimState, target: number, sink: BreakpointSink): SimState {
   let current = state
   for (let n = 0; n < MAX_BREAKPOINTS_PER_STEP; n++) {
     const bp = nextBreakpoint(current)
-    if (!bp || bp.t > target) return target === current.t ? current : { ...current, t: target }
+    if (!bp || bp.t > target) return current
     current = atBreakpoint(current, bp)
     sink?.push(bp)
   }
   throw new Error('The model did not settle (too many breakpoints in one step).')
+}
+
+export function advanceTo(state: SimState, target: number, sink: BreakpointSink): SimState {
+  const current = advancePieces(state, target, sink)
+  return target === current.t ? current : { ...current, t: target }
 }
 
 export function advance(state: SimState, dtMs: number): SimState {

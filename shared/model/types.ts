@@ -4,7 +4,8 @@ import type { InputFunction, SettingKey, SettingValue, SettingValues } from './s
 import type { ContactType, DeviceSpec, MachineLoad, WireSpec } from './setup'
 
 export type PowerState = 'off' | 'charging' | 'ready' | 'discharging'
-export type ControlState = 'stopped' | 'accelerating' | 'atSpeed' | 'decelerating' | 'rampStopping' | 'coasting'
+export type ControlState =
+  'stopped' | 'accelerating' | 'atSpeed' | 'decelerating' | 'rampStopping' | 'coasting'
 export type Direction = 'forward' | 'reverse'
 
 export type FaultCode = 'externalFault' | 'supplyOverload' | 'powerLost' | 'busOvervoltage'

@@ -258,6 +258,14 @@ function checkObjective(
       }
       return
     case 'absenceOfVoltageProved':
+      // Nothing the meter can reach stays live once the drive is isolated and discharged (the model
+      // has no proving unit yet: tests/unit/scenario/modelGaps.test.ts), so this half cannot be met.
+      if (objective.proveMeterAfter) {
+        add(
+          ['proveMeterAfter'],
+          'unreachable: the simulator has no known live source to re-prove the meter on after isolation',
+        )
+      }
       objective.pairs?.forEach((pair, j) =>
         pair.forEach((point, k) => {
           if (!isDrivePowerPoint(point) && !isPoint(point))

@@ -5,7 +5,7 @@
 // hint revealed (never below zero). score = round(100 × points / total weight). An attempt passes when
 // points ≥ passMark AND every objective marked `required` is met (the scenarios mark their safety
 // objectives required, so an unsafe attempt cannot pass on points).
-import type { AttemptEvent } from '../model'
+import { ModelInputError, type AttemptEvent } from '../model'
 import { evaluate } from './evaluators'
 import { formatTime } from './format'
 import { SAFETY_KINDS, type ObjectiveKind } from './objectiveSchema'
@@ -58,11 +58,43 @@ export interface GradeOptions {
   endAt?: number
 }
 
+/**
+ * A log the grader cannot replay (it should have been refused at the edge by attemptLogSchema).
+ * A ModelInputError, so callers that already map the model's input errors to a 400 keep doing so.
+ */
+export class GradeInputError extends ModelInputError {
+  constructor(message: string) {
+    super(message)
+    this.name = 'GradeInputError'
+  }
+}
+
+function assertReplayable(events: readonly AttemptEvent[], endAt: number | undefined): void {
+  let previous = 0
+  events.forEach((event, index) => {
+    if (!Number.isInteger(event.t) || event.t < 0) {
+      throw new GradeInputError(
+        `events[${index}].t must be a whole number of milliseconds ≥ 0 (got ${event.t})`,
+      )
+    }
+    if (event.t < previous) {
+      throw new GradeInputError(
+        `events[${index}] at ${event.t} ms is earlier than the event before it (${previous} ms)`,
+      )
+    }
+    previous = event.t
+  })
+  if (endAt !== undefined && (!Number.isInteger(endAt) || endAt < 0)) {
+    throw new GradeInputError(`endAt must be a whole number of milliseconds ≥ 0 (got ${endAt})`)
+  }
+}
+
 export function grade(
   scenario: Scenario,
   events: readonly AttemptEvent[],
   options: GradeOptions = {},
 ): GradeResult {
+  assertReplayable(events, options.endAt)
   const trace = traceAttempt(toSimulationSetup(scenario), events, options.endAt)
   const context = { scenario, trace }
   const objectives: ObjectiveResult[] = scenario.objectives.map((objective) => {

@@ -3,6 +3,13 @@ export * from './schema'
 export * from './objectiveSchema'
 export { checkScenario, jsonPath, type ScenarioCheck, type ScenarioProblem } from './check'
 export { toSimulationSetup } from './setup'
-export { grade, type GradeOptions, type GradeResult, type HintUse, type ObjectiveResult } from './grade'
+export {
+  grade,
+  GradeInputError,
+  type GradeOptions,
+  type GradeResult,
+  type HintUse,
+  type ObjectiveResult,
+} from './grade'
 export { type SafetyViolation } from './safety'
 export { formatTime } from './format'

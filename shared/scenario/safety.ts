@@ -19,7 +19,11 @@ export interface TerminalWork {
   before: Sample
 }
 
-/** A meter reading of at least this many volts shows the meter works (a known live source). */
+/**
+ * A meter reading of at least this many volts shows the meter works on a known live source. Our own
+ * choice (not from a standard): above any residual reading, below the 24 V control supply, so either
+ * the line or the control supply proves the meter. Common practice is a dedicated proving unit.
+ */
 export const PROVING_VOLTS = 20
 
 export const DEFAULT_DEAD_PAIRS: readonly (readonly [string, string])[] = [

@@ -4,8 +4,6 @@
 // sampled per millisecond.
 import {
   advance,
-  applyEvent,
-  createSimulation,
   readCircuit,
   readDrive,
   replay,
@@ -52,11 +50,12 @@ export function traceAttempt(
 ): AttemptTrace {
   const lastEventT = events.length > 0 ? events[events.length - 1].t : 0
   const end = Math.max(lastEventT, endAt ?? 0)
-  // The model's own replay tells where its closed-form pieces end; sample there as well.
-  const breakpoints = replay(setup, [...events]).breakpoints.map((b) => Math.ceil(b.t))
+  // The model's own replay gives the state after each event and where its closed-form pieces end.
+  const timeline = replay(setup, [...events])
+  const breakpoints = timeline.breakpoints.map((b) => Math.ceil(b.t)).sort((a, b) => a - b)
   let next = 0
   const samples: Sample[] = []
-  let state = createSimulation(setup)
+  let state = timeline.segments[0].state
   samples.push(sampleOf(state, 'start', -1, 0))
 
   let applied = 0
@@ -74,7 +73,7 @@ export function traceAttempt(
   events.forEach((event, index) => {
     advanceTo(event.t)
     samples.push(sampleOf(state, 'before', index, index))
-    state = applyEvent(state, event)
+    state = timeline.segments[index + 1].state
     applied = index + 1
     samples.push(sampleOf(state, 'after', index, applied))
   })

@@ -26,7 +26,12 @@ export function nameplateLines(s: SettingValues): string[] {
   ]
 }
 
-export function deriveView(sim: SimState, drive: DriveReading, circuit: CircuitReading, ui: PanelUiState): PanelView {
+export function deriveView(
+  sim: SimState,
+  drive: DriveReading,
+  circuit: CircuitReading,
+  ui: PanelUiState,
+): PanelView {
   const devices: PanelView['devices'] = {}
   for (const id of sim.deviceOrder) {
     const d = sim.devices[id]

@@ -50,9 +50,13 @@ export function pointerDown(ctx: InteractionContext, hit: Hit | null, p: Vec): G
       const device = ctx.layout.devices.find((d) => d.id === hit.device)
       if (!device) return { gesture: IDLE, intents: [] }
       if (device.kind === 'pushbutton') {
-        return { gesture: { kind: 'holding', device: device.id }, intents: [{ type: 'device.press', device: device.id }] }
+        return {
+          gesture: { kind: 'holding', device: device.id },
+          intents: [{ type: 'device.press', device: device.id }],
+        }
       }
-      if (device.kind === 'selector') return { gesture: IDLE, intents: [{ type: 'device.toggle', device: device.id }] }
+      if (device.kind === 'selector')
+        return { gesture: IDLE, intents: [{ type: 'device.toggle', device: device.id }] }
       const position = ctx.positions[device.id] ?? 0
       return {
         gesture: { kind: 'turning', device: device.id, startX: p.x, startPosition: position, position },

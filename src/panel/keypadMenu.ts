@@ -25,7 +25,8 @@ export interface KeypadValues {
 }
 
 /** Model events the keypad asks for besides recording the key itself. */
-export type KeypadOutput = { type: 'setting.changed'; key: SettingKey; value: SettingValue } | { type: 'settings.saved' }
+export type KeypadOutput =
+  { type: 'setting.changed'; key: SettingKey; value: SettingValue } | { type: 'settings.saved' }
 
 const GROUP_ITEMS: SettingDef[][] = SETTING_GROUPS.map((g) =>
   (SETTINGS as readonly SettingDef[]).filter((s) => s.group === g.id),
@@ -69,9 +70,13 @@ export function pressKey(
       return key === 'enter' || key === 'right' ? { menu: { screen: 'groups', group: 0 }, output: [] } : same
     case 'groups':
       if (key === 'up' || key === 'down') {
-        return { menu: { ...menu, group: wrap(menu.group + (key === 'down' ? 1 : -1), GROUP_ITEMS.length) }, output: [] }
+        return {
+          menu: { ...menu, group: wrap(menu.group + (key === 'down' ? 1 : -1), GROUP_ITEMS.length) },
+          output: [],
+        }
       }
-      if (key === 'enter' || key === 'right') return { menu: { screen: 'settings', group: menu.group, item: 0 }, output: [] }
+      if (key === 'enter' || key === 'right')
+        return { menu: { screen: 'settings', group: menu.group, item: 0 }, output: [] }
       if (key === 'back' || key === 'left') return { menu: STATUS_SCREEN, output: [] }
       return same
     case 'settings': {
@@ -81,24 +86,38 @@ export function pressKey(
       }
       if (key === 'enter' || key === 'right') {
         const def = settingAt(menu.group, menu.item)
-        return { menu: { ...menu, screen: 'edit', value: currentValue(values, def.key as SettingKey) }, output: [] }
+        return {
+          menu: { ...menu, screen: 'edit', value: currentValue(values, def.key as SettingKey) },
+          output: [],
+        }
       }
-      if (key === 'back' || key === 'left') return { menu: { screen: 'groups', group: menu.group }, output: [] }
+      if (key === 'back' || key === 'left')
+        return { menu: { screen: 'groups', group: menu.group }, output: [] }
       return same
     }
     case 'edit': {
       const def = settingAt(menu.group, menu.item)
       if (key === 'up' || key === 'down') {
-        return { menu: { ...menu, value: stepValue(def, menu.value, key === 'up' ? 1 : -1, false) }, output: [] }
+        return {
+          menu: { ...menu, value: stepValue(def, menu.value, key === 'up' ? 1 : -1, false) },
+          output: [],
+        }
       }
       if (key === 'left' || key === 'right') {
-        return { menu: { ...menu, value: stepValue(def, menu.value, key === 'right' ? 1 : -1, true) }, output: [] }
+        return {
+          menu: { ...menu, value: stepValue(def, menu.value, key === 'right' ? 1 : -1, true) },
+          output: [],
+        }
       }
-      if (key === 'back') return { menu: { screen: 'settings', group: menu.group, item: menu.item }, output: [] }
+      if (key === 'back')
+        return { menu: { screen: 'settings', group: menu.group, item: menu.item }, output: [] }
       // OK stores the value and saves it to the drive in one step, as the display says.
       return {
         menu: { screen: 'settings', group: menu.group, item: menu.item },
-        output: [{ type: 'setting.changed', key: def.key as SettingKey, value: menu.value }, { type: 'settings.saved' }],
+        output: [
+          { type: 'setting.changed', key: def.key as SettingKey, value: menu.value },
+          { type: 'settings.saved' },
+        ],
       }
     }
   }
@@ -146,7 +165,12 @@ export function menuLines(menu: KeypadMenu, values: KeypadValues): string[] {
     case 'edit': {
       const def = settingAt(menu.group, menu.item)
       const range = def.kind === 'number' ? `${def.min}–${def.max} ${def.unit}` : 'choose'
-      return [fit(`EDIT ${def.label}`), fit(`= ${formatSettingValue(def, menu.value)}`), fit(range), fit('▲▼ ◀▶×10 OK save')]
+      return [
+        fit(`EDIT ${def.label}`),
+        fit(`= ${formatSettingValue(def, menu.value)}`),
+        fit(range),
+        fit('▲▼ ◀▶×10 OK save'),
+      ]
     }
   }
 }

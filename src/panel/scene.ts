@@ -77,17 +77,40 @@ export class PanelScene {
       this.root.addChild(line)
     }
     const m = layout.meter.display
-    this.meterText = text('---', { fontFamily: MONO, fontSize: 26, fill: C.text }, m.x + m.w / 2, m.y + m.h / 2)
-    this.rpmText = text('0 rpm', { fontSize: 15, fill: C.text, fontWeight: 'bold' }, layout.motor.shaft.x, 236)
+    this.meterText = text(
+      '---',
+      { fontFamily: MONO, fontSize: 26, fill: C.text },
+      m.x + m.w / 2,
+      m.y + m.h / 2,
+    )
+    this.rpmText = text(
+      '0 rpm',
+      { fontSize: 15, fill: C.text, fontWeight: 'bold' },
+      layout.motor.shaft.x,
+      236,
+    )
     this.busText = text('DC bus 0 V', { fontSize: 12, fill: C.enclosureText }, 610, 300)
     const np = layout.motor.nameplate
-    this.nameplateText = new Text({ text: '', style: { fontFamily: MONO, fontSize: 11, fill: C.text, lineHeight: 16 } })
+    this.nameplateText = new Text({
+      text: '',
+      style: { fontFamily: MONO, fontSize: 11, fill: C.text, lineHeight: 16 },
+    })
     this.nameplateText.position.set(np.x + 10, np.y + 24)
     const h = layout.disconnect.handle
-    this.disconnectText = text('O  OFF', { fontSize: 16, fill: C.text, fontWeight: 'bold' }, h.x + h.w / 2, h.y - 14)
+    this.disconnectText = text(
+      'O  OFF',
+      { fontSize: 16, fill: C.text, fontWeight: 'bold' },
+      h.x + h.w / 2,
+      h.y - 14,
+    )
 
     for (const dev of layout.devices) {
-      const t = text('', { fontSize: 11, fill: C.muted, align: 'center', lineHeight: 14 }, dev.actuator.x, dev.actuator.y + dev.actuator.r + 40)
+      const t = text(
+        '',
+        { fontSize: 11, fill: C.muted, align: 'center', lineHeight: 14 },
+        dev.actuator.x,
+        dev.actuator.y + dev.actuator.r + 40,
+      )
       this.deviceStateTexts.set(dev.id, t)
       this.root.addChild(t)
     }
@@ -117,7 +140,9 @@ export class PanelScene {
   update(view: PanelView): boolean {
     this.changed = false
     this.rpm = view.rpm
-    this.when('wires', JSON.stringify([view.wires, view.selectedWire, view.draftWire]), () => this.drawWires(view))
+    this.when('wires', JSON.stringify([view.wires, view.selectedWire, view.draftWire]), () =>
+      this.drawWires(view),
+    )
     this.when('devices', JSON.stringify(view.devices), () => this.drawDevices(view))
     this.when('power', `${view.power.on}${view.power.locked}`, () => this.drawPower(view))
     this.when('display', view.display.join('\n'), () => view.display.forEach((l, i) => this.setLine(i, l)))
@@ -143,7 +168,8 @@ export class PanelScene {
   /** Per frame: only the shaft turns. Says whether it moved (so the frame needs drawing). */
   tick(dtMs: number): boolean {
     if (this.rpm === 0) return false
-    this.shaftAngle = (this.shaftAngle + ((this.rpm / 60) * 2 * Math.PI * dtMs) / 1000 / SHAFT_VIEW_SLOWDOWN) % (2 * Math.PI)
+    this.shaftAngle =
+      (this.shaftAngle + ((this.rpm / 60) * 2 * Math.PI * dtMs) / 1000 / SHAFT_VIEW_SLOWDOWN) % (2 * Math.PI)
     this.shaft.rotation = this.shaftAngle
     return true
   }
@@ -171,7 +197,9 @@ export class PanelScene {
   private drawDrive(g: Graphics) {
     const { rect, display, keys, controlStrip, powerStrip } = this.layout.drive
     box(g, rect, C.enclosure, C.enclosureEdge, 12)
-    this.root.addChild(text('VARIABLE-FREQUENCY DRIVE  ·  bench unit VF-2', { fontSize: 13, fill: C.enclosureText }, 480, 90))
+    this.root.addChild(
+      text('VARIABLE-FREQUENCY DRIVE  ·  bench unit VF-2', { fontSize: 13, fill: C.enclosureText }, 480, 90),
+    )
     g.roundRect(powerStrip.x, powerStrip.y, powerStrip.w, powerStrip.h, 4).fill(C.strip)
     g.roundRect(controlStrip.x, controlStrip.y, controlStrip.w, controlStrip.h, 4).fill(C.strip)
     box(g, display, C.display, 0x000000, 6)
@@ -179,7 +207,12 @@ export class PanelScene {
       const fill = k.key === 'run' ? 0x3f7d58 : k.key === 'stop' ? 0x9a3b3b : C.key
       box(g, k.rect, fill, C.enclosureEdge, 6)
       this.root.addChild(
-        text(k.label, { fontSize: 13, fill: C.keyText, fontWeight: 'bold' }, k.rect.x + k.rect.w / 2, k.rect.y + k.rect.h / 2),
+        text(
+          k.label,
+          { fontSize: 13, fill: C.keyText, fontWeight: 'bold' },
+          k.rect.x + k.rect.w / 2,
+          k.rect.y + k.rect.h / 2,
+        ),
       )
     }
     // Stored-energy caution on the enclosure (our wording).
@@ -191,23 +224,33 @@ export class PanelScene {
     caution.position.set(262, 274)
     this.root.addChild(caution)
     this.root.addChild(text('CHARGE', { fontSize: 10, fill: C.enclosureText }, 610, 250))
-    this.root.addChild(text('STATUS', { fontSize: 10, fill: C.enclosureText }, this.layout.drive.statusLamp.x, 234))
+    this.root.addChild(
+      text('STATUS', { fontSize: 10, fill: C.enclosureText }, this.layout.drive.statusLamp.x, 234),
+    )
   }
 
   private drawStation(g: Graphics) {
     const s = this.layout.station
     box(g, s, C.station, C.stationEdge, 10)
-    this.root.addChild(text('CONTROL STATION', { fontSize: 13, fill: C.text, fontWeight: 'bold' }, s.x + s.w / 2, s.y + 16))
+    this.root.addChild(
+      text('CONTROL STATION', { fontSize: 13, fill: C.text, fontWeight: 'bold' }, s.x + s.w / 2, s.y + 16),
+    )
     g.roundRect(s.x + 8, 372, s.w - 16, 56, 4).fill(C.strip)
     for (const d of this.layout.devices) {
       const { x, y, r } = d.actuator
-      g.circle(x, y, r + 8).fill(0xb9c0c7).stroke({ width: 2, color: C.stationEdge })
+      g.circle(x, y, r + 8)
+        .fill(0xb9c0c7)
+        .stroke({ width: 2, color: C.stationEdge })
       this.root.addChild(text(d.label, { fontSize: 12, fill: C.text, fontWeight: 'bold' }, x, y + r + 18))
       // The device's name over its terminal group on the strip.
       const first = this.layout.terminals[d.terminals[0]]
       const last = this.layout.terminals[d.terminals[d.terminals.length - 1]]
-      g.moveTo(first.x - 6, 370).lineTo(last.x + 6, 370).stroke({ width: 1, color: C.text })
-      this.root.addChild(text(shortName(d.label), { fontSize: 10, fill: C.text }, (first.x + last.x) / 2, 361))
+      g.moveTo(first.x - 6, 370)
+        .lineTo(last.x + 6, 370)
+        .stroke({ width: 1, color: C.text })
+      this.root.addChild(
+        text(shortName(d.label), { fontSize: 10, fill: C.text }, (first.x + last.x) / 2, 361),
+      )
     }
   }
 
@@ -215,25 +258,50 @@ export class PanelScene {
     const { rect, lock, handle } = this.layout.disconnect
     box(g, rect, 0xd0d5da, C.stationEdge, 10)
     g.circle(handle.x + handle.w / 2, handle.y + handle.h / 2, handle.w / 2).fill(0x2b2b2b)
-    this.root.addChild(text('SUPPLY DISCONNECT', { fontSize: 12, fill: C.text, fontWeight: 'bold' }, rect.x + rect.w / 2, rect.y + 16))
+    this.root.addChild(
+      text(
+        'SUPPLY DISCONNECT',
+        { fontSize: 12, fill: C.text, fontWeight: 'bold' },
+        rect.x + rect.w / 2,
+        rect.y + 16,
+      ),
+    )
     g.roundRect(lock.x, lock.y, lock.w, lock.h, 4).stroke({ width: 2, color: C.muted })
-    this.root.addChild(text('lock point', { fontSize: 10, fill: C.muted }, lock.x + lock.w / 2, lock.y + lock.h + 10))
+    this.root.addChild(
+      text('lock point', { fontSize: 10, fill: C.muted }, lock.x + lock.w / 2, lock.y + lock.h + 10),
+    )
   }
 
   private drawMotor(g: Graphics) {
     const { rect, shaft, shaftRadius, nameplate } = this.layout.motor
     box(g, rect, 0xdde2e6, C.stationEdge, 10)
-    this.root.addChild(text('MOTOR (drive end)', { fontSize: 12, fill: C.text, fontWeight: 'bold' }, rect.x + rect.w / 2, rect.y + 16))
+    this.root.addChild(
+      text(
+        'MOTOR (drive end)',
+        { fontSize: 12, fill: C.text, fontWeight: 'bold' },
+        rect.x + rect.w / 2,
+        rect.y + 16,
+      ),
+    )
     g.circle(shaft.x, shaft.y, shaftRadius + 14).fill(C.motorDark)
     g.circle(shaft.x, shaft.y, shaftRadius).fill(C.motor)
     box(g, nameplate, C.nameplate, 0x8d8471, 4)
-    this.root.addChild(text('NAMEPLATE', { fontSize: 10, fill: C.muted, fontWeight: 'bold' }, nameplate.x + nameplate.w / 2, nameplate.y + 11))
+    this.root.addChild(
+      text(
+        'NAMEPLATE',
+        { fontSize: 10, fill: C.muted, fontWeight: 'bold' },
+        nameplate.x + nameplate.w / 2,
+        nameplate.y + 11,
+      ),
+    )
   }
 
   private buildShaft() {
     const { shaft, shaftRadius } = this.layout.motor
     const g = new Graphics()
-    g.circle(0, 0, shaftRadius * 0.45).fill(0xb0bac3).stroke({ width: 2, color: 0x39424a })
+    g.circle(0, 0, shaftRadius * 0.45)
+      .fill(0xb0bac3)
+      .stroke({ width: 2, color: 0x39424a })
     g.rect(-5, -shaftRadius * 0.45, 10, 14).fill(0x222222) // keyway, so rotation is visible
     for (let i = 0; i < 6; i++) {
       const a = (i / 6) * Math.PI * 2
@@ -248,22 +316,38 @@ export class PanelScene {
   private drawMeter(g: Graphics) {
     const { rect, display, holsters } = this.layout.meter
     box(g, rect, C.meterBody, 0x7a5a12, 14)
-    this.root.addChild(text('MULTIMETER  V DC', { fontSize: 12, fill: C.text, fontWeight: 'bold' }, rect.x + rect.w / 2, rect.y + 16))
+    this.root.addChild(
+      text(
+        'MULTIMETER  V DC',
+        { fontSize: 12, fill: C.text, fontWeight: 'bold' },
+        rect.x + rect.w / 2,
+        rect.y + 16,
+      ),
+    )
     box(g, display, C.meterDisplay, 0x333333, 4)
     this.root.addChild(
-      text('Drag a probe onto any\nterminal; drop it here\nto lift it.', { fontSize: 11, fill: C.text, align: 'center' }, rect.x + rect.w / 2, 450),
+      text(
+        'Drag a probe onto any\nterminal; drop it here\nto lift it.',
+        { fontSize: 11, fill: C.text, align: 'center' },
+        rect.x + rect.w / 2,
+        450,
+      ),
     )
     for (const probe of ['red', 'black'] as const) {
       const h = holsters[probe]
       g.circle(h.x, h.y + 18, 9).fill(probe === 'red' ? C.probeRed : C.probeBlack)
-      this.root.addChild(text(probe === 'red' ? 'V+ (red)' : 'COM (black)', { fontSize: 10, fill: C.text }, h.x, h.y + 36))
+      this.root.addChild(
+        text(probe === 'red' ? 'V+ (red)' : 'COM (black)', { fontSize: 10, fill: C.text }, h.x, h.y + 36),
+      )
     }
   }
 
   private drawTerminals(g: Graphics) {
     for (const t of Object.values(this.layout.terminals)) {
       g.circle(t.x, t.y, TERMINAL_RADIUS).fill(C.screw).stroke({ width: 1.5, color: C.screwEdge })
-      g.moveTo(t.x - 4, t.y - 4).lineTo(t.x + 4, t.y + 4).stroke({ width: 1.5, color: C.screwEdge })
+      g.moveTo(t.x - 4, t.y - 4)
+        .lineTo(t.x + 4, t.y + 4)
+        .stroke({ width: 1.5, color: C.screwEdge })
       const labelY = t.group === 'power' ? t.y + 22 : t.y - 22
       const fill = t.group === 'power' ? C.enclosureText : C.stripText
       this.root.addChild(text(t.label, { fontSize: 11, fill, fontWeight: 'bold' }, t.x, labelY))
@@ -287,7 +371,9 @@ export class PanelScene {
       this.curve(g, c, 4, colour.hex)
       // Labels sit at different points along each lane so neighbouring wires' labels do not collide.
       const mid = pointOnCubic(c, 0.3 + (lane % 5) * 0.1)
-      g.roundRect(mid.x - 24, mid.y - 8, 48, 16, 3).fill(0xffffff).stroke({ width: 1, color: 0x333333 })
+      g.roundRect(mid.x - 24, mid.y - 8, 48, 16, 3)
+        .fill(0xffffff)
+        .stroke({ width: 1, color: 0x333333 })
       labels.push(text(w.label, { fontSize: 10, fill: 0x111111, fontWeight: 'bold' }, mid.x, mid.y))
     })
     if (view.draftWire) {
@@ -314,7 +400,9 @@ export class PanelScene {
       const status = this.deviceStateTexts.get(d.id)
       if (d.kind === 'pushbutton') {
         const held = !!state.held
-        g.circle(x, y, r).fill(held ? 0x56636e : 0x7d8a95).stroke({ width: 3, color: 0x2b333a })
+        g.circle(x, y, r)
+          .fill(held ? 0x56636e : 0x7d8a95)
+          .stroke({ width: 3, color: 0x2b333a })
         g.circle(x, y, r - (held ? 8 : 5)).fill(held ? 0x8d9aa5 : 0xb3bec8)
         if (status) status.text = `momentary ${d.contact ?? 'NO'}\n${held ? 'HELD' : 'released'}`
       } else if (d.kind === 'selector') {
@@ -323,13 +411,17 @@ export class PanelScene {
         g.circle(x, y, r).fill(0x2f373e)
         const dx = Math.sin(angle) * (r - 4)
         const dy = -Math.cos(angle) * (r - 4)
-        g.moveTo(x - dx, y - dy).lineTo(x + dx, y + dy).stroke({ width: 12, color: 0xdfe4e8, cap: 'round' })
+        g.moveTo(x - dx, y - dy)
+          .lineTo(x + dx, y + dy)
+          .stroke({ width: 12, color: 0xdfe4e8, cap: 'round' })
         if (status) status.text = `maintained ${d.contact ?? 'NO'}\nposition ${on ? '1' : '0'}`
       } else {
         const pos = Math.max(0, Math.min(1, state.position ?? 0))
         const angle = -0.75 * Math.PI + pos * 1.5 * Math.PI
         g.circle(x, y, r).fill(0x2f373e)
-        g.moveTo(x, y).lineTo(x + Math.sin(angle) * (r - 4), y - Math.cos(angle) * (r - 4)).stroke({ width: 5, color: C.highlight, cap: 'round' })
+        g.moveTo(x, y)
+          .lineTo(x + Math.sin(angle) * (r - 4), y - Math.cos(angle) * (r - 4))
+          .stroke({ width: 5, color: C.highlight, cap: 'round' })
         if (status) status.text = `potentiometer\n${Math.round(pos * 100)} %`
       }
     }
@@ -352,15 +444,25 @@ export class PanelScene {
     if (view.power.locked) {
       const cx2 = l.x + l.w / 2
       this.lock.roundRect(cx2 - 14, l.y + 18, 28, 24, 4).fill(C.lockout)
-      this.lock.moveTo(cx2 - 10, l.y + 18).arc(cx2, l.y + 18, 10, Math.PI, 0).stroke({ width: 5, color: 0x555555 })
-      this.lock.rect(l.x + l.w + 4, l.y + 4, 34, 40).fill(0xffffff).stroke({ width: 1.5, color: C.lockout })
+      this.lock
+        .moveTo(cx2 - 10, l.y + 18)
+        .arc(cx2, l.y + 18, 10, Math.PI, 0)
+        .stroke({ width: 5, color: 0x555555 })
+      this.lock
+        .rect(l.x + l.w + 4, l.y + 4, 34, 40)
+        .fill(0xffffff)
+        .stroke({ width: 1.5, color: C.lockout })
     }
   }
 
   private drawLamps(view: PanelView) {
     const s = this.layout.drive.statusLamp
     this.lamp.clear().circle(s.x, s.y, 9).fill(LAMP[view.lamp]).stroke({ width: 2, color: 0x000000 })
-    this.chargeLamp.clear().circle(610, 268, 8).fill(view.busVolts > 50 ? C.lampCharging : C.lampOff).stroke({ width: 2, color: 0x000000 })
+    this.chargeLamp
+      .clear()
+      .circle(610, 268, 8)
+      .fill(view.busVolts > 50 ? C.lampCharging : C.lampOff)
+      .stroke({ width: 2, color: 0x000000 })
   }
 
   private drawInputLeds(on: readonly PointId[]) {
@@ -392,7 +494,9 @@ export class PanelScene {
         .bezierCurveTo(from.x, from.y + 30, tip.x, Math.max(tip.y, from.y) + 40, tip.x, tip.y - 22)
         .stroke({ width: 2, color: colour, alpha: 0.8 })
       g.roundRect(tip.x - 5, tip.y - 24, 10, 20, 3).fill(colour)
-      g.moveTo(tip.x, tip.y - 4).lineTo(tip.x, tip.y).stroke({ width: 2, color: 0x999999 })
+      g.moveTo(tip.x, tip.y - 4)
+        .lineTo(tip.x, tip.y)
+        .stroke({ width: 2, color: 0x999999 })
     }
   }
 }

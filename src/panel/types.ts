@@ -20,6 +20,8 @@ export interface TerminalSpot {
   label: string
   /** Accessible description, e.g. "Drive terminal DI1 (digital input 1)". */
   name: string
+  /** Short title for lists, e.g. "DI1" or "Faster 13". */
+  title: string
   x: number
   y: number
   group: TerminalGroup

@@ -22,7 +22,12 @@ const STYLE: Record<ModelColour, Omit<WireColour, 'id'>> = {
   grey: { code: 'GY', name: 'Grey', hex: 0x8a8f96, use: 'General purpose' },
   white: { code: 'WH', name: 'White', hex: 0xf4f4f4, use: 'General purpose' },
   violet: { code: 'VT', name: 'Violet', hex: 0x7b1fa2, use: 'General purpose' },
-  greenYellow: { code: 'GNYE', name: 'Green/yellow', hex: 0x7cb342, use: 'Protective earth only — never control' },
+  greenYellow: {
+    code: 'GNYE',
+    name: 'Green/yellow',
+    hex: 0x7cb342,
+    use: 'Protective earth only — never control',
+  },
 }
 
 export const WIRE_COLOURS: readonly WireColour[] = MODEL_COLOURS.map((id) => ({ id, ...STYLE[id] }))

@@ -153,6 +153,11 @@ const ROUTES: Route[] = [
     },
     expect: ownCohortStaff(201),
   },
+  {
+    method: 'delete',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/invitations/00000000-0000-4000-8000-000000000000`,
+    expect: ownCohortStaff(404),
+  },
   // gradebook
   { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/gradebook`, expect: ownCohortStaff(200) },
   { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/gradebook.csv`, expect: ownCohortStaff(200) },
@@ -317,7 +322,8 @@ describe('access matrix: every route × every role', () => {
           `${c.route.method.toUpperCase()} ${c.route.path
             .toString()
             .replace(/^.*=>\s*/, '')
-            .replace(/[`"']/g, '')} as ${c.who} → ${c.status}`,
+            .replace(/[`"']/g, '')
+            .replace(/\$\{w\.(\w+)[^}]*\}/g, ':$1')} as ${c.who} → ${c.status}`,
           c,
         ] as const,
     ),

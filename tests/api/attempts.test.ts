@@ -36,6 +36,9 @@ describe('attempts', () => {
     expect(attempt.grade?.passed).toBe(expected.passed)
     expect(attempt.grade?.passed).toBe(false)
     expect(attempt.scenarioVersion).toBe(1)
+    const mail = (await api.mail()).filter((m) => m.toAddress === w.apprenticeA1.email)
+    const graded = mail.find((m) => m.subject === `Graded: ${w.assignmentA.title}`)!
+    expect(graded.text).toContain(`${expected.score} / 100 (not yet a pass)`)
   })
 
   it('passes the reference fixture log and fails a known mistake, as replayed on the server', async () => {
@@ -78,6 +81,19 @@ describe('attempts', () => {
     expect(again.body).toEqual(first.body)
     expect(await api.dataSource.getRepository(AttemptEntity).count()).toBe(count)
     expect(await api.dataSource.getRepository(AuditEntryEntity).count()).toBe(audits)
+  })
+
+  it('stores one attempt when the same submission arrives twice at once', async () => {
+    const id = randomUUID()
+    const before = await api.dataSource.getRepository(AttemptEntity).count()
+    const [a, b] = await Promise.all([
+      submit(api, w.apprenticeA2, { id, assignmentId: w.assignmentA.id }),
+      submit(api, w.apprenticeA2, { id, assignmentId: w.assignmentA.id }),
+    ])
+    expect([a.status, b.status].sort()).toEqual([200, 201])
+    expect(a.body.grade).toEqual(b.body.grade)
+    expect(await api.dataSource.getRepository(AttemptEntity).count()).toBe(before + 1)
+    expect(await api.dataSource.getRepository(AuditEntryEntity).countBy({ entityId: id })).toBe(1)
   })
 
   it('refuses an id that another apprentice already used', async () => {

@@ -4,7 +4,8 @@ import jwt from 'jsonwebtoken'
 import supertest from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { REFRESH_COOKIE_NAME, sessionResponseSchema } from '../../shared/api'
-import { UserEntity } from '../../server/entities'
+import { PasswordResetEntity, RefreshTokenEntity, UserEntity } from '../../server/entities'
+import { hashToken } from '../../server/services/tokens'
 import { bearer, createTestApi, TEST_JWT_SECRET, TEST_PASSWORD, type TestApi } from '../support/api-harness'
 
 const cookieOf = (response: supertest.Response) =>
@@ -70,12 +71,46 @@ describe('sign-in and sessions', () => {
     const second = cookieOf(refreshed)
     expect(second).not.toBe(first)
 
+    // Reuse after the short grace period for parallel requests.
+    const past = new Date(Date.now() - 60_000).toISOString()
+    await api.dataSource
+      .getRepository(RefreshTokenEntity)
+      .update({ tokenHash: hashToken(first.split('=')[1]!) }, { revokedAt: past })
     const reused = await supertest(api.app).post('/api/auth/refresh').set('Cookie', first)
     expect(reused.status).toBe(401)
     expect(reused.body.error.code).toBe('refresh_token_reused')
     // The legitimate newer token died with its family.
     const afterReuse = await supertest(api.app).post('/api/auth/refresh').set('Cookie', second)
     expect(afterReuse.status).toBe(401)
+  })
+
+  it('ends a session 30 days after sign-in however often it is refreshed', async () => {
+    const { email, user } = await api.createUser('apprentice')
+    const { cookie } = await api.signIn(email, TEST_PASSWORD)
+    const longAgo = new Date(Date.now() - 31 * 86_400_000).toISOString()
+    await api.dataSource.getRepository(RefreshTokenEntity).update({ userId: user.id }, { createdAt: longAgo })
+    const response = await supertest(api.app).post('/api/auth/refresh').set('Cookie', cookie)
+    expect(response.status).toBe(401)
+    expect(response.body.error.code).toBe('refresh_token_invalid')
+  })
+
+  it('lets two parallel refreshes with the same cookie both succeed (grace period)', async () => {
+    const { email } = await api.createUser('apprentice')
+    const { cookie } = await api.signIn(email, TEST_PASSWORD)
+    const [a, b] = await Promise.all([
+      supertest(api.app).post('/api/auth/refresh').set('Cookie', cookie),
+      supertest(api.app).post('/api/auth/refresh').set('Cookie', cookie),
+    ])
+    expect([a.status, b.status]).toEqual([200, 200])
+    expect((await supertest(api.app).post('/api/auth/refresh').set('Cookie', cookieOf(b))).status).toBe(200)
+  })
+
+  it('treats a signed-out refresh token presented again as reuse, even at once', async () => {
+    const { email } = await api.createUser('apprentice')
+    const { cookie } = await api.signIn(email, TEST_PASSWORD)
+    await supertest(api.app).post('/api/auth/sign-out').set('Cookie', cookie)
+    const again = await supertest(api.app).post('/api/auth/refresh').set('Cookie', cookie)
+    expect(again.body.error.code).toBe('refresh_token_reused')
   })
 
   it('answers a refresh without a cookie with a clear code', async () => {
@@ -202,6 +237,38 @@ describe('password reset by e-mail', () => {
     expect(again.body.error.code).toBe('reset_token_invalid')
   })
 
+  it('spends every outstanding reset link once one of them is used', async () => {
+    const { email } = await api.createUser('apprentice')
+    await supertest(api.app).post('/api/auth/password-reset').send({ email })
+    await supertest(api.app).post('/api/auth/password-reset').send({ email })
+    const [first, second] = (await api.mail())
+      .filter((m) => m.toAddress === email)
+      .map((m) => tokenFrom(m.text))
+    expect(first).not.toBe(second)
+    const used = await supertest(api.app)
+      .post('/api/auth/password-reset/confirm')
+      .send({ token: second, password: 'the newest bench password' })
+    expect(used.status).toBe(200)
+    const stale = await supertest(api.app)
+      .post('/api/auth/password-reset/confirm')
+      .send({ token: first, password: 'an older link attempt here' })
+    expect(stale.status).toBe(400)
+  })
+
+  it('refuses a reset link after it expires', async () => {
+    const { email, user } = await api.createUser('apprentice')
+    await supertest(api.app).post('/api/auth/password-reset').send({ email })
+    const token = tokenFrom((await api.mail()).find((m) => m.toAddress === email)!.text)
+    await api.dataSource
+      .getRepository(PasswordResetEntity)
+      .update({ userId: user.id }, { expiresAt: new Date(Date.now() - 1000).toISOString() })
+    const response = await supertest(api.app)
+      .post('/api/auth/password-reset/confirm')
+      .send({ token, password: 'too late for this link' })
+    expect(response.status).toBe(400)
+    expect(response.body.error.code).toBe('reset_token_invalid')
+  })
+
   it('answers 202 for an unknown address and sends nothing', async () => {
     const before = (await api.mail()).length
     const response = await supertest(api.app)
@@ -236,6 +303,21 @@ describe('rate limits', () => {
     expect(limited.status).toBe(429)
     expect(limited.body.error.code).toBe('rate_limited')
     expect(Number(limited.headers['retry-after'])).toBeGreaterThan(0)
+  })
+
+  it('draws every invitation route on one budget', async () => {
+    const token = 'y'.repeat(43)
+    expect((await supertest(api.app).get(`/api/invitations/${token}`)).status).toBe(404)
+    expect(
+      (
+        await supertest(api.app)
+          .post(`/api/invitations/${token}/accept`)
+          .send({ password: 'long enough password' })
+      ).status,
+    ).toBe(404)
+    const limited = await supertest(api.app).get(`/api/invitations/${token}`)
+    expect(limited.status).toBe(429)
+    expect(limited.headers['retry-after']).toBeDefined()
   })
 
   it('limits password-reset requests separately', async () => {

@@ -71,6 +71,59 @@ describe('invitations', () => {
     expect(twice.body.error.code).toBe('invitation_invalid')
   })
 
+  it('honours every pending cohort invitation of the address when one is accepted', async () => {
+    const second = await createCohort(api, instructor, 'Night class', [])
+    for (const target of [cohort, second]) {
+      await supertest(api.app)
+        .post(`/api/cohorts/${target.id}/invitations`)
+        .set(bearer(instructor.token))
+        .send({ email: 'twice@slipway.test', name: 'Twice Invited' })
+    }
+    const link = (await api.mail()).find((m) => m.toAddress === 'twice@slipway.test')!
+    const accepted = await supertest(api.app)
+      .post(`/api/invitations/${linkToken(link.text)}/accept`)
+      .send({ password: 'one password for both' })
+    expect(accepted.status).toBe(201)
+    const enrolments = await api.dataSource
+      .getRepository(EnrollmentEntity)
+      .findBy({ userId: accepted.body.user.id })
+    expect(enrolments.map((e) => e.cohortId).sort()).toEqual([cohort.id, second.id].sort())
+  })
+
+  it('withdraws a pending invitation so its link stops working', async () => {
+    const invited = await supertest(api.app)
+      .post(`/api/cohorts/${cohort.id}/invitations`)
+      .set(bearer(instructor.token))
+      .send({ email: 'withdrawn@slipway.test', name: 'Changed Mind' })
+    const token = linkToken((await api.mail()).find((m) => m.toAddress === 'withdrawn@slipway.test')!.text)
+    const withdrawn = await supertest(api.app)
+      .delete(`/api/cohorts/${cohort.id}/invitations/${invited.body.invitation.id}`)
+      .set(bearer(instructor.token))
+    expect(withdrawn.status).toBe(204)
+    expect((await supertest(api.app).get(`/api/invitations/${token}`)).status).toBe(404)
+    const pending = await supertest(api.app)
+      .get(`/api/cohorts/${cohort.id}/invitations`)
+      .set(bearer(instructor.token))
+    expect(pending.body.items.map((i: { email: string }) => i.email)).not.toContain('withdrawn@slipway.test')
+  })
+
+  it('refuses an invitation link after it expires', async () => {
+    await supertest(api.app)
+      .post(`/api/cohorts/${cohort.id}/invitations`)
+      .set(bearer(instructor.token))
+      .send({ email: 'expired@slipway.test', name: 'Too Late' })
+    const token = linkToken((await api.mail()).find((m) => m.toAddress === 'expired@slipway.test')!.text)
+    await api.dataSource
+      .getRepository(InvitationEntity)
+      .update({ email: 'expired@slipway.test' }, { expiresAt: new Date(Date.now() - 1000).toISOString() })
+    const response = await supertest(api.app)
+      .post(`/api/invitations/${token}/accept`)
+      .send({ password: 'a perfectly good password' })
+    expect(response.status).toBe(404)
+    expect(response.body.error.code).toBe('invitation_invalid')
+    expect(await api.dataSource.getRepository(UserEntity).countBy({ email: 'expired@slipway.test' })).toBe(0)
+  })
+
   it('refuses a weak password on acceptance, keeping the invitation usable', async () => {
     await supertest(api.app)
       .post(`/api/cohorts/${cohort.id}/invitations`)

@@ -1,5 +1,6 @@
 // Model benchmark: replay of generated mixed logs (1k / 10k / 100k events; 10k over 1 min and 10 h).
 // Run alone: npx tsx --tsconfig tsconfig.node.json tests/bench/model.bench.ts
+import { cpus, loadavg } from 'node:os'
 import { pathToFileURL } from 'node:url'
 import { clearCircuitMemo, circuitSolveCount } from '../../shared/model/circuit/controlCircuit'
 import { clearDriveMemo, driveStepCount } from '../../shared/model/driveTransitions'
@@ -11,6 +12,10 @@ export interface ModelBenchRow {
   simulatedMs: number
   /** Median wall time of the timed runs (memo warm). */
   ms: number
+  /** Fastest timed run: the least disturbed by other work on a shared machine. */
+  bestMs: number
+  /** Median CPU time of this process over the timed runs (user + system, includes GC threads). */
+  cpuMs: number
   /** The first run with every memo cleared. */
   coldMs: number
   eventsPerSecond: number
@@ -71,7 +76,18 @@ function prng(seed: number): () => number {
   }
 }
 
-const PROBE_POINTS = ['drive.p24', 'drive.0v', 'drive.di1', 'drive.di2', 'runSel.b', 'drive.ai', 'drive.dcp', 'drive.dcn', 'drive.l1', 'drive.l2']
+const PROBE_POINTS = [
+  'drive.p24',
+  'drive.0v',
+  'drive.di1',
+  'drive.di2',
+  'runSel.b',
+  'drive.ai',
+  'drive.dcp',
+  'drive.dcn',
+  'drive.l1',
+  'drive.l2',
+]
 const NUMBER_SETTINGS: [SettingKey, number, number][] = [
   ['raiseLower.rate', 1, 5],
   ['ramp.accelSeconds', 2, 10],
@@ -103,7 +119,12 @@ export function mixedLog(count: number, durationMs: number, seed = 7): AttemptEv
       selector = selector === 1 ? 0 : 1
       events.push({ t, type: 'device.switched', device: 'runSel', position: selector })
     } else if (r < 0.53) {
-      events.push({ t, type: 'meter.probes', red: pick(PROBE_POINTS), black: random() < 0.2 ? null : pick(PROBE_POINTS) })
+      events.push({
+        t,
+        type: 'meter.probes',
+        red: pick(PROBE_POINTS),
+        black: random() < 0.2 ? null : pick(PROBE_POINTS),
+      })
     } else if (r < 0.61) {
       if (removed) {
         const id = `n${wireSerial++}`
@@ -118,11 +139,20 @@ export function mixedLog(count: number, durationMs: number, seed = 7): AttemptEv
       }
     } else if (r < 0.71) {
       const [key, min, max] = pick(NUMBER_SETTINGS)
-      events.push({ t, type: 'setting.changed', key, value: Math.round((min + random() * (max - min)) * 10) / 10 })
+      events.push({
+        t,
+        type: 'setting.changed',
+        key,
+        value: Math.round((min + random() * (max - min)) * 10) / 10,
+      })
     } else if (r < 0.74) {
       events.push({ t, type: 'settings.saved' })
     } else if (r < 0.84) {
-      events.push({ t, type: 'keypad.key', key: pick(['up', 'down', 'enter', 'back', 'left', 'right', 'stop', 'reset']) })
+      events.push({
+        t,
+        type: 'keypad.key',
+        key: pick(['up', 'down', 'enter', 'back', 'left', 'right', 'stop', 'reset']),
+      })
     } else if (r < 0.87) {
       powered = !powered
       events.push({ t, type: powered ? 'power.on' : 'power.off' })
@@ -151,10 +181,14 @@ function measure(name: string, events: AttemptEvent[], simulatedMs: number, runs
   const circuitSolves = circuitSolveCount() - solvesBefore
   const machineSteps = driveStepCount() - stepsBefore
   const times: number[] = []
+  const cpu: number[] = []
   for (let i = 0; i < runs; i++) {
+    const cpuStart = process.cpuUsage()
     start = performance.now()
     replay(benchSetup, events)
     times.push(performance.now() - start)
+    const used = process.cpuUsage(cpuStart)
+    cpu.push((used.user + used.system) / 1000)
   }
   const ms = median(times)
   return {
@@ -162,6 +196,8 @@ function measure(name: string, events: AttemptEvent[], simulatedMs: number, runs
     events: events.length,
     simulatedMs,
     ms,
+    bestMs: Math.min(...times),
+    cpuMs: median(cpu),
     coldMs,
     eventsPerSecond: Math.round(events.length / (ms / 1000)),
     circuitSolves,
@@ -197,11 +233,14 @@ export function runModelBenchmark(): ModelBenchResult {
 
 function printResult(result: ModelBenchResult): void {
   console.log('Model replay benchmark (median of timed runs; cold = first run with memos cleared)')
+  console.log(`load average: ${loadavg().map((l) => l.toFixed(2)).join(' ')} on ${cpus().length} cores`)
   console.table(
     result.rows.map((r) => ({
       log: r.name,
       events: r.events,
       'ms (median)': r.ms.toFixed(2),
+      'ms (best)': r.bestMs.toFixed(2),
+      'cpu ms': r.cpuMs.toFixed(2),
       'ms (cold)': r.coldMs.toFixed(2),
       'events/s': r.eventsPerSecond,
       'circuit solves': r.circuitSolves,

@@ -4,7 +4,7 @@ import { join, resolve } from 'node:path'
 import { gzipSync } from 'node:zlib'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { launchBrowser, screenshot, startApp, type BrowserSession, type RunningApp } from './support'
-import { demo, settled, signIn } from './client-steps'
+import { demo, settled, signIn, signOut } from './client-steps'
 
 describe('signing in', () => {
   let app: RunningApp
@@ -43,8 +43,14 @@ describe('signing in', () => {
     await page.goto(`${app.url}/sign-in`)
     await page.getByLabel('E-mail').fill(demo('apprentice').email)
     await page.getByLabel('Password', { exact: true }).fill('not-the-demo-password')
+    const refused = page.waitForResponse((r) => r.url().endsWith('/api/auth/sign-in'))
     await page.getByRole('button', { name: 'Sign in' }).click()
-    await page.locator('.v-alert').filter({ hasText: /password/i }).first().waitFor()
+    expect((await refused).status()).toBe(401)
+    await page
+      .locator('.v-alert')
+      .filter({ hasText: /password/i })
+      .first()
+      .waitFor()
     expect(new URL(page.url()).pathname).toBe('/sign-in')
     await screenshot(page, 'client-signin-error')
   })
@@ -81,9 +87,7 @@ describe('signing in', () => {
 
   it('signs out from the account menu and protects the pages again', async () => {
     const { page } = browser
-    await page.getByRole('button', { name: 'Account menu' }).click()
-    await page.getByText('Sign out').click()
-    await page.waitForURL((url) => url.pathname === '/sign-in')
+    await signOut(page)
     await page.goto(`${app.url}/learn`)
     await page.waitForURL((url) => url.pathname === '/sign-in')
   })
@@ -92,9 +96,7 @@ describe('signing in', () => {
     const { page } = browser
     await signIn(page, app.url, demo('instructor'))
     expect(new URL(page.url()).pathname).toBe('/teach/cohorts')
-    await page.getByRole('button', { name: 'Account menu' }).click()
-    await page.getByText('Sign out').click()
-    await page.waitForURL((url) => url.pathname === '/sign-in')
+    await signOut(page)
     await signIn(page, app.url, demo('admin'))
     expect(new URL(page.url()).pathname).toBe('/admin/users')
   })

@@ -19,7 +19,11 @@ export async function signIn(page: Page, baseUrl: string, account: DemoAccount) 
 /** Waits until no spinner is showing, so screenshots show data, not loading states. */
 export async function settled(page: Page) {
   await page.waitForLoadState('networkidle')
-  await page.locator('[role="status"] .v-progress-circular').first().waitFor({ state: 'detached', timeout: 10_000 }).catch(() => {})
+  await page
+    .locator('[role="status"] .v-progress-circular')
+    .first()
+    .waitFor({ state: 'detached', timeout: 10_000 })
+    .catch(() => {})
   // Let transitions (dialogs, menus) finish.
   await page.waitForTimeout(300)
 }
@@ -32,4 +36,10 @@ export function collectErrors(page: Page) {
     if (m.type() === 'error' && !/status of 40[13]/.test(m.text())) errors.push(m.text())
   })
   return errors
+}
+
+export async function signOut(page: Page) {
+  await page.getByRole('button', { name: 'Account menu' }).click()
+  await page.getByText('Sign out', { exact: true }).click()
+  await page.waitForURL((url) => url.pathname === '/sign-in')
 }

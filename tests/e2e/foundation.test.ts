@@ -19,7 +19,7 @@ describe('the built app', () => {
 
   it('reports its version and a healthy database', async () => {
     const response = await fetch(`${app.url}/api/health`)
-    const body = await response.json()
+    const body = (await response.json()) as { version: unknown; database: { ok: boolean } }
     expect(response.status).toBe(200)
     expect(body.database.ok).toBe(true)
     expect(typeof body.version).toBe('string')

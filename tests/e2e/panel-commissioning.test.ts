@@ -1,6 +1,5 @@
 // The raise/lower commissioning scenario done by mouse on the canvas: prove dead, wire from scratch,
 // program with the keypad, start, raise to 1200 rpm, hold, lower, stop, submit, see the server's grade.
-// It also measures the panel's script time per frame while the motor runs.
 import { readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -14,10 +13,6 @@ const started = Date.now()
 async function step(page: Parameters<typeof screenshot>[0], name: string) {
   console.log(`${((Date.now() - started) / 1000).toFixed(1)} s: ${name}`)
   await screenshot(page, name)
-}
-
-function percentile(sorted: number[], p: number) {
-  return sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))]
 }
 
 describe('commissioning raise/lower on the panel by mouse', () => {
@@ -38,16 +33,29 @@ describe('commissioning raise/lower on the panel by mouse', () => {
     const { page } = browser
     const apprentice = DEMO_ACCOUNTS.find((a) => a.role === 'apprentice')!
     await page.goto(app.url)
-    await page.getByLabel(/e-mail/i).first().fill(apprentice.email)
-    await page.getByLabel(/password/i).first().fill(apprentice.password)
+    await page
+      .getByLabel(/e-mail/i)
+      .first()
+      .fill(apprentice.email)
+    await page
+      .getByLabel(/password/i)
+      .first()
+      .fill(apprentice.password)
     await page.getByRole('button', { name: /sign in/i }).click()
     await page.waitForURL((url) => !url.pathname.includes('sign-in'))
 
-    await page.goto(`${app.url}/simulator/raise-lower-commissioning?perf`)
+    const pageErrors: string[] = []
+    page.on('pageerror', (e) => pageErrors.push(e.message))
+    await page.goto(`${app.url}/simulator/raise-lower-commissioning`)
     const understood = page.getByTestId('safety-understood')
     await understood.click({ timeout: 20_000 }).catch(() => undefined)
-    await page.getByTestId('panel-canvas').waitFor({ timeout: 30_000 })
-    await page.waitForFunction(() => Array.isArray(window.__slipwayFrameTimes), null, { timeout: 30_000 })
+    await page
+      .getByTestId('panel-canvas')
+      .waitFor({ timeout: 30_000 })
+      .catch(async (e) => {
+        await step(page, 'panel-commission-00-no-canvas')
+        throw new Error(`${e}\npage errors: ${pageErrors.join('\n')}`)
+      })
     const panel = new PanelDriver(page, scenario.start.devices)
     await page.getByTestId('panel-canvas').scrollIntoViewIfNeeded()
     await step(page, 'panel-commission-01-start')
@@ -114,20 +122,25 @@ describe('commissioning raise/lower on the panel by mouse', () => {
     await panel.click(panel.device('runSwitch'))
     await panel.waitFor((s) => /drive (speeding up|running)/.test(s))
     await panel.pressDevice('raiseButton')
-    await panel.waitFor((s) => Number(/(\d+) rpm/.exec(s)?.[1]) >= 1188, 40_000)
+    await panel.waitFor((s) => Number(/(\d+) rpm/.exec(s)?.[1]) >= 1150, 40_000)
     await panel.release()
-    await step(page, 'panel-commission-05-at-target')
 
-    // Hold the speed: measure frame cost over 600 frames while the motor runs.
-    await page.evaluate(() => (window.__slipwayFrameTimes = []))
-    await page.waitForFunction(() => (window.__slipwayFrameTimes?.length ?? 0) >= 600, null, { timeout: 60_000 })
-    const times = (await page.evaluate(() => window.__slipwayFrameTimes!.slice(0, 600))).sort((a, b) => a - b)
-    const median = percentile(times, 50)
-    const p95 = percentile(times, 95)
-    console.log(`panel frame script time over 600 frames: median ${median.toFixed(2)} ms, p95 ${p95.toFixed(2)} ms`)
-    expect(times).toHaveLength(600)
-    const rpmHeld = await panel.rpm()
-    expect(Math.abs(rpmHeld - 1200)).toBeLessThanOrEqual(30)
+    // Trim to within the objective's tolerance with short taps, as one would at the station.
+    for (let i = 0; i < 20; i++) {
+      await page.waitForTimeout(600)
+      const rpm = await panel.rpm()
+      if (Math.abs(rpm - 1200) <= 12) break
+      await panel.pressDevice(rpm > 1200 ? 'lowerButton' : 'raiseButton')
+      await page.waitForTimeout(Math.min(400, Math.abs(rpm - 1200) * 6))
+      await panel.release()
+    }
+    await step(page, 'panel-commission-05-at-target')
+    expect(Math.abs((await panel.rpm()) - 1200)).toBeLessThanOrEqual(20)
+
+    // Hold for the objective's 10 s, with simulated time sped up ten times.
+    await page.getByRole('button', { name: 'Time runs 10 times faster' }).click()
+    await page.waitForTimeout(2500)
+    await page.getByRole('button', { name: 'Time runs 1 times faster' }).click()
 
     // Lower a little, then stop by ramp with the selector.
     await panel.pressDevice('lowerButton')
@@ -141,8 +154,10 @@ describe('commissioning raise/lower on the panel by mouse', () => {
     await page.getByTestId('submit-attempt').click()
     const gradeAlert = page.getByTestId('attempt-grade')
     await gradeAlert.waitFor({ timeout: 30_000 })
+    await gradeAlert.scrollIntoViewIfNeeded()
     await step(page, 'panel-commission-07-graded')
     await expect(gradeAlert.textContent()).resolves.toMatch(/passed/)
     await expect(gradeAlert.textContent()).resolves.not.toMatch(/not passed/)
+    expect(pageErrors).toEqual([])
   }, 300_000)
 })

@@ -16,7 +16,9 @@ export class PanelDriver {
   }
 
   private async toPage(p: Vec): Promise<Vec> {
-    const box = await this.page.getByTestId('panel-canvas').boundingBox()
+    const canvas = this.page.getByTestId('panel-canvas')
+    await canvas.scrollIntoViewIfNeeded()
+    const box = await canvas.boundingBox()
     if (!box) throw new Error('the panel canvas is not visible')
     return { x: box.x + (p.x / SCENE_WIDTH) * box.width, y: box.y + (p.y / SCENE_HEIGHT) * box.height }
   }
@@ -56,7 +58,8 @@ export class PanelDriver {
   async key(key: KeypadKey, times = 1) {
     const k = this.layout.drive.keys.find((x) => x.key === key)
     if (!k) throw new Error(`no keypad key ${key}`)
-    for (let i = 0; i < times; i++) await this.click({ x: k.rect.x + k.rect.w / 2, y: k.rect.y + k.rect.h / 2 })
+    for (let i = 0; i < times; i++)
+      await this.click({ x: k.rect.x + k.rect.w / 2, y: k.rect.y + k.rect.h / 2 })
   }
 
   device(id: string): Vec {

@@ -1,13 +1,15 @@
 // Turns a simulation state into the control network's configuration (and its memo key).
 // The wiring part and the device part are cached per (immutable) array/object, so building a
 // configuration for an unchanged circuit costs a few lookups.
-import { controlPointsFor, type PointId } from '../points'
+import { controlPointsFor, DEVICE_TERMINALS, type PointId } from '../points'
 import type { DeviceState, SimState } from '../types'
 import type { CircuitConfig, PotentiometerElement } from './controlCircuit'
 
 interface PointLayout {
   points: PointId[]
   index: Map<PointId, number>
+  /** Point indices of each device's terminals, by terminal name. */
+  terminals: Record<string, Record<string, number>>
   /** Short id of the device layout, so memo keys of different layouts never collide. */
   layoutId: number
 }
@@ -26,7 +28,14 @@ export function pointsOf(state: SimState): PointLayout {
       layoutId = layoutIds.size
       layoutIds.set(signature, layoutId)
     }
-    entry = { points, index: new Map(points.map((p, i) => [p, i])), layoutId }
+    const index = new Map(points.map((p, i) => [p, i]))
+    const terminals: Record<string, Record<string, number>> = {}
+    for (const spec of specs) {
+      terminals[spec.id] = Object.fromEntries(
+        DEVICE_TERMINALS[spec.kind].map((t) => [t, index.get(`${spec.id}.${t}`)!]),
+      )
+    }
+    entry = { points, index, terminals, layoutId }
     layoutCache.set(state.deviceOrder, entry)
   }
   return entry
@@ -75,7 +84,7 @@ interface DevicePart {
 }
 const deviceCache = new WeakMap<SimState['devices'], DevicePart>()
 
-function devicePart(state: SimState, index: Map<PointId, number>): DevicePart {
+function devicePart(state: SimState, terminals: PointLayout['terminals']): DevicePart {
   const cached = deviceCache.get(state.devices)
   if (cached) return cached
   const closedContacts: [number, number][] = []
@@ -86,16 +95,17 @@ function devicePart(state: SimState, index: Map<PointId, number>): DevicePart {
     const device = state.devices[id]
     if (device.spec.kind === 'potentiometer') {
       structureKey += 'p'
+      const t = terminals[id]
       potentiometers.push({
-        hi: index.get(`${id}.hi`)!,
-        wiper: index.get(`${id}.wiper`)!,
-        lo: index.get(`${id}.lo`)!,
+        hi: t.hi,
+        wiper: t.wiper,
+        lo: t.lo,
         ohms: device.spec.ohms ?? 10_000,
         position: device.position,
       })
       key += `p${device.position}`
     } else if (contactClosed(device)) {
-      closedContacts.push([index.get(`${id}.a`)!, index.get(`${id}.b`)!])
+      closedContacts.push([terminals[id].a, terminals[id].b])
       key += '1'
       structureKey += '1'
     } else {
@@ -109,11 +119,11 @@ function devicePart(state: SimState, index: Map<PointId, number>): DevicePart {
 }
 
 export function circuitConfig(state: SimState, controlOn: boolean, relayClosed: boolean): CircuitConfig {
-  const { points, index, layoutId } = pointsOf(state)
+  const { points, index, terminals, layoutId } = pointsOf(state)
   const logic = state.settings.active['inputs.logic']
   const supplyEnabled = controlOn && !state.fuseBlown
   const wiring = wiringPart(state, index)
-  const devices = devicePart(state, index)
+  const devices = devicePart(state, terminals)
   const closedContacts = relayClosed
     ? [...devices.closedContacts, [index.get('drive.k1a')!, index.get('drive.k1b')!] as [number, number]]
     : devices.closedContacts

@@ -126,7 +126,8 @@ function elementsOf(config: CircuitConfig, nets: Nets): Element[] {
     const [anode, cathode] = inputTerminals(config.logic, i)
     elements.push({ kind: 'input', index: i, anode: net(anode), cathode: net(cathode) })
   })
-  for (const [a, b] of config.closedContacts) elements.push({ kind: 'resistor', a: net(a), b: net(b), ohms: CONTACT_OHMS })
+  for (const [a, b] of config.closedContacts)
+    elements.push({ kind: 'resistor', a: net(a), b: net(b), ohms: CONTACT_OHMS })
   config.potentiometers.forEach((pot, i) => {
     elements.push({ kind: 'track', pot: i, end: 'upper', a: net(pot.hi), b: net(pot.wiper) })
     elements.push({ kind: 'track', pot: i, end: 'lower', a: net(pot.wiper), b: net(pot.lo) })
@@ -244,12 +245,13 @@ function solvePartOnce(
     } else if (e.kind === 'track') {
       conduct(node(e.a), node(e.b), trackOhms(pots[e.pot], e.end))
     } else if (e.kind === 'input' && inputOn.get(e.index) && e.anode !== e.cathode) {
-      // Opto LED with series resistance: I = (Va − Vk − Vf) / R, in Norton form.
+      // Opto LED with series resistance: I(a→k) = (Va − Vk − Vf) / R. Norton form: conductance 1/R in
+      // parallel with a source of Vf/R pushing current into the anode and out of the cathode.
       const a = node(e.anode)
       const k = node(e.cathode)
       conduct(a, k, INPUT_OHMS)
       const amps = OPTO_DROP_VOLTS / INPUT_OHMS
-      network.injections.push({ node: a, amps: -amps }, { node: k, amps })
+      network.injections.push({ node: a, amps }, { node: k, amps: -amps })
     }
   }
   const solution = solveNodal(network)
@@ -286,13 +288,12 @@ function solvePartWithDiodes(
   return { voltsOf, inputs, inputOn }
 }
 
-const partMemo = new Map<string, PartSolution>()
-
-function solvePart(part: StructuredPart, ground: number, pots: readonly PotentiometerElement[]): PartSolution {
-  let key = part.key
-  for (const i of part.pots) key += `|${pots[i].ohms}@${pots[i].position}`
-  const hit = partMemo.get(key)
-  if (hit) return hit
+function solvePartFresh(
+  part: StructuredPart,
+  ground: number,
+  pots: readonly PotentiometerElement[],
+): PartSolution {
+  solveCount++
   const supply = part.elements.find((e) => e.kind === 'supply')
   const reference = part.elements.find((e) => e.kind === 'reference')
   const sources: Sources = { supply: supply !== undefined, reference: reference !== undefined }
@@ -305,12 +306,15 @@ function solvePart(part: StructuredPart, ground: number, pots: readonly Potentio
     sources.supply = false
     solved = solvePartWithDiodes(part, ground, sources, pots)
   }
-  if (reference && (REFERENCE_VOLTS - solved.voltsOf(reference.net)) / REFERENCE_OHMS > REFERENCE_LIMIT_AMPS) {
+  if (
+    reference &&
+    (REFERENCE_VOLTS - solved.voltsOf(reference.net)) / REFERENCE_OHMS > REFERENCE_LIMIT_AMPS
+  ) {
     referenceOverloaded = true
     sources.reference = false
     solved = solvePartWithDiodes(part, ground, sources, pots)
   }
-  const result: PartSolution = {
+  return {
     nets: part.nets,
     volts: Float64Array.from(part.nets, (n) => solved.voltsOf(n)),
     inputs: solved.inputs.map((e) => {
@@ -324,19 +328,53 @@ function solvePart(part: StructuredPart, ground: number, pots: readonly Potentio
     referenceOn: sources.reference,
     supplyAmps: supply && sources.supply ? (SUPPLY_VOLTS - solved.voltsOf(supply.net)) / SUPPLY_OHMS : 0,
   }
-  if (partMemo.size >= MEMO_LIMIT) partMemo.clear()
-  partMemo.set(key, result)
-  solveCount++
-  return result
+}
+
+/** A part's solution, memoised on the part itself (by potentiometer positions when it has any). */
+function solvePart(
+  part: StructuredPart,
+  ground: number,
+  pots: readonly PotentiometerElement[],
+): PartSolution {
+  const cache = part.cache
+  if (part.pots.length === 0) return (cache.fixed ??= solvePartFresh(part, ground, pots))
+  let key = ''
+  for (const i of part.pots) key += `${pots[i].ohms}@${pots[i].position},`
+  const byPositions = (cache.byPositions ??= new Map())
+  let solution = byPositions.get(key)
+  if (!solution) {
+    solution = solvePartFresh(part, ground, pots)
+    if (byPositions.size >= MEMO_LIMIT) byPositions.clear()
+    byPositions.set(key, solution)
+  }
+  return solution
 }
 
 interface StructuredPart extends Part {
-  /** Memo key of the part without potentiometer positions. */
-  key: string
   /** Potentiometers with a track in this part. */
   pots: number[]
   hasSupply: boolean
   hasReference: boolean
+  /** Solutions shared by every structure that contains an identical part. */
+  cache: PartCache
+}
+
+interface PartCache {
+  fixed?: PartSolution
+  byPositions?: Map<string, PartSolution>
+}
+
+const partCaches = new Map<string, PartCache>()
+
+function partCacheFor(part: Part, ground: number): PartCache {
+  const key = `${ground}|${part.nets.join(',')}|${part.elements.map(describe).join(';')}`
+  let cache = partCaches.get(key)
+  if (!cache) {
+    if (partCaches.size >= MEMO_LIMIT) partCaches.clear()
+    cache = {}
+    partCaches.set(key, cache)
+  }
+  return cache
 }
 
 interface Structure {
@@ -344,6 +382,9 @@ interface Structure {
   parts: StructuredPart[]
   supplyShorted: boolean
   referenceShorted: boolean
+  /** Where the analog input's net is solved: part index and position in it (or -1: at 0 V). */
+  analogPart: number
+  analogAt: number
 }
 
 const structureMemo = new Map<string, Structure>()
@@ -357,14 +398,18 @@ function structureOf(config: CircuitConfig): Structure {
     .filter((part) => part.elements.length > 0) // a floating net alone: leakage holds it at 0 V
     .map((part) => ({
       ...part,
-      key: `${nets.ground}|${part.nets.join(',')}|${part.elements.map(describe).join(';')}`,
       pots: [...new Set(part.elements.flatMap((e) => (e.kind === 'track' ? [e.pot] : [])))],
       hasSupply: part.elements.some((e) => e.kind === 'supply'),
       hasReference: part.elements.some((e) => e.kind === 'reference'),
+      cache: partCacheFor(part, nets.ground),
     }))
+  const analogNet = nets.netOfPoint[P.ai]
+  const analogPart = parts.findIndex((part) => part.nets.includes(analogNet))
   const structure: Structure = {
     nets,
     parts,
+    analogPart,
+    analogAt: analogPart < 0 ? -1 : parts[analogPart].nets.indexOf(analogNet),
     // An output wired straight to 0 V is a dead short: past its limit at once.
     supplyShorted: config.supplyEnabled && nets.netOfPoint[P.p24] === nets.ground,
     referenceShorted: config.referenceEnabled && nets.netOfPoint[P.p10] === nets.ground,
@@ -392,7 +437,8 @@ function solveUncached(config: CircuitConfig): CircuitSolution {
   for (const part of parts) {
     const solved = solvePart(part, nets.ground, config.potentiometers)
     for (let i = 0; i < solved.nets.length; i++) netVolts[solved.nets[i]] = solved.volts[i]
-    for (const input of solved.inputs) inputs[input.index] = { volts: input.volts, milliamps: input.milliamps }
+    for (const input of solved.inputs)
+      inputs[input.index] = { volts: input.volts, milliamps: input.milliamps }
     if (part.hasSupply) {
       solution.supplyOverloaded = solved.supplyOverloaded
       solution.supplyOn = solved.supplyOn
@@ -404,6 +450,33 @@ function solveUncached(config: CircuitConfig): CircuitSolution {
     }
   }
   return solution
+}
+
+/** What the drive logic needs from the network: input voltages and currents, analog volts, overloads. */
+export interface DriveCircuitSummary {
+  inputs: InputSolution[]
+  analogVolts: number
+  supplyOverloaded: boolean
+  referenceOverloaded: boolean
+}
+
+const NO_INPUT: InputSolution = { volts: 0, milliamps: 0 }
+
+export function solveForDrive(config: CircuitConfig): DriveCircuitSummary {
+  const structure = structureOf(config)
+  const inputs: InputSolution[] = [NO_INPUT, NO_INPUT, NO_INPUT, NO_INPUT, NO_INPUT, NO_INPUT]
+  let supplyOverloaded = structure.supplyShorted
+  let referenceOverloaded = structure.referenceShorted
+  let analogVolts = 0
+  for (let p = 0; p < structure.parts.length; p++) {
+    const part = structure.parts[p]
+    const solved = solvePart(part, structure.nets.ground, config.potentiometers)
+    for (const input of solved.inputs) inputs[input.index] = input
+    if (part.hasSupply) supplyOverloaded = solved.supplyOverloaded
+    if (part.hasReference) referenceOverloaded = solved.referenceOverloaded
+    if (p === structure.analogPart) analogVolts = solved.volts[structure.analogAt]
+  }
+  return { inputs, analogVolts, supplyOverloaded, referenceOverloaded }
 }
 
 const MEMO_LIMIT = 4096
@@ -426,7 +499,11 @@ export function solveCircuit(config: CircuitConfig): CircuitSolution {
  * Input states come from the network without the meter: its load (≤ 3 µA) cannot move an input
  * across the IEC 61131-2 limits, so the drive logic never needs this solve.
  */
-export function solveMeter(config: CircuitConfig, red: number, black: number): { volts: number; floating: boolean } {
+export function solveMeter(
+  config: CircuitConfig,
+  red: number,
+  black: number,
+): { volts: number; floating: boolean } {
   const key = `${config.key}|m${red},${black}`
   const hit = meterSolutions.get(key)
   if (hit) return hit
@@ -471,7 +548,7 @@ export function circuitSolveCount(): number {
 export function clearCircuitMemo(): void {
   solutions.clear()
   meterSolutions.clear()
-  partMemo.clear()
   netMemo.clear()
+  partCaches.clear()
   structureMemo.clear()
 }

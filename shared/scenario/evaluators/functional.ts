@@ -4,6 +4,7 @@ import { formatHz, formatSeconds, formatTime, upperFirst } from '../format'
 import { isRunning, type Sample } from '../samples'
 import type { Evaluator } from './types'
 
+// Both limits are our own choices: well above rounding, well below one raise/lower step.
 /** Smallest change that counts as the reference moving (Hz). */
 const MOVED_HZ = 0.1
 /** Largest drift that still counts as holding (Hz). */

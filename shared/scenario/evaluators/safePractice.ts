@@ -80,6 +80,7 @@ export const absenceOfVoltageProved: Evaluator<'absenceOfVoltageProved'> = (obje
   }
   const proofs: string[] = []
   for (const window of windows) {
+    const parts: string[] = []
     const tests = deadTests(trace, window.lockT, window.until, pairs, threshold)
     const failed = tests.find((d) => !d.proved)
     if (failed) {
@@ -103,7 +104,7 @@ export const absenceOfVoltageProved: Evaluator<'absenceOfVoltageProved'> = (obje
           at: firstDead,
         }
       }
-      proofs.push(`meter proved on ${formatVolts(proved.volts)} at ${formatTime(proved.t)}`)
+      parts.push(`meter proved on ${formatVolts(proved.volts)} at ${formatTime(proved.t)}`)
     }
     if (objective.proveMeterAfter) {
       const proved = meterProved(trace, lastDead, window.until)
@@ -114,10 +115,10 @@ export const absenceOfVoltageProved: Evaluator<'absenceOfVoltageProved'> = (obje
           at: lastDead,
         }
       }
-      proofs.push(`meter re-proved on ${formatVolts(proved.volts)} at ${formatTime(proved.t)}`)
+      parts.push(`meter re-proved on ${formatVolts(proved.volts)} at ${formatTime(proved.t)}`)
     }
     const readings = tests.map((d) => `${pairLabel(d.pair)} ${formatVolts(d.lowest?.volts ?? 0)}`).join(', ')
-    proofs.unshift(`after ${formatTime(window.lockT)}, ${window.what}: ${readings}`)
+    proofs.push([`after ${formatTime(window.lockT)}, ${window.what}: ${readings}`, ...parts].join('; '))
   }
   const text = proofs.join('; ')
   return { met: true, evidence: `Absence of voltage proved ${text}.` }

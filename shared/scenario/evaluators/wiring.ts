@@ -91,10 +91,11 @@ function judgeMoment(
 }
 
 export const wiringCondition: Evaluator<'wiringCondition'> = (objective, { trace }) => {
+  // Only the last qualifying moment decides, so search from the end (the circuit is solved lazily).
   let last: { sample: Sample; judgement: Judgement } | undefined
-  for (const sample of trace.samples) {
-    if (!conditionHolds(objective.while, sample.state)) continue
-    if (!trace.circuit(sample).supplyOn) continue
+  for (let i = trace.samples.length - 1; i >= 0 && !last; i--) {
+    const sample = trace.samples[i]
+    if (!conditionHolds(objective.while, sample.state) || !trace.circuit(sample).supplyOn) continue
     last = { sample, judgement: judgeMoment(objective, sample, trace) }
   }
   const initial = trace.samples[0].state

@@ -52,7 +52,10 @@ describe('the API client', () => {
 
   it('signs out when the repeated request is still refused, without a second refresh', async () => {
     refresh.mockResolvedValue(true)
-    const calls = stubFetch(() => ({ status: 401, body: { error: { code: 'token_invalid', message: 'Bad token' } } }))
+    const calls = stubFetch(() => ({
+      status: 401,
+      body: { error: { code: 'token_invalid', message: 'Bad token' } },
+    }))
     await expect(request('/cohorts', okSchema)).rejects.toBeInstanceOf(ApiError)
     expect(refresh).toHaveBeenCalledTimes(1)
     expect(calls).toHaveLength(2)
@@ -71,7 +74,9 @@ describe('the API client', () => {
         }),
     )
     stubFetch((call) =>
-      call.headers.get('authorization') === 'Bearer new-token' ? { body: { ok: true } } : { status: 401, body: {} },
+      call.headers.get('authorization') === 'Bearer new-token'
+        ? { body: { ok: true } }
+        : { status: 401, body: {} },
     )
     const both = Promise.all([request('/a', okSchema), request('/b', okSchema)])
     await vi.waitFor(() => expect(refresh).toHaveBeenCalled())
@@ -81,8 +86,13 @@ describe('the API client', () => {
   })
 
   it('does not try to refresh for calls that ask not to (sign-in itself)', async () => {
-    stubFetch(() => ({ status: 401, body: { error: { code: 'invalid_credentials', message: 'Wrong e-mail or password' } } }))
-    await expect(request('/auth/sign-in', okSchema, { method: 'POST', refreshOn401: false })).rejects.toMatchObject({
+    stubFetch(() => ({
+      status: 401,
+      body: { error: { code: 'invalid_credentials', message: 'Wrong e-mail or password' } },
+    }))
+    await expect(
+      request('/auth/sign-in', okSchema, { method: 'POST', refreshOn401: false }),
+    ).rejects.toMatchObject({
       code: 'invalid_credentials',
       message: 'Wrong e-mail or password',
     })
@@ -100,9 +110,15 @@ describe('the API client', () => {
         },
       },
     }))
-    const error = await request('/cohorts/x/invitations', okSchema, { method: 'POST', body: {} }).catch((e) => e)
+    const error = await request('/cohorts/x/invitations', okSchema, { method: 'POST', body: {} }).catch(
+      (e) => e,
+    )
     expect(error).toBeInstanceOf(ApiError)
-    expect(error).toMatchObject({ status: 400, code: 'validation_failed', message: 'Check the highlighted fields' })
+    expect(error).toMatchObject({
+      status: 400,
+      code: 'validation_failed',
+      message: 'Check the highlighted fields',
+    })
     expect(error.fieldErrors()).toEqual({ email: 'Must be an e-mail address', name: 'Enter a name' })
   })
 
@@ -112,7 +128,10 @@ describe('the API client', () => {
   })
 
   it('reports a network failure as its own error code', async () => {
-    vi.stubGlobal('fetch', vi.fn(async () => Promise.reject(new TypeError('Failed to fetch'))))
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () => Promise.reject(new TypeError('Failed to fetch'))),
+    )
     await expect(request('/cohorts', okSchema)).rejects.toMatchObject({ status: 0, code: 'network' })
   })
 

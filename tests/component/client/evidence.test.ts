@@ -29,7 +29,9 @@ describe('reading the grader’s evidence', () => {
   it('keeps safety violations and hints apart from the objectives', () => {
     const withViolation = {
       ...result,
-      safetyViolations: [{ kind: 'workWhileEnergised', t: 42_300, text: 'Wire added while the DC bus was at 512 V' }],
+      safetyViolations: [
+        { kind: 'workWhileEnergised', t: 42_300, text: 'Wire added while the DC bus was at 512 V' },
+      ],
       hintsUsed: [{ id: 'hint-bus', t: 1000, cost: 10 }],
     }
     const view = readEvidence(withViolation)

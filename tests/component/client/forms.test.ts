@@ -67,16 +67,30 @@ describe('the gradebook query', () => {
       { page: 2, itemsPerPage: 25, sortBy: [{ key: 'average', order: 'desc' }] },
       { q: '  wren ', status: 'failed', assignmentId: ids.assignment },
     )
-    expect(query).toEqual({ page: 2, pageSize: 25, sort: 'average', order: 'desc', q: 'wren', status: 'failed', assignmentId: ids.assignment })
+    expect(query).toEqual({
+      page: 2,
+      pageSize: 25,
+      sort: 'average',
+      order: 'desc',
+      q: 'wren',
+      status: 'failed',
+      assignmentId: ids.assignment,
+    })
   })
 
   it('falls back to sorting by name for a column the server cannot sort', () => {
-    const query = toGradebookQuery({ page: 1, itemsPerPage: 10, sortBy: [{ key: 'cell0', order: 'asc' }] }, { q: '', status: null, assignmentId: null })
+    const query = toGradebookQuery(
+      { page: 1, itemsPerPage: 10, sortBy: [{ key: 'cell0', order: 'asc' }] },
+      { q: '', status: null, assignmentId: null },
+    )
     expect(query).toEqual({ page: 1, pageSize: 10, sort: 'name', order: 'asc' })
   })
 
   it('caps "all rows" (-1) at the server’s page limit', () => {
-    const query = toGradebookQuery({ page: 1, itemsPerPage: -1, sortBy: [] }, { q: '', status: null, assignmentId: null })
+    const query = toGradebookQuery(
+      { page: 1, itemsPerPage: -1, sortBy: [] },
+      { q: '', status: null, assignmentId: null },
+    )
     expect(query.pageSize).toBe(100)
   })
 })

@@ -4,7 +4,12 @@ import type { RouteMeta } from 'vue-router'
 import { decide, safeRedirect } from '@/router/guard'
 import { homeFor } from '@/router/roles'
 
-const to = (fullPath: string, meta: RouteMeta = {}) => ({ fullPath, path: fullPath.split('?')[0], meta, matched: [{ meta }] })
+const to = (fullPath: string, meta: RouteMeta = {}) => ({
+  fullPath,
+  path: fullPath.split('?')[0],
+  meta,
+  matched: [{ meta }],
+})
 const signedOut = { signedIn: false, role: null }
 const apprentice = { signedIn: true, role: 'apprentice' as const }
 const instructor = { signedIn: true, role: 'instructor' as const }

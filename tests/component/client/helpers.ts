@@ -14,7 +14,9 @@ export interface StubCall {
   body: unknown
 }
 
-type Responder = (call: StubCall) => { status?: number; body?: unknown } | Promise<{ status?: number; body?: unknown }>
+type Responder = (
+  call: StubCall,
+) => { status?: number; body?: unknown } | Promise<{ status?: number; body?: unknown }>
 
 /** Replaces global fetch with a function answering from `respond`; returns the recorded calls. */
 export function stubFetch(respond: Responder) {

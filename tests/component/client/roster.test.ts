@@ -4,7 +4,9 @@ import { mergeServerRowErrors, previewRoster } from '@/components/cohorts/roster
 
 describe('the roster preview', () => {
   it('reads name and e-mail columns in any order and case', () => {
-    const preview = previewRoster('Email,Name\nwren.maddox@bench.example,Wren Maddox\nolu.brisk@bench.example,Olu Brisk\n')
+    const preview = previewRoster(
+      'Email,Name\nwren.maddox@bench.example,Wren Maddox\nolu.brisk@bench.example,Olu Brisk\n',
+    )
     expect(preview.fileErrors).toEqual([])
     expect(preview.rows.map((r) => [r.line, r.name, r.email])).toEqual([
       [2, 'Wren Maddox', 'wren.maddox@bench.example'],
@@ -14,7 +16,9 @@ describe('the roster preview', () => {
   })
 
   it('marks each bad row with the field and the reason, counting lines as the server does', () => {
-    const preview = previewRoster('name,email\nWren Maddox,not-an-address\n,olu.brisk@bench.example\nTam Ode,tam.ode@bench.example\n')
+    const preview = previewRoster(
+      'name,email\nWren Maddox,not-an-address\n,olu.brisk@bench.example\nTam Ode,tam.ode@bench.example\n',
+    )
     expect(preview.rows[0]).toMatchObject({ line: 2, errors: { email: 'Must be an e-mail address' } })
     expect(preview.rows[1]).toMatchObject({ line: 3, errors: { name: 'Enter a name' } })
     expect(preview.rows[2].errors).toEqual({})
@@ -44,7 +48,9 @@ describe('the roster preview', () => {
 
   it('adds the per-row errors the server sends back when it refuses a file', () => {
     const preview = previewRoster('name,email\nWren Maddox,wren@bench.example\n')
-    const merged = mergeServerRowErrors(preview, { rows: [{ row: 2, field: 'email', message: 'Already invited' }] })
+    const merged = mergeServerRowErrors(preview, {
+      rows: [{ row: 2, field: 'email', message: 'Already invited' }],
+    })
     expect(merged.rows[0].errors).toEqual({ email: 'Already invited' })
     expect(merged.validCount).toBe(0)
   })

@@ -52,7 +52,10 @@ describe('the session store', () => {
 
   it('treats a refused refresh as signed out, not as an error', async () => {
     localStorage.setItem('slipway.hadSession', '1')
-    stubFetch(() => ({ status: 401, body: { error: { code: 'refresh_token_invalid', message: 'No session' } } }))
+    stubFetch(() => ({
+      status: 401,
+      body: { error: { code: 'refresh_token_invalid', message: 'No session' } },
+    }))
     const session = useSessionStore()
     await expect(session.restore()).resolves.toBeUndefined()
     expect(session.signedIn).toBe(false)
@@ -63,7 +66,10 @@ describe('the session store', () => {
     stubFetch(() => ({ body: sessionBody() }))
     const session = useSessionStore()
     await session.signIn({ email: 'wren.maddox@bench.example', password: 'a long pass phrase' })
-    vi.stubGlobal('fetch', vi.fn(async () => Promise.reject(new TypeError('Failed to fetch'))))
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () => Promise.reject(new TypeError('Failed to fetch'))),
+    )
     await expect(session.signOut()).rejects.toMatchObject({ code: 'network' })
     expect(session.signedIn).toBe(false)
     expect(localStorage.getItem('slipway.hadSession')).toBeNull()
@@ -73,7 +79,10 @@ describe('the session store', () => {
     stubFetch(() => ({ body: sessionBody() }))
     const session = useSessionStore()
     await session.signIn({ email: 'wren.maddox@bench.example', password: 'a long pass phrase' })
-    stubFetch(() => ({ status: 401, body: { error: { code: 'refresh_token_reused', message: 'Signed out' } } }))
+    stubFetch(() => ({
+      status: 401,
+      body: { error: { code: 'refresh_token_reused', message: 'Signed out' } },
+    }))
     await expect(request('/assignments', z.unknown())).rejects.toMatchObject({ status: 401 })
     expect(session.signedIn).toBe(false)
     expect(session.endedUnexpectedly).toBe(true)

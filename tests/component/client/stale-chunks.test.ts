@@ -9,7 +9,11 @@ describe('stale chunk recovery', () => {
   })
 
   it('recognises the browsers’ messages for a chunk that failed to load', () => {
-    expect(isChunkLoadError(new TypeError('Failed to fetch dynamically imported module: /assets/GradebookView-1.js'))).toBe(true)
+    expect(
+      isChunkLoadError(
+        new TypeError('Failed to fetch dynamically imported module: /assets/GradebookView-1.js'),
+      ),
+    ).toBe(true)
     expect(isChunkLoadError(new TypeError('error loading dynamically imported module'))).toBe(true)
     expect(isChunkLoadError(new Error('Cannot read properties of undefined'))).toBe(false)
   })

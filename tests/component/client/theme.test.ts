@@ -39,7 +39,10 @@ describe('contrast of the Slipway themes', () => {
       ['success', 'surface'],
       ['warning', 'surface'],
       ['info', 'surface'],
-      ...(['primary', 'secondary', 'error', 'success', 'warning', 'info'].map((k) => [`on-${k}`, k]) as [string, string][]),
+      ...(['primary', 'secondary', 'error', 'success', 'warning', 'info'].map((k) => [`on-${k}`, k]) as [
+        string,
+        string,
+      ][]),
     ]
     it.each(pairs)(`${name}: %s on %s reaches 4.5:1`, (fg, bg) => {
       expect(contrast(c[fg], c[bg])).toBeGreaterThanOrEqual(4.5)

@@ -21,7 +21,10 @@ describe('the sign-in page', () => {
   async function mountSignIn(path = '/sign-in') {
     const { router, pinia, vuetify } = testPlugins([{ path: '/sign-in', component: SignInView }])
     await router.push(path)
-    const wrapper = mount(SignInView, { global: { plugins: [pinia, router, vuetify] }, attachTo: document.body })
+    const wrapper = mount(SignInView, {
+      global: { plugins: [pinia, router, vuetify] },
+      attachTo: document.body,
+    })
     return { wrapper, router }
   }
 
@@ -36,7 +39,10 @@ describe('the sign-in page', () => {
   })
 
   it('shows the server’s message for wrong credentials', async () => {
-    stubFetch(() => ({ status: 401, body: { error: { code: 'invalid_credentials', message: 'Wrong e-mail or password' } } }))
+    stubFetch(() => ({
+      status: 401,
+      body: { error: { code: 'invalid_credentials', message: 'Wrong e-mail or password' } },
+    }))
     const { wrapper } = await mountSignIn()
     await wrapper.find('input[type="email"]').setValue('wren.maddox@bench.example')
     await wrapper.find('input[type="password"]').setValue('not the password')

@@ -28,7 +28,10 @@ describe('hit-testing', () => {
   it('finds a placed probe before the terminal it sits on', () => {
     const probes = { red: 'drive.dcp', black: null }
     const tip = probeTip(layout, 'red', 'drive.dcp')
-    expect(hitTest(layout, { wires: [], probes }, { x: tip.x, y: tip.y - 10 })).toEqual({ kind: 'probe', probe: 'red' })
+    expect(hitTest(layout, { wires: [], probes }, { x: tip.x, y: tip.y - 10 })).toEqual({
+      kind: 'probe',
+      probe: 'red',
+    })
   })
 
   it('finds nothing on empty backplate', () => {
@@ -81,6 +84,8 @@ describe('pointer gestures', () => {
     expect(pointerUp(ctx, down.gesture, { kind: 'terminal', point: 'drive.0v' }).intents).toEqual([
       { type: 'probe.place', probe: 'black', point: 'drive.0v' },
     ])
-    expect(pointerUp(ctx, down.gesture, null).intents).toEqual([{ type: 'probe.place', probe: 'black', point: null }])
+    expect(pointerUp(ctx, down.gesture, null).intents).toEqual([
+      { type: 'probe.place', probe: 'black', point: null },
+    ])
   })
 })

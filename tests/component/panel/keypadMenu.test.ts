@@ -24,14 +24,20 @@ describe('the keypad menu', () => {
   })
 
   it('wraps around the groups', () => {
-    expect(press(STATUS_SCREEN, ['enter', 'up']).menu).toEqual({ screen: 'groups', group: SETTING_GROUPS.length - 1 })
+    expect(press(STATUS_SCREEN, ['enter', 'up']).menu).toEqual({
+      screen: 'groups',
+      group: SETTING_GROUPS.length - 1,
+    })
   })
 
   it('edits a number in steps, clamped to the catalogue range, and saves with OK', () => {
     const where = locateSetting('ramp.accelSeconds')!
     const editing: KeypadMenu = { screen: 'edit', ...where, value: 599.9 }
     const r = press(editing, ['up', 'up', 'enter'])
-    expect(r.output).toEqual([{ type: 'setting.changed', key: 'ramp.accelSeconds', value: 600 }, { type: 'settings.saved' }])
+    expect(r.output).toEqual([
+      { type: 'setting.changed', key: 'ramp.accelSeconds', value: 600 },
+      { type: 'settings.saved' },
+    ])
   })
 
   it('steps ten times faster with left and right, without floating-point dust', () => {
@@ -48,7 +54,10 @@ describe('the keypad menu', () => {
     const r = press({ screen: 'settings', ...where }, ['enter', 'down', 'enter'])
     if (def.kind !== 'choice') throw new Error('expected a choice')
     const i = def.options.findIndex((o) => o.value === DEFAULT_SETTINGS['reference.remoteSource'])
-    expect(r.output[0]).toMatchObject({ key: 'reference.remoteSource', value: def.options[(i + 1) % def.options.length].value })
+    expect(r.output[0]).toMatchObject({
+      key: 'reference.remoteSource',
+      value: def.options[(i + 1) % def.options.length].value,
+    })
   })
 
   it('leaves the menu alone for run, stop and reset (they act on the drive)', () => {

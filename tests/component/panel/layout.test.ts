@@ -1,6 +1,11 @@
 // The panel layout: every terminal of the model contract is on the panel, labelled as the contract says.
 import { describe, expect, it } from 'vitest'
-import { DRIVE_CONTROL_POINTS, DRIVE_POWER_POINTS, POINT_LABELS, controlPointsFor } from '@shared/model/points'
+import {
+  DRIVE_CONTROL_POINTS,
+  DRIVE_POWER_POINTS,
+  POINT_LABELS,
+  controlPointsFor,
+} from '@shared/model/points'
 import { deviceTerminalLabels, layoutPanel } from '@/panel/layout'
 import type { PanelDevice } from '@/panel/types'
 

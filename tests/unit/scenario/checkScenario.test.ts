@@ -205,6 +205,17 @@ describe('checkScenario rejects bad files', () => {
     ])
   })
 
+  it('rejects re-proving the meter after the dead test, which the simulator cannot offer yet', () => {
+    const problems = problemsOf(
+      variant((s) => {
+        const o = s.objectives.find((x) => x.kind === 'absenceOfVoltageProved')!
+        if (o.kind === 'absenceOfVoltageProved') o.proveMeterAfter = true
+      }),
+    )
+    expect(problems).toHaveLength(1)
+    expect(problems[0].path).toMatch(/^\$\.objectives\[\d+\]\.proveMeterAfter$/)
+  })
+
   it('rejects duplicate ids', () => {
     const problems = problemsOf(variant((s) => (s.objectives[1].id = s.objectives[0].id)))
     expect(problems).toEqual([

@@ -83,7 +83,9 @@ describe('attempt fixtures', () => {
       const stored = JSON.parse(
         readFileSync(resolve(attemptsDir, fixtureFileName(script)), 'utf8'),
       ) as AttemptFixture
-      expect(stored, fixtureFileName(script)).toEqual(buildFixture(script))
+      expect(stored, `${fixtureFileName(script)} is stale: run npm run fixtures:build`).toEqual(
+        buildFixture(script),
+      )
     }
     expect(fixtures).toHaveLength(ATTEMPT_SCRIPTS.length)
   })

@@ -1,8 +1,9 @@
 // grade(): the score, the pass rule, hints, the separate safety-violation list and the live form.
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
-import { formatTime, grade, type Objective } from '@shared/scenario'
+import { formatTime, grade, GradeInputError, type Objective } from '@shared/scenario'
 import { longestInBand } from '@shared/scenario/evaluators/speed'
+import { ModelInputError } from '@shared/model'
 import { benchScenario, builderFor, ready } from './helpers'
 
 const objectives: Objective[] = [
@@ -107,6 +108,26 @@ describe('grade', () => {
       expect(o.evidence.length).toBeGreaterThan(10)
     }
     expect(result.summary).toMatch(/^Passed: 50\/100, 2 of 3 objectives met, no safety violations/)
+  })
+})
+
+describe('grade refuses a log it cannot replay', () => {
+  it('names the event whose time goes back', () => {
+    const events = [
+      { t: 5000, type: 'power.off' },
+      { t: 1000, type: 'power.on' },
+    ] as const
+    expect(() => grade(scenario, [...events])).toThrow(GradeInputError)
+    expect(() => grade(scenario, [...events])).toThrow(ModelInputError)
+    expect(() => grade(scenario, [...events])).toThrow(
+      'events[1] at 1000 ms is earlier than the event before it (5000 ms)',
+    )
+  })
+
+  it('names an event whose time is not a whole millisecond', () => {
+    expect(() => grade(scenario, [{ t: 5000.5, type: 'power.off' }])).toThrow(
+      'events[0].t must be a whole number of milliseconds ≥ 0 (got 5000.5)',
+    )
   })
 })
 

@@ -407,6 +407,44 @@ const fanRampOrCoast: AttemptScript[] = [
   },
 ]
 
+// ---------- 11. dead-control-circuit ----------
+function repairControlCircuit(b: LogBuilder, options: { lockSecondTime: boolean }): void {
+  b.waitUntil((d) => d.power === 'ready', 'the drive becoming ready').wait(2000)
+  b.switchTo('runSwitch', 1).wait(2000) // nothing happens
+  b.probe('drive.p24', 'drive.0v').wait(3000).probe(null, null).wait(1000) // 0 V: no control supply
+  b.switchTo('runSwitch', 0).wait(1000)
+  isolateAndProve(b)
+  b.record({ type: 'fuse.replaced' }).wait(5000)
+  restorePower(b)
+  b.switchTo('runSwitch', 1).wait(2000) // still nothing: DI1 stays OFF
+  // Across the run wire: an open conductor should read the supply (see modelGaps.test.ts).
+  b.probe('runSwitch.b', 'drive.di1').wait(3000).probe(null, null).wait(1000)
+  b.switchTo('runSwitch', 0).wait(1000)
+  isolateAndProve(b, { lock: options.lockSecondTime })
+  b.unwire('wRunOut').wait(4000).wire('wRunOutNew', 'runSwitch.b', 'drive.di1').wait(4000)
+  restorePower(b)
+  b.switchTo('runSwitch', 1).waitUntil(running, 'reaching 40 Hz').wait(8000)
+  b.switchTo('runSwitch', 0).waitUntil(standstill, 'the ramp stop').wait(2000)
+}
+const deadControlCircuit: AttemptScript[] = [
+  {
+    scenario: 'dead-control-circuit',
+    name: 'reference',
+    description:
+      'Measured 0 V on +24, replaced the fuse under lockout; then measured 24 V across the run wire, replaced it under lockout; ran at 40 Hz.',
+    misses: [],
+    build: (b) => repairControlCircuit(b, { lockSecondTime: true }),
+  },
+  {
+    scenario: 'dead-control-circuit',
+    name: 'mistake-no-lock-second-repair',
+    description:
+      'Locked out for the fuse, but replaced the broken wire with the disconnect off and unlocked.',
+    misses: ['locked-first'],
+    build: (b) => repairControlCircuit(b, { lockSecondTime: false }),
+  },
+]
+
 export const ATTEMPT_SCRIPTS: AttemptScript[] = [
   ...safeIsolation,
   ...twoWireRunStop,
@@ -418,4 +456,5 @@ export const ATTEMPT_SCRIPTS: AttemptScript[] = [
   ...threeWireStartStop,
   ...potentiometerReference,
   ...fanRampOrCoast,
+  ...deadControlCircuit,
 ]

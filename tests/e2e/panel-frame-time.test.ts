@@ -1,0 +1,76 @@
+// Frame cost while the motor runs, measured in Chromium over 600 frames: the panel's own script
+// time per frame (model advance, view, scene update and Pixi's draw calls). The attempt is restored
+// from the browser's local storage, which is also how a reload loses nothing.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { launchBrowser, screenshot, startApp, type BrowserSession, type RunningApp } from './support'
+import {
+  apiToken,
+  dismissSafetyNotice,
+  raiseLowerRunningLog,
+  scenarioVersionId,
+  signInPage,
+} from './panel-fixtures'
+
+const percentile = (sorted: number[], p: number) =>
+  sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))]
+
+describe('the panel while the motor runs', () => {
+  let app: RunningApp
+  let browser: BrowserSession
+
+  beforeAll(async () => {
+    app = await startApp()
+    browser = await launchBrowser({ width: 1280, height: 900 })
+  })
+
+  afterAll(async () => {
+    await browser?.close()
+    await app?.stop()
+  })
+
+  it('resumes a saved attempt after a reload and measures 600 frames of script time', async () => {
+    const { page } = browser
+    await signInPage(page, app.url)
+    const versionId = await scenarioVersionId(app.url, await apiToken(app.url), 'raise-lower-commissioning')
+    const events = raiseLowerRunningLog()
+    await page.evaluate(
+      ([key, log]) =>
+        localStorage.setItem(
+          key,
+          JSON.stringify({
+            version: 1,
+            attemptId: crypto.randomUUID(),
+            events: log,
+            savedAt: new Date().toISOString(),
+          }),
+        ),
+      [`slipway.attempt.practice.${versionId}`, events] as const,
+    )
+    await page.goto(`${app.url}/simulator/raise-lower-commissioning?perf`)
+    await dismissSafetyNotice(page)
+    await page
+      .getByText(`Resumed the attempt saved in this browser (${events.length} actions)`)
+      .waitFor({ timeout: 30_000 })
+    await page.waitForFunction(() => Array.isArray(window.__slipwayFrameTimes), null, { timeout: 30_000 })
+    const canvas = page.getByTestId('panel-canvas')
+    await canvas.scrollIntoViewIfNeeded()
+    await expect
+      .poll(async () => canvas.getAttribute('aria-label'), { timeout: 20_000 })
+      .toMatch(/running, 1\d{3} rpm, 7 wires/)
+
+    await page.evaluate(() => (window.__slipwayFrameTimes = []))
+    await page.waitForFunction(() => (window.__slipwayFrameTimes?.length ?? 0) >= 600, null, {
+      timeout: 200_000,
+      polling: 1000,
+    })
+    const times = (await page.evaluate(() => window.__slipwayFrameTimes!.slice(0, 600))).sort((a, b) => a - b)
+    await screenshot(page, 'panel-frame-time-running')
+    const median = percentile(times, 50)
+    const p95 = percentile(times, 95)
+    console.log(
+      `panel script time per frame over ${times.length} frames: median ${median.toFixed(2)} ms, p95 ${p95.toFixed(2)} ms`,
+    )
+    expect(times).toHaveLength(600)
+    expect(median).toBeGreaterThan(0)
+  }, 300_000)
+})

@@ -1,0 +1,170 @@
+// The same commissioning job with the keyboard only: probes and wires chosen from lists, the
+// keypad and disconnect as buttons, FASTER/SLOWER held with their letter keys, submit with Enter.
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import type { Page } from 'playwright-core'
+import { launchBrowser, screenshot, startApp, type BrowserSession, type RunningApp } from './support'
+import { dismissSafetyNotice, signInPage } from './panel-fixtures'
+
+async function choose(page: Page, label: string, query: string) {
+  const input = page.getByLabel(label, { exact: true })
+  await input.focus()
+  await input.fill(query)
+  await page.waitForTimeout(150)
+  await page.keyboard.press('ArrowDown')
+  await page.keyboard.press('Enter')
+  await page.keyboard.press('Escape')
+}
+
+async function press(page: Page, name: string | RegExp, times = 1) {
+  const button = page.getByRole('button', { name, exact: typeof name === 'string' })
+  for (let i = 0; i < times; i++) {
+    await button.focus()
+    await page.keyboard.press('Enter')
+  }
+}
+
+async function leaveFields(page: Page) {
+  await page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur())
+}
+
+async function rpm(page: Page) {
+  const label = (await page.getByTestId('panel-canvas').getAttribute('aria-label')) ?? ''
+  return Number(/(-?\d+) rpm/.exec(label)?.[1])
+}
+
+async function waitForLabel(page: Page, re: RegExp, timeout = 30_000) {
+  await expect
+    .poll(async () => page.getByTestId('panel-canvas').getAttribute('aria-label'), { timeout })
+    .toMatch(re)
+}
+
+describe('commissioning raise/lower with the keyboard only', () => {
+  let app: RunningApp
+  let browser: BrowserSession
+
+  beforeAll(async () => {
+    app = await startApp()
+    browser = await launchBrowser({ width: 1600, height: 1000 })
+  })
+
+  afterAll(async () => {
+    await browser?.close()
+    await app?.stop()
+  })
+
+  it('can be done and submitted without touching the canvas', async () => {
+    const { page } = browser
+    await signInPage(page, app.url)
+    await page.goto(`${app.url}/simulator/raise-lower-commissioning`)
+    await dismissSafetyNotice(page)
+    await page.getByTestId('panel-canvas').waitFor({ timeout: 30_000 })
+
+    // Prove dead with the probe lists.
+    const pairs: [string, string][] = [
+      ['incoming line 1', 'incoming line 2'],
+      ['incoming line 2', 'incoming line 3'],
+      ['incoming line 1', 'incoming line 3'],
+      ['DC bus positive', 'DC bus negative'],
+    ]
+    for (const [red, black] of pairs) {
+      await choose(page, 'Red probe (V+)', red)
+      await choose(page, 'Black probe (COM)', black)
+    }
+    await expect(page.getByTestId('live-meter').textContent()).resolves.toBeDefined()
+    await screenshot(page, 'panel-keyboard-01-proved-dead')
+
+    // Wire with the terminal picker.
+    const wires: [string, string][] = [
+      ['+24 V control supply', 'Infeed run / stop terminal 13'],
+      ['Infeed run / stop terminal 13', 'Faster terminal 13'],
+      ['Faster terminal 13', 'Slower terminal 13'],
+      ['Infeed run / stop terminal 14', 'digital input 1'],
+      ['Faster terminal 14', 'digital input 2'],
+      ['Slower terminal 14', 'digital input 3'],
+      ['digital-input common', '0 V control supply'],
+    ]
+    for (const [from, to] of wires) {
+      await press(page, 'Add a wire…')
+      await choose(page, 'From terminal', from)
+      await choose(page, 'To terminal', to)
+      await press(page, 'Add wire')
+    }
+    await expect(page.getByRole('list', { name: 'Wires' }).getByRole('listitem').count()).resolves.toBe(7)
+    await screenshot(page, 'panel-keyboard-02-wired')
+
+    await press(page, 'Remove my lock from the disconnect')
+    await press(page, /Supply disconnect, now OFF/)
+    await waitForLabel(page, /drive ready/)
+
+    // Program with the keypad buttons (same key sequence as by mouse).
+    const keys: [string, number][] = [
+      ['OK', 1],
+      ['Down', 1],
+      ['OK', 2],
+      ['Down', 1],
+      ['OK', 1],
+      ['Back', 1],
+      ['Down', 1],
+      ['OK', 1],
+      ['Down', 1],
+      ['OK', 1],
+      ['Down', 1],
+      ['OK', 1],
+      ['Down', 1],
+      ['OK', 1],
+      ['Down', 4],
+      ['OK', 1],
+      ['Down', 1],
+      ['OK', 1],
+      ['Down', 5],
+      ['OK', 1],
+      ['Back', 1],
+      ['Down', 1],
+      ['OK', 2],
+      ['Down', 1],
+      ['OK', 1],
+      ['Back', 2],
+    ]
+    for (const [key, times] of keys) await press(page, `Keypad ${key}`, times)
+    await screenshot(page, 'panel-keyboard-03-programmed')
+
+    // Run with the selector's letter, raise by holding F, trim with F / S taps.
+    await leaveFields(page)
+    await page.keyboard.press('i')
+    await waitForLabel(page, /drive (speeding up|running)/)
+    await page.keyboard.down('f')
+    await expect.poll(() => rpm(page), { timeout: 40_000, intervals: [50] }).toBeGreaterThanOrEqual(1150)
+    await page.keyboard.up('f')
+    for (let i = 0; i < 20; i++) {
+      await page.waitForTimeout(600)
+      const now = await rpm(page)
+      if (Math.abs(now - 1200) <= 12) break
+      const key = now > 1200 ? 's' : 'f'
+      await page.keyboard.down(key)
+      await page.waitForTimeout(Math.min(400, Math.abs(now - 1200) * 6))
+      await page.keyboard.up(key)
+    }
+    expect(Math.abs((await rpm(page)) - 1200)).toBeLessThanOrEqual(20)
+    await screenshot(page, 'panel-keyboard-04-at-target')
+    await press(page, 'Time runs 10 times faster')
+    await page.waitForTimeout(2500)
+    await press(page, 'Time runs 1 times faster')
+
+    await leaveFields(page)
+    await page.keyboard.down('s')
+    await page.waitForTimeout(2500)
+    await page.keyboard.up('s')
+    await page.keyboard.press('i')
+    await waitForLabel(page, / 0 rpm/)
+
+    await page.getByRole('tab', { name: 'Task' }).focus()
+    await page.keyboard.press('Enter')
+    await page.getByTestId('submit-attempt').focus()
+    await page.keyboard.press('Enter')
+    const grade = page.getByTestId('attempt-grade')
+    await grade.waitFor({ timeout: 30_000 })
+    await grade.scrollIntoViewIfNeeded()
+    await screenshot(page, 'panel-keyboard-05-graded')
+    await expect(grade.textContent()).resolves.toMatch(/— passed/)
+  }, 300_000)
+})
