@@ -23,6 +23,7 @@ import { invitationsRouter } from './routes/invitations'
 import { scenariosRouter, scenarioVersionsRouter } from './routes/scenarios'
 import type { Mailer } from './services/mailer'
 import { createPasswordHasher, type PasswordHasher } from './services/passwords'
+import { DatabaseRateLimitStore } from './services/rate-limit-store'
 import { createAccessTokens } from './services/tokens'
 
 export interface AppDeps {
@@ -47,11 +48,18 @@ export function createApp(deps: AppDeps): Express {
     passwords: deps.passwords ?? createPasswordHasher(deps.config.passwordHashing),
     tokens: createAccessTokens(deps.jwtSecret),
     log,
-    limits: createLimiters(deps.config.rateLimits),
+    // Several instances must count together: their counters then live in the shared database.
+    limits: createLimiters(
+      deps.config.rateLimits,
+      deps.config.rateLimitStore === 'database'
+        ? (which) => new DatabaseRateLimitStore(deps.dataSource, which)
+        : undefined,
+    ),
   }
   const app = express()
   app.disable('x-powered-by')
-  app.set('trust proxy', 'loopback')
+  // Behind a reverse proxy on another host, TRUST_PROXY names it so rate limits see the client's address.
+  app.set('trust proxy', deps.config.trustProxy)
   app.use(
     helmet({
       contentSecurityPolicy: {

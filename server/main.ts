@@ -5,7 +5,7 @@ import { fileURLToPath } from 'node:url'
 import { pino } from 'pino'
 import { createApp } from './app'
 import { ConfigError, loadConfig } from './config'
-import { openDatabase } from './data-source'
+import { dataSourceOptionsFor, openDatabase } from './data-source'
 import { UserEntity } from './entities'
 import { DEMO_ACCOUNTS, demoSignInTable } from './services/demo-accounts'
 import { createMailer, type SmtpTarget } from './services/mailer'
@@ -37,12 +37,16 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
   const log = pino({ level: config.logLevel })
   mkdirSync(config.dataDir, { recursive: true })
   const jwtSecret = loadOrCreateJwtSecret(config.dataDir, config.jwtSecret)
-  const dataSource = await openDatabase({ databasePath: config.databasePath })
   const passwords = createPasswordHasher(config.passwordHashing)
-  const shipped = await importShippedScenarios(dataSource, SCENARIOS_DIR)
-  if (shipped.added) log.info({ added: shipped.added }, 'shipped scenarios imported')
-  for (const skip of shipped.skipped) log.warn(skip, 'shipped scenario skipped')
-  if (await isDatabaseEmpty(dataSource)) await seedDemo(dataSource, passwords, log)
+  // Seeding runs under the start-up lock, so instances starting together against one database seed once.
+  const dataSource = await openDatabase(dataSourceOptionsFor(config), {
+    async afterMigrations(ds) {
+      const shipped = await importShippedScenarios(ds, SCENARIOS_DIR)
+      if (shipped.added) log.info({ added: shipped.added }, 'shipped scenarios imported')
+      for (const skip of shipped.skipped) log.warn(skip, 'shipped scenario skipped')
+      if (await isDatabaseEmpty(ds)) await seedDemo(ds, passwords, log)
+    },
+  })
 
   let outbox: OutboxSmtp | undefined
   let target: SmtpTarget

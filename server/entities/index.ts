@@ -8,6 +8,7 @@ import { FeedbackEntity } from './feedback'
 import { InvitationEntity } from './invitation'
 import { MailMessageEntity } from './mail-message'
 import { PasswordResetEntity } from './password-reset'
+import { RateLimitCounterEntity } from './rate-limit-counter'
 import { RefreshTokenEntity } from './refresh-token'
 import { ScenarioEntity } from './scenario'
 import { UploadEntity } from './upload'
@@ -22,6 +23,7 @@ export * from './feedback'
 export * from './invitation'
 export * from './mail-message'
 export * from './password-reset'
+export * from './rate-limit-counter'
 export * from './refresh-token'
 export * from './scenario'
 export * from './upload'
@@ -41,4 +43,5 @@ export const entities = [
   AuditEntryEntity,
   MailMessageEntity,
   UploadEntity,
+  RateLimitCounterEntity,
 ]

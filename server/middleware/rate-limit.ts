@@ -1,15 +1,23 @@
 // Per-route rate limits (express-rate-limit), configurable per app so tests can lower or disable them.
 import type { RequestHandler } from 'express'
-import { rateLimit } from 'express-rate-limit'
+import { rateLimit, type Store } from 'express-rate-limit'
 import type { RateLimitRule, RateLimits } from '../config'
 import { HttpError } from '../http-error'
 
 const pass: RequestHandler = (_req, _res, next) => next()
 
-export function limiter(limits: RateLimits | false, which: keyof RateLimits): RequestHandler {
+/** Gives each limiter its counter store; none means the library's per-process MemoryStore. */
+export type RateLimitStoreFactory = (which: keyof RateLimits) => Store
+
+export function limiter(
+  limits: RateLimits | false,
+  which: keyof RateLimits,
+  storeFor?: RateLimitStoreFactory,
+): RequestHandler {
   if (!limits) return pass
   const rule: RateLimitRule = limits[which]
   return rateLimit({
+    ...(storeFor ? { store: storeFor(which) } : {}),
     windowMs: rule.windowMs,
     limit: rule.limit,
     standardHeaders: 'draft-8',
@@ -29,10 +37,10 @@ export function limiter(limits: RateLimits | false, which: keyof RateLimits): Re
 export type Limiters = Record<keyof RateLimits, RequestHandler>
 
 /** One limiter per kind for the whole app, so e.g. every invitation route draws on the same budget. */
-export function createLimiters(limits: RateLimits | false): Limiters {
+export function createLimiters(limits: RateLimits | false, storeFor?: RateLimitStoreFactory): Limiters {
   return {
-    signIn: limiter(limits, 'signIn'),
-    passwordReset: limiter(limits, 'passwordReset'),
-    invitations: limiter(limits, 'invitations'),
+    signIn: limiter(limits, 'signIn', storeFor),
+    passwordReset: limiter(limits, 'passwordReset', storeFor),
+    invitations: limiter(limits, 'invitations', storeFor),
   }
 }

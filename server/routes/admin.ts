@@ -4,18 +4,18 @@ import { createReadStream, mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { Router } from 'express'
-import { Like } from 'typeorm'
+import { ILike } from 'typeorm'
 import { idParamsSchema } from '@shared/api/common'
 import { inviteRequestSchema, type InviteRequest } from '@shared/api/invitations'
 import { outboxQuerySchema } from '@shared/api/admin'
 import { updateUserRequestSchema, userListQuerySchema, type UpdateUserRequest } from '@shared/api/users'
 import type { Role } from '@shared/api/auth'
 import type { AppContext } from '../context'
-import { sqliteHandle } from '../data-source'
 import { AuditEntryEntity, MailMessageEntity, UserEntity } from '../entities'
 import { HttpError, conflict, notFound } from '../http-error'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
+import { writeBackup } from '../services/backup'
 import { nowIso } from '../services/clock'
 import { invite } from '../services/invitations'
 import { presentMail, presentUser } from '../services/presenters'
@@ -37,8 +37,9 @@ export function adminRouter(ctx: AppContext): Router {
     const base = { ...(role ? { role } : {}), ...(active === undefined ? {} : { active }) }
     const where = q
       ? [
-          { ...base, name: Like(`%${q}%`) },
-          { ...base, email: Like(`%${q.toLowerCase()}%`) },
+          // ILike: case-insensitive on PostgreSQL too (SQLite's LIKE already is, for ASCII).
+          { ...base, name: ILike(`%${q}%`) },
+          { ...base, email: ILike(`%${q.toLowerCase()}%`) },
         ]
       : base
     const [rows, total] = await ds.getRepository(UserEntity).findAndCount({
@@ -116,7 +117,7 @@ export function adminRouter(ctx: AppContext): Router {
   router.get('/outbox', validate({ query: outboxQuerySchema }), async (req, res) => {
     const { page, pageSize, to } = req.query as unknown as { page: number; pageSize: number; to?: string }
     const [rows, total] = await ds.getRepository(MailMessageEntity).findAndCount({
-      where: to ? { toAddress: Like(`%${to}%`) } : {},
+      where: to ? { toAddress: ILike(`%${to}%`) } : {},
       order: { receivedAt: 'DESC' },
       skip: (page - 1) * pageSize,
       take: pageSize,
@@ -124,12 +125,12 @@ export function adminRouter(ctx: AppContext): Router {
     res.json({ items: rows.map(presentMail), total, page, pageSize })
   })
 
-  // A consistent copy made with SQLite's online backup API while the app keeps running.
+  // A consistent SQLite copy made while the app keeps running (from PostgreSQL too: services/backup.ts).
   router.get('/backup', async (_req, res) => {
     const dir = mkdtempSync(join(tmpdir(), 'slipway-backup-'))
     const file = join(dir, 'slipway.sqlite')
     try {
-      await sqliteHandle(ds).backup(file)
+      await writeBackup(ds, file)
     } catch (err) {
       rmSync(dir, { recursive: true, force: true })
       ctx.log.error({ err }, 'backup failed')

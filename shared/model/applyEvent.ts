@@ -20,16 +20,22 @@ import { settle } from './settle'
 import { advancePieces, type BreakpointSink } from './time'
 import type { BreakpointKind, DeviceState, EventMessage, SimState } from './types'
 
-function withDrive(state: SimState, drive: DrivePlain): SimState {
-  return drive === state.drive ? state : { ...state, drive }
+// Handlers complete a draft made for this event (a fresh copy of the state nobody else holds):
+// they assign new values to its fields and never change objects the draft shares with other states.
+
+function withDrive(draft: SimState, drive: DrivePlain): SimState {
+  draft.drive = drive
+  return draft
 }
 
-function refuse(state: SimState, message: EventMessage): SimState {
-  return { ...state, messages: [message] }
+function refuse(draft: SimState, message: EventMessage): SimState {
+  draft.messages = [message]
+  return draft
 }
 
-function withDevice(state: SimState, id: string, change: Partial<DeviceState>): SimState {
-  return { ...state, devices: { ...state.devices, [id]: { ...state.devices[id], ...change } } }
+function withDevice(draft: SimState, id: string, change: Partial<DeviceState>): SimState {
+  draft.devices = { ...draft.devices, [id]: { ...draft.devices[id], ...change } }
+  return draft
 }
 
 function deviceFor(
@@ -99,19 +105,21 @@ function saveSettings(state: SimState): SimState {
     text: accepted.length === 1 ? 'Saved 1 setting.' : `Saved ${accepted.length} settings.`,
   })
   const active = candidate as SettingValues
-  let next: SimState = { ...state, settings: { active, pending: refused }, messages }
+  state.settings = { active, pending: refused }
+  state.messages = messages
   const config = driveConfig(active)
-  if (!sameConfig(config, next.drive.context.config)) {
-    next = withDrive(next, sendDrive(next.drive, { type: 'CONFIGURE', config }))
+  if (!sameConfig(config, state.drive.context.config)) {
+    withDrive(state, sendDrive(state.drive, { type: 'CONFIGURE', config }))
   }
-  return next
+  return state
 }
 
 function pressKey(state: SimState, key: 'run' | 'stop' | 'reset'): SimState {
   if (!state.bus.controlOn)
     return refuse(state, { code: 'keypadDark', text: 'The keypad is dark: the drive has no power.' })
+  const wasTripped = state.drive.value.fault === 'tripped'
   const next = withDrive(state, sendDrive(state.drive, { type: 'KEY', key }))
-  if (key === 'reset' && state.drive.value.fault === 'tripped' && next.drive.value.fault === 'tripped') {
+  if (key === 'reset' && wasTripped && next.drive.value.fault === 'tripped') {
     return refuse(next, {
       code: 'resetRefused',
       text: 'Reset refused: the cause of the fault is still there. Find and clear it first.',
@@ -129,24 +137,18 @@ function powerOn(state: SimState): SimState {
     })
   }
   const volts = busVoltsAt(state.bus, state.t, state.lineVolts)
-  const next: SimState = {
-    ...state,
-    power: { ...state.power, on: true },
-    bus: { mode: 'charging', since: state.t, volts, controlOn: state.bus.controlOn },
-  }
-  return withDrive(next, sendDrive(next.drive, { type: 'POWER_ON' }))
+  state.power = { ...state.power, on: true }
+  state.bus = { mode: 'charging', since: state.t, volts, controlOn: state.bus.controlOn }
+  return withDrive(state, sendDrive(state.drive, { type: 'POWER_ON' }))
 }
 
 function powerOff(state: SimState): SimState {
   if (!state.power.on) return state
   const volts = busVoltsAt(state.bus, state.t, state.lineVolts)
   const controlOn = state.bus.controlOn
-  const next: SimState = {
-    ...state,
-    power: { ...state.power, on: false },
-    bus: { mode: controlOn ? 'decayLoaded' : 'decayIdle', since: state.t, volts, controlOn },
-  }
-  return withDrive(next, sendDrive(next.drive, { type: 'POWER_OFF', controlOn }))
+  state.power = { ...state.power, on: false }
+  state.bus = { mode: controlOn ? 'decayLoaded' : 'decayIdle', since: state.t, volts, controlOn }
+  return withDrive(state, sendDrive(state.drive, { type: 'POWER_OFF', controlOn }))
 }
 
 function applyToState(state: SimState, event: AttemptEvent): SimState {
@@ -173,17 +175,16 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
         return refuse(state, { code: 'wireRefused', text: 'A wire needs two different terminals.' })
       }
       const { id, from, to, colour } = event
-      return { ...state, wires: [...state.wires, { id, from, to, colour }] }
+      state.wires = [...state.wires, { id, from, to, colour }]
+      return state
     }
     case 'wire.removed': {
       if (!state.wires.some((w) => w.id === event.id)) {
         return refuse(state, { code: 'unknownWire', text: `There is no wire "${event.id}".` })
       }
-      return {
-        ...state,
-        wires: state.wires.filter((w) => w.id !== event.id),
-        brokenWires: state.brokenWires.filter((id) => id !== event.id),
-      }
+      state.wires = state.wires.filter((w) => w.id !== event.id)
+      if (state.brokenWires.includes(event.id)) state.brokenWires = state.brokenWires.filter((id) => id !== event.id)
+      return state
     }
     case 'device.pressed':
     case 'device.released': {
@@ -208,12 +209,11 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
       return withDevice(state, event.device, { contact: event.contact, fault: 'none' })
     }
     case 'fuse.replaced':
-      return state.fuseBlown ? { ...state, fuseBlown: false } : state
+      state.fuseBlown = false
+      return state
     case 'setting.changed':
-      return {
-        ...state,
-        settings: { ...state.settings, pending: { ...state.settings.pending, [event.key]: event.value } },
-      }
+      state.settings = { ...state.settings, pending: { ...state.settings.pending, [event.key]: event.value } }
+      return state
     case 'settings.saved':
       return saveSettings(state)
     case 'power.on':
@@ -227,16 +227,19 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
           text: 'Switch the disconnect off before applying your lock.',
         })
       }
-      return state.power.locked ? state : { ...state, power: { ...state.power, locked: true } }
+      if (!state.power.locked) state.power = { ...state.power, locked: true }
+      return state
     case 'lock.removed':
-      return state.power.locked ? { ...state, power: { ...state.power, locked: false } } : state
+      if (state.power.locked) state.power = { ...state.power, locked: false }
+      return state
     case 'meter.probes': {
       for (const point of [event.red, event.black]) {
         if (point !== null && !isKnownPoint(state, point)) {
           return refuse(state, { code: 'unknownPoint', text: `There is no terminal "${point}" to probe.` })
         }
       }
-      return { ...state, meter: { red: event.red, black: event.black } }
+      state.meter = { red: event.red, black: event.black }
+      return state
     }
     case 'keypad.key':
       if (event.key === 'run' || event.key === 'stop' || event.key === 'reset')
@@ -270,7 +273,6 @@ function applyEventWith(state: SimState, event: AttemptEvent, sink: BreakpointSi
     )
   }
   const current = advancePieces(state, event.t, sink)
-  // Handlers return their input unchanged or a fresh copy of it: either way the result is ours to finish.
   const next = applyToState({ ...current, t: event.t, messages: NO_MESSAGES }, event)
   // Events that touch nothing physical (meter probes, pending edits, navigation keys, hints) need no settling.
   if (!needsSettling(current, next)) return next

@@ -41,7 +41,6 @@ export function functionLevels(
   }
   const fns = inputFunctions(settings)
   for (let i = 0; i < fns.length; i++) if (inputs[i]) levels[fns[i]] = true
-  levelsCache.set(inputs, { settings, levels })
   return levels
 }
 
@@ -55,27 +54,18 @@ export function isAssigned(settings: SettingValues, fn: InputFunction): boolean 
  */
 export function driveSignals(
   settings: SettingValues,
-  inputs: readonly boolean[],
+  levels: Record<InputFunction, boolean>,
   controlOn: boolean,
 ): DriveSignals {
-  const levels = functionLevels(settings, inputs)
-  const externalFault = controlOn && isAssigned(settings, 'externalFault') && !levels.externalFault
-  let cached = signalsCache.get(levels)
-  if (!cached || cached.externalFault !== externalFault) {
-    cached = {
-      run: levels.run,
-      start: levels.start,
-      stop: levels.stop,
-      reverse: levels.reverse,
-      faultReset: levels.faultReset,
-      externalFault,
-    }
-    signalsCache.set(levels, cached)
+  return {
+    run: levels.run,
+    start: levels.start,
+    stop: levels.stop,
+    reverse: levels.reverse,
+    faultReset: levels.faultReset,
+    externalFault: controlOn && isAssigned(settings, 'externalFault') && !levels.externalFault,
   }
-  return cached
 }
-
-const signalsCache = new WeakMap<Record<InputFunction, boolean>, DriveSignals>()
 
 export function driveConfig(settings: SettingValues): DriveConfig {
   const fns = inputFunctions(settings)

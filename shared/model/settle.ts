@@ -1,8 +1,8 @@
 // Settling the model at one instant: circuit → inputs → drive machine → continuous pieces → machine,
 // repeated until nothing changes. Works on a private shallow copy of the state (one per step).
-import { circuitConfig } from './circuit/config'
+import { circuitConfig, circuitKeys } from './circuit/config'
 import { solveForDrive } from './circuit/controlCircuit'
-import { inputRegion, nextInputState } from './circuit/inputThresholds'
+import { nextInputState } from './circuit/inputThresholds'
 import { NO_SIGNALS, type DriveEvent } from './driveMachine'
 import { sendDrive } from './driveTransitions'
 import { driveSignals, functionLevels, sameSignals } from './functions'
@@ -86,31 +86,24 @@ function refreshCircuit(draft: SimState): void {
     controlOn,
     relay,
   }
-  const config = circuitConfig(draft, controlOn, relay)
-  if (config.key === draft.circuit.key) {
-    sourcesOf.set(draft.circuit, sources)
-    return
+  const summary = solveForDrive(circuitKeys(draft, controlOn, relay), relay, () => circuitConfig(draft, controlOn, relay))
+  sourcesOf.set(summary.circuit, sources)
+  if (summary.circuit === draft.circuit) return
+  let inputs = draft.inputs
+  for (let i = 0; i < summary.regions.length; i++) {
+    const on = nextInputState(draft.inputs[i], summary.regions[i])
+    if (on !== inputs[i]) {
+      if (inputs === draft.inputs) inputs = [...draft.inputs]
+      inputs[i] = on
+    }
   }
-  const solution = solveForDrive(config)
-  let inputsChanged = false
-  const inputs = solution.inputs.map((input, i) => {
-    const on = nextInputState(draft.inputs[i], inputRegion(input.volts, input.milliamps))
-    if (on !== draft.inputs[i]) inputsChanged = true
-    return on
-  })
-  if (inputsChanged) draft.inputs = inputs
-  draft.circuit = {
-    key: config.key,
-    analogVolts: solution.analogVolts,
-    supplyOverloaded: solution.supplyOverloaded,
-    referenceOverloaded: solution.referenceOverloaded,
-    relayClosed: relay,
-  }
-  sourcesOf.set(draft.circuit, sources)
+  draft.inputs = inputs
+  draft.circuit = summary.circuit
 }
 
-function trackRaiseLowerOrder(draft: SimState): void {
-  const levels = functionLevels(draft.settings.active, draft.inputs)
+type Levels = ReturnType<typeof functionLevels>
+
+function trackRaiseLowerOrder(draft: SimState, levels: Levels): void {
   const raise = draft.bus.controlOn && levels.raise
   const lower = draft.bus.controlOn && levels.lower
   let first = draft.raiseLowerFirst
@@ -121,9 +114,8 @@ function trackRaiseLowerOrder(draft: SimState): void {
 }
 
 /** +1 raise, −1 lower, 0 neither (or both held with "hold"). */
-function raiseLowerDirection(state: SimState): number {
+function raiseLowerDirection(state: SimState, levels: Levels): number {
   if (!state.bus.controlOn) return 0
-  const levels = functionLevels(state.settings.active, state.inputs)
   if (levels.raise && levels.lower) {
     if (state.settings.active['raiseLower.bothHeld'] === 'hold') return 0
     return state.raiseLowerFirst === 'raise' ? 1 : state.raiseLowerFirst === 'lower' ? -1 : 0
@@ -139,11 +131,15 @@ export interface ActiveReference {
 }
 
 /** The reference the drive follows now, from the control place and the remote source. */
-export function activeReference(state: SimState, emop: ReferencePiece, t: number): ActiveReference {
+export function activeReference(
+  state: SimState,
+  emop: ReferencePiece,
+  t: number,
+  levels: Levels = functionLevels(state.settings.active, state.inputs),
+): ActiveReference {
   const a = state.settings.active
-  if (a['control.source'] === 'keypad')
-    return { source: 'keypad', hz: a['reference.keypadSetpoint'], slope: 0 }
-  if (state.bus.controlOn && functionLevels(a, state.inputs).preset) {
+  if (a['control.source'] === 'keypad') return { source: 'keypad', hz: a['reference.keypadSetpoint'], slope: 0 }
+  if (state.bus.controlOn && levels.preset) {
     return { source: 'preset', hz: a['preset.speed1'], slope: 0 }
   }
   switch (a['reference.remoteSource']) {
@@ -181,7 +177,7 @@ export function rampRates(settings: SettingValues) {
 }
 
 /** Re-anchors the reference and speed pieces at `now` for the drive's current state. */
-function replan(draft: SimState, now: number): void {
+function replan(draft: SimState, now: number, levels: Levels): void {
   const a = draft.settings.active
   const min = a['speed.min']
   const max = a['speed.max']
@@ -191,8 +187,8 @@ function replan(draft: SimState, now: number): void {
   let emopSlope = 0
   const raiseLowerActs =
     running && a['control.source'] === 'terminals' && a['reference.remoteSource'] === 'raiseLower'
-  if (raiseLowerActs && !functionLevels(a, draft.inputs).preset) {
-    const direction = raiseLowerDirection(draft)
+  if (raiseLowerActs && !levels.preset) {
+    const direction = raiseLowerDirection(draft, levels)
     if ((direction > 0 && emopHz < max) || (direction < 0 && emopHz > min)) {
       emopSlope = (direction * a['raiseLower.rate']) / 1000
     }
@@ -206,7 +202,7 @@ function replan(draft: SimState, now: number): void {
     Math.abs(referenceAt(old, now) - emopHz) <= 1e-12 * Math.max(1, max)
       ? old
       : { since: now, hz: emopHz, slope: emopSlope }
-  const active = activeReference(draft, reference, now)
+  const active = activeReference(draft, reference, now, levels)
   const sign = draft.drive.context.direction === 'reverse' ? -1 : 1
   const targetHz = running ? sign * clamp(active.hz, min, max) : 0
   const targetSlope = running ? sign * active.slope : 0
@@ -283,9 +279,10 @@ export function settle(
     const startDrive = draft.drive
     const startKey = draft.circuit.key
     refreshCircuit(draft)
-    trackRaiseLowerOrder(draft)
     const a = draft.settings.active
-    const signals = draft.bus.controlOn ? driveSignals(a, draft.inputs, true) : NO_SIGNALS
+    const levels = functionLevels(a, draft.inputs)
+    trackRaiseLowerOrder(draft, levels)
+    const signals = draft.bus.controlOn ? driveSignals(a, levels, true) : NO_SIGNALS
     if (!sameSignals(signals, draft.drive.context.signals)) send(draft, { type: 'SIGNALS', signals }, now)
     if (draft.bus.controlOn && draft.circuit.supplyOverloaded !== draft.drive.context.causes.supplyOverload) {
       send(draft, { type: 'SUPPLY', overloaded: draft.circuit.supplyOverloaded }, now)
@@ -294,11 +291,11 @@ export function settle(
     if (alarmsPresent !== (draft.drive.value.alarm === 'present')) {
       send(draft, { type: 'ALARMS', present: alarmsPresent }, now)
     }
-    replan(draft, now)
+    replan(draft, now, levels)
     const follow = machineFollowsMotion(draft)
     if (follow) {
       send(draft, follow, now)
-      replan(draft, now)
+      replan(draft, now, levels)
     }
     if (draft.drive === startDrive && draft.circuit.key === startKey) return draft
   }

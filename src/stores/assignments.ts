@@ -9,7 +9,7 @@ import {
   type CreateAssignmentRequest,
   type UpdateAssignmentRequest,
 } from '@shared/api'
-import { request } from '@/api/client'
+import { request, requestVoid } from '@/api/client'
 import { endpoints } from '@/api/endpoints'
 
 export const useAssignmentsStore = defineStore('assignments', () => {
@@ -47,9 +47,13 @@ export const useAssignmentsStore = defineStore('assignments', () => {
     return request(endpoints.assignments.one(id), assignmentSchema, { method: 'PATCH', body })
   }
 
+  async function remove(id: string) {
+    await requestVoid(endpoints.assignments.one(id), { method: 'DELETE' })
+  }
+
   async function stats(id: string) {
     return request(endpoints.assignments.stats(id), assignmentStatsSchema)
   }
 
-  return { items, loading, error, load, list, get, create, update, stats }
+  return { items, loading, error, load, list, get, create, update, remove, stats }
 })

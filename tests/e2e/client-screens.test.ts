@@ -94,6 +94,17 @@ describe('every main screen', () => {
     await page.getByRole('heading', { name: 'Assign a scenario' }).waitFor()
     await settled(page)
     await screenshot(page, 'client-assign-scenario')
+    // Assign one for real: it appears on the cohort's assignments tab and can be changed there.
+    await page.locator('[data-testid="assign-scenario"]').click()
+    await page.getByRole('option', { name: /Speed potentiometer/ }).click()
+    await page.getByRole('button', { name: 'Assign', exact: true }).click()
+    await page.waitForURL((url) => /^\/teach\/cohorts\/[^/]+$/.test(url.pathname))
+    await page.getByRole('tab', { name: /Assignments/ }).click()
+    await page.getByRole('button', { name: /Change Speed potentiometer/ }).click()
+    await page.getByRole('dialog').getByLabel('Due').waitFor()
+    await settled(page)
+    await screenshot(page, 'client-edit-assignment')
+    await page.getByRole('dialog').getByRole('button', { name: 'Cancel' }).click()
     await visit(page, `${app.url}/scenarios`, 'Scenario library', 'client-scenario-library')
     await visit(
       page,
@@ -146,6 +157,11 @@ describe('on a tablet and in the dark theme', () => {
   beforeAll(async () => {
     app = await startApp()
     browser = await launchBrowser({ width: 768, height: 1024, colorScheme: 'dark' })
+  })
+  beforeEach(({ onTestFailed, task }) => {
+    onTestFailed(async () => {
+      await screenshot(browser.page, `failed-${task.name.slice(0, 30).replace(/\W+/g, '-')}`)
+    })
   })
   afterAll(async () => {
     await browser?.close()

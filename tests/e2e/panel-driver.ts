@@ -17,7 +17,8 @@ export class PanelDriver {
 
   private async toPage(p: Vec): Promise<Vec> {
     const canvas = this.page.getByTestId('panel-canvas')
-    await canvas.scrollIntoViewIfNeeded()
+    // Centred, so no part of the scene sits under the app's sticky top bar.
+    await canvas.evaluate((el) => el.scrollIntoView({ block: 'center' }))
     const box = await canvas.boundingBox()
     if (!box) throw new Error('the panel canvas is not visible')
     return { x: box.x + (p.x / SCENE_WIDTH) * box.width, y: box.y + (p.y / SCENE_HEIGHT) * box.height }

@@ -12,7 +12,6 @@ async function choose(page: Page, label: string, query: string) {
   await page.waitForTimeout(150)
   await page.keyboard.press('ArrowDown')
   await page.keyboard.press('Enter')
-  await page.keyboard.press('Escape')
 }
 
 async function press(page: Page, name: string | RegExp, times = 1) {
@@ -70,7 +69,9 @@ describe('commissioning raise/lower with the keyboard only', () => {
       await choose(page, 'Red probe (V+)', red)
       await choose(page, 'Black probe (COM)', black)
     }
-    await expect(page.getByTestId('live-meter').textContent()).resolves.toBeDefined()
+    await page.getByRole('tab', { name: 'Live values' }).focus()
+    await page.keyboard.press('Enter')
+    await expect.poll(async () => page.getByTestId('live-meter').textContent()).toMatch(/^\s*0\.00 V/)
     await screenshot(page, 'panel-keyboard-01-proved-dead')
 
     // Wire with the terminal picker.
@@ -133,7 +134,7 @@ describe('commissioning raise/lower with the keyboard only', () => {
     await page.keyboard.press('i')
     await waitForLabel(page, /drive (speeding up|running)/)
     await page.keyboard.down('f')
-    await expect.poll(() => rpm(page), { timeout: 40_000, intervals: [50] }).toBeGreaterThanOrEqual(1150)
+    await expect.poll(() => rpm(page), { timeout: 40_000, interval: 50 }).toBeGreaterThanOrEqual(1150)
     await page.keyboard.up('f')
     for (let i = 0; i < 20; i++) {
       await page.waitForTimeout(600)

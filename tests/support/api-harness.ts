@@ -1,5 +1,6 @@
 // A fresh app per test file: temporary data folder and database (migrated, shipped scenarios loaded),
 // the embedded SMTP outbox on a random loopback port, and helpers to create users and sign in.
+// With TEST_DATABASE_URL set, each app gets its own new PostgreSQL database on that server instead.
 import { randomUUID } from 'node:crypto'
 import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
@@ -17,13 +18,14 @@ import {
   type PasswordHashing,
   type RateLimits,
 } from '../../server/config'
-import { openDatabase } from '../../server/data-source'
+import { dataSourceOptionsFor, openDatabase } from '../../server/data-source'
 import { MailMessageEntity, UserEntity, type MailMessageRow, type UserRow } from '../../server/entities'
 import { SCENARIOS_DIR } from '../../server/main'
 import { createMailer, type Mailer } from '../../server/services/mailer'
 import { startOutboxSmtp, type OutboxSmtp } from '../../server/services/outbox-smtp'
 import { createPasswordHasher, type PasswordHasher } from '../../server/services/passwords'
 import { importShippedScenarios } from '../../server/services/scenarios'
+import { createTestDatabase } from './test-database'
 
 /**
  * Cheaper argon2id cost for tests only (1 MiB, 1 pass), passed explicitly; production always
@@ -72,7 +74,14 @@ export { DEFAULT_RATE_LIMITS }
 export async function createTestApi(options: TestApiOptions = {}): Promise<TestApi> {
   const dataDir = mkdtempSync(join(tmpdir(), 'slipway-api-test-'))
   const log = pino({ level: process.env.TEST_LOG_LEVEL ?? 'silent' })
-  const base = loadConfig({ NODE_ENV: 'test', DATA_DIR: dataDir, PUBLIC_BASE_URL: 'http://slipway.test' })
+  const database = await createTestDatabase(dataDir)
+  const base = loadConfig({
+    NODE_ENV: 'test',
+    DATA_DIR: dataDir,
+    DATABASE_URL: database.url,
+    JWT_SECRET: TEST_JWT_SECRET,
+    PUBLIC_BASE_URL: 'http://slipway.test',
+  })
   const config: AppConfig = {
     ...base,
     rateLimits: options.rateLimits ?? false,
@@ -80,7 +89,7 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     serveClient: false,
     ...options.config,
   }
-  const dataSource = await openDatabase({ databasePath: config.databasePath })
+  const dataSource = await openDatabase(dataSourceOptionsFor(config))
   if (options.scenarios !== false) await importShippedScenarios(dataSource, SCENARIOS_DIR)
   const outbox = await startOutboxSmtp(dataSource, log)
   const mailer = createMailer({
@@ -153,6 +162,7 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
       mailer.close()
       await outbox.close()
       await dataSource.destroy()
+      await database.drop()
       rmSync(dataDir, { recursive: true, force: true })
     },
   }

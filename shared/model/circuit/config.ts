@@ -78,9 +78,6 @@ function wiringPart(state: SimState, index: Map<PointId, number>): WiringPart {
 interface DevicePart {
   closedContacts: [number, number][]
   potentiometers: PotentiometerElement[]
-  key: string
-  /** Without potentiometer positions. */
-  structureKey: string
 }
 const deviceCache = new WeakMap<SimState['devices'], DevicePart>()
 
@@ -89,45 +86,75 @@ function devicePart(state: SimState, terminals: PointLayout['terminals']): Devic
   if (cached) return cached
   const closedContacts: [number, number][] = []
   const potentiometers: PotentiometerElement[] = []
-  let key = ''
-  let structureKey = ''
   for (const id of state.deviceOrder) {
     const device = state.devices[id]
+    const t = terminals[id]
     if (device.spec.kind === 'potentiometer') {
-      structureKey += 'p'
-      const t = terminals[id]
-      potentiometers.push({
-        hi: t.hi,
-        wiper: t.wiper,
-        lo: t.lo,
-        ohms: device.spec.ohms ?? 10_000,
-        position: device.position,
-      })
-      key += `p${device.position}`
+      potentiometers.push({ hi: t.hi, wiper: t.wiper, lo: t.lo, ohms: device.spec.ohms ?? 10_000, position: device.position })
     } else if (contactClosed(device)) {
-      closedContacts.push([terminals[id].a, terminals[id].b])
-      key += '1'
-      structureKey += '1'
-    } else {
-      key += '0'
-      structureKey += '0'
+      closedContacts.push([t.a, t.b])
     }
   }
-  const part = { closedContacts, potentiometers, key, structureKey }
+  const part = { closedContacts, potentiometers }
   deviceCache.set(state.devices, part)
   return part
 }
 
-export function circuitConfig(state: SimState, controlOn: boolean, relayClosed: boolean): CircuitConfig {
-  const { points, index, terminals, layoutId } = pointsOf(state)
+/** Cheap identity of the devices' electrical state: contacts (structure) and wiper positions. */
+interface DeviceKeys {
+  structure: string
+  positions: string
+}
+function deviceKeys(state: SimState): DeviceKeys {
+  let structure = ''
+  let positions = ''
+  for (const id of state.deviceOrder) {
+    const device = state.devices[id]
+    if (device.spec.kind === 'potentiometer') {
+      structure += 'p'
+      positions += `${device.position},`
+    } else structure += contactClosed(device) ? '1' : '0'
+  }
+  return { structure, positions }
+}
+
+/** Full structure keys, interned per wiring so that equal keys are the same string (hash cached). */
+const structureKeys = new WeakMap<WiringPart, Map<string, string>>()
+
+export interface CircuitKeys {
+  /** Wiring, contacts, sources, logic, relay: everything but potentiometer positions. */
+  structure: string
+  positions: string
+}
+
+export function circuitKeys(state: SimState, controlOn: boolean, relayClosed: boolean): CircuitKeys {
+  const { index, layoutId } = pointsOf(state)
+  const wiring = wiringPart(state, index)
+  const devices = deviceKeys(state)
   const logic = state.settings.active['inputs.logic']
   const supplyEnabled = controlOn && !state.fuseBlown
+  const local = `${logic === 'sink' ? 'k' : 'o'}${supplyEnabled ? 1 : 0}${controlOn ? 1 : 0}${relayClosed ? 1 : 0}${devices.structure}`
+  let byLocal = structureKeys.get(wiring)
+  if (!byLocal) {
+    byLocal = new Map()
+    structureKeys.set(wiring, byLocal)
+  }
+  let structure = byLocal.get(local)
+  if (structure === undefined) {
+    structure = `${layoutId}|${wiring.key}|${local}`
+    byLocal.set(local, structure)
+  }
+  return { structure, positions: devices.positions }
+}
+
+export function circuitConfig(state: SimState, controlOn: boolean, relayClosed: boolean): CircuitConfig {
+  const { points, index, terminals } = pointsOf(state)
+  const keys = circuitKeys(state, controlOn, relayClosed)
   const wiring = wiringPart(state, index)
   const devices = devicePart(state, terminals)
   const closedContacts = relayClosed
     ? [...devices.closedContacts, [index.get('drive.k1a')!, index.get('drive.k1b')!] as [number, number]]
     : devices.closedContacts
-  const flags = `${logic === 'sink' ? 'k' : 'o'}${supplyEnabled ? 1 : 0}${controlOn ? 1 : 0}${relayClosed ? 1 : 0}`
   return {
     points,
     pointIndex: index,
@@ -135,10 +162,10 @@ export function circuitConfig(state: SimState, controlOn: boolean, relayClosed: 
     wiresKey: wiring.key,
     closedContacts,
     potentiometers: devices.potentiometers,
-    logic,
-    supplyEnabled,
+    logic: state.settings.active['inputs.logic'],
+    supplyEnabled: controlOn && !state.fuseBlown,
     referenceEnabled: controlOn,
-    key: `${layoutId}${flags}|${wiring.key}|${devices.key}`,
-    structureKey: `${layoutId}${flags}|${wiring.key}|${devices.structureKey}`,
+    key: `${keys.structure}#${keys.positions}`,
+    structureKey: keys.structure,
   }
 }

@@ -3,6 +3,8 @@
 // meet only at 0 V, and each part is solved on its own and memoised by its own description — so a
 // potentiometer turned on the analog input does not re-solve the digital inputs, and vice versa.
 import { DIGITAL_INPUT_NUMBERS, type PointId } from '../points'
+import type { CircuitKeys } from './config'
+import { inputRegion, type InputRegion } from './inputThresholds'
 import { solveNodal, type ResistiveNetwork } from './nodal'
 import { UnionFind } from './unionFind'
 import {
@@ -385,6 +387,7 @@ interface Structure {
   /** Where the analog input's net is solved: part index and position in it (or -1: at 0 V). */
   analogPart: number
   analogAt: number
+  summaries: Map<string, DriveCircuitSummary>
 }
 
 const structureMemo = new Map<string, Structure>()
@@ -410,6 +413,7 @@ function structureOf(config: CircuitConfig): Structure {
     parts,
     analogPart,
     analogAt: analogPart < 0 ? -1 : parts[analogPart].nets.indexOf(analogNet),
+    summaries: new Map(),
     // An output wired straight to 0 V is a dead short: past its limit at once.
     supplyShorted: config.supplyEnabled && nets.netOfPoint[P.p24] === nets.ground,
     referenceShorted: config.referenceEnabled && nets.netOfPoint[P.p10] === nets.ground,
@@ -455,15 +459,31 @@ function solveUncached(config: CircuitConfig): CircuitSolution {
 /** What the drive logic needs from the network: input voltages and currents, analog volts, overloads. */
 export interface DriveCircuitSummary {
   inputs: InputSolution[]
+  regions: InputRegion[]
   analogVolts: number
   supplyOverloaded: boolean
   referenceOverloaded: boolean
+  /** The state's circuit summary for this configuration (one shared object per configuration). */
+  circuit: { key: string; analogVolts: number; supplyOverloaded: boolean; referenceOverloaded: boolean; relayClosed: boolean }
 }
 
 const NO_INPUT: InputSolution = { volts: 0, milliamps: 0 }
 
-export function solveForDrive(config: CircuitConfig): DriveCircuitSummary {
-  const structure = structureOf(config)
+/**
+ * The network as the drive sees it, memoised per structure and wiper positions. `build` makes the
+ * full configuration and is only called on a miss.
+ */
+export function solveForDrive(keys: CircuitKeys, relayClosed: boolean, build: () => CircuitConfig): DriveCircuitSummary {
+  let structure = structureMemo.get(keys.structure)
+  let config: CircuitConfig | undefined
+  if (!structure) {
+    config = build()
+    structure = structureOf(config)
+  }
+  const summaries = structure.summaries
+  const hit = summaries.get(keys.positions)
+  if (hit) return hit
+  config ??= build()
   const inputs: InputSolution[] = [NO_INPUT, NO_INPUT, NO_INPUT, NO_INPUT, NO_INPUT, NO_INPUT]
   let supplyOverloaded = structure.supplyShorted
   let referenceOverloaded = structure.referenceShorted
@@ -476,7 +496,17 @@ export function solveForDrive(config: CircuitConfig): DriveCircuitSummary {
     if (part.hasReference) referenceOverloaded = solved.referenceOverloaded
     if (p === structure.analogPart) analogVolts = solved.volts[structure.analogAt]
   }
-  return { inputs, analogVolts, supplyOverloaded, referenceOverloaded }
+  const summary: DriveCircuitSummary = {
+    inputs,
+    regions: inputs.map((i) => inputRegion(i.volts, i.milliamps)),
+    analogVolts,
+    supplyOverloaded,
+    referenceOverloaded,
+    circuit: { key: config.key, analogVolts, supplyOverloaded, referenceOverloaded, relayClosed },
+  }
+  if (summaries.size >= MEMO_LIMIT) summaries.clear()
+  summaries.set(keys.positions, summary)
+  return summary
 }
 
 const MEMO_LIMIT = 4096
