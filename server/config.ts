@@ -66,7 +66,8 @@ export interface PasswordHashing {
 export const OWASP_ARGON2ID: PasswordHashing = { memoryCost: 19 * 1024, timeCost: 2, parallelism: 1 }
 
 /** Where the data lives: an SQLite file (the embedded default) or a PostgreSQL database shared by instances. */
-export type DatabaseTarget = { driver: 'sqlite'; path: string } | { driver: 'postgres'; url: string; poolMax: number }
+export type DatabaseTarget =
+  { driver: 'sqlite'; path: string } | { driver: 'postgres'; url: string; poolMax: number }
 
 /**
  * `memory`: each process counts on its own (one instance). `database`: counters live in the shared

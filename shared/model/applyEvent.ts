@@ -6,7 +6,7 @@ import { sendDrive, type DrivePlain } from './driveTransitions'
 import { ModelInputError } from './errors'
 import type { AttemptEvent } from './events'
 import { driveConfig, sameConfig } from './functions'
-import { isDrivePowerPoint } from './points'
+import { isDrivePowerPoint, isProverPoint } from './points'
 import {
   crossCheckSettings,
   settingDef,
@@ -56,7 +56,7 @@ function deviceFor(
 }
 
 function isKnownPoint(state: SimState, point: string): boolean {
-  return pointsOf(state).index.has(point) || isDrivePowerPoint(point)
+  return pointsOf(state).index.has(point) || isDrivePowerPoint(point) || isProverPoint(point)
 }
 
 function saveSettings(state: SimState): SimState {
@@ -183,7 +183,8 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
         return refuse(state, { code: 'unknownWire', text: `There is no wire "${event.id}".` })
       }
       state.wires = state.wires.filter((w) => w.id !== event.id)
-      if (state.brokenWires.includes(event.id)) state.brokenWires = state.brokenWires.filter((id) => id !== event.id)
+      if (state.brokenWires.includes(event.id))
+        state.brokenWires = state.brokenWires.filter((id) => id !== event.id)
       return state
     }
     case 'device.pressed':
@@ -267,7 +268,10 @@ function needsSettling(before: SimState, after: SimState): boolean {
 const NO_MESSAGES: EventMessage[] = []
 
 function applyEventWith(state: SimState, event: AttemptEvent, sink: BreakpointSink): SimState {
-  if (!Number.isInteger(event.t) || event.t < state.t) {
+  if (!Number.isInteger(event.t)) {
+    throw new ModelInputError(`Event "${event.type}" has time ${event.t} ms: times are whole milliseconds.`)
+  }
+  if (event.t < state.t) {
     throw new ModelInputError(
       `Event "${event.type}" at ${event.t} ms is before the simulation time ${state.t} ms (events must be in order).`,
     )

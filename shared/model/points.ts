@@ -32,6 +32,19 @@ export const DRIVE_POWER_POINTS = [
 ] as const
 export type DrivePowerPoint = (typeof DRIVE_POWER_POINTS)[number]
 
+/**
+ * A meter proving unit on the bench: a known live source to check the meter on before and after a dead
+ * test (live–dead–live, NFPA 70E 120.5(7)). It is battery-powered, so it is live whatever the disconnect does.
+ */
+export const PROVER_POINTS = ['prover.pos', 'prover.neg'] as const
+export type ProverPoint = (typeof PROVER_POINTS)[number]
+/** The proving unit's test voltage, DC (our figure; proving units commonly offer 50–690 V, from memory). */
+export const PROVER_VOLTS = 110
+
+export function isProverPoint(point: PointId): point is ProverPoint {
+  return point === 'prover.pos' || point === 'prover.neg'
+}
+
 export type PointId = string
 
 export const POINT_LABELS: Record<DriveControlPoint | DrivePowerPoint, string> = {
@@ -55,6 +68,11 @@ export const POINT_LABELS: Record<DriveControlPoint | DrivePowerPoint, string> =
   'drive.dcp': 'DC+',
   'drive.dcn': 'DC−',
   'drive.pe': 'PE',
+}
+
+export const PROVER_LABELS: Record<ProverPoint, string> = {
+  'prover.pos': 'Prover +',
+  'prover.neg': 'Prover −',
 }
 
 export const DEVICE_KINDS = ['pushbutton', 'selector', 'potentiometer'] as const

@@ -7,7 +7,14 @@ import { inputFunctions } from './functions'
 import { speedAt } from './motion'
 import { shaftRpm, synchronousRpm } from './motor'
 import { alarmsFor, faultNotice } from './notices'
-import { DIGITAL_INPUT_NUMBERS, digitalInputPoint, isDrivePowerPoint, type PointId } from './points'
+import {
+  DIGITAL_INPUT_NUMBERS,
+  digitalInputPoint,
+  isDrivePowerPoint,
+  isProverPoint,
+  PROVER_VOLTS,
+  type PointId,
+} from './points'
 import { activeReference, isOutputOn } from './simulation'
 import type { CircuitReading, DriveReading, MeterReading, SimState } from './types'
 
@@ -52,6 +59,14 @@ function isLineTerminal(point: PointId): boolean {
 function meterReading(state: SimState): MeterReading {
   const { red, black } = state.meter
   if (red === null || black === null) return { red, black, volts: null, mode: 'DC', floating: false }
+  if (isProverPoint(red) || isProverPoint(black)) {
+    // The proving unit is a source of its own: it reads only between its two terminals.
+    if (isProverPoint(red) && isProverPoint(black)) {
+      const volts = red === black ? 0 : red === 'prover.pos' ? PROVER_VOLTS : -PROVER_VOLTS
+      return { red, black, volts, mode: 'DC', floating: false }
+    }
+    return { red, black, volts: 0, mode: 'DC', floating: true }
+  }
   const redPower = isDrivePowerPoint(red)
   const blackPower = isDrivePowerPoint(black)
   if (redPower && blackPower) {

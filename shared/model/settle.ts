@@ -86,7 +86,9 @@ function refreshCircuit(draft: SimState): void {
     controlOn,
     relay,
   }
-  const summary = solveForDrive(circuitKeys(draft, controlOn, relay), relay, () => circuitConfig(draft, controlOn, relay))
+  const summary = solveForDrive(circuitKeys(draft, controlOn, relay), relay, () =>
+    circuitConfig(draft, controlOn, relay),
+  )
   sourcesOf.set(summary.circuit, sources)
   if (summary.circuit === draft.circuit) return
   let inputs = draft.inputs
@@ -138,7 +140,8 @@ export function activeReference(
   levels: Levels = functionLevels(state.settings.active, state.inputs),
 ): ActiveReference {
   const a = state.settings.active
-  if (a['control.source'] === 'keypad') return { source: 'keypad', hz: a['reference.keypadSetpoint'], slope: 0 }
+  if (a['control.source'] === 'keypad')
+    return { source: 'keypad', hz: a['reference.keypadSetpoint'], slope: 0 }
   if (state.bus.controlOn && levels.preset) {
     return { source: 'preset', hz: a['preset.speed1'], slope: 0 }
   }
@@ -216,6 +219,8 @@ function replan(draft: SimState, now: number, levels: Levels): void {
 /** The new piece describes the same future as the old one. */
 function samePiece(old: SimState['speed'], next: SimState['speed'], now: number): boolean {
   if (old.mode !== next.mode || old.slope !== next.slope || old.targetSlope !== next.targetSlope) return false
+  // A new piece starting at zero speed has no zero crossing ahead, unlike the old one that reached it.
+  if (Math.sign(old.hz) !== Math.sign(next.hz)) return false
   const oldTarget = old.targetHz + old.targetSlope * (now - old.since)
   if (Math.abs(oldTarget - next.targetHz) > 1e-12) return false
   if (old.mode === 'still') return true
@@ -282,8 +287,9 @@ export function settle(
     const a = draft.settings.active
     const levels = functionLevels(a, draft.inputs)
     trackRaiseLowerOrder(draft, levels)
+    const seen = draft.drive.context.signals
     const signals = draft.bus.controlOn ? driveSignals(a, levels, true) : NO_SIGNALS
-    if (!sameSignals(signals, draft.drive.context.signals)) send(draft, { type: 'SIGNALS', signals }, now)
+    if (!sameSignals(signals, seen)) send(draft, { type: 'SIGNALS', signals }, now)
     if (draft.bus.controlOn && draft.circuit.supplyOverloaded !== draft.drive.context.causes.supplyOverload) {
       send(draft, { type: 'SUPPLY', overloaded: draft.circuit.supplyOverloaded }, now)
     }

@@ -3,7 +3,7 @@ import { defineStore } from 'pinia'
 import {
   outboxPageSchema,
   userPageSchema,
-  userSchema,
+  meResponseSchema,
   inviteOutcomeSchema,
   type InviteRequest,
   type OutboxQuery,
@@ -18,8 +18,9 @@ type Query = Record<string, string | number>
 export const useAdminStore = defineStore('admin', () => {
   const users = (query: UserListQuery) =>
     request(endpoints.admin.users, userPageSchema, { query: query as Query })
-  const updateUser = (id: string, body: UpdateUserRequest) =>
-    request(endpoints.admin.user(id), userSchema, { method: 'PATCH', body })
+  // The server answers with `{ user }`, the same shape as the signed-in user's own record.
+  const updateUser = async (id: string, body: UpdateUserRequest) =>
+    (await request(endpoints.admin.user(id), meResponseSchema, { method: 'PATCH', body })).user
   const inviteInstructor = (body: InviteRequest) =>
     request(endpoints.admin.inviteInstructor, inviteOutcomeSchema, { method: 'POST', body })
   const outbox = (query: OutboxQuery) =>

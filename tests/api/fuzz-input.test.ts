@@ -13,7 +13,8 @@ import * as contract from '../../shared/api'
 import { createTestApi, bearer, type TestApi } from '../support/api-harness'
 import { buildWorld, type World } from '../support/world'
 
-const RUNS = 20
+// Quick in `npm test`; `npm run test:soak` runs many more cases (FUZZ_RUNS).
+const RUNS = Number(process.env.FUZZ_RUNS ?? 20)
 
 /** Every row of every table, hashed, plus the files kept under DATA_DIR/uploads. */
 async function fingerprint(api: TestApi): Promise<string> {

@@ -25,6 +25,11 @@ export interface ModelBenchRow {
 
 export interface ModelBenchResult {
   rows: ModelBenchRow[]
+  /**
+   * A fixed plain-JavaScript workload (10k copies of a 24-field object kept in an array, as a replay keeps
+   * states), in ms: how fast this shared machine was during the run, to compare runs fairly.
+   */
+  calibrationMs: number
   /** 100k events vs 10k events (target ≤ 12). */
   eventsRatio: number
   /** 10k events over 10 h vs over 1 min (target ≤ 1.5). */
@@ -205,6 +210,23 @@ function measure(name: string, events: AttemptEvent[], simulatedMs: number, runs
   }
 }
 
+function calibrate(): number {
+  const base: Record<string, number> = {}
+  for (let i = 0; i < 24; i++) base[`f${i}`] = i
+  const times: number[] = []
+  for (let run = 0; run < 9; run++) {
+    const start = performance.now()
+    let o = base
+    const kept: Record<string, number>[] = []
+    for (let i = 0; i < 10_000; i++) {
+      o = { ...o, f1: i }
+      kept.push(o)
+    }
+    times.push(performance.now() - start)
+  }
+  return median(times)
+}
+
 export function runModelBenchmark(): ModelBenchResult {
   const minute = 60_000
   const tenHours = 10 * 3600_000
@@ -225,6 +247,7 @@ export function runModelBenchmark(): ModelBenchResult {
   const [, k10, k100, k10minute] = rows
   return {
     rows,
+    calibrationMs: calibrate(),
     eventsRatio: k100.ms / k10.ms,
     durationRatio: k10.ms / k10minute.ms,
     tenThousandMs: k10.ms,
@@ -233,7 +256,11 @@ export function runModelBenchmark(): ModelBenchResult {
 
 function printResult(result: ModelBenchResult): void {
   console.log('Model replay benchmark (median of timed runs; cold = first run with memos cleared)')
-  console.log(`load average: ${loadavg().map((l) => l.toFixed(2)).join(' ')} on ${cpus().length} cores`)
+  console.log(
+    `load average: ${loadavg()
+      .map((l) => l.toFixed(2))
+      .join(' ')} on ${cpus().length} cores`,
+  )
   console.table(
     result.rows.map((r) => ({
       log: r.name,
@@ -247,6 +274,7 @@ function printResult(result: ModelBenchResult): void {
       'machine steps': r.machineSteps,
     })),
   )
+  console.log(`calibration (10k plain 24-field object copies kept): ${result.calibrationMs.toFixed(2)} ms`)
   console.log(`10k events: ${result.tenThousandMs.toFixed(2)} ms (target < 20 ms)`)
   console.log(`100k vs 10k events: ×${result.eventsRatio.toFixed(2)} (target ≤ 12)`)
   console.log(`10 h vs 1 min for 10k events: ×${result.durationRatio.toFixed(2)} (target ≤ 1.5)`)

@@ -3,6 +3,7 @@
 import type { Page } from 'playwright-core'
 import { layoutPanel, SCENE_WIDTH, SCENE_HEIGHT } from '../../src/panel/layout'
 import { probeTip } from '../../src/panel/hitTest'
+import { pointOnCubic, wireCurve } from '../../src/panel/wireCurve'
 import type { KeypadKey, PanelDevice, PanelLayout, Vec } from '../../src/panel/types'
 
 export class PanelDriver {
@@ -47,6 +48,11 @@ export class PanelDriver {
 
   async wire(from: string, to: string) {
     await this.drag(this.terminal(from), this.terminal(to))
+  }
+
+  /** A point on the drawn curve of the wire in position `lane` of the wiring list. */
+  wirePoint(from: string, to: string, lane: number): Vec {
+    return pointOnCubic(wireCurve(this.terminal(from), this.terminal(to), lane), 0.6)
   }
 
   /** Moves a probe from wherever it is (meter or a point) to a point, or back to the meter (null). */

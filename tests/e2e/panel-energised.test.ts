@@ -22,7 +22,7 @@ describe('wiring on a live panel', () => {
     await app?.stop()
   })
 
-  it('flags a wire added with the supply on, and again while the DC bus is still charged', async () => {
+  it('flags a wire added with the supply on and again while the DC bus is charged; a wire can be picked and deleted', async () => {
     const { page } = browser
     await signInPage(page, app.url)
     await page.goto(`${app.url}/simulator/raise-lower-commissioning`)
@@ -47,5 +47,14 @@ describe('wiring on a live panel', () => {
       .poll(async () => page.getByTestId('safety-warning').first().textContent(), { timeout: 10_000 })
       .toMatch(/DC bus is still at \d+ V/)
     await screenshot(page, 'panel-energised-02-bus-charged')
+
+    // Select the first wire on the canvas and remove it with the Delete key.
+    await panel.click(panel.wirePoint('drive.p24', 'runSwitch.a', 0))
+    await expect.poll(async () => page.getByTestId('announcer').textContent()).toMatch(/Wire w1 selected/)
+    await page.keyboard.press('Delete')
+    await expect
+      .poll(async () => page.getByRole('list', { name: 'Wires' }).getByRole('listitem').count())
+      .toBe(1)
+    await screenshot(page, 'panel-energised-03-wire-removed')
   }, 180_000)
 })

@@ -9,9 +9,11 @@ export default defineConfig({
     name: 'soak',
     root: fileURLToPath(new URL('../..', import.meta.url)),
     environment: 'node',
-    include: ['tests/reliability/**/*.test.ts'],
+    // The durability test, and the bad-input properties again with many more generated cases.
+    include: ['tests/reliability/**/*.test.ts', 'tests/api/fuzz-*.test.ts'],
     testTimeout: 240_000,
     hookTimeout: 120_000,
+    env: { FUZZ_RUNS: process.env.FUZZ_RUNS ?? '150' },
     // Each file starts servers of its own; two cores are shared.
     fileParallelism: false,
   },

@@ -3,6 +3,7 @@
 import { randomBytes } from 'node:crypto'
 import { join } from 'node:path'
 import pg from 'pg'
+import type { DataSource } from 'typeorm'
 
 /** The PostgreSQL server to test against (any database on it the user may connect to), if any. */
 export const TEST_DATABASE_URL = process.env.TEST_DATABASE_URL?.trim() || undefined
@@ -45,4 +46,32 @@ export async function createPostgresTestDatabase(adminUrl = TEST_DATABASE_URL): 
 export async function createTestDatabase(dataDir: string): Promise<TestDatabase> {
   if (onPostgres) return createPostgresTestDatabase()
   return { url: `sqlite:${join(dataDir, 'slipway.sqlite')}`, drop: async () => {} }
+}
+
+/**
+ * Every table's rows (migrations bookkeeping included), each table ordered by its primary key: a snapshot
+ * that means the same on SQLite and PostgreSQL, for tests that prove a request changed nothing.
+ */
+export async function snapshotTables(dataSource: DataSource): Promise<{ table: string; rows: unknown[] }[]> {
+  const runner = dataSource.createQueryRunner()
+  try {
+    const names = (
+      (await runner.query(
+        dataSource.options.type === 'postgres'
+          ? `SELECT table_name AS name FROM information_schema.tables
+             WHERE table_schema = current_schema() AND table_type = 'BASE TABLE'`
+          : `SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%'`,
+      )) as { name: string }[]
+    ).map((t) => t.name)
+    const tables = (await runner.getTables(names)).sort((x, y) => x.name.localeCompare(y.name))
+    const snapshot: { table: string; rows: unknown[] }[] = []
+    for (const table of tables) {
+      const order = table.primaryColumns.map((c) => `"${c.name}"`).join(', ') || '1'
+      const rows = (await runner.query(`SELECT * FROM "${table.name}" ORDER BY ${order}`)) as unknown[]
+      snapshot.push({ table: table.name, rows })
+    }
+    return snapshot
+  } finally {
+    await runner.release()
+  }
 }

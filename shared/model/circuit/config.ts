@@ -61,16 +61,16 @@ function wiringPart(state: SimState, index: Map<PointId, number>): WiringPart {
   const cached = wiringCache.get(state.wires)
   if (cached && cached.broken === state.brokenWires) return cached.part
   const wires: [number, number][] = []
-  let key = ''
   for (const wire of state.wires) {
     if (state.brokenWires.length > 0 && state.brokenWires.includes(wire.id)) continue
     const a = index.get(wire.from)
     const b = index.get(wire.to)
     if (a === undefined || b === undefined) continue
-    wires.push([a, b])
-    key += `${a}-${b},`
+    wires.push(a < b ? [a, b] : [b, a])
   }
-  const part = { wires, key }
+  // Nets do not depend on the order or direction of wires: a canonical key lets rewired-back circuits share memos.
+  wires.sort((x, y) => x[0] - y[0] || x[1] - y[1])
+  const part = { wires, key: wires.map(([a, b]) => `${a}-${b}`).join(',') }
   wiringCache.set(state.wires, { broken: state.brokenWires, part })
   return part
 }
@@ -90,7 +90,13 @@ function devicePart(state: SimState, terminals: PointLayout['terminals']): Devic
     const device = state.devices[id]
     const t = terminals[id]
     if (device.spec.kind === 'potentiometer') {
-      potentiometers.push({ hi: t.hi, wiper: t.wiper, lo: t.lo, ohms: device.spec.ohms ?? 10_000, position: device.position })
+      potentiometers.push({
+        hi: t.hi,
+        wiper: t.wiper,
+        lo: t.lo,
+        ohms: device.spec.ohms ?? 10_000,
+        position: device.position,
+      })
     } else if (contactClosed(device)) {
       closedContacts.push([t.a, t.b])
     }

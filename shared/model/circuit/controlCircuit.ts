@@ -464,7 +464,13 @@ export interface DriveCircuitSummary {
   supplyOverloaded: boolean
   referenceOverloaded: boolean
   /** The state's circuit summary for this configuration (one shared object per configuration). */
-  circuit: { key: string; analogVolts: number; supplyOverloaded: boolean; referenceOverloaded: boolean; relayClosed: boolean }
+  circuit: {
+    key: string
+    analogVolts: number
+    supplyOverloaded: boolean
+    referenceOverloaded: boolean
+    relayClosed: boolean
+  }
 }
 
 const NO_INPUT: InputSolution = { volts: 0, milliamps: 0 }
@@ -473,7 +479,11 @@ const NO_INPUT: InputSolution = { volts: 0, milliamps: 0 }
  * The network as the drive sees it, memoised per structure and wiper positions. `build` makes the
  * full configuration and is only called on a miss.
  */
-export function solveForDrive(keys: CircuitKeys, relayClosed: boolean, build: () => CircuitConfig): DriveCircuitSummary {
+export function solveForDrive(
+  keys: CircuitKeys,
+  relayClosed: boolean,
+  build: () => CircuitConfig,
+): DriveCircuitSummary {
   let structure = structureMemo.get(keys.structure)
   let config: CircuitConfig | undefined
   if (!structure) {
@@ -509,7 +519,7 @@ export function solveForDrive(keys: CircuitKeys, relayClosed: boolean, build: ()
   return summary
 }
 
-const MEMO_LIMIT = 4096
+const MEMO_LIMIT = 16_384
 const solutions = new Map<string, CircuitSolution>()
 const meterSolutions = new Map<string, { volts: number; floating: boolean }>()
 let solveCount = 0

@@ -69,7 +69,8 @@ describe('the simulator panel', () => {
     }
     // Every keyboard handler added to the window has been taken off again.
     for (const type of ['keydown', 'keyup', 'blur']) {
-      const handlers = (spy: typeof added) => new Set(spy.mock.calls.filter((c) => c[0] === type).map((c) => c[1]))
+      const handlers = (spy: typeof added) =>
+        new Set(spy.mock.calls.filter((c) => c[0] === type).map((c) => c[1]))
       const stillOn = [...handlers(added)].filter((h) => !handlers(removed).has(h))
       expect(stillOn).toEqual([])
       expect(handlers(added).size).toBeGreaterThanOrEqual(5)

@@ -51,7 +51,10 @@ describe('the attempt saved in the browser', () => {
   it('sets a damaged entry aside instead of deleting it, and says so', () => {
     const storage = new MemoryStorage()
     const key = attemptStorageKey('version-1')
-    storage.setItem(key, '{"version":1,"attemptId":"a","events":[{"t":5,"type":"power.on"},{"t":1,"type":"power.off"}]}')
+    storage.setItem(
+      key,
+      '{"version":1,"attemptId":"a","events":[{"t":5,"type":"power.on"},{"t":1,"type":"power.off"}]}',
+    )
     const { attempt, problem } = useAttemptStorage(key, storage).load()
     expect(attempt).toBeNull()
     expect(problem).toMatch(/could not be read/)
@@ -66,7 +69,10 @@ describe('submitting an attempt', () => {
 
   it('retries after network failures and server errors with the same attempt id until acknowledged', async () => {
     const seen: string[] = []
-    const failures = [Object.assign(new Error('offline'), { status: 0 }), Object.assign(new Error('busy'), { status: 503 })]
+    const failures = [
+      Object.assign(new Error('offline'), { status: 0 }),
+      Object.assign(new Error('busy'), { status: 503 }),
+    ]
     const scope = effectScope()
     const s = scope.run(() =>
       useAttemptSubmission({

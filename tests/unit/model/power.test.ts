@@ -84,6 +84,18 @@ describe('the meter on the power terminals', () => {
   })
 })
 
+describe('the meter proving unit (live–dead–live, NFPA 70E 120.5(7))', () => {
+  it('is live with the drive isolated and discharged, so the meter can be proved after the dead test', () => {
+    const dead = advance(run(start(), [{ t: 0, type: 'power.off' }]), 30 * 60_000)
+    expect(meter(dead, 'drive.dcp', 'drive.dcn').volts!).toBeLessThan(1)
+    expect(meter(dead, 'prover.pos', 'prover.neg').volts).toBe(110)
+  })
+
+  it('reads nothing between the proving unit and the drive', () => {
+    expect(meter(start(), 'prover.pos', 'drive.l1').floating).toBe(true)
+  })
+})
+
 describe('disconnect and lockout', () => {
   it('refuses to switch on while locked, and says why', () => {
     const s = run(off(), [

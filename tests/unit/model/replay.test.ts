@@ -81,6 +81,12 @@ describe('replay', () => {
     expect(JSON.stringify(a.breakpoints)).toBe(JSON.stringify(b.breakpoints))
   })
 
+  it('names a fractional event time as such', () => {
+    expect(() => applyEvent(createSimulation(raiseLowerSetup()), { t: 1.5, type: 'power.off' })).toThrow(
+      /whole milliseconds/,
+    )
+  })
+
   it('refuses events that go back in time', () => {
     expect(() =>
       replay(raiseLowerSetup(), [

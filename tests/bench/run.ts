@@ -1,0 +1,68 @@
+// `npm run bench`: every benchmark in one table. BENCH_ONLY=bundle,model,api,frame picks some.
+// Needs the production build for bundle and frame (npm run build:client).
+import { cpus, loadavg } from 'node:os'
+import { runApiBench } from './api.bench'
+import { runBundleBench } from './bundle.bench'
+import { runFrameBench } from './frame.bench'
+import { runModelBenchmark, type ModelBenchResult } from './model.bench'
+import { formatTable, type BenchRow } from './table'
+
+function modelRows(result: ModelBenchResult): BenchRow[] {
+  const group = 'model replay'
+  return [
+    ...result.rows.map((row) => ({
+      group,
+      name: `${row.name} (median)`,
+      value: row.ms,
+      unit: 'ms',
+      ...(row.events === 10_000 && row.simulatedMs > 3600_000 ? { target: '< 20 ms', met: row.ms < 20 } : {}),
+    })),
+    {
+      group,
+      name: '100k vs 10k events',
+      value: result.eventsRatio,
+      unit: '×',
+      target: '≤ 12×',
+      met: result.eventsRatio <= 12,
+    },
+    {
+      group,
+      name: '10k events over 10 h vs over 1 min',
+      value: result.durationRatio,
+      unit: '×',
+      target: '≤ 1.5×',
+      met: result.durationRatio <= 1.5,
+    },
+  ]
+}
+
+const BENCHES: Record<string, () => BenchRow[] | Promise<BenchRow[]>> = {
+  bundle: runBundleBench,
+  model: () => modelRows(runModelBenchmark()),
+  api: runApiBench,
+  frame: runFrameBench,
+}
+
+const only = process.env.BENCH_ONLY?.split(',').map((s) => s.trim())
+const rows: BenchRow[] = []
+const failures: string[] = []
+for (const [name, run] of Object.entries(BENCHES)) {
+  if (only && !only.includes(name)) continue
+  const started = performance.now()
+  try {
+    rows.push(...(await run()))
+    console.error(`${name}: done in ${((performance.now() - started) / 1000).toFixed(1)} s`)
+  } catch (error) {
+    failures.push(`${name}: ${(error as Error).message}`)
+  }
+}
+console.log(formatTable(rows))
+console.log(
+  `\n${cpus().length} cores, load average ${loadavg()
+    .map((l) => l.toFixed(2))
+    .join(' ')} (figures from a shared machine vary with what else runs)`,
+)
+if (failures.length) {
+  console.error(`\nbenchmarks that could not run:\n  ${failures.join('\n  ')}`)
+  process.exitCode = 1
+}
