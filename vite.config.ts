@@ -42,7 +42,7 @@ export default defineConfig({
         test: {
           name: 'api',
           environment: 'node',
-          include: ['tests/api/**/*.test.ts'],
+          include: ['tests/api/**/*.test.ts', 'tests/api-pg/**/*.test.ts'],
           // Each file gets its own temporary database; argon2 hashing makes tests CPU-bound.
           testTimeout: 30_000,
           hookTimeout: 60_000,

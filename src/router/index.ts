@@ -3,6 +3,7 @@ import { routes } from './routes'
 import { decide } from './guard'
 import { isChunkLoadError, reloadForFreshChunks } from './stale-chunks'
 import { useSessionStore } from '@/stores/session'
+import { useNotify } from '@/composables/useNotify'
 
 const router = createRouter({
   history: createWebHistory(import.meta.env.BASE_URL),
@@ -21,7 +22,11 @@ router.afterEach((to) => {
 })
 
 router.onError((error, to) => {
-  if (isChunkLoadError(error)) reloadForFreshChunks(to.fullPath)
+  if (!isChunkLoadError(error)) return
+  // Reloaded a moment ago and still missing: say so instead of reloading in a loop.
+  if (!reloadForFreshChunks(to.fullPath)) {
+    useNotify().notify('This page could not be loaded. Check the connection, then reload the page.', 'error')
+  }
 })
 
 if (typeof window !== 'undefined') {

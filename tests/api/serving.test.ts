@@ -3,7 +3,7 @@ import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { ConfigError, loadConfig } from '../../server/config'
+import { loadConfig } from '../../server/config'
 import { createTestApi, type TestApi } from '../support/api-harness'
 
 describe('serving the built client', () => {
@@ -58,11 +58,6 @@ describe('configuration from the environment', () => {
     expect(loadConfig({ NODE_ENV: 'production' }).serveClient).toBe(true)
     expect(loadConfig({ NODE_ENV: 'production', SERVE_CLIENT: 'false' }).serveClient).toBe(false)
     expect(loadConfig({}).serveClient).toBe(false)
-  })
-
-  it('refuses a PostgreSQL DATABASE_URL for now, naming the later path', () => {
-    expect(() => loadConfig({ DATABASE_URL: 'postgres://db.example/slipway' })).toThrow(ConfigError)
-    expect(() => loadConfig({ DATABASE_URL: 'postgres://db.example/slipway' })).toThrow(/PostgreSQL support/)
   })
 
   it('takes a SQLite DATABASE_URL and SMTP settings for a real relay', () => {

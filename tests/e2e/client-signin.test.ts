@@ -101,3 +101,34 @@ describe('signing in', () => {
     expect(new URL(page.url()).pathname).toBe('/admin/users')
   })
 })
+
+describe('after a deploy', () => {
+  let app: RunningApp
+  let browser: BrowserSession
+
+  beforeAll(async () => {
+    app = await startApp()
+    browser = await launchBrowser()
+  })
+  afterAll(async () => {
+    await browser?.close()
+    await app?.stop()
+  })
+
+  it('reloads the page when a lazy screen’s chunk is missing, instead of showing a blank screen', async () => {
+    const { page } = browser
+    await signIn(page, app.url, demo('apprentice'))
+    // The first request for the practice screen's chunk fails, as it would once a new build replaced it.
+    let refused = 0
+    await page.route(/\/assets\/PracticeView-[^/]+\.js$/, async (route) => {
+      if (refused++ === 0) return route.abort()
+      return route.continue()
+    })
+    const reloaded = page.waitForEvent('load')
+    await page.getByRole('link', { name: 'Free practice' }).first().click()
+    await reloaded
+    await page.getByRole('heading', { name: 'Free practice' }).waitFor()
+    expect(refused).toBeGreaterThanOrEqual(2)
+    expect(new URL(page.url()).pathname).toBe('/learn/practice')
+  })
+})

@@ -95,6 +95,32 @@ export class PanelDriver {
     await this.click({ x: l.x + l.w / 2, y: l.y + l.h / 2 })
   }
 
+  /** Lifts the probes from wherever they are and tests every line pair and the DC bus. */
+  async proveDead(from: { red: string | null; black: string | null }) {
+    await this.probe('red', 'drive.l1', from.red)
+    await this.probe('black', 'drive.l2', from.black)
+    await this.probe('black', 'drive.l3', 'drive.l2')
+    await this.probe('red', 'drive.l2', 'drive.l1')
+    await this.probe('red', 'drive.l1', 'drive.l2')
+    await this.probe('red', 'drive.dcp', 'drive.l1')
+    await this.probe('black', 'drive.dcn', 'drive.l3')
+  }
+
+  /** Switches off, locks, and waits (time sped up) until the DC bus is below 30 V. */
+  async isolateAndDischarge() {
+    await this.disconnect()
+    await this.lock()
+    await this.page.getByRole('tab', { name: 'Live values' }).click()
+    await this.page.getByRole('button', { name: 'Time runs 60 times faster' }).click()
+    const deadline = Date.now() + 60_000
+    while (Date.now() < deadline) {
+      const text = (await this.page.getByTestId('live-bus').textContent()) ?? ''
+      if (Number(/(\d+) V/.exec(text)?.[1]) < 30) break
+      await this.page.waitForTimeout(200)
+    }
+    await this.page.getByRole('button', { name: 'Time runs 1 times faster' }).click()
+  }
+
   /** The canvas's accessible name, which states the drive's state and speed. */
   async summary(): Promise<string> {
     return (await this.page.getByTestId('panel-canvas').getAttribute('aria-label')) ?? ''

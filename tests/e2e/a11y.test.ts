@@ -1,0 +1,138 @@
+// Accessibility: axe-core (through @axe-core/playwright) on every main screen, signed in as the user who
+// works there. No serious or critical violation of WCAG 2.1 A/AA rules may remain; every finding is
+// listed with its rule and selector so it can be fixed where it lives.
+import AxeBuilder from '@axe-core/playwright'
+import type { Page } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { demo, settled, signIn, signOut } from './client-steps'
+import { launchBrowser, screenshot, startApp, type BrowserSession, type RunningApp } from './support'
+
+interface Finding {
+  screen: string
+  rule: string
+  impact: string
+  help: string
+  targets: string[]
+}
+
+const BLOCKING = new Set(['serious', 'critical'])
+
+async function audit(page: Page, screen: string): Promise<Finding[]> {
+  await settled(page)
+  const result = await new AxeBuilder({ page })
+    .withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'])
+    // The panel canvas is drawn by WebGL; its accessible name and keyboard path are tested elsewhere.
+    .exclude('canvas')
+    .analyze()
+  return result.violations
+    .filter((v) => BLOCKING.has(v.impact ?? ''))
+    .map((v) => ({
+      screen,
+      rule: v.id,
+      impact: v.impact ?? '',
+      help: v.help,
+      targets: v.nodes.slice(0, 5).map((n) => n.target.join(' ')),
+    }))
+}
+
+const report = (findings: Finding[]) =>
+  findings
+    .map((f) => `${f.screen}: [${f.impact}] ${f.rule} (${f.help}) at ${f.targets.join(' | ')}`)
+    .join('\n')
+
+describe('accessibility of every main screen', () => {
+  let app: RunningApp
+  let browser: BrowserSession
+  const findings: Finding[] = []
+
+  beforeAll(async () => {
+    app = await startApp()
+    browser = await launchBrowser()
+  })
+  afterAll(async () => {
+    if (findings.length) console.log(`axe findings (serious/critical):\n${report(findings)}`)
+    await browser?.close()
+    await app?.stop()
+  })
+
+  /** Audits the screen as it is now; a screen with findings is kept as a screenshot too. */
+  async function check(screen: string) {
+    const found = await audit(browser.page, screen)
+    if (found.length) await screenshot(browser.page, `a11y-${screen}`)
+    findings.push(...found)
+    return found
+  }
+
+  async function visit(path: string, heading: RegExp | string, screen: string) {
+    await browser.page.goto(`${app.url}${path}`)
+    await browser.page.getByRole('heading', { name: heading }).first().waitFor()
+    return check(screen)
+  }
+
+  it('signed out: sign-in, forgotten password, about', async () => {
+    const found = [
+      ...(await visit('/sign-in', /Sign in/, 'sign-in')),
+      ...(await visit('/forgot-password', /password/i, 'forgot-password')),
+      ...(await visit('/about', 'About Slipway', 'about')),
+    ]
+    expect(found, report(found)).toEqual([])
+  })
+
+  it('apprentice: home, practice, attempts, a result, the simulator, profile', async () => {
+    const { page } = browser
+    await signIn(page, app.url, demo('apprentice'))
+    const found = [
+      ...(await visit('/learn', /Hello/, 'apprentice-home')),
+      ...(await visit('/learn/practice', 'Free practice', 'practice')),
+      ...(await visit('/learn/attempts', 'My attempts', 'attempt-history')),
+    ]
+    await page.getByRole('link', { name: 'Details' }).first().click()
+    await page.getByRole('heading', { name: 'Objectives' }).waitFor()
+    found.push(...(await check('attempt-result')))
+    await page.goto(`${app.url}/simulator/raise-lower-commissioning`)
+    // The safety notice first (a dialog), then the panel around the canvas.
+    await page.getByTestId('safety-understood').waitFor({ timeout: 30_000 })
+    found.push(...(await check('simulator-safety-notice')))
+    await page.getByTestId('safety-understood').click()
+    await page.locator('[data-testid="simulator-slot"]').waitFor()
+    found.push(...(await check('simulator')))
+    found.push(...(await visit('/profile', 'Profile', 'profile')))
+    expect(found, report(found)).toEqual([])
+  })
+
+  it('instructor: cohorts, a cohort, assigning, the gradebook, the scenario library and editor', async () => {
+    const { page } = browser
+    await page.goto(`${app.url}/profile`)
+    await signOut(page)
+    await signIn(page, app.url, demo('instructor'))
+    const found = [...(await visit('/teach/cohorts', 'Cohorts', 'cohorts'))]
+    await page
+      .getByRole('link', { name: /Open cohort/ })
+      .first()
+      .click()
+    await page.getByRole('link', { name: 'Assign a scenario' }).waitFor()
+    found.push(...(await check('cohort-detail')))
+    await page.getByRole('link', { name: 'Assign a scenario' }).click()
+    await page.getByRole('heading', { name: 'Assign a scenario' }).waitFor()
+    found.push(...(await check('assign-scenario')))
+    found.push(...(await visit('/teach/gradebook', 'Gradebook', 'gradebook')))
+    found.push(...(await visit('/scenarios', 'Scenario library', 'scenario-library')))
+    found.push(...(await visit('/scenarios/raise-lower-commissioning', /Commission/, 'scenario-detail')))
+    found.push(
+      ...(await visit('/scenarios/raise-lower-commissioning/edit', 'Edit scenario', 'scenario-editor')),
+    )
+    expect(found, report(found)).toEqual([])
+  })
+
+  it('admin: users and roles, the outbox, the backup', async () => {
+    const { page } = browser
+    await signOut(page)
+    await signIn(page, app.url, demo('admin'))
+    const found = [
+      ...(await visit('/admin/users', 'Users and roles', 'admin-users')),
+      ...(await visit('/admin/outbox', 'Mail outbox', 'admin-outbox')),
+      ...(await visit('/admin/backup', 'Database backup', 'admin-backup')),
+    ]
+    expect(found, report(found)).toEqual([])
+  })
+})
