@@ -1,6 +1,6 @@
 // Pure, memoised steps of the drive machine on plain { value, context } states.
-// XState's transition() costs tens of µs; the drive's discrete state space is small, so equal
-// (state, event) pairs share one computed result (the machine is pure, so this changes nothing).
+// XState's transition() costs tens of µs; the drive's discrete state space is small, so every distinct
+// drive state gets one node holding its transitions by event (the machine is pure: this changes nothing).
 import { initialTransition, transition, type SnapshotFrom } from 'xstate'
 import { driveMachine, type DriveEvent } from './driveMachine'
 import type { DriveContext, DriveMachineValue } from './types'
@@ -12,23 +12,20 @@ export interface DrivePlain {
 
 type DriveSnapshot = SnapshotFrom<typeof driveMachine>
 
-const snapshotOf = new WeakMap<DrivePlain, DriveSnapshot>()
-/** Each distinct drive state gets a small id (by its JSON), so memo keys stay short. */
-const idOf = new WeakMap<DrivePlain, number>()
-const idByJson = new Map<string, number>()
-let nextId = 0
-const memo = new Map<string, DrivePlain>()
-const MEMO_LIMIT = 20_000
-let machineSteps = 0
-
-function toPlain(snapshot: DriveSnapshot): DrivePlain {
-  const plain: DrivePlain = {
-    value: snapshot.value as unknown as DriveMachineValue,
-    context: snapshot.context,
-  }
-  snapshotOf.set(plain, snapshot)
-  return plain
+/** One distinct drive state (by content): the first object seen with it and its known transitions. */
+interface DriveNode {
+  canonical: DrivePlain
+  /** By event code: the next state's node, or UNCHANGED when the event leaves the state as it is. */
+  next: (DriveNode | typeof UNCHANGED | undefined)[]
 }
+const UNCHANGED = 0
+
+const snapshotOf = new WeakMap<DrivePlain, DriveSnapshot>()
+const nodeOf = new WeakMap<DrivePlain, DriveNode>()
+const nodeByJson = new Map<string, DriveNode>()
+/** Past this many distinct drive states the table starts afresh (states seen so far keep their nodes). */
+const NODE_LIMIT = 100_000
+let machineSteps = 0
 
 function snapshotFor(plain: DrivePlain): DriveSnapshot {
   let snapshot = snapshotOf.get(plain)
@@ -40,60 +37,94 @@ function snapshotFor(plain: DrivePlain): DriveSnapshot {
   return snapshot
 }
 
-function stateId(plain: DrivePlain): number {
-  let id = idOf.get(plain)
-  if (id === undefined) {
+function nodeFor(plain: DrivePlain): DriveNode {
+  let node = nodeOf.get(plain)
+  if (node === undefined) {
     const json = JSON.stringify(plain)
-    id = idByJson.get(json)
-    if (id === undefined) {
-      // Ids are never reused (even after a clear), so a cached id can never name another state.
-      id = nextId++
-      if (idByJson.size >= 100_000) idByJson.clear()
-      idByJson.set(json, id)
+    node = nodeByJson.get(json)
+    if (node === undefined) {
+      if (nodeByJson.size >= NODE_LIMIT) nodeByJson.clear()
+      node = { canonical: plain, next: [] }
+      nodeByJson.set(json, node)
     }
-    idOf.set(plain, id)
+    nodeOf.set(plain, node)
   }
-  return id
+  return node
+}
+
+function toPlain(snapshot: DriveSnapshot): DrivePlain {
+  const plain: DrivePlain = {
+    value: snapshot.value as unknown as DriveMachineValue,
+    context: snapshot.context,
+  }
+  snapshotOf.set(plain, snapshot)
+  return plain
 }
 
 export function initialDrive(): DrivePlain {
   const [snapshot] = initialTransition(driveMachine)
-  return toPlain(snapshot)
+  return nodeFor(toPlain(snapshot)).canonical
 }
 
-function eventKey(event: DriveEvent): string {
+const CONFIGURE_BASE = 81
+/** A small integer per distinct event (the events carry only booleans and short enumerations). */
+function eventCode(event: DriveEvent): number {
   switch (event.type) {
     case 'SIGNALS': {
       const s = event.signals
-      return `G${+s.run}${+s.start}${+s.stop}${+s.reverse}${+s.faultReset}${+s.externalFault}`
+      return (
+        +s.run | (+s.start << 1) | (+s.stop << 2) | (+s.reverse << 3) | (+s.faultReset << 4) | (+s.externalFault << 5)
+      )
     }
     case 'POWER_OFF':
-      return `O${+event.controlOn}`
+      return 64 + +event.controlOn
     case 'SUPPLY':
-      return `U${+event.overloaded}`
+      return 66 + +event.overloaded
     case 'ALARMS':
-      return `A${+event.present}`
+      return 68 + +event.present
     case 'KEY':
-      return `K${event.key}`
+      return event.key === 'run' ? 70 : event.key === 'stop' ? 71 : 72
     case 'TREND':
-      return `T${event.trend}`
-    default:
-      return JSON.stringify(event)
+      return event.trend === 'up' ? 73 : event.trend === 'down' ? 74 : 75
+    case 'POWER_ON':
+      return 76
+    case 'BUS_CHARGED':
+      return 77
+    case 'CONTROL_OFF':
+      return 78
+    case 'STANDSTILL':
+      return 79
+    case 'OVERVOLTAGE':
+      return 80
+    case 'CONFIGURE': {
+      const c = event.config
+      const runMode = c.runMode === 'run' ? 0 : c.runMode === 'start' ? 1 : 2
+      return (
+        CONFIGURE_BASE +
+        (+(c.source === 'terminals') | (+(c.stopMode === 'coast') << 1) | (+c.reverseAllowed << 2)) * 3 +
+        runMode
+      )
+    }
   }
 }
 
+/**
+ * The drive state after an event. Returns `plain` itself when the event changes nothing, otherwise
+ * one shared object per distinct state — so `a !== sendDrive(a, e)` exactly when the state changed,
+ * whatever the memo holds.
+ */
 export function sendDrive(plain: DrivePlain, event: DriveEvent): DrivePlain {
-  const key = `${stateId(plain)}|${eventKey(event)}`
-  const hit = memo.get(key)
-  if (hit) return hit
-  machineSteps++
-  const [next] = transition(driveMachine, snapshotFor(plain), event)
-  let result = toPlain(next)
-  // Keep identity when nothing changed, so callers can compare states with ===.
-  if (stateId(result) === stateId(plain)) result = plain
-  if (memo.size >= MEMO_LIMIT) memo.clear()
-  memo.set(key, result)
-  return result
+  const node = nodeFor(plain)
+  const code = eventCode(event)
+  let next = node.next[code]
+  if (next === undefined) {
+    machineSteps++
+    const [snapshot] = transition(driveMachine, snapshotFor(plain), event)
+    const target = nodeFor(toPlain(snapshot))
+    next = target === node ? UNCHANGED : target
+    node.next[code] = next
+  }
+  return next === UNCHANGED ? plain : next.canonical
 }
 
 /** Number of real machine transitions computed (benchmark statistics). */
@@ -102,6 +133,5 @@ export function driveStepCount(): number {
 }
 
 export function clearDriveMemo(): void {
-  memo.clear()
-  idByJson.clear()
+  nodeByJson.clear()
 }

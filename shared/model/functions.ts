@@ -41,6 +41,7 @@ export function functionLevels(
   }
   const fns = inputFunctions(settings)
   for (let i = 0; i < fns.length; i++) if (inputs[i]) levels[fns[i]] = true
+  levelsCache.set(inputs, { settings, levels })
   return levels
 }
 
@@ -65,6 +66,22 @@ export function driveSignals(
     faultReset: levels.faultReset,
     externalFault: controlOn && isAssigned(settings, 'externalFault') && !levels.externalFault,
   }
+}
+
+/** Whether driveSignals(settings, levels, true) would equal `seen` (without building it). */
+export function signalsMatch(
+  settings: SettingValues,
+  levels: Record<InputFunction, boolean>,
+  seen: DriveSignals,
+): boolean {
+  return (
+    levels.run === seen.run &&
+    levels.start === seen.start &&
+    levels.stop === seen.stop &&
+    levels.reverse === seen.reverse &&
+    levels.faultReset === seen.faultReset &&
+    (isAssigned(settings, 'externalFault') && !levels.externalFault) === seen.externalFault
+  )
 }
 
 export function driveConfig(settings: SettingValues): DriveConfig {

@@ -5,7 +5,7 @@ import { solveForDrive } from './circuit/controlCircuit'
 import { nextInputState } from './circuit/inputThresholds'
 import { NO_SIGNALS, type DriveEvent } from './driveMachine'
 import { sendDrive } from './driveTransitions'
-import { driveSignals, functionLevels, sameSignals } from './functions'
+import { driveSignals, functionLevels, sameSignals, signalsMatch } from './functions'
 import {
   decelerationOf,
   isAtStandstill,
@@ -259,12 +259,14 @@ function machineFollowsMotion(state: SimState): DriveEvent | null {
   return null
 }
 
-function send(draft: SimState, event: DriveEvent, now: number): void {
+/** Sends an event to the drive; true when its state changed. */
+function send(draft: SimState, event: DriveEvent, now: number): boolean {
   const before = draft.drive.value
   const next = sendDrive(draft.drive, event)
-  if (next === draft.drive) return
+  if (next === draft.drive) return false
   draft.drive = next
   applyMemories(before, draft, now)
+  return true
 }
 
 /**
@@ -281,29 +283,33 @@ export function settle(
   const draft: SimState = owned ? input : { ...input }
   applyMemories(before, draft, now)
   for (let round = 0; round < 32; round++) {
-    const startDrive = draft.drive
+    // A round that changes neither the drive (by content: sendDrive keeps the object when nothing
+    // changes) nor the circuit configuration is the fixed point.
+    let driveChanged = false
     const startKey = draft.circuit.key
     refreshCircuit(draft)
     const a = draft.settings.active
     const levels = functionLevels(a, draft.inputs)
     trackRaiseLowerOrder(draft, levels)
     const seen = draft.drive.context.signals
-    const signals = draft.bus.controlOn ? driveSignals(a, levels, true) : NO_SIGNALS
-    if (!sameSignals(signals, seen)) send(draft, { type: 'SIGNALS', signals }, now)
+    if (draft.bus.controlOn ? !signalsMatch(a, levels, seen) : !sameSignals(NO_SIGNALS, seen)) {
+      const signals = draft.bus.controlOn ? driveSignals(a, levels, true) : NO_SIGNALS
+      driveChanged = send(draft, { type: 'SIGNALS', signals }, now) || driveChanged
+    }
     if (draft.bus.controlOn && draft.circuit.supplyOverloaded !== draft.drive.context.causes.supplyOverload) {
-      send(draft, { type: 'SUPPLY', overloaded: draft.circuit.supplyOverloaded }, now)
+      driveChanged = send(draft, { type: 'SUPPLY', overloaded: draft.circuit.supplyOverloaded }, now) || driveChanged
     }
     const alarmsPresent = alarmsFor(a, draft.circuit.referenceOverloaded).length > 0
     if (alarmsPresent !== (draft.drive.value.alarm === 'present')) {
-      send(draft, { type: 'ALARMS', present: alarmsPresent }, now)
+      driveChanged = send(draft, { type: 'ALARMS', present: alarmsPresent }, now) || driveChanged
     }
     replan(draft, now, levels)
     const follow = machineFollowsMotion(draft)
     if (follow) {
-      send(draft, follow, now)
+      driveChanged = send(draft, follow, now) || driveChanged
       replan(draft, now, levels)
     }
-    if (draft.drive === startDrive && draft.circuit.key === startKey) return draft
+    if (!driveChanged && draft.circuit.key === startKey) return draft
   }
   return draft
 }

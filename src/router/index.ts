@@ -21,6 +21,8 @@ router.afterEach((to) => {
   document.title = to.meta.title ? `${to.meta.title} · Slipway` : 'Slipway'
 })
 
+// A lazy screen whose chunk is gone after a deploy (Vite's preload errors end up here too, since
+// they are rethrown when nobody cancels them) reloads at the page the user was going to.
 router.onError((error, to) => {
   if (!isChunkLoadError(error)) return
   // Reloaded a moment ago and still missing: say so instead of reloading in a loop.
@@ -28,13 +30,5 @@ router.onError((error, to) => {
     useNotify().notify('This page could not be loaded. Check the connection, then reload the page.', 'error')
   }
 })
-
-if (typeof window !== 'undefined') {
-  // Vite's own signal that a preloaded chunk is gone.
-  window.addEventListener('vite:preloadError', (event) => {
-    event.preventDefault()
-    reloadForFreshChunks(window.location.pathname + window.location.search)
-  })
-}
 
 export default router

@@ -79,12 +79,19 @@ export async function runApiBenchmark(): Promise<ApiBenchResult> {
     const instructorToken = await signIn(server.url, instructor.email)
     const apprenticeToken = await signIn(server.url, apprentice.email)
 
+    // Warm-up (JIT, SQLite page cache) so the timed loads measure steady state.
+    const gradebookPath = `/api/cohorts/${instructor.cohortId}/gradebook?page=2&pageSize=50&sort=average&order=desc`
+    for (let i = 0; i < 20; i++) {
+      await fetch(server.url + gradebookPath, { headers: { authorization: `Bearer ${instructorToken}` } })
+      await fetch(bareServer.url)
+    }
+
     const bare = await load('bare Express {}', bareServer.url, 50, { method: 'GET', path: '/' })
     await bareServer.stop()
 
     const gradebook = await load('gradebook page', server.url, 50, {
       method: 'GET',
-      path: `/api/cohorts/${instructor.cohortId}/gradebook?page=2&pageSize=50&sort=average&order=desc`,
+      path: gradebookPath,
       headers: { authorization: `Bearer ${instructorToken}` },
     })
 

@@ -134,9 +134,15 @@ describe('every main screen', () => {
     await signIn(page, app.url, demo('admin'))
     await visit(page, `${app.url}/admin/users`, 'Users and roles', 'client-admin-users')
     // A role change is confirmed first, then saved.
-    await page.getByRole('row', { name: /Zofia Brennock/ }).locator('.v-select .v-field').click()
+    await page
+      .getByRole('row', { name: /Zofia Brennock/ })
+      .locator('.v-select .v-field')
+      .click()
     await page.getByRole('option', { name: 'instructor' }).click()
-    await page.getByRole('alertdialog').getByText(/Zofia Brennock becomes instructor/).waitFor()
+    await page
+      .getByRole('alertdialog')
+      .getByText(/Zofia Brennock becomes instructor/)
+      .waitFor()
     await page.getByRole('alertdialog').getByRole('button', { name: 'Apply' }).click()
     await page.getByText('Account updated').waitFor()
     await visit(page, `${app.url}/admin/outbox`, 'Mail outbox', 'client-admin-outbox')
