@@ -2,6 +2,7 @@
 // refused with a message (never thrown); only out-of-order times throw.
 import { busVoltsAt } from './bus'
 import { pointsOf } from './circuit/config'
+import { copyState } from './copyState'
 import { sendDrive, type DrivePlain } from './driveTransitions'
 import { ModelInputError } from './errors'
 import type { AttemptEvent } from './events'
@@ -34,7 +35,9 @@ function refuse(draft: SimState, message: EventMessage): SimState {
 }
 
 function withDevice(draft: SimState, id: string, change: Partial<DeviceState>): SimState {
-  draft.devices = { ...draft.devices, [id]: { ...draft.devices[id], ...change } }
+  const devices = { ...draft.devices }
+  devices[id] = { ...draft.devices[id], ...change }
+  draft.devices = devices
   return draft
 }
 
@@ -277,7 +280,10 @@ function applyEventWith(state: SimState, event: AttemptEvent, sink: BreakpointSi
     )
   }
   const current = advancePieces(state, event.t, sink)
-  const next = applyToState({ ...current, t: event.t, messages: NO_MESSAGES }, event)
+  const draft = copyState(current)
+  draft.t = event.t
+  draft.messages = NO_MESSAGES
+  const next = applyToState(draft, event)
   // Events that touch nothing physical (meter probes, pending edits, navigation keys, hints) need no settling.
   if (!needsSettling(current, next)) return next
   return settle(next, event.t, current.drive.value, true)

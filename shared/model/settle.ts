@@ -3,6 +3,7 @@
 import { circuitConfig, circuitKeys } from './circuit/config'
 import { solveForDrive } from './circuit/controlCircuit'
 import { nextInputState } from './circuit/inputThresholds'
+import { copyState } from './copyState'
 import { NO_SIGNALS, type DriveEvent } from './driveMachine'
 import { sendDrive } from './driveTransitions'
 import { driveSignals, functionLevels, sameSignals, signalsMatch } from './functions'
@@ -280,7 +281,7 @@ export function settle(
   before: DriveMachineValue = input.drive.value,
   owned = false,
 ): SimState {
-  const draft: SimState = owned ? input : { ...input }
+  const draft: SimState = owned ? input : copyState(input)
   applyMemories(before, draft, now)
   for (let round = 0; round < 32; round++) {
     // A round that changes neither the drive (by content: sendDrive keeps the object when nothing

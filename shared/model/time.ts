@@ -1,5 +1,6 @@
 // Advancing time in closed form: jump to the next breakpoint (end of a piece), settle, repeat.
 import { controlThresholdVolts, nextBusBreakpoint, nominalBusVolts } from './bus'
+import { copyState } from './copyState'
 import { sendDrive } from './driveTransitions'
 import { ModelInputError } from './errors'
 import { nextReferenceLimit, nextSpeedBreakpoint } from './motion'
@@ -24,19 +25,16 @@ function atBreakpoint(state: SimState, bp: Breakpoint): SimState {
   const threshold = controlThresholdVolts(state.lineVolts)
   let next = state
   if (bp.what === 'controlOn') {
-    next = { ...state, bus: { mode: 'charging', since: bp.t, volts: threshold, controlOn: true } }
+    next = copyState(state)
+    next.bus = { mode: 'charging', since: bp.t, volts: threshold, controlOn: true }
   } else if (bp.what === 'busCharged') {
-    next = {
-      ...state,
-      bus: { mode: 'steady', since: bp.t, volts: nominalBusVolts(state.lineVolts), controlOn: true },
-      drive: sendDrive(state.drive, { type: 'BUS_CHARGED' }),
-    }
+    next = copyState(state)
+    next.bus = { mode: 'steady', since: bp.t, volts: nominalBusVolts(state.lineVolts), controlOn: true }
+    next.drive = sendDrive(state.drive, { type: 'BUS_CHARGED' })
   } else if (bp.what === 'controlOff') {
-    next = {
-      ...state,
-      bus: { mode: 'decayIdle', since: bp.t, volts: threshold, controlOn: false },
-      drive: sendDrive(state.drive, { type: 'CONTROL_OFF' }),
-    }
+    next = copyState(state)
+    next.bus = { mode: 'decayIdle', since: bp.t, volts: threshold, controlOn: false }
+    next.drive = sendDrive(state.drive, { type: 'CONTROL_OFF' })
   }
   return settle(next, bp.t, before, next !== state)
 }
@@ -60,7 +58,10 @@ export function advancePieces(state: SimState, target: number, sink: BreakpointS
 
 export function advanceTo(state: SimState, target: number, sink: BreakpointSink): SimState {
   const current = advancePieces(state, target, sink)
-  return target === current.t ? current : { ...current, t: target }
+  if (target === current.t) return current
+  const moved = copyState(current)
+  moved.t = target
+  return moved
 }
 
 export function advance(state: SimState, dtMs: number): SimState {

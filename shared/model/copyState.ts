@@ -1,0 +1,27 @@
+// A shallow copy of a simulation state, field by field: the copy made for each step (one per event).
+// Faster than a spread on this hot path; keeps the key order of createSimulation (JSON stays identical).
+import type { SimState } from './types'
+
+export function copyState(s: SimState): SimState {
+  return {
+    t: s.t,
+    devices: s.devices,
+    deviceOrder: s.deviceOrder,
+    wires: s.wires,
+    brokenWires: s.brokenWires,
+    fuseBlown: s.fuseBlown,
+    power: s.power,
+    lineVolts: s.lineVolts,
+    machine: s.machine,
+    settings: s.settings,
+    meter: s.meter,
+    inputs: s.inputs,
+    raiseLowerFirst: s.raiseLowerFirst,
+    drive: s.drive,
+    circuit: s.circuit,
+    bus: s.bus,
+    speed: s.speed,
+    reference: s.reference,
+    messages: s.messages,
+  }
+}
