@@ -48,27 +48,44 @@ export function planSpeed(
   targetSlope: number,
   rates: RampRates,
 ): SpeedPiece {
-  const piece = (mode: SpeedPiece['mode'], hz: number, slope: number): SpeedPiece => ({
-    mode,
-    since: now,
-    hz,
-    slope,
-    targetHz,
-    targetSlope,
-  })
-  if (plan === 'stopped') return piece('still', 0, 0)
+  const piece: SpeedPiece = { mode: 'still', since: now, hz: 0, slope: 0, targetHz, targetSlope }
+  return planSpeedInto(piece, hzNow, now, plan, targetHz, targetSlope, rates.accel, rates.decel)
+}
+
+function setPiece(out: SpeedPiece, mode: SpeedPiece['mode'], hz: number, slope: number): SpeedPiece {
+  out.mode = mode
+  out.hz = hz
+  out.slope = slope
+  return out
+}
+
+/** planSpeed writing into `out` (the settling loop plans into one scratch piece: most plans change nothing). */
+export function planSpeedInto(
+  out: SpeedPiece,
+  hzNow: number,
+  now: number,
+  plan: SpeedPlan,
+  targetHz: number,
+  targetSlope: number,
+  accel: number,
+  decel: number,
+): SpeedPiece {
+  out.since = now
+  out.targetHz = targetHz
+  out.targetSlope = targetSlope
+  if (plan === 'stopped') return setPiece(out, 'still', 0, 0)
   let hz = Math.abs(hzNow) <= SNAP_HZ ? 0 : hzNow
-  if (plan === 'coasting') return isAtStandstill(hz) ? piece('still', 0, 0) : piece('coast', hz, 0)
+  if (plan === 'coasting') return isAtStandstill(hz) ? setPiece(out, 'still', 0, 0) : setPiece(out, 'coast', hz, 0)
   if (Math.abs(hz - targetHz) <= SNAP_HZ) hz = targetHz
   if (hz === targetHz) {
-    if (targetSlope === 0) return piece(hz === 0 ? 'still' : 'track', hz, 0)
-    const allowed = magnitudeRises(hz, targetSlope) ? rates.accel : rates.decel
-    if (Math.abs(targetSlope) <= allowed) return piece('track', hz, targetSlope)
-    return piece('ramp', hz, Math.sign(targetSlope) * allowed)
+    if (targetSlope === 0) return setPiece(out, hz === 0 ? 'still' : 'track', hz, 0)
+    const allowed = magnitudeRises(hz, targetSlope) ? accel : decel
+    if (Math.abs(targetSlope) <= allowed) return setPiece(out, 'track', hz, targetSlope)
+    return setPiece(out, 'ramp', hz, Math.sign(targetSlope) * allowed)
   }
   const direction = Math.sign(targetHz - hz)
-  const rate = magnitudeRises(hz, direction) ? rates.accel : rates.decel
-  return piece('ramp', hz, direction * rate)
+  const rate = magnitudeRises(hz, direction) ? accel : decel
+  return setPiece(out, 'ramp', hz, direction * rate)
 }
 
 export type SpeedBreakpoint = { t: number; what: 'speedReached' | 'zeroSpeed' | 'standstill' }

@@ -10,7 +10,7 @@ import { driveSignals, functionLevels, sameSignals, signalsMatch } from './funct
 import {
   decelerationOf,
   isAtStandstill,
-  planSpeed,
+  planSpeedInto,
   referenceAt,
   speedAt,
   trendOf,
@@ -18,7 +18,7 @@ import {
 } from './motion'
 import { alarmsFor } from './notices'
 import type { SettingValues } from './settings'
-import type { ControlState, DriveMachineValue, ReferencePiece, SimState } from './types'
+import type { ControlState, DriveMachineValue, ReferencePiece, SimState, SpeedPiece } from './types'
 
 const RUNNING: ReadonlySet<ControlState> = new Set(['accelerating', 'atSpeed', 'decelerating'])
 /** Output stage on: running, or ramping down to a controlled stop. */
@@ -133,6 +133,31 @@ export interface ActiveReference {
   slope: number
 }
 
+/** Where the reference comes from now, from the control place and the remote source. */
+function referenceSource(state: SimState, levels: Levels): ActiveReference['source'] {
+  const a = state.settings.active
+  if (a['control.source'] === 'keypad') return 'keypad'
+  if (state.bus.controlOn && levels.preset) return 'preset'
+  return a['reference.remoteSource']
+}
+
+function referenceHz(state: SimState, source: ActiveReference['source'], emop: ReferencePiece, t: number) {
+  const a = state.settings.active
+  switch (source) {
+    case 'keypad':
+      return a['reference.keypadSetpoint']
+    case 'preset':
+      return a['preset.speed1']
+    case 'analog': {
+      // 0–10 V scaled between minimum and maximum speed.
+      const fraction = Math.min(1, Math.max(0, state.circuit.analogVolts / 10))
+      return a['speed.min'] + (a['speed.max'] - a['speed.min']) * fraction
+    }
+    case 'raiseLower':
+      return referenceAt(emop, t)
+  }
+}
+
 /** The reference the drive follows now, from the control place and the remote source. */
 export function activeReference(
   state: SimState,
@@ -140,25 +165,8 @@ export function activeReference(
   t: number,
   levels: Levels = functionLevels(state.settings.active, state.inputs),
 ): ActiveReference {
-  const a = state.settings.active
-  if (a['control.source'] === 'keypad')
-    return { source: 'keypad', hz: a['reference.keypadSetpoint'], slope: 0 }
-  if (state.bus.controlOn && levels.preset) {
-    return { source: 'preset', hz: a['preset.speed1'], slope: 0 }
-  }
-  switch (a['reference.remoteSource']) {
-    case 'keypad':
-      return { source: 'keypad', hz: a['reference.keypadSetpoint'], slope: 0 }
-    case 'preset':
-      return { source: 'preset', hz: a['preset.speed1'], slope: 0 }
-    case 'analog': {
-      // 0–10 V scaled between minimum and maximum speed.
-      const fraction = Math.min(1, Math.max(0, state.circuit.analogVolts / 10))
-      return { source: 'analog', hz: a['speed.min'] + (a['speed.max'] - a['speed.min']) * fraction, slope: 0 }
-    }
-    case 'raiseLower':
-      return { source: 'raiseLower', hz: referenceAt(emop, t), slope: emop.slope }
-  }
+  const source = referenceSource(state, levels)
+  return { source, hz: referenceHz(state, source, emop, t), slope: source === 'raiseLower' ? emop.slope : 0 }
 }
 
 function clamp(value: number, min: number, max: number): number {
@@ -206,16 +214,30 @@ function replan(draft: SimState, now: number, levels: Levels): void {
     Math.abs(referenceAt(old, now) - emopHz) <= 1e-12 * Math.max(1, max)
       ? old
       : { since: now, hz: emopHz, slope: emopSlope }
-  const active = activeReference(draft, reference, now, levels)
+  const source = referenceSource(draft, levels)
   const sign = draft.drive.context.direction === 'reverse' ? -1 : 1
-  const targetHz = running ? sign * clamp(active.hz, min, max) : 0
-  const targetSlope = running ? sign * active.slope : 0
+  const targetHz = running ? sign * clamp(referenceHz(draft, source, reference, now), min, max) : 0
+  const targetSlope = running ? sign * (source === 'raiseLower' ? reference.slope : 0) : 0
   const plan: SpeedPlan = control === 'stopped' ? 'stopped' : control === 'coasting' ? 'coasting' : 'toTarget'
   const hzNow = speedAt(draft.speed, now, draft.machine.coastSeconds * 1000)
   draft.reference = reference
-  const speed = planSpeed(hzNow, now, plan, targetHz, targetSlope, rampRates(a))
-  if (!samePiece(draft.speed, speed, now)) draft.speed = speed
+  const accel = a['speed.max'] / (a['ramp.accelSeconds'] * 1000)
+  const decel = a['speed.max'] / (a['ramp.decelSeconds'] * 1000)
+  const speed = planSpeedInto(SCRATCH_PIECE, hzNow, now, plan, targetHz, targetSlope, accel, decel)
+  if (!samePiece(draft.speed, speed, now)) {
+    draft.speed = {
+      mode: speed.mode,
+      since: speed.since,
+      hz: speed.hz,
+      slope: speed.slope,
+      targetHz: speed.targetHz,
+      targetSlope: speed.targetSlope,
+    }
+  }
 }
+
+/** Where replan plans the next piece; copied into the state only when it differs from the current one. */
+const SCRATCH_PIECE: SpeedPiece = { mode: 'still', since: 0, hz: 0, slope: 0, targetHz: 0, targetSlope: 0 }
 
 /** The new piece describes the same future as the old one. */
 function samePiece(old: SimState['speed'], next: SimState['speed'], now: number): boolean {
