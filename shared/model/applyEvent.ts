@@ -34,9 +34,15 @@ function refuse(draft: SimState, message: EventMessage): SimState {
   return draft
 }
 
-function withDevice(draft: SimState, id: string, change: Partial<DeviceState>): SimState {
+/** The draft with one device replaced (field by field: this runs for every button press). */
+function withDevice(
+  draft: SimState,
+  id: string,
+  d: DeviceState,
+  { contact = d.contact, pressed = d.pressed, position = d.position, fault = d.fault }: Partial<DeviceState>,
+): SimState {
   const devices = { ...draft.devices }
-  devices[id] = { ...draft.devices[id], ...change }
+  devices[id] = { spec: d.spec, contact, pressed, position, fault }
   draft.devices = devices
   return draft
 }
@@ -60,6 +66,20 @@ function deviceFor(
 
 function isKnownPoint(state: SimState, point: string): boolean {
   return pointsOf(state).index.has(point) || isDrivePowerPoint(point) || isProverPoint(point)
+}
+
+/** Why a wire cannot end on this point, if it cannot. */
+function wireEndRefusal(state: SimState, point: string): EventMessage | undefined {
+  if (isDrivePowerPoint(point)) {
+    return {
+      code: 'wireRefused',
+      text: 'Power terminals are not wired on this panel; measure them with the meter.',
+    }
+  }
+  if (!pointsOf(state).index.has(point)) {
+    return { code: 'unknownPoint', text: `There is no terminal "${point}" on this panel.` }
+  }
+  return undefined
 }
 
 function saveSettings(state: SimState): SimState {
@@ -160,20 +180,8 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
       if (state.wires.some((w) => w.id === event.id)) {
         return refuse(state, { code: 'wireRefused', text: `A wire called "${event.id}" is already fitted.` })
       }
-      for (const point of [event.from, event.to]) {
-        if (isDrivePowerPoint(point)) {
-          return refuse(state, {
-            code: 'wireRefused',
-            text: 'Power terminals are not wired on this panel; measure them with the meter.',
-          })
-        }
-        if (!pointsOf(state).index.has(point)) {
-          return refuse(state, {
-            code: 'unknownPoint',
-            text: `There is no terminal "${point}" on this panel.`,
-          })
-        }
-      }
+      const refusal = wireEndRefusal(state, event.from) ?? wireEndRefusal(state, event.to)
+      if (refusal) return refuse(state, refusal)
       if (event.from === event.to) {
         return refuse(state, { code: 'wireRefused', text: 'A wire needs two different terminals.' })
       }
@@ -195,22 +203,22 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
       const device = deviceFor(state, event.device, ['pushbutton'], 'pressed')
       if (!('spec' in device)) return refuse(state, device)
       const pressed = event.type === 'device.pressed'
-      return device.pressed === pressed ? state : withDevice(state, event.device, { pressed })
+      return device.pressed === pressed ? state : withDevice(state, event.device, device, { pressed })
     }
     case 'device.switched': {
       const device = deviceFor(state, event.device, ['selector'], 'switched')
       if (!('spec' in device)) return refuse(state, device)
-      return withDevice(state, event.device, { position: event.position })
+      return withDevice(state, event.device, device, { position: event.position })
     }
     case 'device.turned': {
       const device = deviceFor(state, event.device, ['potentiometer'], 'turned')
       if (!('spec' in device)) return refuse(state, device)
-      return withDevice(state, event.device, { position: event.position })
+      return withDevice(state, event.device, device, { position: event.position })
     }
     case 'device.contactFitted': {
       const device = deviceFor(state, event.device, ['pushbutton', 'selector'], 'fitted with a contact block')
       if (!('spec' in device)) return refuse(state, device)
-      return withDevice(state, event.device, { contact: event.contact, fault: 'none' })
+      return withDevice(state, event.device, device, { contact: event.contact, fault: 'none' })
     }
     case 'fuse.replaced':
       state.fuseBlown = false
@@ -237,10 +245,14 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
       if (state.power.locked) state.power = { ...state.power, locked: false }
       return state
     case 'meter.probes': {
-      for (const point of [event.red, event.black]) {
-        if (point !== null && !isKnownPoint(state, point)) {
-          return refuse(state, { code: 'unknownPoint', text: `There is no terminal "${point}" to probe.` })
-        }
+      const unknown =
+        event.red !== null && !isKnownPoint(state, event.red)
+          ? event.red
+          : event.black !== null && !isKnownPoint(state, event.black)
+            ? event.black
+            : null
+      if (unknown !== null) {
+        return refuse(state, { code: 'unknownPoint', text: `There is no terminal "${unknown}" to probe.` })
       }
       state.meter = { red: event.red, black: event.black }
       return state

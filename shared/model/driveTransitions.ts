@@ -15,6 +15,7 @@ type DriveSnapshot = SnapshotFrom<typeof driveMachine>
 /** One distinct drive state (by content): the first object seen with it and its known transitions. */
 interface DriveNode {
   canonical: DrivePlain
+  json: string
   /** By event code: the next state's node, or UNCHANGED when the event leaves the state as it is. */
   next: (DriveNode | typeof UNCHANGED | undefined)[]
 }
@@ -44,7 +45,7 @@ function nodeFor(plain: DrivePlain): DriveNode {
     node = nodeByJson.get(json)
     if (node === undefined) {
       if (nodeByJson.size >= NODE_LIMIT) nodeByJson.clear()
-      node = { canonical: plain, next: [] }
+      node = { canonical: plain, json, next: [] }
       nodeByJson.set(json, node)
     }
     nodeOf.set(plain, node)
@@ -73,7 +74,12 @@ function eventCode(event: DriveEvent): number {
     case 'SIGNALS': {
       const s = event.signals
       return (
-        +s.run | (+s.start << 1) | (+s.stop << 2) | (+s.reverse << 3) | (+s.faultReset << 4) | (+s.externalFault << 5)
+        +s.run |
+        (+s.start << 1) |
+        (+s.stop << 2) |
+        (+s.reverse << 3) |
+        (+s.faultReset << 4) |
+        (+s.externalFault << 5)
       )
     }
     case 'POWER_OFF':
@@ -121,7 +127,8 @@ export function sendDrive(plain: DrivePlain, event: DriveEvent): DrivePlain {
     machineSteps++
     const [snapshot] = transition(driveMachine, snapshotFor(plain), event)
     const target = nodeFor(toPlain(snapshot))
-    next = target === node ? UNCHANGED : target
+    // By content: after the table starts afresh, an equal state may have a second node.
+    next = target === node || target.json === node.json ? UNCHANGED : target
     node.next[code] = next
   }
   return next === UNCHANGED ? plain : next.canonical

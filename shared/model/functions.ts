@@ -4,30 +4,51 @@ import { inputFunctionKey, type InputFunction, type SettingValues } from './sett
 import type { DriveConfig, DriveSignals } from './types'
 
 const functionsCache = new WeakMap<SettingValues, InputFunction[]>()
+let lastFunctionsOf: SettingValues | null = null
+let lastFunctions: InputFunction[] = []
 
 /** Function of DI1..DI6 (cached per settings object: settings are replaced, never mutated). */
 export function inputFunctions(settings: SettingValues): InputFunction[] {
+  if (settings === lastFunctionsOf) return lastFunctions
   let fns = functionsCache.get(settings)
   if (!fns) {
     fns = DIGITAL_INPUT_NUMBERS.map((n) => settings[inputFunctionKey(n)] as InputFunction)
     functionsCache.set(settings, fns)
   }
+  lastFunctionsOf = settings
+  lastFunctions = fns
   return fns
 }
 
-const levelsCache = new WeakMap<
-  readonly boolean[],
-  { settings: SettingValues; levels: Record<InputFunction, boolean> }
->()
+type Levels = Record<InputFunction, boolean>
+/** Levels by the ON/OFF pattern of DI1..DI6 (a 6-bit mask), per input-function list. */
+const levelsTables = new WeakMap<InputFunction[], Levels[]>()
 
-/** ON if any input with that function is ON (cached per inputs array and settings object). */
-export function functionLevels(
-  settings: SettingValues,
-  inputs: readonly boolean[],
-): Record<InputFunction, boolean> {
-  const cached = levelsCache.get(inputs)
-  if (cached && cached.settings === settings) return cached.levels
-  const levels: Record<InputFunction, boolean> = {
+let lastInputs: readonly boolean[] | null = null
+let lastSettings: SettingValues | null = null
+let lastLevels: Levels | null = null
+
+/** ON if any input with that function is ON (one shared object per function list and input pattern). */
+export function functionLevels(settings: SettingValues, inputs: readonly boolean[]): Levels {
+  // Settling asks several times in a row for the same inputs: answer those without any lookup.
+  if (inputs === lastInputs && settings === lastSettings) return lastLevels!
+  const fns = inputFunctions(settings)
+  let mask = 0
+  for (let i = 0; i < fns.length; i++) if (inputs[i]) mask |= 1 << i
+  let table = levelsTables.get(fns)
+  if (!table) {
+    table = []
+    levelsTables.set(fns, table)
+  }
+  const levels = (table[mask] ??= levelsFor(fns, inputs))
+  lastInputs = inputs
+  lastSettings = settings
+  lastLevels = levels
+  return levels
+}
+
+function levelsFor(fns: InputFunction[], inputs: readonly boolean[]): Levels {
+  const levels: Levels = {
     none: false,
     run: false,
     start: false,
@@ -39,9 +60,7 @@ export function functionLevels(
     externalFault: false,
     preset: false,
   }
-  const fns = inputFunctions(settings)
   for (let i = 0; i < fns.length; i++) if (inputs[i]) levels[fns[i]] = true
-  levelsCache.set(inputs, { settings, levels })
   return levels
 }
 

@@ -75,7 +75,8 @@ export function planSpeedInto(
   out.targetSlope = targetSlope
   if (plan === 'stopped') return setPiece(out, 'still', 0, 0)
   let hz = Math.abs(hzNow) <= SNAP_HZ ? 0 : hzNow
-  if (plan === 'coasting') return isAtStandstill(hz) ? setPiece(out, 'still', 0, 0) : setPiece(out, 'coast', hz, 0)
+  if (plan === 'coasting')
+    return isAtStandstill(hz) ? setPiece(out, 'still', 0, 0) : setPiece(out, 'coast', hz, 0)
   if (Math.abs(hz - targetHz) <= SNAP_HZ) hz = targetHz
   if (hz === targetHz) {
     if (targetSlope === 0) return setPiece(out, hz === 0 ? 'still' : 'track', hz, 0)

@@ -1,7 +1,7 @@
 // Settling the model at one instant: circuit → inputs → drive machine → continuous pieces → machine,
 // repeated until nothing changes. Works on a private shallow copy of the state (one per step).
-import { circuitConfig, circuitKeys } from './circuit/config'
-import { solveForDrive } from './circuit/controlCircuit'
+import { circuitConfig, positionsKey, structureKey } from './circuit/config'
+import { cachedDriveSummary, solveForDrive } from './circuit/controlCircuit'
 import { nextInputState } from './circuit/inputThresholds'
 import { copyState } from './copyState'
 import { NO_SIGNALS, type DriveEvent } from './driveMachine'
@@ -78,19 +78,23 @@ function refreshCircuit(draft: SimState): void {
   ) {
     return
   }
-  const sources: CircuitSources = {
-    wires: draft.wires,
-    brokenWires: draft.brokenWires,
-    devices: draft.devices,
-    settings: draft.settings.active,
-    fuseBlown: draft.fuseBlown,
-    controlOn,
-    relay,
+  const positions = positionsKey(draft)
+  const summary =
+    cachedDriveSummary(structureKey(draft, controlOn, relay), positions) ??
+    solveForDrive(circuitConfig(draft, controlOn, relay), positions, relay)
+  // One record per summary, overwritten in place (no allocation per refresh).
+  let sources = sourcesOf.get(summary.circuit)
+  if (sources === undefined) {
+    sources = { wires: draft.wires, brokenWires: draft.brokenWires, devices: draft.devices } as CircuitSources
+    sourcesOf.set(summary.circuit, sources)
   }
-  const summary = solveForDrive(circuitKeys(draft, controlOn, relay), relay, () =>
-    circuitConfig(draft, controlOn, relay),
-  )
-  sourcesOf.set(summary.circuit, sources)
+  sources.wires = draft.wires
+  sources.brokenWires = draft.brokenWires
+  sources.devices = draft.devices
+  sources.settings = draft.settings.active
+  sources.fuseBlown = draft.fuseBlown
+  sources.controlOn = controlOn
+  sources.relay = relay
   if (summary.circuit === draft.circuit) return
   let inputs = draft.inputs
   for (let i = 0; i < summary.regions.length; i++) {
@@ -306,10 +310,10 @@ export function settle(
   const draft: SimState = owned ? input : copyState(input)
   applyMemories(before, draft, now)
   for (let round = 0; round < 32; round++) {
-    // A round that changes neither the drive (by content: sendDrive keeps the object when nothing
-    // changes) nor the circuit configuration is the fixed point.
+    // A round that leaves the drive as it was (sendDrive keeps the object when nothing changes) is the
+    // fixed point: the circuit is refreshed first and everything after it in the round already used it;
+    // another round would find the same relay state, inputs and signals, and replan the same pieces.
     let driveChanged = false
-    const startKey = draft.circuit.key
     refreshCircuit(draft)
     const a = draft.settings.active
     const levels = functionLevels(a, draft.inputs)
@@ -320,7 +324,8 @@ export function settle(
       driveChanged = send(draft, { type: 'SIGNALS', signals }, now) || driveChanged
     }
     if (draft.bus.controlOn && draft.circuit.supplyOverloaded !== draft.drive.context.causes.supplyOverload) {
-      driveChanged = send(draft, { type: 'SUPPLY', overloaded: draft.circuit.supplyOverloaded }, now) || driveChanged
+      driveChanged =
+        send(draft, { type: 'SUPPLY', overloaded: draft.circuit.supplyOverloaded }, now) || driveChanged
     }
     const alarmsPresent = alarmsFor(a, draft.circuit.referenceOverloaded).length > 0
     if (alarmsPresent !== (draft.drive.value.alarm === 'present')) {
@@ -332,7 +337,7 @@ export function settle(
       driveChanged = send(draft, follow, now) || driveChanged
       replan(draft, now, levels)
     }
-    if (!driveChanged && draft.circuit.key === startKey) return draft
+    if (!driveChanged) return draft
   }
   return draft
 }

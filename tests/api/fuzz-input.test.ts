@@ -282,9 +282,10 @@ describe('bad input on every route', () => {
 
   it('answers malformed path ids with 400 or 404, never 500', async () => {
     const segment = fc.oneof(
-      fc.string({ minLength: 1, maxLength: 60 }),
+      // Dot-only segments are resolved away by URL normalisation (they name another route, not a bad id).
+      fc.string({ minLength: 1, maxLength: 60 }).filter((x) => !/^\.+$/.test(x)),
       fc.uuid().map((u) => u.toUpperCase()),
-      fc.constantFrom('%', '%zz', '..', '%2e%2e', 'null', '0', "1' OR '1'='1", 'a'.repeat(500)),
+      fc.constantFrom('%', '%zz', '%2e%2e', 'null', '0', "1' OR '1'='1", 'a'.repeat(500)),
     )
     const template = fc.constantFrom(
       (s: string) => `/api/cohorts/${s}`,
@@ -297,7 +298,10 @@ describe('bad input on every route', () => {
     )
     await fc.assert(
       fc.asyncProperty(template, segment, async (path, raw) => {
-        const url = path(raw.includes('%') ? raw : encodeURIComponent(raw))
+        // Raw percent signs test bad escapes; ?, # and / would end the path, so they stay encoded.
+        const url = path(
+          raw.includes('%') ? raw.replace(/[?#/]/g, encodeURIComponent) : encodeURIComponent(raw),
+        )
         const response = await supertest(api.app).get(url).set(bearer(world.admin.token))
         expectClearClientError(response, url)
       }),

@@ -12,12 +12,19 @@ interface PointLayout {
   terminals: Record<string, Record<string, number>>
   /** Short id of the device layout, so memo keys of different layouts never collide. */
   layoutId: number
+  /** This layout's distinct wirings, bucketed by a hash of their codes. */
+  wirings: Map<number, WiringPart[]>
 }
 const layoutCache = new WeakMap<readonly string[], PointLayout>()
 const layoutIds = new Map<string, number>()
 
 /** Points of the control network for a simulation's devices (cached per device list). */
+let lastOrder: readonly string[] | null = null
+let lastLayout: PointLayout | null = null
+
 export function pointsOf(state: SimState): PointLayout {
+  // The same device list as last time (nearly always): skip the WeakMap.
+  if (state.deviceOrder === lastOrder) return lastLayout!
   let entry = layoutCache.get(state.deviceOrder)
   if (!entry) {
     const specs = state.deviceOrder.map((id) => state.devices[id].spec)
@@ -35,9 +42,11 @@ export function pointsOf(state: SimState): PointLayout {
         DEVICE_TERMINALS[spec.kind].map((t) => [t, index.get(`${spec.id}.${t}`)!]),
       )
     }
-    entry = { points, index, terminals, layoutId }
+    entry = { points, index, terminals, layoutId, wirings: wiringsByLayout(layoutId) }
     layoutCache.set(state.deviceOrder, entry)
   }
+  lastOrder = state.deviceOrder
+  lastLayout = entry
   return entry
 }
 
@@ -54,25 +63,99 @@ export function contactClosed(device: DeviceState): boolean {
 interface WiringPart {
   wires: [number, number][]
   key: string
+  /** Each wire as one number (lower end × point count + upper end), sorted: the part's identity. */
+  codes: number[]
 }
-const wiringCache = new WeakMap<SimState['wires'], { broken: SimState['brokenWires']; part: WiringPart }>()
+const wiringCache = new WeakMap<
+  SimState['wires'],
+  { broken: SimState['brokenWires']; layout: PointLayout; part: WiringPart }
+>()
+/**
+ * One part per distinct wiring of a layout (so a circuit rewired back finds its memos again). Per
+ * layout: the same point indices mean different terminals on another panel.
+ */
+const wiringsOfLayout = new Map<number, Map<number, WiringPart[]>>()
+const WIRING_LIMIT = 4096
 
-function wiringPart(state: SimState, index: Map<PointId, number>): WiringPart {
+function wiringsByLayout(layoutId: number): Map<number, WiringPart[]> {
+  let wirings = wiringsOfLayout.get(layoutId)
+  if (!wirings) {
+    wirings = new Map()
+    wiringsOfLayout.set(layoutId, wirings)
+  }
+  return wirings
+}
+
+let lastWiringLayout: PointLayout | null = null
+let lastWires: SimState['wires'] | null = null
+let lastBroken: SimState['brokenWires'] | null = null
+let lastWiring: WiringPart | null = null
+
+function wiringPart(state: SimState, layout: PointLayout): WiringPart {
+  if (state.wires === lastWires && state.brokenWires === lastBroken && layout === lastWiringLayout)
+    return lastWiring!
+  const part = wiringPartUncached(state, layout)
+  lastWiringLayout = layout
+  lastWires = state.wires
+  lastBroken = state.brokenWires
+  lastWiring = part
+  return part
+}
+
+function wiringPartUncached(state: SimState, layout: PointLayout): WiringPart {
+  const { index, wirings } = layout
   const cached = wiringCache.get(state.wires)
-  if (cached && cached.broken === state.brokenWires) return cached.part
-  const wires: [number, number][] = []
+  if (cached && cached.broken === state.brokenWires && cached.layout === layout) return cached.part
+  const pointCount = index.size
+  const codes: number[] = []
   for (const wire of state.wires) {
     if (state.brokenWires.length > 0 && state.brokenWires.includes(wire.id)) continue
     const a = index.get(wire.from)
     const b = index.get(wire.to)
     if (a === undefined || b === undefined) continue
-    wires.push(a < b ? [a, b] : [b, a])
+    codes.push(a < b ? a * pointCount + b : b * pointCount + a)
   }
-  // Nets do not depend on the order or direction of wires: a canonical key lets rewired-back circuits share memos.
-  wires.sort((x, y) => x[0] - y[0] || x[1] - y[1])
-  const part = { wires, key: wires.map(([a, b]) => `${a}-${b}`).join(',') }
-  wiringCache.set(state.wires, { broken: state.brokenWires, part })
+  // Nets do not depend on the order or direction of wires: sorted codes make a canonical identity.
+  sortNumbers(codes)
+  let hash = codes.length
+  for (let i = 0; i < codes.length; i++) hash = (Math.imul(hash, 31) + codes[i]) | 0
+  let bucket = wirings.get(hash)
+  let part = bucket?.find((p) => sameCodes(p.codes, codes))
+  if (part === undefined) {
+    const wires = codes.map((c): [number, number] => [Math.floor(c / pointCount), c % pointCount])
+    part = { wires, key: wires.map(([a, b]) => `${a}-${b}`).join(','), codes }
+    if (wirings.size >= WIRING_LIMIT) wirings.clear()
+    if (!bucket) {
+      bucket = []
+      wirings.set(hash, bucket)
+    }
+    bucket.push(part)
+  }
+  wiringCache.set(state.wires, { broken: state.brokenWires, layout, part })
   return part
+}
+
+/** Ascending, in place; insertion sort for the few wires of a panel (Array#sort allocates work space). */
+function sortNumbers(values: number[]): void {
+  if (values.length > 64) {
+    values.sort((x, y) => x - y)
+    return
+  }
+  for (let i = 1; i < values.length; i++) {
+    const value = values[i]
+    let j = i - 1
+    while (j >= 0 && values[j] > value) {
+      values[j + 1] = values[j]
+      j--
+    }
+    values[j + 1] = value
+  }
+}
+
+function sameCodes(x: number[], y: number[]): boolean {
+  if (x.length !== y.length) return false
+  for (let i = 0; i < x.length; i++) if (x[i] !== y[i]) return false
+  return true
 }
 
 interface DevicePart {
@@ -125,38 +208,74 @@ function deviceKeys(state: SimState): DeviceKeys {
 }
 
 /** Full structure keys, interned per wiring so that equal keys are the same string (hash cached). */
-const structureKeys = new WeakMap<WiringPart, Map<string, string>>()
+const structureKeys = new WeakMap<WiringPart, Map<number | string, string>>()
 
-export interface CircuitKeys {
-  /** Wiring, contacts, sources, logic, relay: everything but potentiometer positions. */
-  structure: string
-  positions: string
-}
+/** Contact devices past this many do not fit a small-integer code: their keys fall back to strings. */
+const MAX_CODED_CONTACTS = 26
 
-export function circuitKeys(state: SimState, controlOn: boolean, relayClosed: boolean): CircuitKeys {
-  const { index, layoutId } = pointsOf(state)
-  const wiring = wiringPart(state, index)
-  const devices = deviceKeys(state)
-  const logic = state.settings.active['inputs.logic']
+/**
+ * Wiring, contacts, sources, logic, relay — everything but potentiometer positions — as one interned
+ * string. The lookup goes by a small integer code (no string is built unless the structure is new).
+ */
+export function structureKey(state: SimState, controlOn: boolean, relayClosed: boolean): string {
+  const layout = pointsOf(state)
+  const wiring = wiringPart(state, layout)
   const supplyEnabled = controlOn && !state.fuseBlown
-  const local = `${logic === 'sink' ? 'k' : 'o'}${supplyEnabled ? 1 : 0}${controlOn ? 1 : 0}${relayClosed ? 1 : 0}${devices.structure}`
+  const sink = state.settings.active['inputs.logic'] === 'sink'
+  let code: number | string = (+sink | (+supplyEnabled << 1) | (+controlOn << 2) | (+relayClosed << 3)) + 16
+  let contacts = 0
+  for (const id of state.deviceOrder) {
+    const device = state.devices[id]
+    if (device.spec.kind === 'potentiometer') continue
+    if (contacts++ >= MAX_CODED_CONTACTS) {
+      code = ''
+      break
+    }
+    // A 1 marks each contact device (so different device counts never share a code), then its state.
+    code = (code as number) * 2 + (contactClosed(device) ? 1 : 0)
+  }
   let byLocal = structureKeys.get(wiring)
   if (!byLocal) {
     byLocal = new Map()
     structureKeys.set(wiring, byLocal)
   }
-  let structure = byLocal.get(local)
+  if (code === '') code = localPart(state, controlOn, relayClosed)
+  let structure = byLocal.get(code)
   if (structure === undefined) {
-    structure = `${layoutId}|${wiring.key}|${local}`
-    byLocal.set(local, structure)
+    structure = `${layout.layoutId}|${wiring.key}|${localPart(state, controlOn, relayClosed)}`
+    byLocal.set(code, structure)
   }
-  return { structure, positions: devices.positions }
+  return structure
+}
+
+function localPart(state: SimState, controlOn: boolean, relayClosed: boolean): string {
+  const logic = state.settings.active['inputs.logic']
+  const supplyEnabled = controlOn && !state.fuseBlown
+  return `${logic === 'sink' ? 'k' : 'o'}${supplyEnabled ? 1 : 0}${controlOn ? 1 : 0}${relayClosed ? 1 : 0}${deviceKeys(state).structure}`
+}
+
+/**
+ * Potentiometer positions as a memo key: the position itself for one potentiometer (no string built),
+ * else the positions joined as in the configuration key.
+ */
+export function positionsKey(state: SimState): number | string {
+  let single: number | undefined
+  let count = 0
+  for (const id of state.deviceOrder) {
+    const device = state.devices[id]
+    if (device.spec.kind !== 'potentiometer') continue
+    if (count++ === 0) single = device.position
+  }
+  if (count === 0) return ''
+  if (count === 1) return single!
+  return deviceKeys(state).positions
 }
 
 export function circuitConfig(state: SimState, controlOn: boolean, relayClosed: boolean): CircuitConfig {
-  const { points, index, terminals } = pointsOf(state)
-  const keys = circuitKeys(state, controlOn, relayClosed)
-  const wiring = wiringPart(state, index)
+  const layout = pointsOf(state)
+  const { points, index, terminals } = layout
+  const structure = structureKey(state, controlOn, relayClosed)
+  const wiring = wiringPart(state, layout)
   const devices = devicePart(state, terminals)
   const closedContacts = relayClosed
     ? [...devices.closedContacts, [index.get('drive.k1a')!, index.get('drive.k1b')!] as [number, number]]
@@ -171,7 +290,7 @@ export function circuitConfig(state: SimState, controlOn: boolean, relayClosed: 
     logic: state.settings.active['inputs.logic'],
     supplyEnabled: controlOn && !state.fuseBlown,
     referenceEnabled: controlOn,
-    key: `${keys.structure}#${keys.positions}`,
-    structureKey: keys.structure,
+    key: `${structure}#${deviceKeys(state).positions}`,
+    structureKey: structure,
   }
 }

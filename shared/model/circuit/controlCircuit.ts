@@ -3,7 +3,6 @@
 // meet only at 0 V, and each part is solved on its own and memoised by its own description — so a
 // potentiometer turned on the analog input does not re-solve the digital inputs, and vice versa.
 import { DIGITAL_INPUT_NUMBERS, type PointId } from '../points'
-import type { CircuitKeys } from './config'
 import { inputRegion, type InputRegion } from './inputThresholds'
 import { solveNodal, type ResistiveNetwork } from './nodal'
 import { UnionFind } from './unionFind'
@@ -387,7 +386,7 @@ interface Structure {
   /** Where the analog input's net is solved: part index and position in it (or -1: at 0 V). */
   analogPart: number
   analogAt: number
-  summaries: Map<string, DriveCircuitSummary>
+  summaries: Map<number | string, DriveCircuitSummary>
 }
 
 const structureMemo = new Map<string, Structure>()
@@ -475,25 +474,24 @@ export interface DriveCircuitSummary {
 
 const NO_INPUT: InputSolution = { volts: 0, milliamps: 0 }
 
-/**
- * The network as the drive sees it, memoised per structure and wiper positions. `build` makes the
- * full configuration and is only called on a miss.
- */
+/** The memoised summary for a structure key and potentiometer positions key, if solved before. */
+export function cachedDriveSummary(
+  structureKey: string,
+  positionsKey: number | string,
+): DriveCircuitSummary | undefined {
+  return structureMemo.get(structureKey)?.summaries.get(positionsKey)
+}
+
+/** The network as the drive sees it, solved (parts memoised) and kept per structure and wiper positions. */
 export function solveForDrive(
-  keys: CircuitKeys,
+  config: CircuitConfig,
+  positionsKey: number | string,
   relayClosed: boolean,
-  build: () => CircuitConfig,
 ): DriveCircuitSummary {
-  let structure = structureMemo.get(keys.structure)
-  let config: CircuitConfig | undefined
-  if (!structure) {
-    config = build()
-    structure = structureOf(config)
-  }
+  const structure = structureOf(config)
   const summaries = structure.summaries
-  const hit = summaries.get(keys.positions)
+  const hit = summaries.get(positionsKey)
   if (hit) return hit
-  config ??= build()
   const inputs: InputSolution[] = [NO_INPUT, NO_INPUT, NO_INPUT, NO_INPUT, NO_INPUT, NO_INPUT]
   let supplyOverloaded = structure.supplyShorted
   let referenceOverloaded = structure.referenceShorted
@@ -515,7 +513,7 @@ export function solveForDrive(
     circuit: { key: config.key, analogVolts, supplyOverloaded, referenceOverloaded, relayClosed },
   }
   if (summaries.size >= MEMO_LIMIT) summaries.clear()
-  summaries.set(keys.positions, summary)
+  summaries.set(positionsKey, summary)
   return summary
 }
 

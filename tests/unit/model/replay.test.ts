@@ -10,6 +10,8 @@ import {
   sampleTimeline,
   type AttemptEvent,
 } from '../../../shared/model/index'
+import { clearCircuitMemo } from '../../../shared/model/circuit/controlCircuit'
+import { clearDriveMemo } from '../../../shared/model/driveTransitions'
 import { mixedLog, benchSetup } from '../../bench/model.bench'
 import { raiseLowerSetup } from './fixtures'
 
@@ -25,6 +27,21 @@ const commissioning: AttemptEvent[] = [
 ]
 
 describe('replay', () => {
+  // Memos (circuit solutions, drive transitions) live outside the state and must never change results:
+  // the same log gives the same JSON whatever was replayed before, and with every memo cleared.
+  it('gives identical JSON whether the memos are cold or warmed by other logs and other panels', () => {
+    // These two logs told cold from warm before drive-state identity stopped depending on the memo.
+    const log = mixedLog(3000, 60_000, 2)
+    clearCircuitMemo()
+    clearDriveMemo()
+    const cold = JSON.stringify(replay(benchSetup, log))
+    clearCircuitMemo()
+    clearDriveMemo()
+    replay(raiseLowerSetup(), commissioning)
+    replay(benchSetup, mixedLog(3000, 3_600_000, 1))
+    expect(JSON.stringify(replay(benchSetup, log))).toBe(cold)
+  })
+
   it('gives identical JSON for the same log replayed twice', () => {
     const a = JSON.stringify(replay(raiseLowerSetup(), commissioning))
     const b = JSON.stringify(replay(raiseLowerSetup(), commissioning))

@@ -205,15 +205,14 @@ describe('checkScenario rejects bad files', () => {
     ])
   })
 
-  it('rejects re-proving the meter after the dead test, which the simulator cannot offer yet', () => {
+  it('accepts re-proving the meter after the dead test (the bench has a proving unit)', () => {
     const problems = problemsOf(
       variant((s) => {
         const o = s.objectives.find((x) => x.kind === 'absenceOfVoltageProved')!
         if (o.kind === 'absenceOfVoltageProved') o.proveMeterAfter = true
       }),
     )
-    expect(problems).toHaveLength(1)
-    expect(problems[0].path).toMatch(/^\$\.objectives\[\d+\]\.proveMeterAfter$/)
+    expect(problems).toEqual([])
   })
 
   it('rejects duplicate ids', () => {

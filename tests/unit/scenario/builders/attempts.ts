@@ -26,8 +26,20 @@ const safeIsolation: AttemptScript[] = [
     scenario: 'safe-isolation',
     name: 'reference',
     description:
-      'Meter proved on the live line, switched off, locked, waited for the bus, proved every pair dead.',
+      'Live–dead–live: meter proved on the proving unit, switched off, locked, waited for the bus, proved every pair dead, meter proved on the proving unit again.',
     misses: [],
+    build: (b) => {
+      b.wait(3000)
+      isolateAndProve(b, { liveDeadLive: true })
+      b.wait(5000)
+    },
+  },
+  {
+    scenario: 'safe-isolation',
+    name: 'mistake-meter-not-reproved',
+    description:
+      'Proved the meter on the live line first and every pair dead, but never re-proved the meter afterwards (dead–live only).',
+    misses: ['proved-dead'],
     build: (b) => {
       b.wait(3000)
       isolateAndProve(b, { proveMeter: true })
@@ -41,21 +53,25 @@ const safeIsolation: AttemptScript[] = [
       'Measured the DC bus seconds after switching off (still ~500 V), moved on to the lines and never re-measured it.',
     misses: ['proved-dead'],
     build: (b) => {
-      b.wait(3000).probe('drive.l1', 'drive.l2').wait(2000).powerOff().wait(1000).lock().wait(1000)
+      b.wait(3000).probe('prover.pos', 'prover.neg').wait(2000).powerOff().wait(1000).lock().wait(1000)
       b.probe('drive.dcp', 'drive.dcn').wait(3000)
       b.probe('drive.l1', 'drive.l2').wait(2000).probe('drive.l2', 'drive.l3').wait(2000)
-      b.probe('drive.l1', 'drive.l3').wait(2000).probe(null, null)
+      b.probe('drive.l1', 'drive.l3')
+        .wait(2000)
+        .probe('prover.pos', 'prover.neg')
+        .wait(2000)
+        .probe(null, null)
       b.waitUntil((d) => d.busVolts < 40, 'the bus discharging', 1000).wait(5000)
     },
   },
   {
     scenario: 'safe-isolation',
     name: 'mistake-no-lock',
-    description: 'Switched off and proved dead properly but never applied a lock.',
+    description: 'Switched off and proved dead properly (live–dead–live) but never applied a lock.',
     misses: ['isolated'],
     build: (b) => {
       b.wait(3000)
-      isolateAndProve(b, { proveMeter: true, lock: false })
+      isolateAndProve(b, { liveDeadLive: true, lock: false })
       b.wait(5000)
     },
   },

@@ -11,6 +11,11 @@ export const LINE_AND_BUS_PAIRS: [string, string][] = [
 export interface IsolationOptions {
   /** Prove the meter on the live supply first (NFPA 70E 120.5(7) live-dead-live, first half). */
   proveMeter?: boolean
+  /**
+   * Live–dead–live on the bench's proving unit (NFPA 70E 120.5(7)): prove the meter on it before
+   * switching off and again after the dead test.
+   */
+  liveDeadLive?: boolean
   /** Apply a lock after switching off (the typical mistake is to skip it). */
   lock?: boolean
   /** Measure every pair after the bus has discharged (the typical mistake is to skip it). */
@@ -19,7 +24,8 @@ export interface IsolationOptions {
 
 /** Switch off, lock, wait for the DC bus to fall below 40 V with the probes on it, test each pair. */
 export function isolateAndProve(b: LogBuilder, options: IsolationOptions = {}): LogBuilder {
-  const { proveMeter = false, lock = true, proveDead = true } = options
+  const { proveMeter = false, liveDeadLive = false, lock = true, proveDead = true } = options
+  if (liveDeadLive) b.probe('prover.pos', 'prover.neg').wait(2000)
   if (b.drive.lineOn) {
     if (proveMeter) b.probe('drive.l1', 'drive.l2').wait(2000)
     b.powerOff().wait(1000)
@@ -30,6 +36,7 @@ export function isolateAndProve(b: LogBuilder, options: IsolationOptions = {}): 
   if (proveDead) {
     for (const [red, black] of LINE_AND_BUS_PAIRS.slice(0, 3)) b.probe(red, black).wait(2000)
   }
+  if (liveDeadLive) b.probe('prover.pos', 'prover.neg').wait(2000)
   return b.probe(null, null).wait(1000)
 }
 
