@@ -64,6 +64,11 @@ export const AttemptEntity = new EntitySchema<AttemptRow>({
   indices: [
     { name: 'idx_attempts_user', columns: ['userId'] },
     { name: 'idx_attempts_assignment', columns: ['assignmentId'] },
+    // Covers the gradebook's summary query (migration 1764800000000); keep the column order in step.
+    {
+      name: 'idx_attempts_gradebook',
+      columns: ['assignmentId', 'userId', 'status', 'score', 'passed', 'updatedAt', 'submittedAt', 'id'],
+    },
   ],
   relations: {
     user: belongsTo('User', 'userId', 'CASCADE'),

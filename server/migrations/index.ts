@@ -1,5 +1,10 @@
 // Migrations in order, listed explicitly (no glob: bundlers and tsx need static imports).
 import { InitialSchema1764600000000 } from './1764600000000-initial-schema'
 import { SharedRateLimits1764700000000 } from './1764700000000-shared-rate-limits'
+import { GradebookCoveringIndex1764800000000 } from './1764800000000-gradebook-covering-index'
 
-export const migrations = [InitialSchema1764600000000, SharedRateLimits1764700000000]
+export const migrations = [
+  InitialSchema1764600000000,
+  SharedRateLimits1764700000000,
+  GradebookCoveringIndex1764800000000,
+]

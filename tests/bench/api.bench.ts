@@ -8,7 +8,7 @@ import { join } from 'node:path'
 import { pathToFileURL } from 'node:url'
 import autocannon from 'autocannon'
 import { BENCH_PASSWORD, bulkSeed, fixtureLog, ISSUE_SHAPE, paddedLog } from './bulk-seed'
-import { startBareExpress, startSlipway } from './server-process'
+import { startBareExpress, startSlipway } from '../support/server-process'
 import { formatTable, type BenchRow } from './table'
 
 export interface LoadFigures {

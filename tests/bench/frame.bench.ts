@@ -7,7 +7,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { pathToFileURL } from 'node:url'
 import type { BrowserContext, Page } from 'playwright-core'
-import { startSlipway } from './server-process'
+import { startSlipway } from '../support/server-process'
 import { formatTable, type BenchRow } from './table'
 
 const FRAMES = 600

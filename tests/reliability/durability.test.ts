@@ -10,7 +10,7 @@ import type { AttemptEvent } from '../../shared/model/events'
 import { createDataSource } from '../../server/data-source'
 import { DEMO_ACCOUNTS } from '../../server/services/demo-accounts'
 import { fixtureLog, paddedLog } from '../bench/bulk-seed'
-import { startSlipway, type ServerProcess } from '../bench/server-process'
+import { startSlipway, type ServerProcess } from '../support/server-process'
 
 const TOTAL = 300
 const CLIENTS = 20
@@ -34,7 +34,8 @@ async function signIn(base: string, email: string, password: string) {
     headers: { 'content-type': 'application/json' },
     body: JSON.stringify({ email, password }),
   })
-  expect(response.status).toBe(200)
+  if (response.status !== 200)
+    throw new Error(`sign-in ${email}: ${response.status} ${await response.text()}`)
   return ((await response.json()) as { accessToken: string }).accessToken
 }
 
@@ -55,7 +56,8 @@ describe('durability when the server is killed mid-way through submissions', () 
   let failedInFlight = 0
 
   beforeAll(async () => {
-    server = await startSlipway(dataDir)
+    // A fresh data folder: the first start migrates and seeds the demo centre (argon2id at full cost).
+    server = await startSlipway(dataDir, { timeoutMs: 110_000 })
     const apprentices = DEMO_ACCOUNTS.filter((a) => a.role === 'apprentice').slice(0, 4)
     const tokens = await Promise.all(apprentices.map((a) => signIn(server!.url, a.email, a.password)))
     const scenarios = (await (
@@ -94,7 +96,7 @@ describe('durability when the server is killed mid-way through submissions', () 
     }
     await Promise.all(Array.from({ length: CLIENTS }, client))
     await killed
-    server = await startSlipway(dataDir)
+    server = await startSlipway(dataDir, { timeoutMs: 110_000 })
   })
 
   afterAll(async () => {

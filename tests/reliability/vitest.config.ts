@@ -12,7 +12,7 @@ export default defineConfig({
     // The durability test, and the bad-input properties again with many more generated cases.
     include: ['tests/reliability/**/*.test.ts', 'tests/api/fuzz-*.test.ts'],
     testTimeout: 240_000,
-    hookTimeout: 120_000,
+    hookTimeout: 300_000,
     env: { FUZZ_RUNS: process.env.FUZZ_RUNS ?? '150' },
     // Each file starts servers of its own; two cores are shared.
     fileParallelism: false,

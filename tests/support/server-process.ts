@@ -1,20 +1,26 @@
-// Runs the real server (server/index.ts) as a child process on a free loopback port, as an operator would,
-// and stops it with SIGTERM; for tests that need several independent API instances.
+// Runs the real server (or the bare Express baseline) as a child process on a free loopback port and
+// stops it by its own PID. Shared by the browser tests, the benchmarks, the durability soak and the
+// two-instance test.
 import { spawn, type ChildProcess } from 'node:child_process'
 import { createServer } from 'node:net'
 import { fileURLToPath } from 'node:url'
 
-const ROOT = fileURLToPath(new URL('../..', import.meta.url))
+export const ROOT = fileURLToPath(new URL('../..', import.meta.url))
+// tsx as a loader inside one node process (its CLI would run the script in a second process):
+// the PID is the server's own, so SIGTERM and SIGKILL reach it and no orphan is left behind.
+const TSX = ['--import', 'tsx']
 
 export interface ServerProcess {
-  url: string
+  child: ChildProcess
   port: number
-  /** What the process printed (for failure messages). */
+  url: string
+  /** The last part of what the process printed (for failure messages). */
   output(): string
-  stop(): Promise<void>
+  /** SIGTERM (graceful) or SIGKILL (crash); resolves when the process has gone. */
+  stop(signal?: 'SIGTERM' | 'SIGKILL'): Promise<void>
 }
 
-export function freeLoopbackPort(): Promise<number> {
+export function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
     const probe = createServer()
     probe.once('error', reject)
@@ -25,58 +31,113 @@ export function freeLoopbackPort(): Promise<number> {
   })
 }
 
-async function waitForHealth(url: string, child: ChildProcess, output: () => string, timeoutMs: number) {
+async function waitUntilUp(url: string, child: ChildProcess, output: () => string, timeoutMs: number) {
   const deadline = Date.now() + timeoutMs
   while (Date.now() < deadline) {
     if (child.exitCode !== null) throw new Error(`server exited with ${child.exitCode}:\n${output()}`)
     try {
-      const response = await fetch(`${url}/api/health`)
+      const response = await fetch(url, { signal: AbortSignal.timeout(1000) })
       if (response.ok) return
     } catch {
       // not listening yet
     }
-    await new Promise((r) => setTimeout(r, 200))
+    await new Promise((r) => setTimeout(r, 150))
   }
-  throw new Error(`server at ${url} did not become healthy in ${timeoutMs} ms:\n${output()}`)
+  throw new Error(`server did not answer ${url} within ${timeoutMs} ms:\n${output()}`)
 }
 
-/** `env` is added to a minimal environment (PATH, HOME); the port and loopback host are chosen here. */
+interface LaunchOptions {
+  script: string
+  env: NodeJS.ProcessEnv
+  port: number
+  healthPath: string
+  timeoutMs: number
+}
+
+async function launch({ script, env, port, healthPath, timeoutMs }: LaunchOptions): Promise<ServerProcess> {
+  const child = spawn(process.execPath, [...TSX, script], {
+    cwd: ROOT,
+    env: { TSX_TSCONFIG_PATH: 'tsconfig.node.json', ...env },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  })
+  let log = ''
+  const keep = (chunk: Buffer) => {
+    log = (log + chunk.toString()).slice(-20_000)
+  }
+  child.stdout!.on('data', keep)
+  child.stderr!.on('data', keep)
+  const stop = async (signal: 'SIGTERM' | 'SIGKILL' = 'SIGTERM') => {
+    if (child.exitCode !== null || child.signalCode !== null) return
+    const gone = new Promise<void>((resolve) => child.once('exit', () => resolve()))
+    child.kill(signal)
+    const forced = signal === 'SIGTERM' ? setTimeout(() => child.kill('SIGKILL'), 15_000) : undefined
+    await gone
+    clearTimeout(forced)
+  }
+  const url = `http://127.0.0.1:${port}`
+  const server: ServerProcess = { child, port, url, output: () => log, stop }
+  try {
+    await waitUntilUp(url + healthPath, child, server.output, timeoutMs)
+  } catch (error) {
+    await stop('SIGKILL')
+    throw error
+  }
+  return server
+}
+
+/** The production build (API + built client): NODE_ENV=production, its own DATA_DIR, loopback only. */
+export async function startSlipway(
+  dataDir: string,
+  options: { port?: number; env?: NodeJS.ProcessEnv; timeoutMs?: number } = {},
+): Promise<ServerProcess> {
+  const port = options.port ?? (await freePort())
+  const env = {
+    ...process.env,
+    NODE_ENV: 'production',
+    PORT: String(port),
+    HOST: '127.0.0.1',
+    DATA_DIR: dataDir,
+    PUBLIC_BASE_URL: `http://127.0.0.1:${port}`,
+    LOG_LEVEL: 'warn',
+    ...options.env,
+  }
+  return launch({
+    script: 'server/index.ts',
+    env,
+    port,
+    healthPath: '/api/health',
+    timeoutMs: options.timeoutMs ?? 60_000,
+  })
+}
+
+/**
+ * An API instance as an operator would run one, with only `env` on top of a minimal environment
+ * (PATH, HOME), so nothing from the test runner's own environment leaks in.
+ */
 export async function startServerProcess(
   env: Record<string, string>,
   { timeoutMs = 60_000 } = {},
 ): Promise<ServerProcess> {
-  const port = await freeLoopbackPort()
-  // `node --import tsx` keeps the server in this one process, so SIGTERM reaches it directly.
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
-    cwd: ROOT,
-    env: {
-      PATH: process.env.PATH ?? '/usr/bin:/bin',
-      HOME: process.env.HOME ?? '/tmp',
-      TSX_TSCONFIG_PATH: 'tsconfig.node.json',
-      NODE_ENV: 'test',
-      HOST: '127.0.0.1',
-      API_PORT: String(port),
-      ...env,
-    },
-    stdio: ['ignore', 'pipe', 'pipe'],
+  const port = await freePort()
+  const fullEnv = {
+    PATH: process.env.PATH ?? '/usr/bin:/bin',
+    HOME: process.env.HOME ?? '/tmp',
+    NODE_ENV: 'test',
+    HOST: '127.0.0.1',
+    API_PORT: String(port),
+    ...env,
+  }
+  return launch({ script: 'server/index.ts', env: fullEnv, port, healthPath: '/api/health', timeoutMs })
+}
+
+/** The benchmark baseline: a bare Express 5 app answering `{}`, run the same way. */
+export async function startBareExpress(): Promise<ServerProcess> {
+  const port = await freePort()
+  return launch({
+    script: 'tests/bench/bare-server.ts',
+    env: { ...process.env, PORT: String(port) },
+    port,
+    healthPath: '/',
+    timeoutMs: 30_000,
   })
-  let log = ''
-  child.stdout!.on('data', (chunk: Buffer) => (log += chunk.toString()))
-  child.stderr!.on('data', (chunk: Buffer) => (log += chunk.toString()))
-  const url = `http://127.0.0.1:${port}`
-  const stop = async () => {
-    if (child.exitCode !== null || child.signalCode !== null) return
-    const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()))
-    child.kill('SIGTERM')
-    const forced = setTimeout(() => child.kill('SIGKILL'), 15_000)
-    await exited
-    clearTimeout(forced)
-  }
-  try {
-    await waitForHealth(url, child, () => log, timeoutMs)
-  } catch (error) {
-    await stop()
-    throw error
-  }
-  return { url, port, output: () => log, stop }
 }

@@ -28,6 +28,7 @@ export function ensureChromium(log: (line: string) => void = console.log): strin
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' }
   execFileSync('apt-get', ['update'], { stdio: 'inherit', env })
   execFileSync('apt-get', ['install', '-y', CHROMIUM_PACKAGE], { stdio: 'inherit', env })
-  if (!existsSync(path)) throw new Error(`apt-get installed "${CHROMIUM_PACKAGE}" but ${path} is still missing.`)
+  if (!existsSync(path))
+    throw new Error(`apt-get installed "${CHROMIUM_PACKAGE}" but ${path} is still missing.`)
   return path
 }
