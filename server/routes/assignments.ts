@@ -29,7 +29,7 @@ import { validate } from '../middleware/validate'
 import { assignmentFor, cohortFor, readableCohortIds } from '../services/access'
 import { nowIso } from '../services/clock'
 import { assignmentPublishedMail } from '../services/mail-templates'
-import { attemptsByAssignmentAndUser, standingOf } from '../services/progress'
+import { NOT_STARTED, standingsByAssignmentAndUser } from '../services/progress'
 import { histogram, mean, median } from '../services/stats'
 
 export function assignmentsRouter(ctx: AppContext): Router {
@@ -49,14 +49,15 @@ export function assignmentsRouter(ctx: AppContext): Router {
     })
     const mine =
       viewer.role === 'apprentice'
-        ? await attemptsByAssignmentAndUser(
+        ? await standingsByAssignmentAndUser(
             ds,
             rows.map((r) => r.id),
+            viewer.id,
           )
         : undefined
     return rows.map((row) => {
       const scenario = scenarios.find((s) => s.id === row.scenarioId)!
-      const standing = mine ? standingOf(mine.get(`${row.id}:${viewer.id}`) ?? []) : undefined
+      const standing = mine ? (mine.get(`${row.id}:${viewer.id}`) ?? NOT_STARTED) : undefined
       return {
         id: row.id,
         cohortId: row.cohortId,
@@ -206,8 +207,8 @@ export function assignmentsRouter(ctx: AppContext): Router {
     async (req, res) => {
       const { assignment } = await assignmentFor(ds, currentUser(req), String(req.params.id), 'manage')
       const members = await ds.getRepository(EnrollmentEntity).findBy({ cohortId: assignment.cohortId })
-      const groups = await attemptsByAssignmentAndUser(ds, [assignment.id])
-      const standings = members.map((m) => standingOf(groups.get(`${assignment.id}:${m.userId}`) ?? []))
+      const byMember = await standingsByAssignmentAndUser(ds, [assignment.id])
+      const standings = members.map((m) => byMember.get(`${assignment.id}:${m.userId}`) ?? NOT_STARTED)
       const graded = standings.filter((s) => s.bestScore !== null)
       const best = graded.map((s) => s.bestScore!)
       res.json({

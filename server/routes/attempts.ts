@@ -28,7 +28,7 @@ import { conflict, forbidden } from '../http-error'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
 import { assignmentFor, attemptFor } from '../services/access'
-import { presentAttempts, presentAudit, submitAttempt } from '../services/attempts'
+import { ATTEMPT_SUMMARY_SELECT, presentAttempts, presentAudit, submitAttempt } from '../services/attempts'
 import { nowIso } from '../services/clock'
 import { attemptReviewedMail } from '../services/mail-templates'
 
@@ -72,6 +72,7 @@ export function attemptsRouter(ctx: AppContext): Router {
     }
     const [rows, total] = await ds.getRepository(AttemptEntity).findAndCount({
       where,
+      select: ATTEMPT_SUMMARY_SELECT,
       order: { updatedAt: 'DESC' },
       skip: (q.page - 1) * q.pageSize,
       take: q.pageSize,

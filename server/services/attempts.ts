@@ -24,7 +24,30 @@ import { nowIso } from './clock'
 import { gradeAttempt } from './grading'
 import { attemptReviewedMail } from './mail-templates'
 
-export async function presentAttempts(ctx: AppContext, rows: AttemptRow[]): Promise<AttemptSummary[]> {
+/** An attempt without its event log: everything a summary shows. */
+export type AttemptSummaryRow = Omit<AttemptRow, 'events'>
+
+/** TypeORM `select` for list routes: every column but the event log, which can run to megabytes. */
+export const ATTEMPT_SUMMARY_SELECT = {
+  id: true,
+  userId: true,
+  assignmentId: true,
+  scenarioId: true,
+  status: true,
+  eventCount: true,
+  late: true,
+  startedAt: true,
+  updatedAt: true,
+  submittedAt: true,
+  autoScore: true,
+  autoPassed: true,
+  score: true,
+  passed: true,
+  evidence: true,
+  gradedAt: true,
+} satisfies Record<keyof AttemptSummaryRow, true>
+
+export async function presentAttempts(ctx: AppContext, rows: AttemptSummaryRow[]): Promise<AttemptSummary[]> {
   if (rows.length === 0) return []
   const ds = ctx.dataSource
   const users = await ds.getRepository(UserEntity).find({

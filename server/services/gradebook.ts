@@ -3,7 +3,7 @@ import type { DataSource } from 'typeorm'
 import { In } from 'typeorm'
 import type { GradebookCellStatus, GradebookRow } from '@shared/api/gradebook'
 import { AssignmentEntity, EnrollmentEntity, UserEntity, type CohortRow } from '../entities'
-import { attemptsByAssignmentAndUser, standingOf } from './progress'
+import { NOT_STARTED, standingsByAssignmentAndUser } from './progress'
 
 export interface GradebookFilter {
   sort: 'name' | 'email' | 'lastActivity' | 'average'
@@ -17,17 +17,23 @@ export async function buildGradebook(ds: DataSource, cohort: CohortRow, filter: 
   const assignments = await ds
     .getRepository(AssignmentEntity)
     .find({ where: { cohortId: cohort.id }, order: { dueAt: 'ASC' } })
-  const enrollments = await ds.getRepository(EnrollmentEntity).findBy({ cohortId: cohort.id })
+  const enrollments = await ds
+    .getRepository(EnrollmentEntity)
+    .find({ where: { cohortId: cohort.id }, select: { userId: true } })
+  // Only the columns a row shows: never password hashes or token versions into a report.
   const users = enrollments.length
-    ? await ds.getRepository(UserEntity).findBy({ id: In(enrollments.map((e) => e.userId)) })
+    ? await ds.getRepository(UserEntity).find({
+        where: { id: In(enrollments.map((e) => e.userId)) },
+        select: { id: true, name: true, email: true },
+      })
     : []
-  const groups = await attemptsByAssignmentAndUser(
+  const standings = await standingsByAssignmentAndUser(
     ds,
     assignments.map((a) => a.id),
   )
   let rows: GradebookRow[] = users.map((user) => {
     const cells = assignments.map((assignment) => {
-      const standing = standingOf(groups.get(`${assignment.id}:${user.id}`) ?? [])
+      const standing = standings.get(`${assignment.id}:${user.id}`) ?? NOT_STARTED
       return {
         assignmentId: assignment.id,
         bestScore: standing.bestScore,

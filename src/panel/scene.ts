@@ -6,7 +6,8 @@ import { TERMINAL_RADIUS } from './layout'
 import type { PanelLayout, PointId, ProbeColour, Rect, Vec } from './types'
 import type { PanelView, StatusLamp } from './view'
 import { wireColour } from './wireColours'
-import { pointOnCubic, wireCurve } from './wireCurve'
+import { wireCurve } from './wireCurve'
+import { placeWireLabels, WIRE_LABEL_HEIGHT, WIRE_LABEL_WIDTH } from './wireLabels'
 
 const FONT = 'Atkinson Hyperlegible, DejaVu Sans, sans-serif'
 const MONO = 'DejaVu Sans Mono, monospace'
@@ -359,22 +360,22 @@ export class PanelScene {
     const g = new Graphics()
     this.wires.addChild(g)
     const labels: Text[] = []
-    view.wires.forEach((w, lane) => {
+    const drawn = view.wires.flatMap((w, lane) => {
       const a = this.layout.terminals[w.from]
       const b = this.layout.terminals[w.to]
-      if (!a || !b) return
-      const c = wireCurve(a, b, lane)
-      const colour = wireColour(w.colour)
-      const selected = view.selectedWire === w.id
-      if (selected) this.curve(g, c, 10, C.selected)
-      this.curve(g, c, 6, 0x111111)
-      this.curve(g, c, 4, colour.hex)
-      // Labels sit at different points along each lane so neighbouring wires' labels do not collide.
-      const mid = pointOnCubic(c, 0.3 + (lane % 5) * 0.1)
-      g.roundRect(mid.x - 24, mid.y - 8, 48, 16, 3)
+      return a && b ? [{ wire: w, lane, curve: wireCurve(a, b, lane) }] : []
+    })
+    for (const { wire, curve } of drawn) {
+      if (view.selectedWire === wire.id) this.curve(g, curve, 10, C.selected)
+      this.curve(g, curve, 6, 0x111111)
+      this.curve(g, curve, 4, wireColour(wire.colour).hex)
+    }
+    // Tags are drawn over every wire, each slid along its own curve clear of the others.
+    placeWireLabels(drawn).forEach((at, i) => {
+      g.roundRect(at.x - WIRE_LABEL_WIDTH / 2, at.y - WIRE_LABEL_HEIGHT / 2, WIRE_LABEL_WIDTH, WIRE_LABEL_HEIGHT, 3)
         .fill(0xffffff)
         .stroke({ width: 1, color: 0x333333 })
-      labels.push(text(w.label, { fontSize: 10, fill: 0x111111, fontWeight: 'bold' }, mid.x, mid.y))
+      labels.push(text(drawn[i].wire.label, { fontSize: 10, fill: 0x111111, fontWeight: 'bold' }, at.x, at.y))
     })
     if (view.draftWire) {
       const a = this.layout.terminals[view.draftWire.from]

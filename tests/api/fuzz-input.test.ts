@@ -11,6 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { z } from 'zod'
 import * as contract from '../../shared/api'
 import { createTestApi, bearer, type TestApi } from '../support/api-harness'
+import { snapshotTables } from '../support/test-database'
 import { buildWorld, type World } from '../support/world'
 
 // Quick in `npm test`; `npm run test:soak` runs many more cases (FUZZ_RUNS).
@@ -18,14 +19,8 @@ const RUNS = Number(process.env.FUZZ_RUNS ?? 20)
 
 /** Every row of every table, hashed, plus the files kept under DATA_DIR/uploads. */
 async function fingerprint(api: TestApi): Promise<string> {
-  const tables = (await api.dataSource.query(
-    `SELECT name FROM sqlite_master WHERE type = 'table' AND name NOT LIKE 'sqlite_%' ORDER BY name`,
-  )) as { name: string }[]
   const hash = createHash('sha256')
-  for (const { name } of tables) {
-    hash.update(name)
-    hash.update(JSON.stringify(await api.dataSource.query(`SELECT * FROM "${name}" ORDER BY rowid`)))
-  }
+  hash.update(JSON.stringify(await snapshotTables(api.dataSource)))
   const uploads = join(api.dataDir, 'uploads')
   hash.update(existsSync(uploads) ? readdirSync(uploads).sort().join(',') : '')
   return hash.digest('hex')

@@ -9,7 +9,12 @@ async function choose(page: Page, label: string, query: string) {
   const input = page.getByLabel(label, { exact: true })
   await input.focus()
   await input.fill(query)
-  await page.waitForTimeout(150)
+  // Wait for the filtered list itself, not a fixed delay: the machine running the tests may be busy.
+  const escaped = query.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')
+  await page
+    .getByRole('option', { name: new RegExp(escaped, 'i') })
+    .first()
+    .waitFor({ state: 'visible' })
   await page.keyboard.press('ArrowDown')
   await page.keyboard.press('Enter')
 }
@@ -94,7 +99,7 @@ describe('commissioning raise/lower with the keyboard only', () => {
     await screenshot(page, 'panel-keyboard-02-wired')
 
     await press(page, 'Remove my lock from the disconnect')
-    await press(page, /Supply disconnect, now OFF/)
+    await press(page, /^Disconnect: OFF/)
     await waitForLabel(page, /drive ready/)
 
     // Program with the keypad buttons (same key sequence as by mouse).

@@ -54,7 +54,7 @@ describe('the simulator panel', () => {
     const second = mountPanel()
     await settle()
     expect(second.text()).toContain('Resumed the attempt saved in this browser (1 actions)')
-    expect(second.get('[data-testid="control-lock"]').text()).toContain('Apply lock')
+    expect(second.get('[data-testid="control-lock"]').text()).toContain('Apply my lock')
     expect(JSON.parse(localStorage.getItem(key)!).attemptId).toBe(id)
     second.unmount()
   })
