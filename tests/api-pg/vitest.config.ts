@@ -1,5 +1,5 @@
 // The second API run: every API test file against PostgreSQL (TEST_DATABASE_URL, a fresh database per
-// file), plus the PostgreSQL-only checks here and the two-instance test. Run by scripts/ci-postgres.sh.
+// file), plus the PostgreSQL-only checks here and the two-instance test. Run by tests/api-pg/with-postgres.sh.
 import { fileURLToPath, URL } from 'node:url'
 import { defineConfig } from 'vitest/config'
 

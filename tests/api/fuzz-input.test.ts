@@ -52,7 +52,12 @@ function invalidBodies(schema: Schema) {
   const shaped = keys.length
     ? fc.dictionary(fc.oneof(fc.constantFrom(...keys), fc.string({ maxLength: 8 })), value, { maxKeys: 6 })
     : fc.dictionary(fc.string({ maxLength: 8 }), value, { maxKeys: 4 })
-  return fc.oneof(fc.jsonValue({ maxDepth: 3 }), shaped).filter((body) => !schema.safeParse(body).success)
+  // Judge the body as the server will see it: JSON text turns NaN and ±Infinity into null, which can
+  // make an invalid object valid (e.g. a nullable attempt limit).
+  return fc
+    .oneof(fc.jsonValue({ maxDepth: 3 }), shaped)
+    .map((body) => JSON.parse(JSON.stringify(body)) as unknown)
+    .filter((body) => !schema.safeParse(body).success)
 }
 
 interface BodyRoute {

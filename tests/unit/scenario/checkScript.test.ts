@@ -4,7 +4,7 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join, resolve } from 'node:path'
 import { describe, expect, it } from 'vitest'
-import { checkScenarioFiles } from '../../../scripts/check-scenarios'
+import { checkScenarioFiles } from '../../../server/scripts/check-scenarios'
 
 const root = resolve(import.meta.dirname, '../../..')
 const shipped = (name: string) => join(root, 'scenarios', name)
@@ -54,7 +54,7 @@ describe('scenarios:check', () => {
         join(root, 'node_modules/tsx/dist/cli.mjs'),
         '--tsconfig',
         'tsconfig.node.json',
-        'scripts/check-scenarios.ts',
+        'server/scripts/check-scenarios.ts',
         bad,
       ],
       { cwd: root, encoding: 'utf8' },
@@ -70,7 +70,7 @@ describe('scenarios:check', () => {
         join(root, 'node_modules/tsx/dist/cli.mjs'),
         '--tsconfig',
         'tsconfig.node.json',
-        'scripts/check-scenarios.ts',
+        'server/scripts/check-scenarios.ts',
       ],
       { cwd: root, encoding: 'utf8' },
     )

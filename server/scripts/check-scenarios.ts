@@ -2,7 +2,7 @@
 // prints every problem with its file and JSON path, and exits non-zero when there is any.
 import { readdirSync, readFileSync } from 'node:fs'
 import { basename, join, resolve } from 'node:path'
-import { checkScenario, type ScenarioProblem } from '../shared/scenario'
+import { checkScenario, type ScenarioProblem } from '../../shared/scenario'
 
 interface FileReport {
   file: string
@@ -40,7 +40,7 @@ export function checkScenarioFiles(files: string[]): FileReport[] {
 
 function main(): void {
   const args = process.argv.slice(2)
-  const dir = resolve(import.meta.dirname, '..', 'scenarios')
+  const dir = resolve(import.meta.dirname, '../..', 'scenarios')
   const files =
     args.length > 0
       ? args.map((f) => resolve(f))

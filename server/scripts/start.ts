@@ -3,7 +3,7 @@ import { spawnSync } from 'node:child_process'
 import { existsSync, readdirSync, statSync } from 'node:fs'
 import { join, resolve } from 'node:path'
 
-const root = resolve(import.meta.dirname, '..')
+const root = resolve(import.meta.dirname, '../..')
 const builtIndex = join(root, 'dist/client/index.html')
 const sources = ['src', 'shared', 'index.html', 'vite.config.ts', 'package.json', 'public']
 
@@ -29,5 +29,5 @@ if (builtAt < sourcesAt) {
 }
 
 process.env.NODE_ENV ??= 'production'
-const { startServer } = await import('../server/main')
+const { startServer } = await import('../main')
 await startServer({ mode: 'app' })

@@ -4,10 +4,10 @@
 # in a temporary folder), creates a database, exports TEST_DATABASE_URL, runs the tests, and stops and
 # removes the cluster whatever happens.
 #
-#   scripts/ci-postgres.sh              # the api-pg and scale projects (tests/api-pg/vitest.config.ts)
-#   scripts/ci-postgres.sh CMD ARGS…    # any other command with the cluster up (e.g. one test file)
+#   tests/api-pg/with-postgres.sh              # the api-pg and scale projects (tests/api-pg/vitest.config.ts)
+#   tests/api-pg/with-postgres.sh CMD ARGS…    # any other command with the cluster up (e.g. one test file)
 set -euo pipefail
-cd "$(dirname "$0")/.."
+cd "$(dirname "$0")/../.."
 
 log() { printf 'ci-postgres: %s\n' "$*"; }
 

@@ -1,13 +1,13 @@
 // `npm run db:reset`: delete the database and recreate it with the demo seed.
 import { rmSync } from 'node:fs'
 import { pino } from 'pino'
-import { loadConfig } from '../server/config'
-import { openDatabase } from '../server/data-source'
-import { SCENARIOS_DIR } from '../server/main'
-import { demoSignInTable } from '../server/services/demo-accounts'
-import { createPasswordHasher } from '../server/services/passwords'
-import { importShippedScenarios } from '../server/services/scenarios'
-import { seedDemo } from '../server/services/seed'
+import { loadConfig } from '../config'
+import { openDatabase } from '../data-source'
+import { SCENARIOS_DIR } from '../main'
+import { demoSignInTable } from '../services/demo-accounts'
+import { createPasswordHasher } from '../services/passwords'
+import { importShippedScenarios } from '../services/scenarios'
+import { seedDemo } from '../services/seed'
 
 const config = loadConfig(process.env)
 const log = pino({ level: config.logLevel })
