@@ -71,6 +71,23 @@ function causeGone(context: DriveMachineContext): boolean {
   return !context.causes.externalFault && !context.causes.supplyOverload
 }
 
+// The three running states share one configuration: they differ only in the speed trend reported.
+const RUNNING = {
+  always: [
+    { guard: 'hasFaults', target: 'coasting' },
+    { guard: 'stopByCoast', target: 'coasting' },
+    { guard: 'stopByRamp', target: 'rampStopping' },
+  ],
+  on: {
+    TREND: [
+      { guard: 'trendUp', target: 'accelerating' },
+      { guard: 'trendDown', target: 'decelerating' },
+      { target: 'atSpeed' },
+    ],
+    POWER_OFF: { target: 'coasting', actions: 'notePowerLost' },
+  },
+} as const
+
 export const driveMachine = setup({
   types: {
     context: {} as DriveMachineContext,
@@ -212,52 +229,9 @@ export const driveMachine = setup({
         stopped: {
           always: { guard: and(['runCommanded', stateIn({ power: 'ready' })]), target: 'accelerating' },
         },
-        // The three running states differ only in the speed trend the simulation reports.
-        accelerating: {
-          always: [
-            { guard: 'hasFaults', target: 'coasting' },
-            { guard: 'stopByCoast', target: 'coasting' },
-            { guard: 'stopByRamp', target: 'rampStopping' },
-          ],
-          on: {
-            TREND: [
-              { guard: 'trendUp', target: 'accelerating' },
-              { guard: 'trendDown', target: 'decelerating' },
-              { target: 'atSpeed' },
-            ],
-            POWER_OFF: { target: 'coasting', actions: 'notePowerLost' },
-          },
-        },
-        atSpeed: {
-          always: [
-            { guard: 'hasFaults', target: 'coasting' },
-            { guard: 'stopByCoast', target: 'coasting' },
-            { guard: 'stopByRamp', target: 'rampStopping' },
-          ],
-          on: {
-            TREND: [
-              { guard: 'trendUp', target: 'accelerating' },
-              { guard: 'trendDown', target: 'decelerating' },
-              { target: 'atSpeed' },
-            ],
-            POWER_OFF: { target: 'coasting', actions: 'notePowerLost' },
-          },
-        },
-        decelerating: {
-          always: [
-            { guard: 'hasFaults', target: 'coasting' },
-            { guard: 'stopByCoast', target: 'coasting' },
-            { guard: 'stopByRamp', target: 'rampStopping' },
-          ],
-          on: {
-            TREND: [
-              { guard: 'trendUp', target: 'accelerating' },
-              { guard: 'trendDown', target: 'decelerating' },
-              { target: 'atSpeed' },
-            ],
-            POWER_OFF: { target: 'coasting', actions: 'notePowerLost' },
-          },
-        },
+        accelerating: RUNNING,
+        atSpeed: RUNNING,
+        decelerating: RUNNING,
         rampStopping: {
           always: [
             { guard: 'hasFaults', target: 'coasting' },
