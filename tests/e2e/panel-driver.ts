@@ -87,12 +87,31 @@ export class PanelDriver {
 
   async disconnect() {
     const h = this.layout.disconnect.handle
-    await this.click({ x: h.x + h.w / 2, y: h.y + h.h / 2 })
+    await this.toggleIsolation({ x: h.x + h.w / 2, y: h.y + h.h / 2 })
   }
 
   async lock() {
     const l = this.layout.disconnect.lock
-    await this.click({ x: l.x + l.w / 2, y: l.y + l.h / 2 })
+    await this.toggleIsolation({ x: l.x + l.w / 2, y: l.y + l.h / 2 })
+  }
+
+  /**
+   * Clicks the disconnect or its lock and waits until the panel reports the change. On a busy machine a
+   * click can be lost; it is repeated once, only after the first has clearly had no effect.
+   */
+  private async toggleIsolation(at: Vec) {
+    const isolation = (s: string) => /disconnect (on|off)( and locked)?/.exec(s)?.[0] ?? ''
+    const before = isolation(await this.summary())
+    for (const wait of [5_000, 15_000]) {
+      await this.click(at)
+      try {
+        await this.waitFor((s) => isolation(s) !== before, wait)
+        return
+      } catch {
+        // no change yet: click once more
+      }
+    }
+    throw new Error(`clicking the disconnect at ${JSON.stringify(at)} changed nothing (still "${before}")`)
   }
 
   /** Lifts the probes from wherever they are and tests every line pair and the DC bus. */

@@ -6,17 +6,23 @@ import { launchBrowser, screenshot, startApp, type BrowserSession, type RunningA
 import { dismissSafetyNotice, signInPage } from './panel-fixtures'
 
 async function choose(page: Page, label: string, query: string) {
-  const input = page.getByLabel(label, { exact: true })
-  await input.focus()
-  await input.fill(query)
-  // Wait for the filtered list itself, not a fixed delay: the machine running the tests may be busy.
-  const escaped = query.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')
-  await page
-    .getByRole('option', { name: new RegExp(escaped, 'i') })
-    .first()
-    .waitFor({ state: 'visible' })
-  await page.keyboard.press('ArrowDown')
-  await page.keyboard.press('Enter')
+  // The input comes first: while its menu is open, the (teleported) listbox carries the same label.
+  const input = page.getByLabel(label, { exact: true }).first()
+  const wanted = new RegExp(query.replace(/[.*+?^${}()|[\]\\]/g, '\\$&'), 'i')
+  // Keyboard selection races the list's filtering on a busy machine: check what was chosen, and choose
+  // again if the filter had not caught up.
+  for (let attempt = 0; attempt < 3; attempt++) {
+    await input.focus()
+    await input.fill(query)
+    await page.getByRole('option', { name: wanted }).first().waitFor({ state: 'visible' })
+    await expect
+      .poll(async () => page.getByRole('option').first().textContent(), { timeout: 5_000 })
+      .toMatch(wanted)
+    await page.keyboard.press('ArrowDown')
+    await page.keyboard.press('Enter')
+    if (wanted.test(await input.inputValue())) return
+  }
+  throw new Error(`could not choose "${query}" in "${label}"`)
 }
 
 async function press(page: Page, name: string | RegExp, times = 1) {
