@@ -21,6 +21,7 @@ import { gradebookRouter } from './routes/gradebook'
 import { healthRouter } from './routes/health'
 import { invitationsRouter } from './routes/invitations'
 import { scenariosRouter, scenarioVersionsRouter } from './routes/scenarios'
+import { createGradebookCache } from './services/gradebook-cache'
 import type { Mailer } from './services/mailer'
 import { createPasswordHasher, type PasswordHasher } from './services/passwords'
 import { DatabaseRateLimitStore } from './services/rate-limit-store'
@@ -55,6 +56,7 @@ export function createApp(deps: AppDeps): Express {
         ? (which) => new DatabaseRateLimitStore(deps.dataSource, which)
         : undefined,
     ),
+    gradebooks: createGradebookCache(deps.dataSource),
   }
   const app = express()
   app.disable('x-powered-by')
@@ -95,7 +97,8 @@ export function createApp(deps: AppDeps): Express {
       },
     }),
   )
-  app.use(cookieParser())
+  // Only the session routes read the refresh cookie; no other request pays for parsing cookies.
+  app.use('/api/auth', cookieParser())
   // Attempt logs and scenario documents are large; everything else stays small.
   app.use('/api/attempts', express.json({ limit: '2mb' }))
   app.use('/api/scenarios', express.json({ limit: '1mb' }))

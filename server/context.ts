@@ -3,6 +3,7 @@ import type { DataSource } from 'typeorm'
 import type { Logger } from 'pino'
 import type { AppConfig } from './config'
 import type { Limiters } from './middleware/rate-limit'
+import type { GradebookCache } from './services/gradebook-cache'
 import type { Mailer } from './services/mailer'
 import type { PasswordHasher } from './services/passwords'
 import type { AccessTokens } from './services/tokens'
@@ -15,6 +16,8 @@ export interface AppContext {
   tokens: AccessTokens
   log: Logger
   limits: Limiters
+  /** Cohort gradebooks kept between requests, checked against the database's revision each time. */
+  gradebooks: GradebookCache
 }
 
 /** A link into the client, from the configured public base URL. */

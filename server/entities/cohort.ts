@@ -8,6 +8,8 @@ export interface CohortRow {
   ownerId: string
   archived: boolean
   createdAt: string
+  /** Bumped by database triggers when anything in the cohort's gradebook changes; never written by code. */
+  gradebookRevision?: number
 }
 
 export const CohortEntity = new EntitySchema<CohortRow>({
@@ -20,6 +22,7 @@ export const CohortEntity = new EntitySchema<CohortRow>({
     ownerId: uuidColumn,
     archived: bool,
     createdAt: timestamp,
+    gradebookRevision: { type: 'integer', default: 0, insert: false, update: false },
   },
   relations: {
     owner: belongsTo('User', 'ownerId', 'RESTRICT'),

@@ -4,6 +4,7 @@ import type { Role } from '@shared/api/auth'
 import type { AppContext } from '../context'
 import { UserEntity, type UserRow } from '../entities'
 import { HttpError } from '../http-error'
+import { findById } from '../services/lookups'
 
 export interface AuthInfo {
   user: UserRow
@@ -22,7 +23,7 @@ export function authenticate(ctx: AppContext): RequestHandler {
       throw new HttpError(401, 'unauthenticated', 'Sign in first (no access token was sent)')
     }
     const claims = ctx.tokens.verify(header.slice('Bearer '.length).trim())
-    const user = await ctx.dataSource.getRepository(UserEntity).findOneBy({ id: claims.sub })
+    const user = await findById(ctx.dataSource, UserEntity, claims.sub)
     if (!user || user.tokenVersion !== claims.tv) {
       throw new HttpError(401, 'token_invalid', 'This session has ended; sign in again')
     }

@@ -7,7 +7,8 @@ import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
 import { cohortFor } from '../services/access'
 import { toCsv } from '../services/csv-safe'
-import { buildGradebook, type GradebookFilter } from '../services/gradebook'
+import type { GradebookFilter } from '../services/gradebook'
+import type { GradebookPageQuery } from '../services/gradebook-cache'
 import { nowIso } from '../services/clock'
 
 export function gradebookRouter(ctx: AppContext): Router {
@@ -19,17 +20,12 @@ export function gradebookRouter(ctx: AppContext): Router {
     validate({ params: idParamsSchema, query: gradebookQuerySchema }),
     async (req, res) => {
       const cohort = await cohortFor(ctx.dataSource, currentUser(req), String(req.params.id), 'manage')
-      const query = req.query as unknown as GradebookFilter & { page: number; pageSize: number }
-      const { assignments, rows } = await buildGradebook(ctx.dataSource, cohort, query)
-      const start = (query.page - 1) * query.pageSize
-      res.json({
-        cohortId: cohort.id,
-        assignments: assignments.map((a) => ({ id: a.id, title: a.title, dueAt: a.dueAt })),
-        rows: rows.slice(start, start + query.pageSize),
-        total: rows.length,
-        page: query.page,
-        pageSize: query.pageSize,
-      })
+      const { json, etag } = await ctx.gradebooks.page(cohort, req.query as unknown as GradebookPageQuery)
+      // With the entity tag set, Express answers a matching If-None-Match with 304 and no body; browsers
+      // must ask again each time (no-cache) and keep the private page out of shared caches.
+      res.setHeader('ETag', etag)
+      res.setHeader('Cache-Control', 'private, no-cache')
+      res.type('application/json').send(json)
     },
   )
 
@@ -38,11 +34,7 @@ export function gradebookRouter(ctx: AppContext): Router {
     validate({ params: idParamsSchema, query: gradebookQuerySchema }),
     async (req, res) => {
       const cohort = await cohortFor(ctx.dataSource, currentUser(req), String(req.params.id), 'manage')
-      const { assignments, rows } = await buildGradebook(
-        ctx.dataSource,
-        cohort,
-        req.query as unknown as GradebookFilter,
-      )
+      const { assignments, rows } = await ctx.gradebooks.view(cohort, req.query as unknown as GradebookFilter)
       const header = [
         'Name',
         'E-mail',

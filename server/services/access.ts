@@ -12,6 +12,7 @@ import {
   type UserRow,
 } from '../entities'
 import { forbidden, notFound } from '../http-error'
+import { findById } from './lookups'
 
 export async function isEnrolled(ds: DataSource, cohortId: string, userId: string) {
   return (await ds.getRepository(EnrollmentEntity).countBy({ cohortId, userId })) > 0
@@ -23,7 +24,7 @@ export async function cohortFor(
   cohortId: string,
   mode: 'read' | 'manage',
 ): Promise<CohortRow> {
-  const cohort = await ds.getRepository(CohortEntity).findOneBy({ id: cohortId })
+  const cohort = await findById(ds, CohortEntity, cohortId)
   if (!cohort) throw notFound('Cohort')
   if (user.role === 'admin') return cohort
   if (user.role === 'instructor' && cohort.ownerId === user.id) return cohort

@@ -1,8 +1,15 @@
-// The gradebook of a cohort: every apprentice × every assignment, then filtered, sorted and paged.
+// The gradebook of a cohort: every apprentice × every assignment (loadGradebook, from the database), then
+// filtered and sorted (viewGradebook, pure). The route pages the result; gradebook-cache.ts keeps both.
 import type { DataSource } from 'typeorm'
 import { In } from 'typeorm'
 import type { GradebookCellStatus, GradebookRow } from '@shared/api/gradebook'
-import { AssignmentEntity, EnrollmentEntity, UserEntity, type CohortRow } from '../entities'
+import {
+  AssignmentEntity,
+  EnrollmentEntity,
+  UserEntity,
+  type AssignmentRow,
+  type CohortRow,
+} from '../entities'
 import { NOT_STARTED, standingsByAssignmentAndUser } from './progress'
 
 export interface GradebookFilter {
@@ -13,7 +20,13 @@ export interface GradebookFilter {
   assignmentId?: string
 }
 
-export async function buildGradebook(ds: DataSource, cohort: CohortRow, filter: GradebookFilter) {
+export interface CohortGradebook {
+  assignments: AssignmentRow[]
+  /** One row per enrolled apprentice, in no particular order. */
+  rows: GradebookRow[]
+}
+
+export async function loadGradebook(ds: DataSource, cohort: CohortRow): Promise<CohortGradebook> {
   const assignments = await ds
     .getRepository(AssignmentEntity)
     .find({ where: { cohortId: cohort.id }, order: { dueAt: 'ASC' } })
@@ -31,11 +44,10 @@ export async function buildGradebook(ds: DataSource, cohort: CohortRow, filter: 
     ds,
     assignments.map((a) => a.id),
   )
-  let rows: GradebookRow[] = users.map((user) => {
+  const rows: GradebookRow[] = users.map((user) => {
     const cells = assignments.map((assignment) => {
       const standing = standings.get(`${assignment.id}:${user.id}`) ?? NOT_STARTED
       return {
-        assignmentId: assignment.id,
         bestScore: standing.bestScore,
         attempts: standing.attempts,
         lastActivity: standing.lastActivity,
@@ -56,15 +68,29 @@ export async function buildGradebook(ds: DataSource, cohort: CohortRow, filter: 
       cells,
     }
   })
+  return { assignments, rows }
+}
+
+// One collator for every comparison: the same order as String.prototype.localeCompare, without building
+// the locale data on each call.
+const collator = new Intl.Collator()
+
+/** The rows that pass the filter, sorted; the gradebook is not changed. */
+export function viewGradebook(gradebook: CohortGradebook, filter: GradebookFilter): GradebookRow[] {
+  let view = [...gradebook.rows]
   if (filter.q) {
     const needle = filter.q.toLowerCase()
-    rows = rows.filter((r) => r.name.toLowerCase().includes(needle) || r.email.includes(needle))
+    view = view.filter((r) => r.name.toLowerCase().includes(needle) || r.email.includes(needle))
   }
   if (filter.status) {
-    rows = rows.filter((r) =>
-      r.cells.some(
-        (c) => c.status === filter.status && (!filter.assignmentId || c.assignmentId === filter.assignmentId),
-      ),
+    // One assignment's column, or any column; an assignment not in this cohort matches no row.
+    const column = filter.assignmentId
+      ? gradebook.assignments.findIndex((a) => a.id === filter.assignmentId)
+      : undefined
+    view = view.filter((r) =>
+      column === undefined
+        ? r.cells.some((c) => c.status === filter.status)
+        : r.cells[column]?.status === filter.status,
     )
   }
   const direction = filter.order === 'desc' ? -1 : 1
@@ -74,13 +100,13 @@ export async function buildGradebook(ds: DataSource, cohort: CohortRow, filter: 
       : filter.sort === 'lastActivity'
         ? row.lastActivity
         : row[filter.sort]
-  rows.sort((a, b) => {
+  view.sort((a, b) => {
     const ka = key(a)
     const kb = key(b)
     // Empty values sort last whichever the direction, then by name so pages are stable.
-    if (ka === null || kb === null) return ka === kb ? a.name.localeCompare(b.name) : ka === null ? 1 : -1
-    const order = typeof ka === 'number' ? ka - (kb as number) : String(ka).localeCompare(String(kb))
-    return order * direction || a.name.localeCompare(b.name) || a.userId.localeCompare(b.userId)
+    if (ka === null || kb === null) return ka === kb ? collator.compare(a.name, b.name) : ka === null ? 1 : -1
+    const order = typeof ka === 'number' ? ka - (kb as number) : collator.compare(String(ka), String(kb))
+    return order * direction || collator.compare(a.name, b.name) || collator.compare(a.userId, b.userId)
   })
-  return { assignments, rows }
+  return view
 }

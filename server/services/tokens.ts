@@ -1,5 +1,5 @@
 // Access tokens (short-lived JWT) and opaque one-time tokens (refresh, invitation, reset) stored as hashes.
-import { createHash, randomBytes } from 'node:crypto'
+import { createHash, createSecretKey, randomBytes } from 'node:crypto'
 import jwt from 'jsonwebtoken'
 import { ACCESS_TOKEN_TTL_SECONDS, type Role } from '@shared/api/auth'
 import { HttpError } from '../http-error'
@@ -17,7 +17,10 @@ export interface AccessTokens {
 
 const ISSUER = 'slipway'
 
-export function createAccessTokens(secret: string, ttlSeconds = ACCESS_TOKEN_TTL_SECONDS): AccessTokens {
+export function createAccessTokens(secretText: string, ttlSeconds = ACCESS_TOKEN_TTL_SECONDS): AccessTokens {
+  // A KeyObject made once: given a string, jsonwebtoken first tries (and fails) to parse it as a public
+  // key on every call, which cost more than the rest of the verification.
+  const secret = createSecretKey(Buffer.from(secretText, 'utf8'))
   return {
     issue(claims) {
       const token = jwt.sign({ role: claims.role, tv: claims.tv }, secret, {
