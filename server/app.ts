@@ -22,6 +22,7 @@ import { healthRouter } from './routes/health'
 import { invitationsRouter } from './routes/invitations'
 import { scenariosRouter, scenarioVersionsRouter } from './routes/scenarios'
 import { createGradebookCache } from './services/gradebook-cache'
+import { createGradingPool, type GradingPool } from './services/grading-pool'
 import type { Mailer } from './services/mailer'
 import { createPasswordHasher, type PasswordHasher } from './services/passwords'
 import { DatabaseRateLimitStore } from './services/rate-limit-store'
@@ -34,6 +35,8 @@ export interface AppDeps {
   jwtSecret: string
   log?: Logger
   passwords?: PasswordHasher
+  /** Grades submissions (default: a pool of config.gradingThreads threads, closed with the app's owner). */
+  grading?: GradingPool
   /** Where the built client lives (default dist/client). */
   clientDir?: string
 }
@@ -57,6 +60,7 @@ export function createApp(deps: AppDeps): Express {
         : undefined,
     ),
     gradebooks: createGradebookCache(deps.dataSource),
+    grading: deps.grading ?? createGradingPool({ threads: deps.config.gradingThreads }),
   }
   const app = express()
   app.disable('x-powered-by')

@@ -1,4 +1,5 @@
 // Environment validated at boot: one typed AppConfig, with clear messages for wrong values.
+import { availableParallelism } from 'node:os'
 import { resolve } from 'node:path'
 import { z } from 'zod'
 
@@ -45,6 +46,12 @@ const envSchema = z.object({
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
   SERVE_CLIENT: z.enum(['true', 'false']).optional(),
   HOST: optionalText,
+  GRADING_THREADS: z.coerce
+    .number({ error: 'GRADING_THREADS must be a whole number of threads (0 grades on the event loop)' })
+    .int()
+    .min(0)
+    .max(64)
+    .optional(),
 })
 
 export interface RateLimitRule {
@@ -95,6 +102,8 @@ export interface AppConfig {
   /** Express `trust proxy`: which hops may set X-Forwarded-For (default loopback). */
   trustProxy: boolean | number | string
   passwordHashing: PasswordHashing
+  /** Worker threads that grade submitted attempts; 0 grades on the event loop (the default under test). */
+  gradingThreads: number
   version: string
 }
 
@@ -167,6 +176,9 @@ export function loadConfig(
     rateLimitStore: e.RATE_LIMIT_STORE ?? (postgresUrl ? 'database' : 'memory'),
     trustProxy: parseTrustProxy(e.TRUST_PROXY),
     passwordHashing: OWASP_ARGON2ID,
+    // One grading thread per core but one, which the event loop keeps; at least one.
+    gradingThreads:
+      e.GRADING_THREADS ?? (e.NODE_ENV === 'test' ? 0 : Math.max(1, availableParallelism() - 1)),
     version: options.version ?? '0.0.0',
   }
 }

@@ -4,6 +4,7 @@ import type { Logger } from 'pino'
 import type { AppConfig } from './config'
 import type { Limiters } from './middleware/rate-limit'
 import type { GradebookCache } from './services/gradebook-cache'
+import type { GradingPool } from './services/grading-pool'
 import type { Mailer } from './services/mailer'
 import type { PasswordHasher } from './services/passwords'
 import type { AccessTokens } from './services/tokens'
@@ -18,6 +19,8 @@ export interface AppContext {
   limits: Limiters
   /** Cohort gradebooks kept between requests, checked against the database's revision each time. */
   gradebooks: GradebookCache
+  /** Grades submitted attempts off the event loop. */
+  grading: GradingPool
 }
 
 /** A link into the client, from the configured public base URL. */

@@ -8,6 +8,7 @@ import { ConfigError, loadConfig } from './config'
 import { dataSourceOptionsFor, openDatabase } from './data-source'
 import { UserEntity } from './entities'
 import { DEMO_ACCOUNTS, demoSignInTable } from './services/demo-accounts'
+import { createGradingPool } from './services/grading-pool'
 import { createMailer, type SmtpTarget } from './services/mailer'
 import { startOutboxSmtp, type OutboxSmtp } from './services/outbox-smtp'
 import { createPasswordHasher } from './services/passwords'
@@ -58,7 +59,8 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
     log.info({ port: outbox.port }, 'embedded SMTP outbox listening on loopback')
   }
   const mailer = createMailer({ target, from: config.mailFrom, log })
-  const app = createApp({ dataSource, config, mailer, jwtSecret, log, passwords })
+  const grading = createGradingPool({ threads: config.gradingThreads })
+  const app = createApp({ dataSource, config, mailer, jwtSecret, log, passwords, grading })
 
   const server: Server = await new Promise((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s))
@@ -79,6 +81,7 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
     server.closeAllConnections?.()
     await Promise.race([mailer.idle(), new Promise((r) => setTimeout(r, 3000))])
     mailer.close()
+    await grading.close()
     await outbox?.close()
     await dataSource.destroy()
     clearTimeout(force)

@@ -2,7 +2,6 @@
 import { randomUUID } from 'node:crypto'
 import { In } from 'typeorm'
 import type { SubmitAttemptRequest, AttemptSummary, GradeAuditEntry } from '@shared/api/attempts'
-import type { Scenario } from '@shared/scenario/schema'
 import type { AttemptEvent } from '@shared/model/events'
 import { appLink, type AppContext } from '../context'
 import {
@@ -21,7 +20,6 @@ import {
 import { HttpError, conflict } from '../http-error'
 import { isEnrolled } from './access'
 import { nowIso } from './clock'
-import { gradeAttempt } from './grading'
 import { attemptReviewedMail } from './mail-templates'
 
 /** An attempt without its event log: everything a summary shows. */
@@ -186,7 +184,7 @@ export async function submitAttempt(
     checkRules(assignment, events, used, now)
   }
   const submitting = body.status === 'submitted'
-  const grade = submitting ? gradeAttempt(JSON.parse(scenario.document) as Scenario, events) : null
+  const grade = submitting ? await ctx.grading.grade(scenario, events) : null
   const row: AttemptRow = {
     id: body.id,
     userId: user.id,

@@ -10,17 +10,29 @@ export interface GradeOutcome {
   evidence: GradeResult
 }
 
-/** A log the model cannot replay (an event naming a device the scenario lacks …) is the client's mistake. */
-export function gradeAttempt(scenario: Scenario, events: AttemptEvent[]): GradeOutcome {
+/** A grading result that can cross a thread boundary: an outcome, or why the log cannot be replayed. */
+export type GradeReport = { ok: true; outcome: GradeOutcome } | { ok: false; inputError: string }
+
+/** Grades a log; a log the model cannot replay (an event naming a device the scenario lacks …) is reported. */
+export function gradeReport(scenario: Scenario, events: AttemptEvent[]): GradeReport {
   try {
     const result = grade(scenario, events)
-    return { score: result.score, passed: result.passed, evidence: result }
+    return { ok: true, outcome: { score: result.score, passed: result.passed, evidence: result } }
   } catch (error) {
-    if (error instanceof ModelInputError) {
-      throw new HttpError(400, 'validation_failed', `The event log cannot be replayed: ${error.message}`, {
-        fields: { events: [error.message] },
-      })
-    }
+    if (error instanceof ModelInputError) return { ok: false, inputError: error.message }
     throw error
   }
+}
+
+/** The outcome of a report; an unreplayable log is the client's mistake: 400. */
+export function outcomeOf(report: GradeReport): GradeOutcome {
+  if (report.ok) return report.outcome
+  throw new HttpError(400, 'validation_failed', `The event log cannot be replayed: ${report.inputError}`, {
+    fields: { events: [report.inputError] },
+  })
+}
+
+/** Grades on the calling thread (seeding, benchmarks, tests); the API grades through a GradingPool. */
+export function gradeAttempt(scenario: Scenario, events: AttemptEvent[]): GradeOutcome {
+  return outcomeOf(gradeReport(scenario, events))
 }
