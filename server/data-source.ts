@@ -6,6 +6,7 @@ import { DataSource } from 'typeorm'
 import type { AppConfig } from './config'
 import { entities } from './entities'
 import { migrations } from './migrations'
+import { serializeSqliteTransactions } from './sqlite-transactions'
 
 export type DataSourceOptions =
   /** A file path, or ':memory:' for throwaway databases. */
@@ -75,6 +76,7 @@ export interface OpenOptions {
 export async function openDatabase(options: DataSourceOptions, open: OpenOptions = {}): Promise<DataSource> {
   const dataSource = createDataSource(options)
   await dataSource.initialize()
+  serializeSqliteTransactions(dataSource)
   try {
     await underStartupLock(dataSource, async () => {
       await dataSource.runMigrations({ transaction: 'each' })
