@@ -8,7 +8,11 @@ export interface CohortRow {
   ownerId: string
   archived: boolean
   createdAt: string
-  /** Bumped by database triggers when anything in the cohort's gradebook changes; never written by code. */
+  /**
+   * Bumped by database triggers when anything in the cohort's gradebook changes; never written by code.
+   * Its default makes TypeORM re-read inserted rows on SQLite and merge them back by position, which mixes
+   * rows up in a multi-row insert: insert several cohorts with the query builder's updateEntity(false).
+   */
   gradebookRevision?: number
 }
 

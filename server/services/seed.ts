@@ -63,7 +63,16 @@ export async function seedDemo(
   const assignments: AssignmentRow[] = []
   await dataSource.transaction(async (manager) => {
     await manager.getRepository(UserEntity).insert(users)
-    await manager.getRepository(CohortEntity).insert(cohorts)
+    // Not repository.insert: for a column with a database default (gradebookRevision) TypeORM re-reads the
+    // rows of a multi-row insert on SQLite and merges them back by position, unordered — which swapped the
+    // cohorts' ids in `cohorts` and enrolled apprentices in the wrong cohort. updateEntity(false) skips it.
+    await manager
+      .createQueryBuilder()
+      .insert()
+      .into(CohortEntity)
+      .values(cohorts)
+      .updateEntity(false)
+      .execute()
     const enrollments = DEMO_ACCOUNTS.flatMap((account, index) =>
       account.role === 'apprentice' && account.cohort !== undefined
         ? [

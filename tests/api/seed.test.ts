@@ -34,6 +34,22 @@ describe('demo seed', () => {
     expect(await api.dataSource.getRepository(EnrollmentEntity).count()).toBe(count('apprentice'))
   })
 
+  it('puts every demo apprentice in the cohort of the instructor the demo accounts name', async () => {
+    const rows: { apprentice: string; owner: string }[] = await api.dataSource.query(
+      `SELECT a.email AS apprentice, o.email AS owner FROM enrollments e
+       JOIN users a ON a.id = e.userId JOIN cohorts c ON c.id = e.cohortId JOIN users o ON o.id = c.ownerId`,
+    )
+    const ownerOf = (cohort: number | undefined) =>
+      DEMO_ACCOUNTS.find((a) => a.role === 'instructor' && a.cohort === cohort)!.email
+    const expected = DEMO_ACCOUNTS.filter((a) => a.role === 'apprentice').map((a) => ({
+      apprentice: a.email,
+      owner: ownerOf(a.cohort),
+    }))
+    const byEmail = (x: { apprentice: string }, y: { apprentice: string }) =>
+      x.apprentice.localeCompare(y.apprentice)
+    expect(rows.sort(byEmail)).toEqual(expected.sort(byEmail))
+  })
+
   it('lets every demo account sign in with the shared demo password', async () => {
     for (const account of DEMO_ACCOUNTS) {
       await expect(api.signIn(account.email, account.password)).resolves.toHaveProperty('token')
