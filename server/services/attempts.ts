@@ -20,6 +20,7 @@ import {
 import { HttpError, conflict } from '../http-error'
 import { isEnrolled } from './access'
 import { nowIso } from './clock'
+import { findById } from './lookups'
 import { attemptReviewedMail } from './mail-templates'
 
 /** An attempt without its event log: everything a summary shows. */
@@ -113,18 +114,19 @@ interface Target {
 async function resolveTarget(ctx: AppContext, user: UserRow, body: SubmitAttemptRequest): Promise<Target> {
   const ds = ctx.dataSource
   if (body.assignmentId) {
-    const assignment = await ds.getRepository(AssignmentEntity).findOneBy({ id: body.assignmentId })
+    const assignment = await findById(ds, AssignmentEntity, body.assignmentId)
     if (!assignment) throw new HttpError(404, 'not_found', 'Assignment not found')
     if (!(await isEnrolled(ds, assignment.cohortId, user.id))) {
       throw new HttpError(403, 'forbidden', 'This assignment is not set for you')
     }
-    const cohort = await ds.getRepository(CohortEntity).findOneByOrFail({ id: assignment.cohortId })
-    if (cohort.archived)
+    const cohort = await findById(ds, CohortEntity, assignment.cohortId)
+    if (cohort?.archived)
       throw conflict('cohort_archived', 'This cohort is archived; its assignments are closed')
-    const scenario = await ds.getRepository(ScenarioEntity).findOneByOrFail({ id: assignment.scenarioId })
+    const scenario = await findById(ds, ScenarioEntity, assignment.scenarioId)
+    if (!scenario) throw new Error(`assignment ${assignment.id} names a missing scenario version`)
     return { scenario, assignment }
   }
-  const scenario = await ds.getRepository(ScenarioEntity).findOneBy({ id: body.scenarioId! })
+  const scenario = await findById(ds, ScenarioEntity, body.scenarioId!)
   if (!scenario) {
     throw new HttpError(400, 'validation_failed', 'No such scenario version', {
       fields: { scenarioId: ['No such scenario version'] },
@@ -165,7 +167,7 @@ export async function submitAttempt(
 ): Promise<SubmitResult> {
   const ds = ctx.dataSource
   const attempts = ds.getRepository(AttemptEntity)
-  const existing = await attempts.findOneBy({ id: body.id })
+  const existing = await findById(ds, AttemptEntity, body.id)
   if (existing) {
     if (existing.userId !== user.id) throw conflict('attempt_conflict', 'This attempt id is already in use')
     // A repeated submission: hand back what was stored, change nothing.

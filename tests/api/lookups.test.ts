@@ -1,7 +1,13 @@
 // The hot-path primary-key lookup must read a row exactly as TypeORM's findOneBy does (same properties,
 // same hydrated types: booleans, integers, nulls), on whichever database the suite runs against.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { AttemptEntity, CohortEntity, UserEntity } from '../../server/entities'
+import {
+  AssignmentEntity,
+  AttemptEntity,
+  CohortEntity,
+  ScenarioEntity,
+  UserEntity,
+} from '../../server/entities'
 import { findById } from '../../server/services/lookups'
 import { createTestApi, type TestApi } from '../support/api-harness'
 import { buildWorld, type World } from '../support/world'
@@ -40,6 +46,17 @@ describe('primary-key lookups', () => {
     const attempt = await findById(api.dataSource, AttemptEntity, world.attemptA1.id)
     expect(attempt).toEqual(
       await api.dataSource.getRepository(AttemptEntity).findOneBy({ id: world.attemptA1.id }),
+    )
+  })
+
+  it('reads assignments and scenario versions as findOneBy does', async () => {
+    const assignment = await findById(api.dataSource, AssignmentEntity, world.assignmentA.id)
+    expect(assignment).toEqual(
+      await api.dataSource.getRepository(AssignmentEntity).findOneBy({ id: world.assignmentA.id }),
+    )
+    const scenario = await findById(api.dataSource, ScenarioEntity, world.scenario.id)
+    expect(scenario).toEqual(
+      await api.dataSource.getRepository(ScenarioEntity).findOneBy({ id: world.scenario.id }),
     )
   })
 
