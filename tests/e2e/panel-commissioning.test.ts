@@ -1,13 +1,8 @@
 // The raise/lower commissioning scenario done by mouse on the canvas: prove dead, wire from scratch,
 // program with the keypad, start, raise to 1200 rpm, hold, lower, stop, submit, see the server's grade.
-import { readFileSync } from 'node:fs'
-import { resolve } from 'node:path'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { launchBrowser, screenshot, startApp, type BrowserSession, type RunningApp } from './support'
-import { DEMO_ACCOUNTS } from '../../server/services/demo-accounts'
-import { PanelDriver } from './panel-driver'
-
-const scenario = JSON.parse(readFileSync(resolve('scenarios/raise-lower-commissioning.json'), 'utf8'))
+import { describe, expect, it } from 'vitest'
+import { screenshot } from './support'
+import { openPanel, panelTestBed } from './panel-fixtures'
 
 const started = Date.now()
 async function step(page: Parameters<typeof screenshot>[0], name: string) {
@@ -16,61 +11,17 @@ async function step(page: Parameters<typeof screenshot>[0], name: string) {
 }
 
 describe('commissioning raise/lower on the panel by mouse', () => {
-  let app: RunningApp
-  let browser: BrowserSession
-
-  beforeAll(async () => {
-    app = await startApp()
-    browser = await launchBrowser({ width: 1600, height: 1000 })
-  })
-
-  afterAll(async () => {
-    await browser?.close()
-    await app?.stop()
-  })
+  const bed = panelTestBed({ width: 1600, height: 1000 })
 
   it('wires, programs, commissions and submits, and the server grades it a pass', async () => {
-    const { page } = browser
-    const apprentice = DEMO_ACCOUNTS.find((a) => a.role === 'apprentice')!
-    await page.goto(app.url)
-    await page
-      .getByLabel(/e-mail/i)
-      .first()
-      .fill(apprentice.email)
-    await page
-      .getByLabel(/password/i)
-      .first()
-      .fill(apprentice.password)
-    await page.getByRole('button', { name: /sign in/i }).click()
-    await page.waitForURL((url) => !url.pathname.includes('sign-in'))
-
-    const pageErrors: string[] = []
-    page.on('pageerror', (e) => pageErrors.push(e.message))
-    await page.goto(`${app.url}/simulator/raise-lower-commissioning`)
-    const understood = page.getByTestId('safety-understood')
-    await understood.click({ timeout: 20_000 }).catch(() => undefined)
-    await page
-      .getByTestId('panel-canvas')
-      .waitFor({ timeout: 30_000 })
-      .catch(async (e) => {
-        await step(page, 'panel-commission-00-no-canvas')
-        throw new Error(`${e}\npage errors: ${pageErrors.join('\n')}`)
-      })
-    const panel = new PanelDriver(page, scenario.start.devices)
-    await page.getByTestId('panel-canvas').scrollIntoViewIfNeeded()
+    const { page, panel, pageErrors } = await openPanel(bed, 'raise-lower-commissioning')
     await step(page, 'panel-commission-01-start')
 
     // Prove absence of voltage under the lock: every line pair and the DC bus.
-    await panel.probe('red', 'drive.l1', null)
-    await panel.probe('black', 'drive.l2', null)
-    await panel.probe('black', 'drive.l3', 'drive.l2')
-    await panel.probe('red', 'drive.l2', 'drive.l1')
-    await panel.probe('red', 'drive.l1', 'drive.l2')
-    await panel.probe('red', 'drive.dcp', 'drive.l1')
-    await panel.probe('black', 'drive.dcn', 'drive.l3')
+    await panel.proveDead()
     await step(page, 'panel-commission-02-proved-dead')
-    await panel.probe('red', null, 'drive.dcp')
-    await panel.probe('black', null, 'drive.dcn')
+    await panel.probe('red', null)
+    await panel.probe('black', null)
 
     // Sink logic from the drive's own supply: +24 feeds the contacts, DCM to 0V.
     await panel.wire('drive.p24', 'runSwitch.a')
@@ -83,8 +34,8 @@ describe('commissioning raise/lower on the panel by mouse', () => {
     await expect(page.getByRole('list', { name: 'Wires' }).getByRole('listitem').count()).resolves.toBe(7)
     await step(page, 'panel-commission-03-wired')
 
-    await panel.lock()
-    await panel.disconnect()
+    await panel.removeLock()
+    await panel.switchDisconnect('on')
     await panel.waitFor((s) => s.includes('drive ready'))
 
     // Keypad: control from terminals, DI1 run, DI2 raise, DI3 lower, reference from raise/lower.
@@ -119,7 +70,7 @@ describe('commissioning raise/lower on the panel by mouse', () => {
     await panel.key('back', 2)
 
     // Start with the selector, then hold FASTER until 1200 rpm.
-    await panel.click(panel.device('runSwitch'))
+    await panel.setSelector('runSwitch', 1)
     await panel.waitFor((s) => /drive (speeding up|running)/.test(s))
     await panel.pressDevice('raiseButton')
     await panel.waitFor((s) => Number(/(\d+) rpm/.exec(s)?.[1]) >= 1150, 40_000)
@@ -138,15 +89,15 @@ describe('commissioning raise/lower on the panel by mouse', () => {
     expect(Math.abs((await panel.rpm()) - 1200)).toBeLessThanOrEqual(20)
 
     // Hold for the objective's 10 s, with simulated time sped up ten times.
-    await page.getByRole('button', { name: 'Time runs 10 times faster' }).click()
+    await panel.setTimeSpeed(10)
     await page.waitForTimeout(2500)
-    await page.getByRole('button', { name: 'Time runs 1 times faster' }).click()
+    await panel.setTimeSpeed(1)
 
     // Lower a little, then stop by ramp with the selector.
     await panel.pressDevice('lowerButton')
     await page.waitForTimeout(2500)
     await panel.release()
-    await panel.click(panel.device('runSwitch'))
+    await panel.setSelector('runSwitch', 0)
     await panel.waitFor((s) => / 0 rpm/.test(s), 30_000)
     await step(page, 'panel-commission-06-stopped')
 

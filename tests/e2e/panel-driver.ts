@@ -1,28 +1,85 @@
 // Drives the simulator panel in a browser the way an apprentice does: real pointer events on the
 // canvas at the scene positions of terminals, buttons and keys (from the panel's own layout).
+//
+// On a loaded machine a canvas gesture can be lost (it lands while a dialog is still fading out or the
+// layout is still moving), and a lost click shows up much later as a puzzling timeout. So every
+// state-changing gesture here goes through `until`: it waits for the gesture's visible effect, repeats
+// the gesture only when the page has settled and still shows exactly what it showed before, and
+// otherwise fails at once, saying what it expected and what the panel shows.
 import type { Page } from 'playwright-core'
 import { layoutPanel, SCENE_WIDTH, SCENE_HEIGHT } from '../../src/panel/layout'
 import { probeTip } from '../../src/panel/hitTest'
 import { pointOnCubic, wireCurve } from '../../src/panel/wireCurve'
-import type { KeypadKey, PanelDevice, PanelLayout, Vec } from '../../src/panel/types'
+import type { KeypadKey, PanelDevice, PanelLayout, PointId, ProbeColour, Vec } from '../../src/panel/types'
+import { keypadWords, PanelObserver, probeWords, wireCountWords } from './panel-observe'
+
+/** How long a gesture's effect may take to show before the gesture counts as lost. */
+const EFFECT_WAIT_MS = 3_000
+/** One gesture and at most two repeats. */
+const TRIES = 3
+/** How long the canvas may stay covered (a closing dialog or menu) before a gesture gives up. */
+const CLEAR_WAIT_MS = 10_000
+
+/** What a gesture should change, in the observer's words. */
+export interface Effect {
+  /** The gesture, for messages: "turning Infeed run / stop to 1". */
+  action: string
+  /** What the panel shows once the gesture has worked. */
+  expected: string
+  /** What the panel shows now. */
+  observe: () => Promise<string>
+}
 
 export class PanelDriver {
   readonly layout: PanelLayout
+  readonly state: PanelObserver
+  private buttonHeld: string | null = null
 
   constructor(
     readonly page: Page,
     devices: PanelDevice[],
   ) {
     this.layout = layoutPanel(devices)
+    this.state = new PanelObserver(page, this.layout)
   }
 
-  private async toPage(p: Vec): Promise<Vec> {
-    const canvas = this.page.getByTestId('panel-canvas')
-    // Centred, so no part of the scene sits under the app's sticky top bar.
-    await canvas.evaluate((el) => el.scrollIntoView({ block: 'center' }))
-    const box = await canvas.boundingBox()
-    if (!box) throw new Error('the panel canvas is not visible')
-    return { x: box.x + (p.x / SCENE_WIDTH) * box.width, y: box.y + (p.y / SCENE_HEIGHT) * box.height }
+  /** Waits until the canvas is drawn and describes the panel (Pixi has started). */
+  async ready() {
+    await this.page.getByTestId('panel-canvas').waitFor({ timeout: 30_000 })
+    await this.page.getByText('Starting the panel…').waitFor({ state: 'hidden', timeout: 30_000 })
+    // "Panel: drive …" on a live attempt, "Replay at …: drive …" on a replay.
+    await this.waitFor((s) => /^(Panel|Replay at [\d:.]+): drive /.test(s), 10_000)
+  }
+
+  /**
+   * Does `gesture` until the panel shows `effect.expected`. The gesture is repeated (at most twice)
+   * only when, after waiting and one more frame, the panel still shows what it showed before, so a
+   * slow toggle is never doubled; any other outcome fails here, naming the gesture and both states.
+   */
+  async until(effect: Effect, gesture: () => Promise<void>, tries = TRIES) {
+    const before = await effect.observe()
+    if (before === effect.expected) {
+      throw new Error(`${effect.action}: the panel already shows "${before}" before the gesture`)
+    }
+    let now = before
+    for (let attempt = 1; attempt <= tries; attempt++) {
+      await gesture()
+      now = await this.poll(effect)
+      if (now === effect.expected) return
+      await this.settle()
+      now = await effect.observe()
+      if (now === effect.expected) return
+      if (now !== before) break
+      if (attempt < tries) console.log(`panel driver: ${effect.action} showed no effect (try ${attempt})`)
+    }
+    throw new Error(
+      `${effect.action}: expected the panel to show "${effect.expected}" but it shows "${now}" (before: "${before}")`,
+    )
+  }
+
+  /** One click at a scene point, checked against its effect (see `until`). */
+  async clickUntil(at: Vec, effect: Effect) {
+    await this.until(effect, () => this.clickAt(at))
   }
 
   terminal(id: string): Vec {
@@ -31,118 +88,212 @@ export class PanelDriver {
     return t
   }
 
-  async drag(from: Vec, to: Vec) {
-    const a = await this.toPage(from)
-    const b = await this.toPage(to)
-    await this.page.mouse.move(a.x, a.y)
-    await this.page.mouse.down()
-    await this.page.mouse.move((a.x + b.x) / 2, Math.max(a.y, b.y) + 40, { steps: 4 })
-    await this.page.mouse.move(b.x, b.y, { steps: 4 })
-    await this.page.mouse.up()
-  }
-
-  async click(p: Vec) {
-    const a = await this.toPage(p)
-    await this.page.mouse.click(a.x, a.y)
-  }
-
-  async wire(from: string, to: string) {
-    await this.drag(this.terminal(from), this.terminal(to))
-  }
-
-  /** A point on the drawn curve of the wire in position `lane` of the wiring list. */
-  wirePoint(from: string, to: string, lane: number): Vec {
-    return pointOnCubic(wireCurve(this.terminal(from), this.terminal(to), lane), 0.6)
-  }
-
-  /** Moves a probe from wherever it is (meter or a point) to a point, or back to the meter (null). */
-  async probe(probe: 'red' | 'black', at: string | null, from: string | null) {
-    const tip = probeTip(this.layout, probe, from)
-    const target = at ? this.terminal(at) : this.layout.meter.holsters[probe]
-    await this.drag({ x: tip.x, y: tip.y - 10 }, target)
-  }
-
-  async key(key: KeypadKey, times = 1) {
-    const k = this.layout.drive.keys.find((x) => x.key === key)
-    if (!k) throw new Error(`no keypad key ${key}`)
-    for (let i = 0; i < times; i++)
-      await this.click({ x: k.rect.x + k.rect.w / 2, y: k.rect.y + k.rect.h / 2 })
-  }
-
   device(id: string): Vec {
     const d = this.layout.devices.find((x) => x.id === id)
     if (!d) throw new Error(`no device ${id}`)
     return d.actuator
   }
 
-  async pressDevice(id: string) {
-    const a = await this.toPage(this.device(id))
-    await this.page.mouse.move(a.x, a.y)
-    await this.page.mouse.down()
-  }
-
-  async release() {
-    await this.page.mouse.up()
-  }
-
-  async disconnect() {
-    const h = this.layout.disconnect.handle
-    await this.toggleIsolation({ x: h.x + h.w / 2, y: h.y + h.h / 2 })
-  }
-
-  async lock() {
-    const l = this.layout.disconnect.lock
-    await this.toggleIsolation({ x: l.x + l.w / 2, y: l.y + l.h / 2 })
-  }
-
-  /**
-   * Clicks the disconnect or its lock and waits until the panel reports the change. On a busy machine a
-   * click can be lost; it is repeated once, only after the first has clearly had no effect.
-   */
-  private async toggleIsolation(at: Vec) {
-    const isolation = (s: string) => /disconnect (on|off)( and locked)?/.exec(s)?.[0] ?? ''
-    const before = isolation(await this.summary())
-    for (const wait of [5_000, 15_000]) {
-      await this.click(at)
-      try {
-        await this.waitFor((s) => isolation(s) !== before, wait)
-        return
-      } catch {
-        // no change yet: click once more
-      }
+  /** A selector (run / stop, direction …) standing at a position. */
+  selectorEffect(id: string, position: 0 | 1): Effect {
+    const label = this.state.deviceLabel(id)
+    return {
+      action: `turning ${label} (${id}) to ${position}`,
+      expected: `${label} at ${position}`,
+      observe: () => this.state.selector(id),
     }
-    throw new Error(`clicking the disconnect at ${JSON.stringify(at)} changed nothing (still "${before}")`)
   }
 
-  /** Lifts the probes from wherever they are and tests every line pair and the DC bus. */
-  async proveDead(from: { red: string | null; black: string | null }) {
-    await this.probe('red', 'drive.l1', from.red)
-    await this.probe('black', 'drive.l2', from.black)
-    await this.probe('black', 'drive.l3', 'drive.l2')
-    await this.probe('red', 'drive.l2', 'drive.l1')
-    await this.probe('red', 'drive.l1', 'drive.l2')
-    await this.probe('red', 'drive.dcp', 'drive.l1')
-    await this.probe('black', 'drive.dcn', 'drive.l3')
+  /** One more press of a keypad key in the saved attempt than it has now. */
+  async keypadEffect(key: KeypadKey): Promise<Effect> {
+    const pressed = await this.state.keypadPresses(key)
+    return {
+      action: `pressing keypad ${key}`,
+      expected: keypadWords(key, pressed + 1),
+      observe: async () => keypadWords(key, await this.state.keypadPresses(key)),
+    }
+  }
+
+  /** Turns a selector to a position by clicking its knob. */
+  async setSelector(id: string, position: 0 | 1) {
+    await this.clickUntil(this.device(id), this.selectorEffect(id, position))
+  }
+
+  /** Presses a pushbutton on the canvas and keeps holding it until `release`. */
+  async pressDevice(id: string) {
+    const label = this.state.deviceLabel(id)
+    await this.until(
+      {
+        action: `pressing ${label} (${id})`,
+        expected: `${label} held`,
+        observe: () => this.state.pushbutton(id),
+      },
+      async () => {
+        if (this.buttonHeld) await this.page.mouse.up()
+        const a = await this.pagePoint(this.device(id))
+        await this.page.mouse.move(a.x, a.y)
+        await this.page.mouse.down()
+        this.buttonHeld = id
+      },
+    )
+  }
+
+  /** Lets go of the pushbutton held with `pressDevice` (a second mouse-up would do nothing). */
+  async release() {
+    const id = this.buttonHeld
+    if (!id) throw new Error('release() without a pushbutton held by pressDevice()')
+    const label = this.state.deviceLabel(id)
+    await this.until(
+      {
+        action: `releasing ${label} (${id})`,
+        expected: `${label} released`,
+        observe: () => this.state.pushbutton(id),
+      },
+      async () => {
+        await this.page.mouse.up()
+        this.buttonHeld = null
+      },
+      1,
+    )
+  }
+
+  async switchDisconnect(to: 'on' | 'off') {
+    const h = this.layout.disconnect.handle
+    const locked = (await this.state.isolation()).endsWith('and locked')
+    if (to === 'on' && locked) throw new Error('switching the disconnect on: it is still locked')
+    await this.clickUntil(
+      { x: h.x + h.w / 2, y: h.y + h.h / 2 },
+      {
+        action: `switching the disconnect ${to}`,
+        expected: `disconnect ${to}${locked ? ' and locked' : ''}`,
+        observe: () => this.state.isolation(),
+      },
+    )
+  }
+
+  async applyLock() {
+    await this.clickLock('applying the lock to the disconnect', 'disconnect off and locked')
+  }
+
+  async removeLock() {
+    await this.clickLock('removing the lock from the disconnect', 'disconnect off')
+  }
+
+  private async clickLock(action: string, expected: string) {
+    const l = this.layout.disconnect.lock
+    await this.clickUntil(
+      { x: l.x + l.w / 2, y: l.y + l.h / 2 },
+      {
+        action,
+        expected,
+        observe: () => this.state.isolation(),
+      },
+    )
+  }
+
+  /** Draws a wire on the canvas from one terminal to another. */
+  async wire(from: PointId, to: PointId) {
+    const words = this.state.wireWords(from, to)
+    const before = await this.state.wiresWith(from, to)
+    await this.until(
+      {
+        action: `wiring ${words}`,
+        expected: wireCountWords({ total: before.total + 1, same: before.same + 1 }, words),
+        observe: async () => wireCountWords(await this.state.wiresWith(from, to), words),
+      },
+      () => this.drag(this.terminal(from), this.terminal(to)),
+    )
+  }
+
+  /** Clicks the drawn curve of a wire (found by its place in the wiring list) to select it. */
+  async selectWire(from: PointId, to: PointId) {
+    const words = this.state.wireWords(from, to)
+    const lane = (await this.state.wires()).indexOf(words)
+    if (lane < 0) throw new Error(`selecting the wire ${words}: there is no such wire`)
+    const selected = async () => {
+      const item = this.page
+        .getByRole('list', { name: 'Wires' })
+        .locator('.v-list-item--active .v-list-item-title')
+      const title = (await item.count()) ? await item.first().textContent() : null
+      return title ? `selected: ${title.slice(title.indexOf(':') + 1).trim()}` : 'no wire selected'
+    }
+    await this.clickUntil(pointOnCubic(wireCurve(this.terminal(from), this.terminal(to), lane), 0.6), {
+      action: `selecting the wire ${words}`,
+      expected: `selected: ${words}`,
+      observe: selected,
+    })
+  }
+
+  /** Moves a probe from wherever it is to a point, or back to the meter (null). */
+  async probe(probe: ProbeColour, at: PointId | null) {
+    await this.until(
+      {
+        action: `moving the ${probe} probe to ${at ?? 'the meter'}`,
+        expected: probeWords(this.layout, probe, at),
+        observe: () => this.state.probe(probe),
+      },
+      async () => {
+        const tip = probeTip(this.layout, probe, await this.state.probeAt(probe))
+        const target = at ? this.terminal(at) : this.layout.meter.holsters[probe]
+        await this.drag({ x: tip.x, y: tip.y - 10 }, target)
+      },
+    )
+  }
+
+  /** Presses a keypad key on the canvas, each press checked in the saved attempt. */
+  async key(key: KeypadKey, times = 1) {
+    const k = this.layout.drive.keys.find((x) => x.key === key)
+    if (!k) throw new Error(`no keypad key ${key}`)
+    const centre = { x: k.rect.x + k.rect.w / 2, y: k.rect.y + k.rect.h / 2 }
+    for (let i = 0; i < times; i++) await this.clickUntil(centre, await this.keypadEffect(key))
+  }
+
+  /** Tests every line pair and the DC bus, lifting the probes from wherever they are. */
+  async proveDead() {
+    await this.probe('red', 'drive.l1')
+    await this.probe('black', 'drive.l2')
+    await this.probe('black', 'drive.l3')
+    await this.probe('red', 'drive.l2')
+    await this.probe('red', 'drive.l1')
+    await this.probe('red', 'drive.dcp')
+    await this.probe('black', 'drive.dcn')
   }
 
   /** Switches off, locks, and waits (time sped up) until the DC bus is below 30 V. */
   async isolateAndDischarge() {
-    await this.disconnect()
-    await this.lock()
+    await this.switchDisconnect('off')
+    await this.applyLock()
     await this.page.getByRole('tab', { name: 'Live values' }).click()
-    await this.page.getByRole('button', { name: 'Time runs 60 times faster' }).click()
+    await this.setTimeSpeed(60)
+    const bus = async () =>
+      Number(/(\d+) V/.exec((await this.page.getByTestId('live-bus').textContent()) ?? '')?.[1])
     const deadline = Date.now() + 60_000
-    while (Date.now() < deadline) {
-      const text = (await this.page.getByTestId('live-bus').textContent()) ?? ''
-      if (Number(/(\d+) V/.exec(text)?.[1]) < 30) break
+    while ((await bus()) >= 30) {
+      if (Date.now() > deadline)
+        throw new Error(`the DC bus is still at ${await bus()} V after a minute at 60×`)
       await this.page.waitForTimeout(200)
     }
-    await this.page.getByRole('button', { name: 'Time runs 1 times faster' }).click()
+    await this.setTimeSpeed(1)
   }
 
-  /** The canvas's accessible name, which states the drive's state and speed. */
+  /** Chooses how fast simulated time runs (a button beside the canvas). */
+  async setTimeSpeed(times: 1 | 10 | 60) {
+    const button = (n: number) => this.page.getByRole('button', { name: `Time runs ${n} times faster` })
+    await this.until(
+      {
+        action: `setting simulated time to ${times}×`,
+        expected: `time at ${times}×`,
+        observe: async () =>
+          ((await button(times).getAttribute('class')) ?? '').includes('v-btn--active')
+            ? `time at ${times}×`
+            : 'time at another speed',
+      },
+      () => button(times).click(),
+    )
+  }
+
   async summary(): Promise<string> {
-    return (await this.page.getByTestId('panel-canvas').getAttribute('aria-label')) ?? ''
+    return this.state.summary()
   }
 
   async rpm(): Promise<number> {
@@ -159,5 +310,66 @@ export class PanelDriver {
       await this.page.waitForTimeout(50)
     }
     throw new Error(`the panel never reached the expected state; last: ${last}`)
+  }
+
+  private async poll(effect: Effect): Promise<string> {
+    const deadline = Date.now() + EFFECT_WAIT_MS
+    let now = await effect.observe()
+    while (now !== effect.expected && Date.now() < deadline) {
+      await this.page.waitForTimeout(50)
+      now = await effect.observe()
+    }
+    return now
+  }
+
+  /** Lets the page finish a frame, so whatever the last gesture caused has been rendered. */
+  private async settle() {
+    await this.page.evaluate(
+      () => new Promise<void>((done) => requestAnimationFrame(() => setTimeout(done, 0))),
+    )
+  }
+
+  /**
+   * The page position of a scene point, once the canvas is scrolled into view and nothing covers that
+   * point (the loading veil, a fading dialog or menu, the sticky bar): a click there reaches the canvas.
+   */
+  private async pagePoint(p: Vec): Promise<Vec> {
+    const canvas = this.page.getByTestId('panel-canvas')
+    const deadline = Date.now() + CLEAR_WAIT_MS
+    for (;;) {
+      const spot = await canvas.evaluate(
+        (el, { p, scene }) => {
+          // Centred, so no part of the scene sits under the app's sticky top bar.
+          el.scrollIntoView({ block: 'center' })
+          const r = el.getBoundingClientRect()
+          const x = r.left + (p.x / scene.w) * r.width
+          const y = r.top + (p.y / scene.h) * r.height
+          const top = document.elementFromPoint(x, y)
+          const cover = top === el ? null : top ? `${top.tagName.toLowerCase()}.${top.className}` : 'nothing'
+          return { x, y, cover }
+        },
+        { p, scene: { w: SCENE_WIDTH, h: SCENE_HEIGHT } },
+      )
+      if (!spot.cover) return spot
+      if (Date.now() > deadline) {
+        throw new Error(`the canvas point ${JSON.stringify(p)} stays covered by ${spot.cover}`)
+      }
+      await this.page.waitForTimeout(100)
+    }
+  }
+
+  private async clickAt(p: Vec) {
+    const a = await this.pagePoint(p)
+    await this.page.mouse.click(a.x, a.y)
+  }
+
+  private async drag(from: Vec, to: Vec) {
+    const a = await this.pagePoint(from)
+    const b = await this.pagePoint(to)
+    await this.page.mouse.move(a.x, a.y)
+    await this.page.mouse.down()
+    await this.page.mouse.move((a.x + b.x) / 2, Math.max(a.y, b.y) + 40, { steps: 4 })
+    await this.page.mouse.move(b.x, b.y, { steps: 4 })
+    await this.page.mouse.up()
   }
 }

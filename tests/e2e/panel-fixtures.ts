@@ -1,10 +1,81 @@
-// Shared set-up for the panel's browser tests: sign in, find a scenario version, and a ready-made
-// event log of the raise/lower commissioning (what an apprentice's correct attempt records).
+// Shared set-up for the panel's browser tests: the app and a browser per test file, signing in,
+// opening a scenario on the panel, and ready-made event logs of the raise/lower commissioning (what
+// an apprentice's correct attempt records).
+import { readFileSync } from 'node:fs'
+import { resolve } from 'node:path'
+import { afterAll, beforeAll } from 'vitest'
 import type { Page } from 'playwright-core'
 import type { AttemptEvent } from '../../shared/model/events'
+import type { PanelDevice } from '../../src/panel/types'
 import { DEMO_ACCOUNTS } from '../../server/services/demo-accounts'
+import { launchBrowser, startApp, type BrowserSession, type RunningApp } from './support'
+import { PanelDriver } from './panel-driver'
 
 export const APPRENTICE = DEMO_ACCOUNTS.find((a) => a.role === 'apprentice')!
+
+export interface PanelTestBed {
+  app: RunningApp
+  browser: BrowserSession
+}
+
+/**
+ * Starts the app and a browser before the file's tests and stops both after them. Call it inside the
+ * `describe`; the fields are filled once `beforeAll` has run.
+ */
+export function panelTestBed(viewport: { width: number; height: number }): PanelTestBed {
+  const bed = {} as PanelTestBed
+  beforeAll(async () => {
+    bed.app = await startApp()
+    bed.browser = await launchBrowser(viewport)
+  })
+  afterAll(async () => {
+    await bed.browser?.close()
+    await bed.app?.stop()
+  })
+  return bed
+}
+
+/** A scenario document from scenarios/, as the server seeds it. */
+export function scenarioFile(key: string): { start: { devices: PanelDevice[] } } & Record<string, unknown> {
+  return JSON.parse(readFileSync(resolve(`scenarios/${key}.json`), 'utf8'))
+}
+
+export interface OpenPanel {
+  page: Page
+  panel: PanelDriver
+  /** Uncaught errors on the page since it was opened. */
+  pageErrors: string[]
+}
+
+/**
+ * Signs the apprentice in, opens a scenario on the simulator (with an optional query such as
+ * "?perf"), acknowledges the safety notice and waits until the panel has started.
+ */
+export async function openPanel(bed: PanelTestBed, scenarioKey: string, query = ''): Promise<OpenPanel> {
+  const { page } = bed.browser
+  await signInPage(page, bed.app.url)
+  return openSignedIn(page, bed.app.url, scenarioKey, query)
+}
+
+/** `openPanel` for a page that is already signed in. */
+export async function openSignedIn(
+  page: Page,
+  url: string,
+  scenarioKey: string,
+  query = '',
+): Promise<OpenPanel> {
+  const pageErrors: string[] = []
+  page.on('pageerror', (e) => pageErrors.push(e.message))
+  await page.goto(`${url}/simulator/${scenarioKey}${query}`)
+  await dismissSafetyNotice(page)
+  const panel = new PanelDriver(page, scenarioFile(scenarioKey).start.devices)
+  try {
+    await panel.ready()
+  } catch (e) {
+    throw new Error(`${(e as Error).message}\npage errors: ${pageErrors.join('\n') || 'none'}`)
+  }
+  return { page, panel, pageErrors }
+}
 
 export async function signInPage(page: Page, url: string) {
   await page.goto(url)
@@ -36,12 +107,14 @@ export async function scenarioVersionId(url: string, token: string, key: string)
   return ((await res.json()) as { id: string }).id
 }
 
-/** Acknowledges the first-run safety notice if it is shown. */
+/** Acknowledges the first-run safety notice if it is shown, and waits until it has gone. */
 export async function dismissSafetyNotice(page: Page) {
-  await page
-    .getByTestId('safety-understood')
+  const understood = page.getByTestId('safety-understood')
+  const shown = await understood
     .click({ timeout: 15_000 })
-    .catch(() => undefined)
+    .then(() => true)
+    .catch(() => false)
+  if (shown) await understood.waitFor({ state: 'hidden', timeout: 15_000 })
 }
 
 const wire = (t: number, id: string, from: string, to: string): AttemptEvent => ({

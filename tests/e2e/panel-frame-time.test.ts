@@ -1,11 +1,12 @@
 // Frame cost while the motor runs, measured in Chromium over 600 frames: the panel's own script
 // time per frame (model advance, view, scene update and Pixi's draw calls). The attempt is restored
 // from the browser's local storage, which is also how a reload loses nothing.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { launchBrowser, screenshot, startApp, type BrowserSession, type RunningApp } from './support'
+import { describe, expect, it } from 'vitest'
+import { screenshot } from './support'
 import {
   apiToken,
-  dismissSafetyNotice,
+  openSignedIn,
+  panelTestBed,
   raiseLowerRunningLog,
   scenarioVersionId,
   signInPage,
@@ -20,23 +21,13 @@ const percentile = (sorted: number[], p: number) =>
   sorted[Math.min(sorted.length - 1, Math.floor((p / 100) * sorted.length))]
 
 describe('the panel while the motor runs', () => {
-  let app: RunningApp
-  let browser: BrowserSession
-
-  beforeAll(async () => {
-    app = await startApp()
-    browser = await launchBrowser({ width: 1280, height: 900 })
-  })
-
-  afterAll(async () => {
-    await browser?.close()
-    await app?.stop()
-  })
+  const bed = panelTestBed({ width: 1280, height: 900 })
 
   it('resumes a saved attempt after a reload and measures 600 frames of script time', async () => {
-    const { page } = browser
-    await signInPage(page, app.url)
-    const versionId = await scenarioVersionId(app.url, await apiToken(app.url), 'raise-lower-commissioning')
+    const { page } = bed.browser
+    const { url } = bed.app
+    await signInPage(page, url)
+    const versionId = await scenarioVersionId(url, await apiToken(url), 'raise-lower-commissioning')
     const events = raiseLowerRunningLog()
     await page.evaluate(
       ([key, log]) =>
@@ -51,8 +42,7 @@ describe('the panel while the motor runs', () => {
         ),
       [`slipway.attempt.practice.${versionId}`, events] as const,
     )
-    await page.goto(`${app.url}/simulator/raise-lower-commissioning?perf`)
-    await dismissSafetyNotice(page)
+    const { panel } = await openSignedIn(page, url, 'raise-lower-commissioning', '?perf')
     await page
       .getByText(`Resumed the attempt saved in this browser (${events.length} actions)`)
       .waitFor({ timeout: 30_000 })
@@ -61,11 +51,8 @@ describe('the panel while the motor runs', () => {
       null,
       { timeout: 30_000 },
     )
-    const canvas = page.getByTestId('panel-canvas')
-    await canvas.scrollIntoViewIfNeeded()
-    await expect
-      .poll(async () => canvas.getAttribute('aria-label'), { timeout: 20_000 })
-      .toMatch(/running, 1\d{3} rpm, 7 wires/)
+    await page.getByTestId('panel-canvas').scrollIntoViewIfNeeded()
+    await expect.poll(() => panel.summary(), { timeout: 20_000 }).toMatch(/running, 1\d{3} rpm, 7 wires/)
 
     await page.evaluate(() => ((globalThis as unknown as FramePage).__slipwayFrameTimes = []))
     await page.waitForFunction(

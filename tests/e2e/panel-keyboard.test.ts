@@ -1,9 +1,11 @@
 // The same commissioning job with the keyboard only: probes and wires chosen from lists, the
 // keypad and disconnect as buttons, FASTER/SLOWER held with their letter keys, submit with Enter.
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
-import { launchBrowser, screenshot, startApp, type BrowserSession, type RunningApp } from './support'
-import { dismissSafetyNotice, signInPage } from './panel-fixtures'
+import type { KeypadKey } from '../../src/panel/types'
+import { screenshot } from './support'
+import { openPanel, panelTestBed } from './panel-fixtures'
+import type { PanelDriver } from './panel-driver'
 
 async function choose(page: Page, label: string, query: string) {
   // The input comes first: while its menu is open, the (teleported) listbox carries the same label.
@@ -33,6 +35,19 @@ async function press(page: Page, name: string | RegExp, times = 1) {
   }
 }
 
+const KEY_NAMES: Partial<Record<KeypadKey, string>> = { enter: 'OK', down: 'Down', back: 'Back' }
+
+/** Presses a keypad button with Enter, each press checked in the saved attempt (see PanelDriver.until). */
+async function pressKeypad(panel: PanelDriver, key: KeypadKey, times: number) {
+  const button = panel.page.getByRole('button', { name: `Keypad ${KEY_NAMES[key]}`, exact: true })
+  for (let i = 0; i < times; i++) {
+    await panel.until(await panel.keypadEffect(key), async () => {
+      await button.focus()
+      await panel.page.keyboard.press('Enter')
+    })
+  }
+}
+
 async function leaveFields(page: Page) {
   await page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur())
 }
@@ -49,25 +64,10 @@ async function waitForLabel(page: Page, re: RegExp, timeout = 30_000) {
 }
 
 describe('commissioning raise/lower with the keyboard only', () => {
-  let app: RunningApp
-  let browser: BrowserSession
-
-  beforeAll(async () => {
-    app = await startApp()
-    browser = await launchBrowser({ width: 1600, height: 1000 })
-  })
-
-  afterAll(async () => {
-    await browser?.close()
-    await app?.stop()
-  })
+  const bed = panelTestBed({ width: 1600, height: 1000 })
 
   it('can be done and submitted without touching the canvas', async () => {
-    const { page } = browser
-    await signInPage(page, app.url)
-    await page.goto(`${app.url}/simulator/raise-lower-commissioning`)
-    await dismissSafetyNotice(page)
-    await page.getByTestId('panel-canvas').waitFor({ timeout: 30_000 })
+    const { page, panel } = await openPanel(bed, 'raise-lower-commissioning')
 
     // Prove dead with the probe lists.
     const pairs: [string, string][] = [
@@ -105,44 +105,45 @@ describe('commissioning raise/lower with the keyboard only', () => {
     await screenshot(page, 'panel-keyboard-02-wired')
 
     await press(page, 'Remove my lock from the disconnect')
+    await waitForLabel(page, /disconnect off\./)
     await press(page, /^Disconnect: OFF/)
     await waitForLabel(page, /drive ready/)
 
     // Program with the keypad buttons (same key sequence as by mouse).
-    const keys: [string, number][] = [
-      ['OK', 1],
-      ['Down', 1],
-      ['OK', 2],
-      ['Down', 1],
-      ['OK', 1],
-      ['Back', 1],
-      ['Down', 1],
-      ['OK', 1],
-      ['Down', 1],
-      ['OK', 1],
-      ['Down', 1],
-      ['OK', 1],
-      ['Down', 1],
-      ['OK', 1],
-      ['Down', 4],
-      ['OK', 1],
-      ['Down', 1],
-      ['OK', 1],
-      ['Down', 5],
-      ['OK', 1],
-      ['Back', 1],
-      ['Down', 1],
-      ['OK', 2],
-      ['Down', 1],
-      ['OK', 1],
-      ['Back', 2],
+    const keys: [KeypadKey, number][] = [
+      ['enter', 1],
+      ['down', 1],
+      ['enter', 2],
+      ['down', 1],
+      ['enter', 1],
+      ['back', 1],
+      ['down', 1],
+      ['enter', 1],
+      ['down', 1],
+      ['enter', 1],
+      ['down', 1],
+      ['enter', 1],
+      ['down', 1],
+      ['enter', 1],
+      ['down', 4],
+      ['enter', 1],
+      ['down', 1],
+      ['enter', 1],
+      ['down', 5],
+      ['enter', 1],
+      ['back', 1],
+      ['down', 1],
+      ['enter', 2],
+      ['down', 1],
+      ['enter', 1],
+      ['back', 2],
     ]
-    for (const [key, times] of keys) await press(page, `Keypad ${key}`, times)
+    for (const [key, times] of keys) await pressKeypad(panel, key, times)
     await screenshot(page, 'panel-keyboard-03-programmed')
 
     // Run with the selector's letter, raise by holding F, trim with F / S taps.
     await leaveFields(page)
-    await page.keyboard.press('i')
+    await panel.until(panel.selectorEffect('runSwitch', 1), () => page.keyboard.press('i'))
     await waitForLabel(page, /drive (speeding up|running)/)
     await page.keyboard.down('f')
     await expect.poll(() => rpm(page), { timeout: 40_000, interval: 50 }).toBeGreaterThanOrEqual(1150)
@@ -166,7 +167,7 @@ describe('commissioning raise/lower with the keyboard only', () => {
     await page.keyboard.down('s')
     await page.waitForTimeout(2500)
     await page.keyboard.up('s')
-    await page.keyboard.press('i')
+    await panel.until(panel.selectorEffect('runSwitch', 0), () => page.keyboard.press('i'))
     await waitForLabel(page, / 0 rpm/)
 
     await page.getByRole('tab', { name: 'Task' }).focus()

@@ -2,12 +2,19 @@
 // the speed recorded at that time, and the timeline marks the events.
 import { readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
-import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { beforeAll, describe, expect, it } from 'vitest'
 import { replay, sampleTimeline } from '../../shared/model'
 import { toSimulationSetup } from '../../shared/scenario/setup'
 import { scenarioSchema } from '../../shared/scenario/schema'
-import { launchBrowser, screenshot, startApp, type BrowserSession, type RunningApp } from './support'
-import { apiToken, raiseLowerCompleteLog, scenarioVersionId, signInPage } from './panel-fixtures'
+import { screenshot } from './support'
+import {
+  apiToken,
+  panelTestBed,
+  raiseLowerCompleteLog,
+  scenarioVersionId,
+  signInPage,
+} from './panel-fixtures'
+import { PanelDriver } from './panel-driver'
 
 const scenario = scenarioSchema.parse(
   JSON.parse(readFileSync(resolve('scenarios/raise-lower-commissioning.json'), 'utf8')),
@@ -20,21 +27,19 @@ function parseTime(text: string): number {
 }
 
 describe('replaying an attempt', () => {
-  let app: RunningApp
-  let browser: BrowserSession
+  const bed = panelTestBed({ width: 1400, height: 1000 })
   let attemptId: string
   const events = raiseLowerCompleteLog()
 
   beforeAll(async () => {
-    app = await startApp()
-    browser = await launchBrowser({ width: 1400, height: 1000 })
-    const token = await apiToken(app.url)
-    const res = await fetch(`${app.url}/api/attempts`, {
+    const { url } = bed.app
+    const token = await apiToken(url)
+    const res = await fetch(`${url}/api/attempts`, {
       method: 'POST',
       headers: { 'content-type': 'application/json', authorization: `Bearer ${token}` },
       body: JSON.stringify({
         id: crypto.randomUUID(),
-        scenarioId: await scenarioVersionId(app.url, token, 'raise-lower-commissioning'),
+        scenarioId: await scenarioVersionId(url, token, 'raise-lower-commissioning'),
         status: 'submitted',
         events,
       }),
@@ -43,16 +48,12 @@ describe('replaying an attempt', () => {
     attemptId = ((await res.json()) as { id: string }).id
   })
 
-  afterAll(async () => {
-    await browser?.close()
-    await app?.stop()
-  })
-
   it('shows the speed recorded at the time scrubbed to', async () => {
-    const { page } = browser
-    await signInPage(page, app.url)
-    await page.goto(`${app.url}/replay/${attemptId}`)
-    await page.getByTestId('panel-canvas').waitFor({ timeout: 30_000 })
+    const { page } = bed.browser
+    await signInPage(page, bed.app.url)
+    await page.goto(`${bed.app.url}/replay/${attemptId}`)
+    const panel = new PanelDriver(page, scenario.start.devices)
+    await panel.ready()
     await page.getByTestId('replay-slider').scrollIntoViewIfNeeded()
     await screenshot(page, 'panel-replay-01-start')
 
@@ -66,9 +67,7 @@ describe('replaying an attempt', () => {
     const expected = Math.round(sampleTimeline(replay(toSimulationSetup(scenario), events), t).speedRpm)
     expect(expected).toBeGreaterThan(0)
     await expect.poll(async () => page.getByTestId('live-rpm').first().textContent()).toBe(`${expected} rpm`)
-    await expect
-      .poll(async () => page.getByTestId('panel-canvas').getAttribute('aria-label'))
-      .toContain(`${expected} rpm`)
+    await expect.poll(() => panel.summary()).toContain(`${expected} rpm`)
     await screenshot(page, 'panel-replay-02-scrubbed')
 
     // Playing on from there at 16× reaches the end of the attempt: the motor stopped by ramp.
