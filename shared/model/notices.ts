@@ -10,18 +10,23 @@ function fnLabel(fn: InputFunction): string {
   return option ? option.label.toLowerCase() : fn
 }
 
-const alarmCache = new WeakMap<
-  SettingValues,
-  { normal?: Notice<AlarmCode>[]; overloaded?: Notice<AlarmCode>[] }
->()
+type AlarmEntry = { normal?: Notice<AlarmCode>[]; overloaded?: Notice<AlarmCode>[] }
+
+const alarmCache = new WeakMap<SettingValues, AlarmEntry>()
+
+// Every reading asks, and a replay's readings ask about the same settings object in long runs.
+let lastSettings: SettingValues | null = null
+let lastEntry: AlarmEntry = {}
 
 /** Alarms for the saved settings (cached per settings object: settings are replaced, never mutated). */
 export function alarmsFor(settings: SettingValues, referenceOverloaded: boolean): Notice<AlarmCode>[] {
-  let entry = alarmCache.get(settings)
+  let entry = settings === lastSettings ? lastEntry : alarmCache.get(settings)
   if (!entry) {
     entry = {}
     alarmCache.set(settings, entry)
   }
+  lastSettings = settings
+  lastEntry = entry
   const slot = referenceOverloaded ? 'overloaded' : 'normal'
   return (entry[slot] ??= computeAlarms(settings, referenceOverloaded))
 }

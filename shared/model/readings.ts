@@ -15,7 +15,7 @@ import {
   PROVER_VOLTS,
   type PointId,
 } from './points'
-import { activeReference, isOutputOn } from './simulation'
+import { activeReference, isOutputOn } from './settle'
 import type { CircuitReading, DriveReading, MeterReading, SimState } from './types'
 
 function round(value: number, digits = 9): number {
@@ -132,6 +132,35 @@ export function readCircuit(state: SimState): CircuitReading {
   }
 }
 
+/**
+ * True when readDrive(a) and readDrive(b) are equal: every part of the state that readDrive reads is the
+ * same object or value in both (states share the parts an event leaves alone, so identity is enough).
+ * Lets a reader of a replay share one reading between two states of one moment, such as the states
+ * before and after a meter probe moves. Keep in step with readDrive and activeReference.
+ */
+export function sameDriveReading(a: SimState, b: SimState): boolean {
+  return (
+    a === b ||
+    (a.t === b.t &&
+      a.settings.active === b.settings.active &&
+      a.drive === b.drive &&
+      a.power === b.power &&
+      a.bus === b.bus &&
+      a.speed === b.speed &&
+      a.reference === b.reference &&
+      a.inputs === b.inputs &&
+      a.circuit === b.circuit &&
+      a.machine === b.machine &&
+      a.lineVolts === b.lineVolts &&
+      (a.messages === b.messages || (a.messages.length === 0 && b.messages.length === 0)))
+  )
+}
+
+// A reading shares arrays with its state and with other readings (messages and alarms always did), so
+// that a long replay read moment by moment makes no copies: readings are read-only, like the state.
+const NO_FAULTS: DriveReading['faults'] = []
+const NO_ALARMS: DriveReading['alarms'] = []
+
 export function readDrive(state: SimState): DriveReading {
   const a = state.settings.active
   const value = state.drive.value
@@ -159,8 +188,8 @@ export function readDrive(state: SimState): DriveReading {
     outputHz: round(Math.abs(hz)),
     speedRpm: round(rpm),
     synchronousRpm: round(synchronousRpm(Math.abs(hz), poles)),
-    alarms: state.bus.controlOn ? alarmsFor(a, state.circuit.referenceOverloaded) : [],
-    faults: context.faults.map(faultNotice),
+    alarms: state.bus.controlOn ? alarmsFor(a, state.circuit.referenceOverloaded) : NO_ALARMS,
+    faults: context.faults.length === 0 ? NO_FAULTS : context.faults.map(faultNotice),
     tripped: value.fault === 'tripped',
     restartInterlock:
       context.interlock &&
@@ -168,7 +197,7 @@ export function readDrive(state: SimState): DriveReading {
       a['control.source'] === 'terminals' &&
       value.control === 'stopped',
     relayClosed: state.circuit.relayClosed,
-    inputs: [...state.inputs],
+    inputs: state.inputs,
     messages: state.messages,
   }
 }

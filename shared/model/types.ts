@@ -199,6 +199,7 @@ export interface CircuitReading {
   meter: MeterReading
 }
 
+/** Read-only: shares arrays (inputs, messages, alarms, faults) with its state and other readings. */
 export interface DriveReading {
   t: number
   power: PowerState

@@ -1,8 +1,8 @@
 // Safe-practice facts shared by the safety objectives and the separate list of safety violations.
-import { POINT_LABELS, type AttemptEvent } from '../model'
+import { POINT_LABELS, type AttemptEvent, type SimState } from '../model'
 import { formatTime, formatVolts } from './format'
 import { SAFE_VOLTS } from './objectiveSchema'
-import { isTerminalWork, type AttemptTrace, type Sample } from './samples'
+import { firstSampleFrom, isTerminalWork, type AttemptTrace, type Sample } from './samples'
 
 export interface SafetyViolation {
   kind: 'workWhileEnergised' | 'workWithoutLock' | 'workWithoutProvingDead'
@@ -33,13 +33,19 @@ export const DEFAULT_DEAD_PAIRS: readonly (readonly [string, string])[] = [
   ['drive.dcp', 'drive.dcn'],
 ]
 
-export function terminalWork(trace: AttemptTrace): TerminalWork[] {
-  const work: TerminalWork[] = []
-  for (const sample of trace.samples) {
-    if (sample.at !== 'before') continue
-    const event = trace.events[sample.eventIndex]
-    if (isTerminalWork(event))
-      work.push({ t: sample.t, eventIndex: sample.eventIndex, event, before: sample })
+// One list per trace: the safety violations and three safe-practice objectives all ask for it.
+const workByTrace = new WeakMap<AttemptTrace, TerminalWork[]>()
+
+export function terminalWork(trace: AttemptTrace): readonly TerminalWork[] {
+  let work = workByTrace.get(trace)
+  if (!work) {
+    work = []
+    for (const [eventIndex, event] of trace.events.entries()) {
+      if (!isTerminalWork(event)) continue
+      const before = trace.before(eventIndex)
+      work.push({ t: before.t, eventIndex, event, before })
+    }
+    workByTrace.set(trace, work)
   }
   return work
 }
@@ -70,23 +76,39 @@ export function energised(sample: Sample, thresholdVolts = SAFE_VOLTS): string |
   return null
 }
 
+/** Times of the last lock.applied and the last power.off among the first n events, for each n. */
+interface IsolationEvents {
+  lastLockT: (number | undefined)[]
+  lastOffT: (number | undefined)[]
+}
+
+// One pass per trace: every terminal work asks which lock (or switch-off) it falls under.
+const isolationByTrace = new WeakMap<AttemptTrace, IsolationEvents>()
+
+function isolationEvents(trace: AttemptTrace): IsolationEvents {
+  let found = isolationByTrace.get(trace)
+  if (!found) {
+    const lastLockT: (number | undefined)[] = [undefined]
+    const lastOffT: (number | undefined)[] = [undefined]
+    for (const event of trace.events) {
+      lastLockT.push(event.type === 'lock.applied' ? event.t : lastLockT[lastLockT.length - 1])
+      lastOffT.push(event.type === 'power.off' ? event.t : lastOffT[lastOffT.length - 1])
+    }
+    found = { lastLockT, lastOffT }
+    isolationByTrace.set(trace, found)
+  }
+  return found
+}
+
 /** The lock.applied that a moment falls under (the latest one before it, still in force), if any. */
 export function lockInForce(trace: AttemptTrace, sample: Sample): number | undefined {
   if (!sample.state.power.locked) return undefined
-  for (let i = sample.applied - 1; i >= 0; i--) {
-    if (trace.events[i].type === 'lock.applied') return trace.events[i].t
-  }
-  return 0 // locked from the start
+  return isolationEvents(trace).lastLockT[sample.applied] ?? 0 // locked from the start
 }
 
 /** Where a proof of dead must start: the lock in force, else the last switch-off (else the start). */
 export function isolationStart(trace: AttemptTrace, sample: Sample): number {
-  const lockT = lockInForce(trace, sample)
-  if (lockT !== undefined) return lockT
-  for (let i = sample.applied - 1; i >= 0; i--) {
-    if (trace.events[i].type === 'power.off') return trace.events[i].t
-  }
-  return 0
+  return lockInForce(trace, sample) ?? isolationEvents(trace).lastOffT[sample.applied] ?? 0
 }
 
 export interface DeadTest {
@@ -96,9 +118,33 @@ export interface DeadTest {
   proved: boolean
 }
 
-function onPair(sample: Sample, pair: readonly [string, string]): boolean {
-  const { red, black } = sample.state.meter
+function onPair({ red, black }: SimState['meter'], pair: readonly [string, string]): boolean {
   return (red === pair[0] && black === pair[1]) || (red === pair[1] && black === pair[0])
+}
+
+// The samples with the meter on a pair, found once per trace and pair: the safety violations and the
+// objectives ask about the same pairs for every terminal work.
+const onPairByTrace = new WeakMap<AttemptTrace, Map<readonly [string, string], Sample[]>>()
+
+function samplesOnPair(trace: AttemptTrace, pair: readonly [string, string]): readonly Sample[] {
+  let byPair = onPairByTrace.get(trace)
+  if (!byPair) onPairByTrace.set(trace, (byPair = new Map()))
+  let samples = byPair.get(pair)
+  if (!samples) {
+    samples = []
+    // Samples between two probe moves share one meter object: look at each placement once.
+    let meter: SimState['meter'] | undefined
+    let on = false
+    for (const sample of trace.samples) {
+      if (sample.state.meter !== meter) {
+        meter = sample.state.meter
+        on = onPair(meter, pair)
+      }
+      if (on) samples.push(sample)
+    }
+    byPair.set(pair, samples)
+  }
+  return samples
 }
 
 /** Meter readings on each pair within [from, to]: proved when one read below the threshold. */
@@ -111,11 +157,11 @@ export function deadTests(
 ): DeadTest[] {
   return pairs.map((pair) => {
     let lowest: DeadTest['lowest']
-    for (const sample of trace.samples) {
-      if (sample.t < from || sample.t > to || !onPair(sample, pair)) continue
-      const volts = trace.circuit(sample).meter.volts
+    const measured = samplesOnPair(trace, pair)
+    for (let i = firstSampleFrom(measured, from); i < measured.length && measured[i].t <= to; i++) {
+      const volts = trace.circuit(measured[i]).meter.volts
       if (volts === null) continue
-      if (!lowest || Math.abs(volts) < lowest.volts) lowest = { volts: Math.abs(volts), t: sample.t }
+      if (!lowest || Math.abs(volts) < lowest.volts) lowest = { volts: Math.abs(volts), t: measured[i].t }
     }
     return { pair, lowest, proved: lowest !== undefined && lowest.volts < thresholdVolts }
   })
@@ -127,8 +173,11 @@ export function meterProved(
   from: number,
   to: number,
 ): { t: number; volts: number } | undefined {
-  for (const sample of trace.samples) {
-    if (sample.t < from || sample.t > to) continue
+  const { samples } = trace
+  for (let i = firstSampleFrom(samples, from); i < samples.length && samples[i].t <= to; i++) {
+    const sample = samples[i]
+    // A lifted probe reads nothing: no need to solve the circuit to know it.
+    if (sample.state.meter.red === null || sample.state.meter.black === null) continue
     const volts = trace.circuit(sample).meter.volts
     if (volts !== null && Math.abs(volts) >= PROVING_VOLTS) return { t: sample.t, volts: Math.abs(volts) }
   }

@@ -1,9 +1,10 @@
-// `npm run bench`: every benchmark in one table. BENCH_ONLY=bundle,model,api,frame picks some.
+// `npm run bench`: every benchmark in one table. BENCH_ONLY=bundle,model,grade,api,frame picks some.
 // Needs the production build for bundle and frame (npm run build:client).
 import { cpus, loadavg } from 'node:os'
 import { runApiBench } from './api.bench'
 import { runBundleBench } from './bundle.bench'
 import { runFrameBench } from './frame.bench'
+import { runGradeBenchmark, type GradeBenchResult } from './grade.bench'
 import { runModelBenchmark, type ModelBenchResult } from './model.bench'
 import { formatTable, type BenchRow } from './table'
 
@@ -36,9 +37,39 @@ function modelRows(result: ModelBenchResult): BenchRow[] {
   ]
 }
 
+function gradeRows(result: GradeBenchResult): BenchRow[] {
+  const group = 'grade'
+  const name = `grade() of a ${result.events}-event attempt`
+  const baseline = (figure: string, value: number) => ({ name: `replay() ${figure}`, value })
+  return [
+    {
+      group,
+      name: `${name} (median)`,
+      value: result.grade.medianMs,
+      unit: 'ms',
+      baseline: baseline('median', result.replay.medianMs),
+    },
+    {
+      group,
+      name: `${name} (p90)`,
+      value: result.grade.p90Ms,
+      unit: 'ms',
+      baseline: baseline('p90', result.replay.p90Ms),
+    },
+    {
+      group,
+      name: `${name} (best)`,
+      value: result.grade.bestMs,
+      unit: 'ms',
+      baseline: baseline('best', result.replay.bestMs),
+    },
+  ]
+}
+
 const BENCHES: Record<string, () => BenchRow[] | Promise<BenchRow[]>> = {
   bundle: runBundleBench,
   model: () => modelRows(runModelBenchmark()),
+  grade: () => gradeRows(runGradeBenchmark()),
   api: runApiBench,
   frame: runFrameBench,
 }

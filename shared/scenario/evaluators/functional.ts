@@ -1,7 +1,8 @@
 // functionalCheck: with the drive running, holding a button moves the reference the right way;
 // optionally, once released, the reference stays put (a creeping reference fails here).
+import type { AttemptEvent } from '../../model'
 import { formatHz, formatSeconds, formatTime, upperFirst } from '../format'
-import { isRunning, type Sample } from '../samples'
+import { firstSampleFrom, isRunning, type Sample } from '../samples'
 import type { Evaluator } from './types'
 
 // Both limits are our own choices: well above rounding, well below one raise/lower step.
@@ -29,9 +30,7 @@ export const functionalCheck: Evaluator<'functionalCheck'> = (objective, { trace
       }
       continue
     }
-    const releaseIndex = samples.findIndex(
-      (s, j) => j > i && s.at === 'before' && isReleaseOf(events[s.eventIndex], objective.device),
-    )
+    const releaseIndex = nextRelease(samples, events, i, objective.device)
     const released: Sample = releaseIndex >= 0 ? samples[releaseIndex] : trace.stateAt(trace.end)
     const change = released.drive.referenceHz - pressed.drive.referenceHz
     const moved = objective.effect === 'raises' ? change >= MOVED_HZ : change <= -MOVED_HZ
@@ -61,7 +60,10 @@ export const functionalCheck: Evaluator<'functionalCheck'> = (objective, { trace
       }
       continue
     }
-    const window = samples.filter((s) => s.t > releasedAfter.t && s.t <= windowEnd)
+    const window = samples.slice(
+      firstSampleFrom(samples, releasedAfter.t, true),
+      firstSampleFrom(samples, windowEnd, true),
+    )
     window.push(trace.stateAt(windowEnd))
     const baseHz = releasedAfter.drive.referenceHz
     const drifted = window.find(
@@ -86,6 +88,19 @@ export const functionalCheck: Evaluator<'functionalCheck'> = (objective, { trace
   }
   if (!lastMiss) return { met: false, evidence: `${label} was never pressed while the drive was running.` }
   return { met: false, evidence: lastMiss.text, at: lastMiss.at }
+}
+
+/** Index of the first sample after `from` just before the device is released, or -1. */
+function nextRelease(
+  samples: readonly Sample[],
+  events: readonly AttemptEvent[],
+  from: number,
+  device: string,
+): number {
+  for (let j = from + 1; j < samples.length; j++) {
+    if (samples[j].at === 'before' && isReleaseOf(events[samples[j].eventIndex], device)) return j
+  }
+  return -1
 }
 
 function isReleaseOf(event: { type: string; device?: string } | undefined, device: string): boolean {

@@ -1,14 +1,16 @@
 // noFaultTrips, noAlarms, faultFoundAndCleared, finishedWithin.
-import type { FaultCode, SimState } from '../../model'
+import type { FaultCode, Notice, SimState } from '../../model'
 import { formatTime, joinTexts, upperFirst } from '../format'
 import type { ScenarioFault } from '../schema'
 import type { Evaluator } from './types'
 
 export const noFaultTrips: Evaluator<'noFaultTrips'> = (_objective, { trace }) => {
   const { samples } = trace
-  let previous = new Set<FaultCode>(samples[0].drive.faults.map((f) => f.code))
+  // A fault is fresh when the sample before did not have it (the lists hold one or two faults).
+  let previous: readonly Notice<FaultCode>[] = samples[0].drive.faults
   for (const sample of samples) {
-    const fresh = sample.drive.faults.filter((f) => !previous.has(f.code))
+    const { faults } = sample.drive
+    const fresh = faults.filter((f) => !previous.some((p) => p.code === f.code))
     if (fresh.length > 0) {
       return {
         met: false,
@@ -16,14 +18,14 @@ export const noFaultTrips: Evaluator<'noFaultTrips'> = (_objective, { trace }) =
         at: sample.t,
       }
     }
-    previous = new Set(sample.drive.faults.map((f) => f.code))
+    previous = faults
   }
   return { met: true, evidence: 'The drive never tripped.' }
 }
 
 export const noAlarms: Evaluator<'noAlarms'> = (_objective, { trace }) => {
   // The last moment the display was alive: a dark drive shows no alarm but has not cleared one.
-  const lit = [...trace.samples].reverse().find((s) => s.drive.displayOn)
+  const lit = trace.samples.findLast((s) => s.drive.displayOn)
   if (!lit) return { met: false, evidence: 'The drive was never powered, so its alarms were never seen.' }
   if (lit.drive.alarms.length > 0) {
     return {
@@ -32,9 +34,8 @@ export const noAlarms: Evaluator<'noAlarms'> = (_objective, { trace }) => {
       at: lit.t,
     }
   }
-  const alarmed = trace.samples.filter((s) => s.drive.alarms.length > 0)
-  const cleared =
-    alarmed.length > 0 ? ` (last alarm seen at ${formatTime(alarmed[alarmed.length - 1].t)})` : ''
+  const lastAlarmed = trace.samples.findLast((s) => s.drive.alarms.length > 0)
+  const cleared = lastAlarmed ? ` (last alarm seen at ${formatTime(lastAlarmed.t)})` : ''
   return { met: true, evidence: `No alarm shown at ${formatTime(lit.t)}${cleared}.`, at: lit.t }
 }
 

@@ -9,13 +9,19 @@ interface Point {
   v: number
 }
 
+/** When the line through `a` with this slope reaches v. */
+function timeAt(a: Point, slope: number, v: number): number {
+  return a.t + (v - a.v) / slope
+}
+
 /** Sub-interval of [a.t, b.t] where the linear value lies within [lo, hi], or null. */
 export function insideBand(a: Point, b: Point, lo: number, hi: number): [number, number] | null {
   if (b.t === a.t) return a.v >= lo && a.v <= hi ? [a.t, a.t] : null
   const slope = (b.v - a.v) / (b.t - a.t)
   if (slope === 0) return a.v >= lo && a.v <= hi ? [a.t, b.t] : null
-  const tAt = (v: number) => a.t + (v - a.v) / slope
-  const [t1, t2] = slope > 0 ? [tAt(lo), tAt(hi)] : [tAt(hi), tAt(lo)]
+  // Rising, the line enters the band at lo and leaves it at hi; falling, the other way round.
+  const t1 = timeAt(a, slope, slope > 0 ? lo : hi)
+  const t2 = timeAt(a, slope, slope > 0 ? hi : lo)
   const from = Math.max(a.t, t1)
   const to = Math.min(b.t, t2)
   return from <= to ? [from, to] : null

@@ -10,20 +10,26 @@ import type { Evaluator } from './types'
 
 const POSITION_TOLERANCE = 1e-3
 
-function conditionHolds(condition: DeviceCondition, state: SimState): boolean {
-  const device = (id: string) => state.devices[id]
-  if (condition.held?.some((id) => !device(id)?.pressed)) return false
-  if (condition.released?.some((id) => device(id)?.pressed ?? true)) return false
-  for (const [id, position] of Object.entries(condition.positions ?? {})) {
-    const d = device(id)
-    if (!d || Math.abs(d.position - position) > POSITION_TOLERANCE) return false
-  }
-  if (condition.nothingHeld) {
-    for (const id of state.deviceOrder) {
-      if (state.devices[id].spec.kind === 'pushbutton' && state.devices[id].pressed) return false
+/** A test of the condition on a state, made once per objective (it runs on every sample). */
+function conditionTest(condition: DeviceCondition): (state: SimState) => boolean {
+  const held = condition.held ?? []
+  const released = condition.released ?? []
+  const positions = Object.entries(condition.positions ?? {})
+  return (state) => {
+    const { devices } = state
+    if (held.some((id) => !devices[id]?.pressed)) return false
+    if (released.some((id) => devices[id]?.pressed ?? true)) return false
+    for (const [id, position] of positions) {
+      const d = devices[id]
+      if (!d || Math.abs(d.position - position) > POSITION_TOLERANCE) return false
     }
+    if (condition.nothingHeld) {
+      for (const id of state.deviceOrder) {
+        if (devices[id].spec.kind === 'pushbutton' && devices[id].pressed) return false
+      }
+    }
+    return true
   }
-  return true
 }
 
 export function describeCondition(condition: DeviceCondition, state: SimState): string {
@@ -92,10 +98,11 @@ function judgeMoment(
 
 export const wiringCondition: Evaluator<'wiringCondition'> = (objective, { trace }) => {
   // Only the last qualifying moment decides, so search from the end (the circuit is solved lazily).
+  const holds = conditionTest(objective.while)
   let last: { sample: Sample; judgement: Judgement } | undefined
   for (let i = trace.samples.length - 1; i >= 0 && !last; i--) {
     const sample = trace.samples[i]
-    if (!conditionHolds(objective.while, sample.state) || !trace.circuit(sample).supplyOn) continue
+    if (!holds(sample.state) || !trace.circuit(sample).supplyOn) continue
     last = { sample, judgement: judgeMoment(objective, sample, trace) }
   }
   const initial = trace.samples[0].state
