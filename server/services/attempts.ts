@@ -186,14 +186,17 @@ export async function submitAttempt(
     checkRules(assignment, events, used, now)
   }
   const submitting = body.status === 'submitted'
-  const grade = submitting ? await ctx.grading.grade(scenario, events) : null
+  // Serialised once: the row stores this text, and the grading thread parses it (cheaper than cloning
+  // thousands of event objects across the thread boundary).
+  const eventsJson = JSON.stringify(events)
+  const grade = submitting ? await ctx.grading.grade(scenario, eventsJson) : null
   const row: AttemptRow = {
     id: body.id,
     userId: user.id,
     assignmentId: assignment?.id ?? null,
     scenarioId: scenario.id,
     status: body.status,
-    events: JSON.stringify(events),
+    events: eventsJson,
     eventCount: events.length,
     late: Boolean(assignment && submitting && now > assignment.dueAt),
     startedAt: existing?.startedAt ?? now,

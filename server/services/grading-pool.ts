@@ -3,12 +3,12 @@
 // worker threads (piscina) grades instead, and the event loop only parses, checks and stores. With no
 // threads (tests inside Vitest, or GRADING_THREADS=0) the same task runs inline.
 import { Piscina } from 'piscina'
-import type { AttemptEvent } from '@shared/model'
 import { outcomeOf, type GradeOutcome } from './grading'
 import gradeTask, { type GradeTask } from './grading-worker'
 
 export interface GradingPool {
-  grade(scenario: { id: string; document: string }, events: AttemptEvent[]): Promise<GradeOutcome>
+  /** Grades a validated log, given as its JSON text. */
+  grade(scenario: { id: string; document: string }, eventsJson: string): Promise<GradeOutcome>
   /** Waits for running tasks, then stops the threads. */
   close(): Promise<void>
   readonly threads: number
@@ -25,8 +25,8 @@ export interface GradingPoolOptions {
 export function createGradingPool({ threads, execArgv }: GradingPoolOptions): GradingPool {
   if (threads === 0) {
     return {
-      grade: async (scenario, events) =>
-        outcomeOf(gradeTask({ scenarioId: scenario.id, document: scenario.document, events })),
+      grade: async (scenario, eventsJson) =>
+        outcomeOf(gradeTask({ scenarioId: scenario.id, document: scenario.document, eventsJson })),
       close: async () => {},
       threads: 0,
     }
@@ -40,8 +40,8 @@ export function createGradingPool({ threads, execArgv }: GradingPoolOptions): Gr
     idleTimeout: Number.POSITIVE_INFINITY,
   })
   return {
-    async grade(scenario, events) {
-      return outcomeOf(await pool.run({ scenarioId: scenario.id, document: scenario.document, events }))
+    async grade(scenario, eventsJson) {
+      return outcomeOf(await pool.run({ scenarioId: scenario.id, document: scenario.document, eventsJson }))
     },
     close: () => pool.close(),
     threads,

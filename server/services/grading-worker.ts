@@ -7,7 +7,8 @@ export interface GradeTask {
   scenarioId: string
   /** The scenario version's stored JSON document. */
   document: string
-  events: AttemptEvent[]
+  /** The validated event log as JSON text (parsed here, off the event loop). */
+  eventsJson: string
 }
 
 // Scenario versions are parsed once per thread; the document is compared so an edited draft is re-read.
@@ -23,5 +24,5 @@ export function scenarioOf(task: Pick<GradeTask, 'scenarioId' | 'document'>): Sc
 }
 
 export default function gradeTask(task: GradeTask): GradeReport {
-  return gradeReport(scenarioOf(task), task.events)
+  return gradeReport(scenarioOf(task), JSON.parse(task.eventsJson) as AttemptEvent[])
 }
