@@ -36,8 +36,9 @@ describe('demo seed', () => {
 
   it('puts every demo apprentice in the cohort of the instructor the demo accounts name', async () => {
     const rows: { apprentice: string; owner: string }[] = await api.dataSource.query(
-      `SELECT a.email AS apprentice, o.email AS owner FROM enrollments e
-       JOIN users a ON a.id = e.userId JOIN cohorts c ON c.id = e.cohortId JOIN users o ON o.id = c.ownerId`,
+      // Quoted: PostgreSQL folds unquoted names to lower case.
+      `SELECT a.email AS apprentice, o.email AS owner FROM enrollments e JOIN users a ON a.id = e."userId"
+       JOIN cohorts c ON c.id = e."cohortId" JOIN users o ON o.id = c."ownerId"`,
     )
     const ownerOf = (cohort: number | undefined) =>
       DEMO_ACCOUNTS.find((a) => a.role === 'instructor' && a.cohort === cohort)!.email
