@@ -2,7 +2,7 @@
 // is broken inside. Isolate, prove dead, replace the fuse and the wire, then run the fan at 40 Hz.
 import { describe, expect, it } from 'vitest'
 import { screenshot } from './support'
-import { openPanel, panelTestBed } from './panel-fixtures'
+import { openPanel, panelTestBed, submitForGrade } from './panel-fixtures'
 
 describe('a dead control circuit', () => {
   const bed = panelTestBed({ width: 1600, height: 1000 })
@@ -39,12 +39,6 @@ describe('a dead control circuit', () => {
     await screenshot(page, 'panel-dead-03-fan-running')
     await panel.setSelector('runSwitch', 0)
 
-    await page.getByRole('tab', { name: 'Task' }).click()
-    await page.getByTestId('submit-attempt').click()
-    const grade = page.getByTestId('attempt-grade')
-    await grade.waitFor({ timeout: 30_000 })
-    await grade.scrollIntoViewIfNeeded()
-    await screenshot(page, 'panel-dead-04-graded')
-    await expect(grade.textContent()).resolves.toMatch(/— passed/)
+    expect(await submitForGrade(page, 'panel-dead-04-graded')).toMatch(/— passed/)
   }, 300_000)
 })

@@ -8,7 +8,7 @@ import type { Page } from 'playwright-core'
 import type { AttemptEvent } from '../../shared/model/events'
 import type { PanelDevice } from '../../src/panel/types'
 import { DEMO_ACCOUNTS } from '../../server/services/demo-accounts'
-import { launchBrowser, startApp, type BrowserSession, type RunningApp } from './support'
+import { launchBrowser, screenshot, startApp, type BrowserSession, type RunningApp } from './support'
 import { PanelDriver } from './panel-driver'
 
 export const APPRENTICE = DEMO_ACCOUNTS.find((a) => a.role === 'apprentice')!
@@ -108,6 +108,17 @@ export async function scenarioVersionId(url: string, token: string, key: string)
 }
 
 /** Acknowledges the first-run safety notice if it is shown, and waits until it has gone. */
+/** Submits the attempt from the Task tab, waits for the server's grade, screenshots it and returns its text. */
+export async function submitForGrade(page: Page, shot: string): Promise<string> {
+  await page.getByRole('tab', { name: 'Task' }).click()
+  await page.getByTestId('submit-attempt').click()
+  const grade = page.getByTestId('attempt-grade')
+  await grade.waitFor({ timeout: 30_000 })
+  await grade.scrollIntoViewIfNeeded()
+  await screenshot(page, shot)
+  return (await grade.textContent()) ?? ''
+}
+
 export async function dismissSafetyNotice(page: Page) {
   const understood = page.getByTestId('safety-understood')
   const shown = await understood

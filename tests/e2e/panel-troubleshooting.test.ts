@@ -3,7 +3,7 @@
 // block, then prove the pump holds its speed and submit.
 import { describe, expect, it } from 'vitest'
 import { screenshot } from './support'
-import { openPanel, panelTestBed } from './panel-fixtures'
+import { openPanel, panelTestBed, submitForGrade } from './panel-fixtures'
 
 describe('finding and repairing a wrong contact block', () => {
   const bed = panelTestBed({ width: 1600, height: 1000 })
@@ -53,12 +53,6 @@ describe('finding and repairing a wrong contact block', () => {
     await screenshot(page, 'panel-troubleshoot-03-holds-speed')
     await panel.setSelector('runSwitch', 0)
 
-    await page.getByRole('tab', { name: 'Task' }).click()
-    await page.getByTestId('submit-attempt').click()
-    const grade = page.getByTestId('attempt-grade')
-    await grade.waitFor({ timeout: 30_000 })
-    await grade.scrollIntoViewIfNeeded()
-    await screenshot(page, 'panel-troubleshoot-04-graded')
-    await expect(grade.textContent()).resolves.toMatch(/— passed/)
+    expect(await submitForGrade(page, 'panel-troubleshoot-04-graded')).toMatch(/— passed/)
   }, 300_000)
 })
