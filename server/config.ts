@@ -1,5 +1,4 @@
 // Environment validated at boot: one typed AppConfig, with clear messages for wrong values.
-import { availableParallelism } from 'node:os'
 import { resolve } from 'node:path'
 import { z } from 'zod'
 
@@ -102,7 +101,7 @@ export interface AppConfig {
   /** Express `trust proxy`: which hops may set X-Forwarded-For (default loopback). */
   trustProxy: boolean | number | string
   passwordHashing: PasswordHashing
-  /** Worker threads that grade submitted attempts; 0 grades on the event loop (the default under test). */
+  /** Worker threads that grade submitted attempts; 0 (the default) grades on the event loop. */
   gradingThreads: number
   version: string
 }
@@ -176,9 +175,9 @@ export function loadConfig(
     rateLimitStore: e.RATE_LIMIT_STORE ?? (postgresUrl ? 'database' : 'memory'),
     trustProxy: parseTrustProxy(e.TRUST_PROXY),
     passwordHashing: OWASP_ARGON2ID,
-    // One grading thread per core but one, which the event loop keeps; at least one.
-    gradingThreads:
-      e.GRADING_THREADS ?? (e.NODE_ENV === 'test' ? 0 : Math.max(1, availableParallelism() - 1)),
+    // Off by default: on Node 20, worker threads that load TypeScript through tsx's module hooks next to a
+    // main thread doing the same were seen to hang a restarted server (see README, Configuration).
+    gradingThreads: e.GRADING_THREADS ?? 0,
     version: options.version ?? '0.0.0',
   }
 }
