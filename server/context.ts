@@ -19,7 +19,7 @@ export interface AppContext {
   limits: Limiters
   /** Cohort gradebooks kept between requests, checked against the database's revision each time. */
   gradebooks: GradebookCache
-  /** Grades submitted attempts off the event loop. */
+  /** Grades submitted attempts, inline or in worker threads (GRADING_THREADS). */
   grading: GradingPool
 }
 

@@ -186,10 +186,10 @@ export async function submitAttempt(
     checkRules(assignment, events, used, now)
   }
   const submitting = body.status === 'submitted'
-  // Serialised once: the row stores this text, and the grading thread parses it (cheaper than cloning
+  // Serialised once: the row stores this text, and a grading thread parses it (cheaper than cloning
   // thousands of event objects across the thread boundary).
   const eventsJson = JSON.stringify(events)
-  const grade = submitting ? await ctx.grading.grade(scenario, eventsJson) : null
+  const grade = submitting ? await ctx.grading.grade(scenario, { events, json: eventsJson }) : null
   const row: AttemptRow = {
     id: body.id,
     userId: user.id,

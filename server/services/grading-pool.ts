@@ -1,14 +1,19 @@
-// Grading off the request thread. Replaying a long attempt costs milliseconds of pure computation; on the
-// event loop it would hold up every other request (a gradebook page, a sign-in) for that long. A pool of
-// worker threads (piscina) grades instead, and the event loop only parses, checks and stores. With no
-// threads (tests inside Vitest, or GRADING_THREADS=0) the same task runs inline.
+// Grading, optionally off the request thread. Replaying a long attempt costs milliseconds of pure
+// computation; on the event loop it holds up every other request for that long. With GRADING_THREADS > 0 a
+// pool of worker threads (piscina) grades instead; with 0 (the default, see config.ts) it runs inline.
 import { Piscina } from 'piscina'
-import { outcomeOf, type GradeOutcome } from './grading'
-import gradeTask, { type GradeTask } from './grading-worker'
+import type { AttemptEvent } from '@shared/model'
+import { gradeReport, outcomeOf, type GradeOutcome } from './grading'
+import gradeTask, { scenarioOf, type GradeTask } from './grading-worker'
+
+/** A validated log, as objects (graded inline) and as the JSON text the row stores (sent to a thread). */
+export interface GradableLog {
+  events: AttemptEvent[]
+  json: string
+}
 
 export interface GradingPool {
-  /** Grades a validated log, given as its JSON text. */
-  grade(scenario: { id: string; document: string }, eventsJson: string): Promise<GradeOutcome>
+  grade(scenario: { id: string; document: string }, log: GradableLog): Promise<GradeOutcome>
   /** Waits for running tasks, then stops the threads. */
   close(): Promise<void>
   readonly threads: number
@@ -25,8 +30,10 @@ export interface GradingPoolOptions {
 export function createGradingPool({ threads, execArgv }: GradingPoolOptions): GradingPool {
   if (threads === 0) {
     return {
-      grade: async (scenario, eventsJson) =>
-        outcomeOf(gradeTask({ scenarioId: scenario.id, document: scenario.document, eventsJson })),
+      grade: async (scenario, log) =>
+        outcomeOf(
+          gradeReport(scenarioOf({ scenarioId: scenario.id, document: scenario.document }), log.events),
+        ),
       close: async () => {},
       threads: 0,
     }
@@ -40,8 +47,9 @@ export function createGradingPool({ threads, execArgv }: GradingPoolOptions): Gr
     idleTimeout: Number.POSITIVE_INFINITY,
   })
   return {
-    async grade(scenario, eventsJson) {
-      return outcomeOf(await pool.run({ scenarioId: scenario.id, document: scenario.document, eventsJson }))
+    async grade(scenario, log) {
+      const task = { scenarioId: scenario.id, document: scenario.document, eventsJson: log.json }
+      return outcomeOf(await pool.run(task))
     },
     close: () => pool.close(),
     threads,

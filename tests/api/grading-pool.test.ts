@@ -25,6 +25,8 @@ const documentOf = (key: string) => {
   return documents.get(key)!
 }
 
+const logOf = (events: AttemptEvent[]) => ({ events, json: JSON.stringify(events) })
+
 describe('grading pool', () => {
   let pool: GradingPool
 
@@ -38,9 +40,7 @@ describe('grading pool', () => {
   it('grades every fixture log in threads exactly as on the calling thread', async () => {
     expect(fixtures.length).toBeGreaterThan(10)
     const inThreads = await Promise.all(
-      fixtures.map((f) =>
-        pool.grade({ id: f.scenario, document: documentOf(f.scenario) }, JSON.stringify(f.events)),
-      ),
+      fixtures.map((f) => pool.grade({ id: f.scenario, document: documentOf(f.scenario) }, logOf(f.events))),
     )
     fixtures.forEach((f, i) => {
       const inline = gradeAttempt(JSON.parse(documentOf(f.scenario)) as Scenario, f.events)
@@ -54,12 +54,12 @@ describe('grading pool', () => {
       { t: 2000, type: 'attempt.ended' },
       { t: 1000, type: 'attempt.ended' },
     ]
-    const attempt = pool.grade({ id: f.scenario, document: documentOf(f.scenario) }, JSON.stringify(events))
+    const attempt = pool.grade({ id: f.scenario, document: documentOf(f.scenario) }, logOf(events))
     await expect(attempt).rejects.toBeInstanceOf(HttpError)
     await expect(attempt).rejects.toMatchObject({ status: 400 })
     const inline = createGradingPool({ threads: 0 }).grade(
       { id: f.scenario, document: documentOf(f.scenario) },
-      JSON.stringify(events),
+      logOf(events),
     )
     await expect(inline).rejects.toMatchObject({
       status: 400,
