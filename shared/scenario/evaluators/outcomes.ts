@@ -45,6 +45,8 @@ function faultPresent(fault: ScenarioFault, state: SimState): boolean {
       return state.brokenWires.includes(fault.wireId) && state.wires.some((w) => w.id === fault.wireId)
     case 'blownFuse':
       return state.fuseBlown
+    case 'motorConductorOpen':
+      return state.motor.openConductors.includes(fault.conductor)
     default: {
       const device = state.devices[fault.device]
       return !device || device.fault !== 'none' || device.contact !== device.spec.contact
@@ -58,6 +60,8 @@ function faultName(fault: ScenarioFault, state: SimState): string {
       return `the broken wire ${fault.wireId}`
     case 'blownFuse':
       return 'the blown control fuse'
+    case 'motorConductorOpen':
+      return `the broken ${fault.conductor.toUpperCase()} conductor of the motor cable`
     case 'contactFailedOpen':
       return `the failed-open contact on ${state.devices[fault.device]?.spec.label ?? fault.device}`
     case 'contactWelded':

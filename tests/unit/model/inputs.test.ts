@@ -128,10 +128,11 @@ describe('hysteresis on a slowly changing input voltage', () => {
 
 describe('the meter on the control circuit', () => {
   it('reads the supply across an open contact (less the input LED drop the meter current flows through)', () => {
-    const s = run(start(), [{ t: 10, type: 'meter.probes', red: 'raisePb.a', black: 'raisePb.b' }])
+    const s = run(start(), [
+      { t: 0, type: 'meter.mode', mode: 'dcVolts' },{ t: 10, type: 'meter.probes', red: 'raisePb.a', black: 'raisePb.b' }])
     const meter = readCircuit(s).meter
     const supply = readCircuit(s).supplyVolts
-    expect(meter.mode).toBe('DC')
+    expect(meter.mode).toBe('dcVolts')
     // 10 MΩ meter in series with the opto input: about 2 µA, so the far side sits near the LED's 1 V.
     expect(meter.volts!).toBeGreaterThan(supply - 1.1)
     expect(meter.volts!).toBeLessThan(supply)
@@ -139,6 +140,7 @@ describe('the meter on the control circuit', () => {
 
   it('reads about 0 V across a closed contact', () => {
     const s = run(start(), [
+      { t: 0, type: 'meter.mode', mode: 'dcVolts' },
       { t: 10, type: 'device.pressed', device: 'raisePb' },
       { t: 20, type: 'meter.probes', red: 'raisePb.a', black: 'raisePb.b' },
     ])
@@ -147,6 +149,7 @@ describe('the meter on the control circuit', () => {
 
   it('reads about 0 V on a wire that goes nowhere', () => {
     const s = run(start(), [
+      { t: 0, type: 'meter.mode', mode: 'dcVolts' },
       { t: 10, type: 'wire.added', id: 'loose', from: 'drive.di6', to: 'runSel.a', colour: 'blue' },
       { t: 20, type: 'wire.removed', id: 'r1' },
       { t: 30, type: 'meter.probes', red: 'drive.di6', black: 'drive.0v' },
@@ -155,7 +158,8 @@ describe('the meter on the control circuit', () => {
   })
 
   it('shows no reading with a probe lifted', () => {
-    const s = run(start(), [{ t: 10, type: 'meter.probes', red: 'drive.p24', black: null }])
+    const s = run(start(), [
+      { t: 0, type: 'meter.mode', mode: 'dcVolts' },{ t: 10, type: 'meter.probes', red: 'drive.p24', black: null }])
     expect(readCircuit(s).meter.volts).toBeNull()
   })
 })
