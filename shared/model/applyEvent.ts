@@ -67,7 +67,10 @@ function deviceFor(
 
 function isKnownPoint(state: SimState, point: string): boolean {
   return (
-    pointsOf(state).index.has(point) || isDrivePowerPoint(point) || isMotorPoint(point) || isProverPoint(point)
+    pointsOf(state).index.has(point) ||
+    isDrivePowerPoint(point) ||
+    isMotorPoint(point) ||
+    isProverPoint(point)
   )
 }
 
@@ -268,7 +271,9 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
       return state
     case 'motor.conductorLanded': {
       const { conductor, terminal } = event
-      const occupant = (['u', 'v', 'w'] as const).find((c) => c !== conductor && state.motor.cable[c] === terminal)
+      const occupant = (['u', 'v', 'w'] as const).find(
+        (c) => c !== conductor && state.motor.cable[c] === terminal,
+      )
       if (terminal !== null && occupant) {
         return refuse(state, {
           code: 'terminalOccupied',

@@ -44,7 +44,11 @@ export function readFrontPanel(state: SimState, drive: DriveReading = readDrive(
       restartInterlock: drive.restartInterlock,
     },
     io: {
-      inputs: DIGITAL_INPUT_NUMBERS.map((input, i) => ({ input, function: functions[i], on: drive.inputs[i] })),
+      inputs: DIGITAL_INPUT_NUMBERS.map((input, i) => ({
+        input,
+        function: functions[i],
+        on: drive.inputs[i],
+      })),
       relayClosed: drive.relayClosed,
       analogVolts: Math.round(state.circuit.analogVolts * 100) / 100,
     },

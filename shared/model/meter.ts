@@ -258,4 +258,3 @@ export function readMeter(state: SimState): MeterReading {
   const shown = round(ohms, 4)
   return { ...base, shows: 'ohms', ohms: shown, tone: mode === 'continuity' && shown < CONTINUITY_TONE_OHMS }
 }
-

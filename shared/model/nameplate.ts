@@ -4,8 +4,11 @@ import { slipFraction, synchronousRpm } from './motor'
 import type { SettingValues } from './settings'
 import type { MotorNameplate } from './setup'
 
-/** 1 hp (mechanical) = 745.699 872 W (NIST SP 811, appendix B.8). */
-export const WATTS_PER_HP = 745.699872
+/**
+ * 1 hp (mechanical) = 550 ft·lbf/s = 745.699 87 W (NIST SP 811, appendix B.8), from the exact foot
+ * (0.3048 m) and pound-force (4.448 221 615 260 5 N).
+ */
+export const WATTS_PER_HP = 550 * 0.3048 * 4.4482216152605
 
 /**
  * Usual line voltages by supply frequency (trade pairs, from memory): 400 V 50 Hz and 460 V 60 Hz are

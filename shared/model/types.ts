@@ -9,12 +9,7 @@ export type ControlState =
   'stopped' | 'accelerating' | 'atSpeed' | 'decelerating' | 'rampStopping' | 'coasting'
 export type Direction = 'forward' | 'reverse'
 
-export type FaultCode =
-  | 'externalFault'
-  | 'supplyOverload'
-  | 'powerLost'
-  | 'busOvervoltage'
-  | 'motorPhaseLost'
+export type FaultCode = 'externalFault' | 'supplyOverload' | 'powerLost' | 'busOvervoltage' | 'motorPhaseLost'
 export type AlarmCode =
   | 'raiseLowerNotSelected'
   | 'raiseWithoutLower'

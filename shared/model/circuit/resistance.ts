@@ -12,7 +12,11 @@ interface Resistor {
 }
 
 /** Passive elements between nets: closed contacts, potentiometer tracks, the inputs, the analog input. */
-function passiveElements(config: CircuitConfig): { resistors: Resistor[]; netCount: number; netOf: Int32Array } {
+function passiveElements(config: CircuitConfig): {
+  resistors: Resistor[]
+  netCount: number
+  netOf: Int32Array
+} {
   const nets = groupNets(config)
   const net = (point: number) => nets.netOfPoint[point]
   const resistors: Resistor[] = []
@@ -30,7 +34,12 @@ function passiveElements(config: CircuitConfig): { resistors: Resistor[]; netCou
 }
 
 /** Resistance between two nodes of a resistor network (null: no path), by nodal analysis with 1 A injected. */
-export function networkResistance(nodeCount: number, resistors: readonly Resistor[], from: number, to: number): number | null {
+export function networkResistance(
+  nodeCount: number,
+  resistors: readonly Resistor[],
+  from: number,
+  to: number,
+): number | null {
   if (from === to) return 0
   const uf = new UnionFind(nodeCount)
   for (const r of resistors) uf.union(r.a, r.b)
@@ -43,7 +52,11 @@ export function networkResistance(nodeCount: number, resistors: readonly Resisto
   const conductances = resistors
     .filter((r) => uf.find(r.a) === root)
     .map((r) => ({ a: node(r.a), b: node(r.b), siemens: 1 / r.ohms }))
-  const volts = solveNodal({ nodeCount: local.size, conductances, injections: [{ node: node(from), amps: 1 }] })
+  const volts = solveNodal({
+    nodeCount: local.size,
+    conductances,
+    injections: [{ node: node(from), amps: 1 }],
+  })
   return volts[node(from)]
 }
 

@@ -64,7 +64,7 @@ describe('sink wiring (common to 0 V, the contact switches +24 V into the input)
 })
 
 describe('wiring for the wrong logic', () => {
-  // Source-style wiring: DCM to +24 V, the contact switches the input to 0 V.
+  // Source-style wiring: DIC to +24 V, the contact switches the input to 0 V.
   const sourceWired = (logic: 'sink' | 'source') =>
     raiseLowerSetup({
       devices: [{ id: 'pb', kind: 'pushbutton', label: 'Test', contact: 'NO' }],
@@ -129,7 +129,9 @@ describe('hysteresis on a slowly changing input voltage', () => {
 describe('the meter on the control circuit', () => {
   it('reads the supply across an open contact (less the input LED drop the meter current flows through)', () => {
     const s = run(start(), [
-      { t: 0, type: 'meter.mode', mode: 'dcVolts' },{ t: 10, type: 'meter.probes', red: 'raisePb.a', black: 'raisePb.b' }])
+      { t: 0, type: 'meter.mode', mode: 'dcVolts' },
+      { t: 10, type: 'meter.probes', red: 'raisePb.a', black: 'raisePb.b' },
+    ])
     const meter = readCircuit(s).meter
     const supply = readCircuit(s).supplyVolts
     expect(meter.mode).toBe('dcVolts')
@@ -159,7 +161,9 @@ describe('the meter on the control circuit', () => {
 
   it('shows no reading with a probe lifted', () => {
     const s = run(start(), [
-      { t: 0, type: 'meter.mode', mode: 'dcVolts' },{ t: 10, type: 'meter.probes', red: 'drive.p24', black: null }])
+      { t: 0, type: 'meter.mode', mode: 'dcVolts' },
+      { t: 10, type: 'meter.probes', red: 'drive.p24', black: null },
+    ])
     expect(readCircuit(s).meter.volts).toBeNull()
   })
 })

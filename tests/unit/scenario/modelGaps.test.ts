@@ -53,6 +53,31 @@ describe('re-proving the meter after the dead test (NFPA 70E 120.5(7) live–dea
   })
 })
 
+describe('a dead test on the wrong range', () => {
+  const deadTest = benchScenario([{ id: 'dead', kind: 'absenceOfVoltageProved', title: 'Dead', weight: 1 }])
+
+  it('proves nothing: V DC across a line pair reads about 0 V even when it is live', () => {
+    const result = judge(deadTest, (b) => {
+      ready(b).powerOff().wait(1000).lock().wait(1000)
+      b.waitUntil((d) => d.busVolts < 15, 'the bus discharging', 1000)
+      for (const [red, black] of [
+        ['drive.l1', 'drive.l2'],
+        ['drive.l2', 'drive.l3'],
+        ['drive.l1', 'drive.l3'],
+      ])
+        b.measure(red, black, 'dcVolts').wait(2000)
+      b.measure('drive.dcp', 'drive.dcn', 'dcVolts').wait(2000)
+    })
+    expect(result.met).toBe(false)
+    expect(result.evidence).toMatch(/L1–L2 was not proved .*never measured/)
+  })
+
+  it('is met with the same readings taken on V AC for the line pairs', () => {
+    const result = judge(deadTest, (b) => isolateAndProve(ready(b)))
+    expect(result.met).toBe(true)
+  })
+})
+
 describe('the meter across an open contact feeding a digital input', () => {
   // Fault-finding rule (common practice, from memory): across an open contact in a live circuit the
   // meter reads about the supply; here the supply less the opto LED drop (~1 V) its µA flow through.

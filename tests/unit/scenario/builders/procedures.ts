@@ -50,7 +50,8 @@ export function isolateAndProve(b: LogBuilder, options: IsolationOptions = {}): 
   b.waitUntil((d) => d.busVolts < 15, 'the DC bus discharging below 15 V', 1000)
   if (proveDead) {
     if (liveDeadLive) checkMeterOnProver(b)
-    for (const [red, black] of [...LINE_PAIRS, ...LINE_EARTH_PAIRS]) b.measure(red, black, 'acVolts').wait(2000)
+    for (const [red, black] of [...LINE_PAIRS, ...LINE_EARTH_PAIRS])
+      b.measure(red, black, 'acVolts').wait(2000)
     b.measure(...BUS_PAIR, 'dcVolts').wait(2000)
     if (liveDeadLive) checkMeterOnProver(b)
   }
