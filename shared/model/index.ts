@@ -37,3 +37,4 @@ export { vPerHzVolts, loadTorqueFraction, motorAmps, outputFigures } from './out
 export { STRAIGHT_CABLE, phaseOpen, phaseOrderReversed, conductorOn } from './motorCable'
 export { INPUT_OHMS_AT_24V } from './circuit/constants'
 export { ModelInputError } from './errors'
+export { faultPresent, withFaultCleared } from './faults'
