@@ -239,6 +239,33 @@ describe('resistance, with the circuit de-energised (isolated and discharged)', 
       expect(read(s, 'resistance', a, b).ohms!).toBeCloseTo(winding + 2 * 0.1, 3)
   })
 
+  it('reads the same phase to phase whether the motor is connected star or delta', () => {
+    // Star: R_LL/2 per phase, two in series; delta: 1.5·R_LL per phase, one in parallel with two in series.
+    const plate = (connection: 'star' | 'delta') =>
+      start(
+        raiseLowerSetup({
+          power: { on: false, locked: true },
+          motor: {
+            serial: 'T-SD',
+            ratedVolts: 400,
+            ratedHz: 50,
+            ratedPower: 5.5,
+            powerUnit: 'kW',
+            fullLoadAmps: 10.7,
+            powerFactor: 0.83,
+            efficiencyPercent: 89.6,
+            connection,
+            ratedRpm: 1460,
+            duty: 'S1',
+          },
+        }),
+      )
+    const star = read(plate('star'), 'resistance', 'motor.u1', 'motor.v1').ohms!
+    const delta = read(plate('delta'), 'resistance', 'motor.u1', 'motor.v1').ohms!
+    expect(star).toBeCloseTo(delta, 4)
+    expect(star).toBeCloseTo(windingOhms(plate('star').motor.nameplate), 4)
+  })
+
   it('reads the line terminals as open to each other and to earth (nothing joins them with the supply off)', () => {
     expect(read(isolated(), 'resistance', 'drive.l1', 'drive.l2').shows).toBe('overRange')
     expect(read(isolated(), 'resistance', 'drive.l1', 'drive.pe').shows).toBe('overRange')
@@ -273,6 +300,20 @@ describe('continuity (our threshold: tone below 30 Ω; meters commonly beep belo
     expect(m.tone).toBe(false)
   })
 
+  it('sounds just below 30 Ω and not just above it (a 100 Ω potentiometer set either side)', () => {
+    const at = (position: number) =>
+      start(
+        raiseLowerSetup({
+          devices: [{ id: 'pot', kind: 'potentiometer', label: 'Trim', ohms: 100, position }],
+          wires: [],
+          power: { on: false, locked: true },
+        }),
+      )
+    // wiper to low end = 0.5 Ω end + 100 Ω × position
+    expect(read(at(0.28), 'continuity', 'pot.wiper', 'pot.lo')).toMatchObject({ ohms: 28.5, tone: true })
+    expect(read(at(0.3), 'continuity', 'pot.wiper', 'pot.lo')).toMatchObject({ ohms: 30.5, tone: false })
+  })
+
   it('keeps the tone off on the resistance position, whatever it reads', () => {
     const s = run(isolated(), [{ t: isolated().t, type: 'device.pressed', device: 'raisePb' }])
     expect(read(s, 'resistance', 'raisePb.a', 'raisePb.b').tone).toBe(false)
@@ -300,6 +341,16 @@ describe('resistance or continuity selected on a live circuit', () => {
     const m = read(s, 'continuity', 'raisePb.a', 'raisePb.b')
     expect(m.shows).toBe('ohms')
     expect(m.liveResistanceTest).toBe(true)
+  })
+
+  it('warns from 2 V across the probes (our threshold): the bus at ~15 V five minutes after switch-off, not at ~0.8 V after ten', () => {
+    const off = run(start(), [{ t: 0, type: 'power.off' }])
+    const five = advance(off, 5 * 60_000)
+    const ten = advance(off, 10 * 60_000)
+    expect(readDrive(five).busVolts).toBeGreaterThan(10)
+    expect(read(five, 'resistance', 'drive.dcp', 'drive.dcn').shows).toBe('voltagePresent')
+    expect(readDrive(ten).busVolts).toBeLessThan(2)
+    expect(read(ten, 'resistance', 'drive.dcp', 'drive.dcn').shows).toBe('overRange')
   })
 
   it('warns on the proving unit (always live)', () => {
