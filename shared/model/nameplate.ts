@@ -29,8 +29,9 @@ export function ratedWatts(np: MotorNameplate): number {
 }
 
 /**
- * Output from the electrical figures: P = √3·V_L·I_L·cos φ·η (three-phase input power times efficiency,
- * electrical engineering handbooks).
+ * Output from the electrical figures: P = √3·V_L·I_L·cos φ·η, three-phase input power times efficiency
+ * (electric-motor formula tables, e.g. the Contractors Unlimited technical toolbox; US DOE motor systems
+ * sourcebook, from memory).
  */
 export function wattsFromElectricalFigures(np: MotorNameplate): number {
   return Math.sqrt(3) * np.ratedVolts * np.fullLoadAmps * np.powerFactor * (np.efficiencyPercent / 100)

@@ -38,8 +38,11 @@ describe('every scenario motor nameplate', () => {
     expect(new Set(serials).size).toBe(serials.length)
   })
 
+  // Three-phase motor output P = 1.732 × V × I × PF × EFF: the electric-motor formula table of the Contractors
+  // Unlimited technical toolbox (electric-motors page); the same relation is in the US DOE motor systems
+  // sourcebook (from memory).
   it.each(plates)(
-    '%s: P = √3·V·I·cos φ·η agrees with the rated output within 5 % (handbook three-phase power)',
+    '%s: P = √3·V·I·cos φ·η agrees with the rated output within 5 % (three-phase motor formula table)',
     (_id, np) => {
       const watts =
         Math.sqrt(3) * np.ratedVolts * np.fullLoadAmps * np.powerFactor * (np.efficiencyPercent / 100)
@@ -48,6 +51,7 @@ describe('every scenario motor nameplate', () => {
     },
   )
 
+  // Shaft speed 120 × F ÷ poles (same formula table; REFERENCES.md "Motor and ramps").
   it.each(plates)('%s: rated speed is below synchronous speed n = 120·f/p, slip under 8 %', (_id, np) => {
     const ns = synchronousRpm(np.ratedHz, nameplatePoles(np))
     expect(np.ratedRpm).toBeLessThan(ns)
