@@ -1,11 +1,13 @@
 // The bench multimeter: what it shows on each selector position, from the model's circuits.
 //
-// Behaviour modelled (common practice for a handheld true-RMS multimeter, from memory):
-// - V DC shows the average of the voltage: a sine wave averages to zero over the meter's integration
-//   time, so V DC across an AC source reads about 0 V.
-// - V AC shows the true RMS of the AC part only: the input is AC-coupled (a capacitor blocks DC), so
+// Behaviour modelled (a handheld true-RMS multimeter):
+// - V DC shows the average of the voltage: an integrating converter averages over whole mains cycles, so
+//   V DC across an AC source reads about 0 V (common practice; integrating ADCs reject the mains frequency
+//   that way, from memory).
+// - V AC shows the true RMS of the AC part only: the input is AC-coupled, a series capacitor blocking DC
+//   (Keysight blog "Digital multimeter AC measurement considerations", 2018: AC and DC coupling), so
 //   V AC across a DC source reads about 0 V. On the drive's output it shows the fundamental, as a meter
-//   with a low-pass filter would (an unfiltered meter reads a PWM waveform higher).
+//   with a low-pass filter would (an unfiltered meter reads a PWM waveform higher, from memory).
 // - Resistance and continuity drive a small test current from the meter itself and need the circuit
 //   de-energised; with a voltage across the probes the meter shows a voltage-present warning instead.
 // - Probes on circuits that share no conductor (the control circuit, the power circuit, the proving unit)
