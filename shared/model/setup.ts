@@ -128,17 +128,27 @@ export type MotorNameplate = z.infer<typeof motorNameplateSchema>
  * (null: not landed). Default straight through (U → U1, V → V1, W → W1). Two conductors may not share
  * a terminal. A swapped pair turns the motor the other way; an unlanded conductor leaves a phase open.
  */
+const landing = z.enum(MOTOR_TERMINALS).nullable()
+export type MotorCable = {
+  u: z.infer<typeof landing>
+  v: z.infer<typeof landing>
+  w: z.infer<typeof landing>
+}
+
+/** Two conductors may not share a motor terminal. */
+export function cableLandsOnce(cable: MotorCable): boolean {
+  const landed = [cable.u, cable.v, cable.w].filter((t) => t !== null)
+  return new Set(landed).size === landed.length
+}
+const CABLE_MESSAGE = 'two conductors cannot land on one motor terminal'
+
 export const motorCableSchema = z
-  .object({
-    u: z.enum(MOTOR_TERMINALS).nullable(),
-    v: z.enum(MOTOR_TERMINALS).nullable(),
-    w: z.enum(MOTOR_TERMINALS).nullable(),
-  })
-  .refine((cable) => {
-    const landed = [cable.u, cable.v, cable.w].filter((t) => t !== null)
-    return new Set(landed).size === landed.length
-  }, 'two conductors cannot land on one motor terminal')
-export type MotorCable = z.infer<typeof motorCableSchema>
+  .object({ u: landing, v: landing, w: landing })
+  .refine(cableLandsOnce, CABLE_MESSAGE)
+/** The same, refusing unknown keys (scenario files are strict). */
+export const strictMotorCableSchema = z
+  .strictObject({ u: landing, v: landing, w: landing })
+  .refine(cableLandsOnce, CABLE_MESSAGE)
 
 export const simulationSetupSchema = z.object({
   devices: z.array(deviceSpecSchema).max(32),

@@ -4,8 +4,8 @@ import { OUTPUT_PHASES } from '../model/points'
 import {
   CONTACT_TYPES,
   LOAD_KINDS,
-  motorCableSchema,
   motorNameplateSchema,
+  strictMotorCableSchema,
   WIRE_COLOURS,
 } from '../model/setup'
 import { objectiveSchema } from './objectiveSchema'
@@ -88,7 +88,7 @@ export const startingStateSchema = z.strictObject({
   /** The motor's nameplate (the model's own schema; its figures are checked to agree by checkScenario). */
   motor: z.strictObject(motorNameplateSchema.shape).optional(),
   /** How the motor cable is landed at the start (default straight through). */
-  motorCable: motorCableSchema.optional(),
+  motorCable: strictMotorCableSchema.optional(),
 })
 
 export const hintSchema = z.strictObject({
