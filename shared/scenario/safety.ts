@@ -1,5 +1,5 @@
 // Safe-practice facts shared by the safety objectives and the separate list of safety violations.
-import { POINT_LABELS, type AttemptEvent, type SimState } from '../model'
+import { POINT_LABELS, voltageRangeFor, type AttemptEvent, type SimState } from '../model'
 import { formatTime, formatVolts } from './format'
 import { SAFE_VOLTS } from './objectiveSchema'
 import { firstSampleFrom, isTerminalWork, type AttemptTrace, type Sample } from './samples'
@@ -60,6 +60,12 @@ export function describeWork(event: AttemptEvent): string {
       return `Contact block fitted to ${event.device}`
     case 'fuse.replaced':
       return 'Control fuse replaced'
+    case 'motor.conductorLanded':
+      return event.terminal
+        ? `Motor-cable conductor ${event.conductor.toUpperCase()} landed on ${pointLabel(`motor.${event.terminal}`)}`
+        : `Motor-cable conductor ${event.conductor.toUpperCase()} lifted`
+    case 'motor.cableReplaced':
+      return 'Motor cable replaced'
     default:
       return `${event.type}`
   }
@@ -147,7 +153,11 @@ function samplesOnPair(trace: AttemptTrace, pair: readonly [string, string]): re
   return samples
 }
 
-/** Meter readings on each pair within [from, to]: proved when one read below the threshold. */
+/**
+ * Meter readings on each pair within [from, to]: proved when one read below the threshold on the voltage
+ * range that shows what the pair could carry (V AC on a line pair, V DC on the bus): V DC across a live
+ * line reads about 0 V, so a reading on the wrong range proves nothing.
+ */
 export function deadTests(
   trace: AttemptTrace,
   from: number,
@@ -158,7 +168,9 @@ export function deadTests(
   return pairs.map((pair) => {
     let lowest: DeadTest['lowest']
     const measured = samplesOnPair(trace, pair)
+    const range = voltageRangeFor(pair[0], pair[1])
     for (let i = firstSampleFrom(measured, from); i < measured.length && measured[i].t <= to; i++) {
+      if (measured[i].state.meter.mode !== range) continue
       const volts = trace.circuit(measured[i]).meter.volts
       if (volts === null) continue
       if (!lowest || Math.abs(volts) < lowest.volts) lowest = { volts: Math.abs(volts), t: measured[i].t }

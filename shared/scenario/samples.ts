@@ -177,6 +177,8 @@ export function isTerminalWork(event: AttemptEvent): boolean {
     event.type === 'wire.added' ||
     event.type === 'wire.removed' ||
     event.type === 'device.contactFitted' ||
-    event.type === 'fuse.replaced'
+    event.type === 'fuse.replaced' ||
+    event.type === 'motor.conductorLanded' ||
+    event.type === 'motor.cableReplaced'
   )
 }

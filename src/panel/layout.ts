@@ -12,7 +12,7 @@ export const TERMINAL_RADIUS = 8
 export const CONTROL_TERMINALS: readonly { id: PointId; label: string; what: string }[] = [
   { id: 'drive.p24', label: '+24', what: '+24 V control supply' },
   { id: 'drive.0v', label: '0V', what: '0 V control supply' },
-  { id: 'drive.dcom', label: 'DCM', what: 'digital-input common' },
+  { id: 'drive.dcom', label: 'DIC', what: 'digital-input common' },
   { id: 'drive.di1', label: 'DI1', what: 'digital input 1' },
   { id: 'drive.di2', label: 'DI2', what: 'digital input 2' },
   { id: 'drive.di3', label: 'DI3', what: 'digital input 3' },
@@ -21,7 +21,7 @@ export const CONTROL_TERMINALS: readonly { id: PointId; label: string; what: str
   { id: 'drive.di6', label: 'DI6', what: 'digital input 6' },
   { id: 'drive.p10', label: '+10', what: '+10 V reference supply' },
   { id: 'drive.ai', label: 'AI', what: 'analog input' },
-  { id: 'drive.acom', label: 'AC', what: 'analog common' },
+  { id: 'drive.acom', label: 'AIC', what: 'analog-input common' },
   { id: 'drive.k1a', label: 'K1A', what: 'relay contact side A' },
   { id: 'drive.k1b', label: 'K1B', what: 'relay contact side B' },
 ]
@@ -33,6 +33,9 @@ export const POWER_TERMINALS: readonly { id: PointId; label: string; what: strin
   { id: 'drive.dcp', label: 'DC+', what: 'DC bus positive' },
   { id: 'drive.dcn', label: 'DC−', what: 'DC bus negative' },
   { id: 'drive.pe', label: 'PE', what: 'protective earth' },
+  { id: 'drive.u', label: 'U', what: 'output to motor, phase U' },
+  { id: 'drive.v', label: 'V', what: 'output to motor, phase V' },
+  { id: 'drive.w', label: 'W', what: 'output to motor, phase W' },
 ]
 
 const KEYPAD: readonly { key: KeySpot['key']; label: string; col: number; row: number }[] = [
@@ -82,7 +85,7 @@ export function layoutPanel(devices: readonly PanelDevice[]): PanelLayout {
       label: t.label,
       name: `Drive power terminal ${t.label} (${t.what})`,
       title: t.label,
-      x: 270 + i * 40,
+      x: 262 + i * 36,
       y: 52,
       group: 'power',
       wireable: false,
@@ -109,7 +112,7 @@ export function layoutPanel(devices: readonly PanelDevice[]): PanelLayout {
       keys,
       statusLamp: { x: 505, y: 248 },
       controlStrip: { x: 240, y: 372, w: 448, h: 56 },
-      powerStrip: { x: 250, y: 34, w: 240, h: 40 },
+      powerStrip: { x: 244, y: 34, w: 324, h: 40 },
     },
     disconnect: {
       rect: { x: 20, y: 20, w: 190, h: 260 },

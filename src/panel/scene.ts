@@ -199,7 +199,12 @@ export class PanelScene {
     const { rect, display, keys, controlStrip, powerStrip } = this.layout.drive
     box(g, rect, C.enclosure, C.enclosureEdge, 12)
     this.root.addChild(
-      text('VARIABLE-FREQUENCY DRIVE  ·  bench unit VF-2', { fontSize: 13, fill: C.enclosureText }, 480, 90),
+      text(
+        'VARIABLE-FREQUENCY DRIVE  ·  Slipway bench unit',
+        { fontSize: 13, fill: C.enclosureText },
+        480,
+        90,
+      ),
     )
     g.roundRect(powerStrip.x, powerStrip.y, powerStrip.w, powerStrip.h, 4).fill(C.strip)
     g.roundRect(controlStrip.x, controlStrip.y, controlStrip.w, controlStrip.h, 4).fill(C.strip)
@@ -316,10 +321,10 @@ export class PanelScene {
 
   private drawMeter(g: Graphics) {
     const { rect, display, holsters } = this.layout.meter
-    box(g, rect, C.meterBody, 0x7a5a12, 14)
+    box(g, rect, C.meterBody, C.meterEdge, 14)
     this.root.addChild(
       text(
-        'MULTIMETER  V DC',
+        'MULTIMETER',
         { fontSize: 12, fill: C.text, fontWeight: 'bold' },
         rect.x + rect.w / 2,
         rect.y + 16,
@@ -372,7 +377,13 @@ export class PanelScene {
     }
     // Tags are drawn over every wire, each slid along its own curve clear of the others.
     placeWireLabels(drawn).forEach((at, i) => {
-      g.roundRect(at.x - WIRE_LABEL_WIDTH / 2, at.y - WIRE_LABEL_HEIGHT / 2, WIRE_LABEL_WIDTH, WIRE_LABEL_HEIGHT, 3)
+      g.roundRect(
+        at.x - WIRE_LABEL_WIDTH / 2,
+        at.y - WIRE_LABEL_HEIGHT / 2,
+        WIRE_LABEL_WIDTH,
+        WIRE_LABEL_HEIGHT,
+        3,
+      )
         .fill(0xffffff)
         .stroke({ width: 1, color: 0x333333 })
       labels.push(text(drawn[i].wire.label, { fontSize: 10, fill: 0x111111, fontWeight: 'bold' }, at.x, at.y))

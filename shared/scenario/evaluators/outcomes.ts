@@ -1,5 +1,5 @@
 // noFaultTrips, noAlarms, faultFoundAndCleared, finishedWithin.
-import type { FaultCode, Notice, SimState } from '../../model'
+import { faultPresent, type FaultCode, type Notice, type SimState } from '../../model'
 import { formatTime, joinTexts, upperFirst } from '../format'
 import type { ScenarioFault } from '../schema'
 import type { Evaluator } from './types'
@@ -39,25 +39,14 @@ export const noAlarms: Evaluator<'noAlarms'> = (_objective, { trace }) => {
   return { met: true, evidence: `No alarm shown at ${formatTime(lit.t)}${cleared}.`, at: lit.t }
 }
 
-function faultPresent(fault: ScenarioFault, state: SimState): boolean {
-  switch (fault.kind) {
-    case 'brokenWire':
-      return state.brokenWires.includes(fault.wireId) && state.wires.some((w) => w.id === fault.wireId)
-    case 'blownFuse':
-      return state.fuseBlown
-    default: {
-      const device = state.devices[fault.device]
-      return !device || device.fault !== 'none' || device.contact !== device.spec.contact
-    }
-  }
-}
-
 function faultName(fault: ScenarioFault, state: SimState): string {
   switch (fault.kind) {
     case 'brokenWire':
       return `the broken wire ${fault.wireId}`
     case 'blownFuse':
       return 'the blown control fuse'
+    case 'motorConductorOpen':
+      return `the broken ${fault.conductor.toUpperCase()} conductor of the motor cable`
     case 'contactFailedOpen':
       return `the failed-open contact on ${state.devices[fault.device]?.spec.label ?? fault.device}`
     case 'contactWelded':
@@ -73,11 +62,11 @@ export const faultFoundAndCleared: Evaluator<'faultFoundAndCleared'> = (objectiv
   if (!fault) return { met: false, evidence: `The scenario has no injected fault number ${objective.fault}.` }
   const name = faultName(fault, samples[0].state)
   const last = samples[samples.length - 1]
-  if (faultPresent(fault, last.state)) {
+  if (faultPresent(last.state, fault)) {
     return { met: false, evidence: `At the end (${formatTime(last.t)}) ${name} was still there.`, at: last.t }
   }
   let clearedAt = last.t
-  for (let i = samples.length - 1; i >= 0 && !faultPresent(fault, samples[i].state); i--)
+  for (let i = samples.length - 1; i >= 0 && !faultPresent(samples[i].state, fault); i--)
     clearedAt = samples[i].t
   return {
     met: true,
