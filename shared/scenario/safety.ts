@@ -1,6 +1,6 @@
 // Safe-practice facts shared by the safety objectives and the separate list of safety violations.
-import { POINT_LABELS, type AttemptEvent, type SimState } from '../model'
-import { contactMarkings, wireNumber } from '../schematic/markings'
+import { POINT_LABELS, PROVER_LABELS, type AttemptEvent, type SimState } from '../model'
+import { POTENTIOMETER_MARKINGS, contactMarkings, wireNumber } from '../schematic/markings'
 import { formatTime, formatVolts } from './format'
 import { SAFE_VOLTS } from './objectiveSchema'
 import { firstSampleFrom, isTerminalWork, type AttemptTrace, type Sample } from './samples'
@@ -77,7 +77,8 @@ export function describeWork(work: Pick<TerminalWork, 'event' | 'before'>): stri
 
 /** A terminal as printed: the drive's label, or a device's label and terminal marking. */
 export function pointLabel(point: string, state?: Pick<SimState, 'devices'>): string {
-  const drive = (POINT_LABELS as Record<string, string>)[point]
+  const drive =
+    (POINT_LABELS as Record<string, string>)[point] ?? (PROVER_LABELS as Record<string, string>)[point]
   if (drive) return drive
   const [deviceId, terminal] = point.split('.')
   const device = state?.devices[deviceId]
@@ -85,7 +86,7 @@ export function pointLabel(point: string, state?: Pick<SimState, 'devices'>): st
   const spec = device.spec
   const marking =
     spec.kind === 'potentiometer'
-      ? ({ hi: 'H', wiper: 'W', lo: 'L' } as Record<string, string>)[terminal]
+      ? (POTENTIOMETER_MARKINGS as Record<string, string>)[terminal]
       : (contactMarkings(device.contact) as Record<string, string>)[terminal]
   return marking ? `${spec.label} ${marking}` : spec.label
 }

@@ -13,8 +13,8 @@ import {
   type Wiring,
 } from '@shared/schematic'
 import {
+  attemptFixtures,
   endState,
-  referenceFixtures,
   scenarioById,
   shippedScenarios,
   startState,
@@ -63,8 +63,8 @@ describe('schematic of the shipped scenarios', () => {
     noInternalIds(drawing, [...wiring.devices.map((d) => d.id), ...wiring.wires.map((w) => w.id)])
   })
 
-  it.each(referenceFixtures().map((f) => [f.scenario, f] as const))(
-    '%s, wiring at the end of the reference solution',
+  it.each(attemptFixtures().map((f) => [`${f.scenario} ${f.name}`, f] as const))(
+    '%s, wiring at the end of the attempt',
     (_id, fixture) => {
       const scenario = scenarioById(fixture.scenario)
       const wiring = wiringOfState(endState(scenario, fixture.events))
