@@ -63,18 +63,22 @@ function wishes(model: Model): Map<RowObject, number[]> {
   return wish
 }
 
+/** Objects wired to nothing in another row follow their left neighbour closely (weakly held). */
 function placeRow(objects: readonly RowObject[], wish: Map<RowObject, number[]>): void {
-  const xs = spreadInOrder(
-    objects.map((object, i) => {
-      const list = wish.get(object)
-      const previous = objects[i - 1]
-      return {
-        wish: list ? list.reduce((a, b) => a + b, 0) / list.length : object.x,
-        weight: list ? list.length : 0.05,
-        gapBefore: previous ? previous.right + OBJECT_GAP + object.left : 0,
-      }
-    }),
-  )
+  let previousWish = 0
+  const items = objects.map((object, i) => {
+    const list = wish.get(object)
+    const previous = objects[i - 1]
+    const gapBefore = previous ? previous.right + OBJECT_GAP + object.left : 0
+    const own = list
+      ? list.reduce((a, b) => a + b, 0) / list.length
+      : previous
+        ? previousWish + gapBefore
+        : object.x
+    previousWish = own
+    return { wish: own, weight: list ? list.length : 0.05, gapBefore }
+  })
+  const xs = spreadInOrder(items)
   objects.forEach((object, i) => (object.x = xs[i]))
 }
 
