@@ -58,6 +58,11 @@ export function placedText(
   }
 }
 
+/** A one-line text centred in a box (0.35 em below the middle puts the x-height in the middle). */
+function centredIn(box: Box, text: string, kind: TextKind, size: number, bold: boolean): PlacedText {
+  return placedText(text, kind, box.x + box.w / 2, box.y + box.h / 2 + size * 0.35, size, bold, 'middle')
+}
+
 function rowHeight(kind: RowKind, bodyHeight: number): number {
   if (kind === 'supply') return TERMINAL_BOX_H + FAN
   if (kind === 'returns') return FAN + TERMINAL_BOX_H + LINK_DROP + FRAME_PAD
@@ -143,17 +148,7 @@ export function assemble(
     boxOf.set(point, box)
     const c = counts.get(object) ?? { up: 0, down: 0 }
     terminals.push({ point, label: t.label, strip: t.strip, box, pinsUp: c.up, pinsDown: c.down })
-    texts.push(
-      placedText(
-        t.label,
-        'terminal',
-        box.x + box.w / 2,
-        box.y + TERMINAL_BOX_H / 2 + SIZE.terminal * 0.35,
-        SIZE.terminal,
-        true,
-        'middle',
-      ),
-    )
+    texts.push(centredIn(box, t.label, 'terminal', SIZE.terminal, true))
   }
   const strips: PlacedStrip[] = (['supply', 'inputs', 'returns'] as StripId[]).flatMap((id) => {
     const boxes = terminals.filter((t) => t.strip === id).map((t) => t.box)
@@ -295,16 +290,7 @@ export function assemble(
       }
     }
     const text = markerTexts[route.index]
-    const marker = placedText(
-      text,
-      'wireLabel',
-      markerBox.x + markerBox.w / 2,
-      markerBox.y + MARKER_H / 2 + SIZE.marker * 0.35,
-      SIZE.marker,
-      false,
-      'middle',
-    )
-    texts.push({ ...marker, box: markerBox })
+    texts.push({ ...centredIn(markerBox, text, 'wireLabel', SIZE.marker, false), box: markerBox })
     const first = route.nodes[0]
     const last = route.nodes[route.nodes.length - 1]
     const forward = first.point === route.wire.from
