@@ -1,4 +1,5 @@
 // Plain-words formatting of times and values for grading evidence.
+import { settingDef } from '../model/settings'
 
 /** Simulated ms as mm:ss.d (hh:mm:ss.d past an hour), e.g. 42300 → "00:42.3". */
 export function formatTime(ms: number): string {
@@ -53,4 +54,11 @@ export function upperFirst(text: string): string {
 
 export function plural(count: number, one: string, many = `${one}s`): string {
   return `${count} ${count === 1 ? one : many}`
+}
+
+/** An input function in words, from the settings catalogue: 'raise' → "raise speed". */
+export function inputFunctionName(fn: string): string {
+  const def = settingDef('di1.function')
+  const option = def.kind === 'choice' ? def.options.find((o) => o.value === fn) : undefined
+  return option ? lowerFirst(option.label.replace(/\s*\(.*\)$/, '')) : fn
 }

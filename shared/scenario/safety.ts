@@ -1,5 +1,6 @@
 // Safe-practice facts shared by the safety objectives and the separate list of safety violations.
-import { POINT_LABELS, voltageRangeFor, type AttemptEvent, type SimState } from '../model'
+import { POINT_LABELS, PROVER_LABELS, voltageRangeFor, type AttemptEvent, type SimState } from '../model'
+import { POTENTIOMETER_MARKINGS, contactMarkings, wireNumber } from '../schematic/markings'
 import { formatTime, formatVolts } from './format'
 import { SAFE_VOLTS } from './objectiveSchema'
 import { firstSampleFrom, isTerminalWork, type AttemptTrace, type Sample } from './samples'
@@ -50,14 +51,23 @@ export function terminalWork(trace: AttemptTrace): readonly TerminalWork[] {
   return work
 }
 
-export function describeWork(event: AttemptEvent): string {
+/** Terminal work in plain words: wires by the number on their marker, devices by their label. */
+export function describeWork(work: Pick<TerminalWork, 'event' | 'before'>): string {
+  const { event } = work
+  const state = work.before.state
   switch (event.type) {
     case 'wire.added':
-      return `Wire ${event.id} added (${pointLabel(event.from)} to ${pointLabel(event.to)})`
+      return `Wire ${wireNumber(event.id, state.wires.length)} added (${pointLabel(event.from, state)} to ${pointLabel(event.to, state)})`
     case 'wire.removed':
-      return `Wire ${event.id} removed`
+      return `Wire ${wireNumber(
+        event.id,
+        Math.max(
+          0,
+          state.wires.findIndex((w) => w.id === event.id),
+        ),
+      )} removed`
     case 'device.contactFitted':
-      return `Contact block fitted to ${event.device}`
+      return `Contact block fitted to ${state.devices[event.device]?.spec.label ?? 'a device'}`
     case 'fuse.replaced':
       return 'Control fuse replaced'
     case 'motor.conductorLanded':
@@ -71,8 +81,20 @@ export function describeWork(event: AttemptEvent): string {
   }
 }
 
-export function pointLabel(point: string): string {
-  return (POINT_LABELS as Record<string, string>)[point] ?? point
+/** A terminal as printed: the drive's label, or a device's label and terminal marking. */
+export function pointLabel(point: string, state?: Pick<SimState, 'devices'>): string {
+  const drive =
+    (POINT_LABELS as Record<string, string>)[point] ?? (PROVER_LABELS as Record<string, string>)[point]
+  if (drive) return drive
+  const [deviceId, terminal] = point.split('.')
+  const device = state?.devices[deviceId]
+  if (!device) return 'an unknown terminal'
+  const spec = device.spec
+  const marking =
+    spec.kind === 'potentiometer'
+      ? (POTENTIOMETER_MARKINGS as Record<string, string>)[terminal]
+      : (contactMarkings(device.contact) as Record<string, string>)[terminal]
+  return marking ? `${spec.label} ${marking}` : spec.label
 }
 
 /** Why the drive was energised at a moment, or null when it was safe to touch (supply off, bus low). */
@@ -204,7 +226,7 @@ export function pairLabel(pair: readonly [string, string]): string {
 export function safetyViolations(trace: AttemptTrace): SafetyViolation[] {
   const violations: SafetyViolation[] = []
   for (const work of terminalWork(trace)) {
-    const what = describeWork(work.event)
+    const what = describeWork(work)
     const when = formatTime(work.t)
     const live = energised(work.before)
     if (live)

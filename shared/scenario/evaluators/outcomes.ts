@@ -1,6 +1,7 @@
 // noFaultTrips, noAlarms, faultFoundAndCleared, finishedWithin.
 import { faultPresent, type FaultCode, type Notice, type SimState } from '../../model'
 import { formatTime, joinTexts, upperFirst } from '../format'
+import { wireNumber } from '../../schematic/markings'
 import type { ScenarioFault } from '../schema'
 import type { Evaluator } from './types'
 
@@ -41,8 +42,10 @@ export const noAlarms: Evaluator<'noAlarms'> = (_objective, { trace }) => {
 
 function faultName(fault: ScenarioFault, state: SimState): string {
   switch (fault.kind) {
-    case 'brokenWire':
-      return `the broken wire ${fault.wireId}`
+    case 'brokenWire': {
+      const index = state.wires.findIndex((w) => w.id === fault.wireId)
+      return index < 0 ? 'the broken wire' : `the broken wire ${wireNumber(fault.wireId, index)}`
+    }
     case 'blownFuse':
       return 'the blown control fuse'
     case 'motorConductorOpen':

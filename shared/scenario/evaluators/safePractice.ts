@@ -25,7 +25,7 @@ export const noWiringWhileEnergised: Evaluator<'noWiringWhileEnergised'> = (obje
     if (live)
       return {
         met: false,
-        evidence: `${describeWork(w.event)} at ${formatTime(w.t)} while ${live}.`,
+        evidence: `${describeWork(w)} at ${formatTime(w.t)} while ${live}.`,
         at: w.t,
       }
   }
@@ -43,7 +43,7 @@ export const lockBeforeWiring: Evaluator<'lockBeforeWiring'> = (_objective, { tr
     if (lockInForce(trace, w.before) === undefined) {
       return {
         met: false,
-        evidence: `${describeWork(w.event)} at ${formatTime(w.t)} with no lock on the disconnect.`,
+        evidence: `${describeWork(w)} at ${formatTime(w.t)} with no lock on the disconnect.`,
         at: w.t,
       }
     }
@@ -71,7 +71,7 @@ export const absenceOfVoltageProved: Evaluator<'absenceOfVoltageProved'> = (obje
     windows.push({
       lockT,
       until: w.t,
-      what: `before ${lowerFirst(describeWork(w.event))} at ${formatTime(w.t)}`,
+      what: `before ${lowerFirst(describeWork(w))} at ${formatTime(w.t)}`,
     })
   }
   if (work.length === 0) {

@@ -8,7 +8,7 @@ function valueLabel(key: SettingKey, value: unknown): string {
   const def = settingDef(key)
   if (def.kind === 'choice') {
     const option = def.options.find((o) => o.value === value)
-    if (option) return `${formatValue(value)} (${option.label})`
+    if (option) return `“${option.label}”`
   }
   if (def.kind === 'number') return `${value} ${def.unit}`.trim()
   return formatValue(value)

@@ -3,7 +3,7 @@
 // wiring as finally left is what counts.
 import type { InputReading, SimState } from '../../model'
 import { pointLabel } from '../safety'
-import { formatTime, formatVolts } from '../format'
+import { formatTime, formatVolts, inputFunctionName } from '../format'
 import type { DeviceCondition, InputSelector, ObjectiveOf } from '../objectiveSchema'
 import type { AttemptTrace, Sample } from '../samples'
 import type { Evaluator } from './types'
@@ -50,7 +50,9 @@ export function describeCondition(condition: DeviceCondition, state: SimState): 
 }
 
 function selectorName(selector: InputSelector): string {
-  return 'function' in selector ? `the input assigned to ${selector.function}` : pointLabel(selector.point)
+  return 'function' in selector
+    ? `the input assigned to ${inputFunctionName(selector.function)}`
+    : pointLabel(selector.point)
 }
 
 interface Judgement {
@@ -67,9 +69,10 @@ function judgeMoment(
   const { expect, input } = objective
   if ('function' in input) {
     const assigned = circuit.inputs.filter((i) => i.function === input.function)
-    if (assigned.length === 0) return { ok: false, text: `no input was assigned to ${input.function}` }
+    if (assigned.length === 0)
+      return { ok: false, text: `no input was assigned to ${inputFunctionName(input.function)}` }
     const describe = (i: InputReading) =>
-      `DI${i.input} (${i.function}) was ${i.on ? 'ON' : 'OFF'} at ${formatVolts(i.volts)}`
+      `DI${i.input} (${inputFunctionName(i.function)}) was ${i.on ? 'ON' : 'OFF'} at ${formatVolts(i.volts)}`
     if (typeof expect === 'string') {
       const ok = assigned.every((i) => i.on === (expect === 'on'))
       return { ok, text: assigned.map(describe).join('; ') }
