@@ -22,11 +22,11 @@ import { healthRouter } from './routes/health'
 import { invitationsRouter } from './routes/invitations'
 import { scenariosRouter, scenarioVersionsRouter } from './routes/scenarios'
 import { createGradebookCache } from './services/gradebook-cache'
-import { createGradingPool, type GradingPool } from './services/grading-pool'
-import type { Mailer } from './services/mailer'
-import { createPasswordHasher, type PasswordHasher } from './services/passwords'
-import { DatabaseRateLimitStore } from './services/rate-limit-store'
-import { createAccessTokens } from './services/tokens'
+import { createGradingPool, type GradingPool } from './infrastructure/grading/grading-pool'
+import type { Mailer } from './infrastructure/mail/mailer'
+import { createPasswordHasher, type PasswordHasher } from './infrastructure/security/passwords'
+import { DatabaseRateLimitStore } from './infrastructure/rate-limit-store'
+import { createAccessTokens } from './infrastructure/security/tokens'
 
 export interface AppDeps {
   dataSource: DataSource

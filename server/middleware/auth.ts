@@ -4,7 +4,7 @@ import type { Role } from '@shared/api/auth'
 import type { AppContext } from '../context'
 import { UserEntity, type UserRow } from '../entities'
 import { HttpError } from '../http-error'
-import { findById } from '../services/lookups'
+import { findById } from '../infrastructure/database/lookups'
 
 export interface AuthInfo {
   user: UserRow

@@ -29,8 +29,8 @@ import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
 import { assignmentFor, attemptFor } from '../services/access'
 import { ATTEMPT_SUMMARY_SELECT, presentAttempts, presentAudit, submitAttempt } from '../services/attempts'
-import { nowIso } from '../services/clock'
-import { attemptReviewedMail } from '../services/mail-templates'
+import { nowIso } from '../infrastructure/clock'
+import { attemptReviewedMail } from '../infrastructure/mail/templates'
 
 export function attemptsRouter(ctx: AppContext): Router {
   const router = Router()

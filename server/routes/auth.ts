@@ -19,11 +19,11 @@ import { PasswordResetEntity, UserEntity } from '../entities'
 import { HttpError } from '../http-error'
 import { authenticate, currentUser } from '../middleware/auth'
 import { validate } from '../middleware/validate'
-import { HOUR, isoIn, nowIso } from '../services/clock'
-import { passwordResetMail } from '../services/mail-templates'
+import { HOUR, isoIn, nowIso } from '../infrastructure/clock'
+import { passwordResetMail } from '../infrastructure/mail/templates'
 import { presentUser } from '../services/presenters'
 import { endAllSessions, endSession, refreshSession, startSession } from '../services/sessions'
-import { hashToken, newOpaqueToken } from '../services/tokens'
+import { hashToken, newOpaqueToken } from '../infrastructure/security/tokens'
 
 const RESET_TTL_MS = HOUR
 

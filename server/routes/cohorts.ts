@@ -24,12 +24,12 @@ import { HttpError, notFound } from '../http-error'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
 import { cohortFor, readableCohortIds } from '../services/access'
-import { nowIso } from '../services/clock'
+import { nowIso } from '../infrastructure/clock'
 import { invite } from '../services/invitations'
-import type { OutgoingMail } from '../services/mailer'
+import type { OutgoingMail } from '../infrastructure/mail/mailer'
 import { presentInvitation } from '../services/presenters'
 import { readRoster } from '../services/roster'
-import { keepUpload, uploadedText, uploadMiddleware, type UploadKind } from '../services/uploads'
+import { keepUpload, uploadedText, uploadMiddleware, type UploadKind } from '../infrastructure/storage/uploads'
 
 const ROSTER_UPLOAD: UploadKind = {
   purpose: 'roster',

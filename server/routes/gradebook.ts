@@ -6,10 +6,10 @@ import type { AppContext } from '../context'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
 import { cohortFor } from '../services/access'
-import { toCsv } from '../services/csv-safe'
+import { toCsv } from '../infrastructure/csv'
 import type { GradebookFilter } from '../services/gradebook'
 import type { GradebookPageQuery } from '../services/gradebook-cache'
-import { nowIso } from '../services/clock'
+import { nowIso } from '../infrastructure/clock'
 
 export function gradebookRouter(ctx: AppContext): Router {
   const router = Router()

@@ -11,9 +11,9 @@ import type { AppContext } from '../context'
 import { CohortEntity, EnrollmentEntity, InvitationEntity, UserEntity, type UserRow } from '../entities'
 import { HttpError, conflict } from '../http-error'
 import { validate } from '../middleware/validate'
-import { nowIso } from '../services/clock'
+import { nowIso } from '../infrastructure/clock'
 import { startSession } from '../services/sessions'
-import { hashToken } from '../services/tokens'
+import { hashToken } from '../infrastructure/security/tokens'
 
 const invalid = () =>
   new HttpError(404, 'invitation_invalid', 'This invitation has expired, was replaced or was already used')

@@ -22,7 +22,7 @@ import { validate } from '../middleware/validate'
 import { parseOrThrow } from '../middleware/errors'
 import { presentScenario, presentScenarioDetail } from '../services/presenters'
 import { latestVersion, storeScenarioVersion } from '../services/scenarios'
-import { keepUpload, uploadedText, uploadMiddleware, type UploadKind } from '../services/uploads'
+import { keepUpload, uploadedText, uploadMiddleware, type UploadKind } from '../infrastructure/storage/uploads'
 
 const PACK_UPLOAD: UploadKind = {
   purpose: 'scenarioPack',

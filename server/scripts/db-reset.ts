@@ -2,10 +2,10 @@
 import { rmSync } from 'node:fs'
 import { pino } from 'pino'
 import { loadConfig } from '../config'
-import { openDatabase } from '../data-source'
+import { openDatabase } from '../infrastructure/database/data-source'
 import { SCENARIOS_DIR } from '../main'
 import { demoSignInTable } from '../services/demo-accounts'
-import { createPasswordHasher } from '../services/passwords'
+import { createPasswordHasher } from '../infrastructure/security/passwords'
 import { importShippedScenarios } from '../services/scenarios'
 import { seedDemo } from '../services/seed'
 

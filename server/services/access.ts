@@ -12,7 +12,7 @@ import {
   type UserRow,
 } from '../entities'
 import { forbidden, notFound } from '../http-error'
-import { findById } from './lookups'
+import { findById } from '../infrastructure/database/lookups'
 
 export async function isEnrolled(ds: DataSource, cohortId: string, userId: string) {
   return (await ds.getRepository(EnrollmentEntity).countBy({ cohortId, userId })) > 0

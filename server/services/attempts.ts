@@ -19,9 +19,9 @@ import {
 } from '../entities'
 import { HttpError, conflict } from '../http-error'
 import { isEnrolled } from './access'
-import { nowIso } from './clock'
-import { findById } from './lookups'
-import { attemptReviewedMail } from './mail-templates'
+import { nowIso } from '../infrastructure/clock'
+import { findById } from '../infrastructure/database/lookups'
+import { attemptReviewedMail } from '../infrastructure/mail/templates'
 
 /** An attempt without its event log: everything a summary shows. */
 export type AttemptSummaryRow = Omit<AttemptRow, 'events'>

@@ -7,11 +7,11 @@ import type { InviteOutcome } from '@shared/api/invitations'
 import { appLink, type AppContext } from '../context'
 import { EnrollmentEntity, InvitationEntity, UserEntity, type CohortRow, type UserRow } from '../entities'
 import { conflict } from '../http-error'
-import { DAY, isoIn, nowIso } from './clock'
-import { invitationMail } from './mail-templates'
-import type { OutgoingMail } from './mailer'
+import { DAY, isoIn, nowIso } from '../infrastructure/clock'
+import { invitationMail } from '../infrastructure/mail/templates'
+import type { OutgoingMail } from '../infrastructure/mail/mailer'
 import { presentInvitation } from './presenters'
-import { newOpaqueToken } from './tokens'
+import { newOpaqueToken } from '../infrastructure/security/tokens'
 
 export const INVITATION_TTL_MS = 7 * DAY
 

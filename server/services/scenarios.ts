@@ -6,7 +6,7 @@ import type { DataSource, EntityManager } from 'typeorm'
 import { scenarioSchema, type Scenario } from '@shared/scenario/schema'
 import { ScenarioEntity, type ScenarioRow } from '../entities'
 import { HttpError } from '../http-error'
-import { nowIso } from './clock'
+import { nowIso } from '../infrastructure/clock'
 import { checkScenarioDocument } from './scenario-check'
 
 export async function latestVersion(

@@ -16,9 +16,9 @@ import {
   type CohortRow,
   type UserRow,
 } from '../entities'
-import { DAY, HOUR } from './clock'
+import { DAY, HOUR } from '../infrastructure/clock'
 import { DEMO_ACCOUNTS } from './demo-accounts'
-import { gradeAttempt } from './grading'
+import { gradeAttempt } from '../infrastructure/grading/grading'
 
 export const FIXTURE_DIR = fileURLToPath(new URL('../../tests/fixtures/attempts', import.meta.url))
 

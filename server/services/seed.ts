@@ -13,9 +13,9 @@ import {
   type CohortRow,
   type UserRow,
 } from '../entities'
-import { DAY, nowIso } from './clock'
+import { DAY, nowIso } from '../infrastructure/clock'
 import { DEMO_ACCOUNTS, DEMO_COHORTS } from './demo-accounts'
-import type { PasswordHasher } from './passwords'
+import type { PasswordHasher } from '../infrastructure/security/passwords'
 import { seedSampleAttempts } from './seed-attempts'
 
 /** Which shipped scenarios each demo cohort is set, by scenario id, with due dates in days from now. */

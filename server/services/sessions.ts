@@ -7,9 +7,9 @@ import { REFRESH_COOKIE_NAME, type SessionResponse } from '@shared/api/auth'
 import type { AppContext } from '../context'
 import { RefreshTokenEntity, UserEntity, type UserRow } from '../entities'
 import { HttpError } from '../http-error'
-import { DAY, isoIn, nowIso } from './clock'
+import { DAY, isoIn, nowIso } from '../infrastructure/clock'
 import { presentUser } from './presenters'
-import { hashToken, newOpaqueToken } from './tokens'
+import { hashToken, newOpaqueToken } from '../infrastructure/security/tokens'
 
 /** Inactivity limit: a refresh token unused for this long expires (each refresh starts a new one). */
 export const REFRESH_TTL_MS = 7 * DAY

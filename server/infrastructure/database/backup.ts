@@ -2,8 +2,8 @@
 // on PostgreSQL every table is read in one repeatable-read snapshot into a fresh, migrated SQLite file,
 // so the download has the same shape on both (pg_dump remains the operator's full backup there).
 import type { DataSource, EntitySchema } from 'typeorm'
-import { isPostgres, openDatabase, sqliteHandle } from '../data-source'
-import { entities, RateLimitCounterEntity } from '../entities'
+import { isPostgres, openDatabase, sqliteHandle } from './data-source'
+import { entities, RateLimitCounterEntity } from '../../entities'
 
 /** Rows copied per statement: well under SQLite's limit on bound parameters. */
 const BATCH = 200

@@ -5,8 +5,8 @@ import { simpleParser, type AddressObject } from 'mailparser'
 import { SMTPServer } from 'smtp-server'
 import type { DataSource } from 'typeorm'
 import type { Logger } from 'pino'
-import { MailMessageEntity } from '../entities'
-import { nowIso } from './clock'
+import { MailMessageEntity } from '../../entities'
+import { nowIso } from '../clock'
 
 export interface OutboxSmtp {
   host: string

@@ -1,6 +1,6 @@
 // argon2id hashing with the configured cost (OWASP parameters in production; cheaper only when a test asks).
 import argon2 from 'argon2'
-import type { PasswordHashing } from '../config'
+import type { PasswordHashing } from '../../config'
 
 export interface PasswordHasher {
   hash(password: string): Promise<string>

@@ -6,10 +6,10 @@ import { extname, join } from 'node:path'
 import multer from 'multer'
 import type { Request } from 'express'
 import type { EntityManager } from 'typeorm'
-import type { AppContext } from '../context'
-import { UploadEntity, type UploadRow } from '../entities'
-import { HttpError } from '../http-error'
-import { nowIso } from './clock'
+import type { AppContext } from '../../context'
+import { UploadEntity, type UploadRow } from '../../entities'
+import { HttpError } from '../../http-error'
+import { nowIso } from '../clock'
 
 export interface UploadKind {
   purpose: UploadRow['purpose']

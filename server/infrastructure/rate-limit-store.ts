@@ -3,7 +3,7 @@
 import type { ClientRateLimitInfo, Options, Store } from 'express-rate-limit'
 import type { DataSource } from 'typeorm'
 import { RateLimitCounterEntity } from '../entities'
-import { isPostgres } from '../data-source'
+import { isPostgres } from './database/data-source'
 
 const TABLE = '"rate_limit_counters"'
 /** Expired rows are swept every this many hits, so the table holds roughly the live windows only. */

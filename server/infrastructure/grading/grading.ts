@@ -2,7 +2,7 @@
 import { ModelInputError, type AttemptEvent } from '@shared/model'
 import { grade, type GradeResult } from '@shared/scenario/grade'
 import type { Scenario } from '@shared/scenario/schema'
-import { HttpError } from '../http-error'
+import { HttpError } from '../../http-error'
 
 export interface GradeOutcome {
   score: number // 0–100

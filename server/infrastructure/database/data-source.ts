@@ -3,9 +3,9 @@
 import { mkdirSync } from 'node:fs'
 import { dirname } from 'node:path'
 import { DataSource } from 'typeorm'
-import type { AppConfig } from './config'
-import { entities } from './entities'
-import { migrations } from './migrations'
+import type { AppConfig } from '../../config'
+import { entities } from '../../entities'
+import { migrations } from '../../migrations'
 import { serializeSqliteTransactions } from './sqlite-transactions'
 
 export type DataSourceOptions =

@@ -3,7 +3,7 @@ import { createHash, createSecretKey, randomBytes } from 'node:crypto'
 import jwt from 'jsonwebtoken'
 import { LRUCache } from 'lru-cache'
 import { ACCESS_TOKEN_TTL_SECONDS, type Role } from '@shared/api/auth'
-import { HttpError } from '../http-error'
+import { HttpError } from '../../http-error'
 
 export interface AccessClaims {
   sub: string
