@@ -4,10 +4,10 @@ import { pino } from 'pino'
 import { loadConfig } from '../config'
 import { openDatabase } from '../infrastructure/database/data-source'
 import { SCENARIOS_DIR } from '../main'
-import { demoSignInTable } from '../services/demo-accounts'
+import { demoSignInTable } from '../demo/demo-accounts'
 import { createPasswordHasher } from '../infrastructure/security/passwords'
-import { importShippedScenarios } from '../services/scenarios'
-import { seedDemo } from '../services/seed'
+import { importShippedScenarios } from '../scenarios/scenarios.service'
+import { seedDemo } from '../demo/seed'
 
 const config = loadConfig(process.env)
 const log = pino({ level: config.logLevel })

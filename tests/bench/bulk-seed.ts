@@ -12,7 +12,7 @@ import { ScenarioEntity } from '../../server/entities'
 import { SCENARIOS_DIR } from '../../server/main'
 import { gradeAttempt, type GradeOutcome } from '../../server/infrastructure/grading/grading'
 import { createPasswordHasher } from '../../server/infrastructure/security/passwords'
-import { importShippedScenarios } from '../../server/services/scenarios'
+import { importShippedScenarios } from '../../server/scenarios/scenarios.service'
 
 export const FIXTURE_DIR = new URL('../fixtures/attempts/', import.meta.url).pathname
 export const BENCH_PASSWORD = 'load-test-bench-passphrase'

@@ -8,7 +8,7 @@ import Database from 'better-sqlite3'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { AttemptEvent } from '../../shared/model/events'
 import { createDataSource } from '../../server/infrastructure/database/data-source'
-import { DEMO_ACCOUNTS } from '../../server/services/demo-accounts'
+import { DEMO_ACCOUNTS } from '../../server/demo/demo-accounts'
 import { fixtureLog, paddedLog } from '../bench/bulk-seed'
 import { startSlipway, type ServerProcess } from '../support/server-process'
 

@@ -24,7 +24,7 @@ import { SCENARIOS_DIR } from '../../server/main'
 import { createMailer, type Mailer } from '../../server/infrastructure/mail/mailer'
 import { startOutboxSmtp, type OutboxSmtp } from '../../server/infrastructure/mail/outbox-smtp'
 import { createPasswordHasher, type PasswordHasher } from '../../server/infrastructure/security/passwords'
-import { importShippedScenarios } from '../../server/services/scenarios'
+import { importShippedScenarios } from '../../server/scenarios/scenarios.service'
 import { createTestDatabase } from './test-database'
 
 /**

@@ -10,7 +10,7 @@ import { conflict } from '../http-error'
 import { DAY, isoIn, nowIso } from '../infrastructure/clock'
 import { invitationMail } from '../infrastructure/mail/templates'
 import type { OutgoingMail } from '../infrastructure/mail/mailer'
-import { presentInvitation } from './presenters'
+import { presentInvitation } from '../services/presenters'
 import { newOpaqueToken } from '../infrastructure/security/tokens'
 
 export const INVITATION_TTL_MS = 7 * DAY

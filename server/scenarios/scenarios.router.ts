@@ -21,7 +21,7 @@ import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
 import { parseOrThrow } from '../middleware/errors'
 import { presentScenario, presentScenarioDetail } from '../services/presenters'
-import { latestVersion, storeScenarioVersion } from '../services/scenarios'
+import { latestVersion, storeScenarioVersion } from './scenarios.service'
 import { keepUpload, uploadedText, uploadMiddleware, type UploadKind } from '../infrastructure/storage/uploads'
 
 const PACK_UPLOAD: UploadKind = {

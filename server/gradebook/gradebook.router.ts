@@ -5,10 +5,10 @@ import { gradebookQuerySchema } from '@shared/api/gradebook'
 import type { AppContext } from '../context'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
-import { cohortFor } from '../services/access'
+import { cohortFor } from '../access/access.service'
 import { toCsv } from '../infrastructure/csv'
-import type { GradebookFilter } from '../services/gradebook'
-import type { GradebookPageQuery } from '../services/gradebook-cache'
+import type { GradebookFilter } from './gradebook.service'
+import type { GradebookPageQuery } from './gradebook-cache'
 import { nowIso } from '../infrastructure/clock'
 
 export function gradebookRouter(ctx: AppContext): Router {

@@ -22,7 +22,7 @@ import { validate } from '../middleware/validate'
 import { HOUR, isoIn, nowIso } from '../infrastructure/clock'
 import { passwordResetMail } from '../infrastructure/mail/templates'
 import { presentUser } from '../services/presenters'
-import { endAllSessions, endSession, refreshSession, startSession } from '../services/sessions'
+import { endAllSessions, endSession, refreshSession, startSession } from './sessions.service'
 import { hashToken, newOpaqueToken } from '../infrastructure/security/tokens'
 
 const RESET_TTL_MS = HOUR

@@ -8,7 +8,7 @@ import type { AppContext } from '../context'
 import { RefreshTokenEntity, UserEntity, type UserRow } from '../entities'
 import { HttpError } from '../http-error'
 import { DAY, isoIn, nowIso } from '../infrastructure/clock'
-import { presentUser } from './presenters'
+import { presentUser } from '../services/presenters'
 import { hashToken, newOpaqueToken } from '../infrastructure/security/tokens'
 
 /** Inactivity limit: a refresh token unused for this long expires (each refresh starts a new one). */

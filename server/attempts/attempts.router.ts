@@ -27,8 +27,8 @@ import {
 import { conflict, forbidden } from '../http-error'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
-import { assignmentFor, attemptFor } from '../services/access'
-import { ATTEMPT_SUMMARY_SELECT, presentAttempts, presentAudit, submitAttempt } from '../services/attempts'
+import { assignmentFor, attemptFor } from '../access/access.service'
+import { ATTEMPT_SUMMARY_SELECT, presentAttempts, presentAudit, submitAttempt } from './attempts.service'
 import { nowIso } from '../infrastructure/clock'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
 

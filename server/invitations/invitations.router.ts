@@ -12,7 +12,7 @@ import { CohortEntity, EnrollmentEntity, InvitationEntity, UserEntity, type User
 import { HttpError, conflict } from '../http-error'
 import { validate } from '../middleware/validate'
 import { nowIso } from '../infrastructure/clock'
-import { startSession } from '../services/sessions'
+import { startSession } from '../auth/sessions.service'
 import { hashToken } from '../infrastructure/security/tokens'
 
 const invalid = () =>

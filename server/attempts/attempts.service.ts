@@ -18,7 +18,7 @@ import {
   type UserRow,
 } from '../entities'
 import { HttpError, conflict } from '../http-error'
-import { isEnrolled } from './access'
+import { isEnrolled } from '../access/access.service'
 import { nowIso } from '../infrastructure/clock'
 import { findById } from '../infrastructure/database/lookups'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'

@@ -10,7 +10,7 @@ import {
   type AssignmentRow,
   type CohortRow,
 } from '../entities'
-import { NOT_STARTED, standingsByAssignmentAndUser } from './progress'
+import { NOT_STARTED, standingsByAssignmentAndUser } from './standings'
 
 export interface GradebookFilter {
   sort: 'name' | 'email' | 'lastActivity' | 'average'

@@ -23,12 +23,12 @@ import { CohortEntity, EnrollmentEntity, InvitationEntity, UserEntity, type Coho
 import { HttpError, notFound } from '../http-error'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
-import { cohortFor, readableCohortIds } from '../services/access'
+import { cohortFor, readableCohortIds } from '../access/access.service'
 import { nowIso } from '../infrastructure/clock'
-import { invite } from '../services/invitations'
+import { invite } from '../invitations/invitations.service'
 import type { OutgoingMail } from '../infrastructure/mail/mailer'
 import { presentInvitation } from '../services/presenters'
-import { readRoster } from '../services/roster'
+import { readRoster } from '../invitations/roster'
 import { keepUpload, uploadedText, uploadMiddleware, type UploadKind } from '../infrastructure/storage/uploads'
 
 const ROSTER_UPLOAD: UploadKind = {

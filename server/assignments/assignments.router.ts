@@ -26,11 +26,11 @@ import {
 import { HttpError, conflict } from '../http-error'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
-import { assignmentFor, cohortFor, readableCohortIds } from '../services/access'
+import { assignmentFor, cohortFor, readableCohortIds } from '../access/access.service'
 import { nowIso } from '../infrastructure/clock'
 import { assignmentPublishedMail } from '../infrastructure/mail/templates'
-import { NOT_STARTED, standingsByAssignmentAndUser } from '../services/progress'
-import { histogram, mean, median } from '../services/stats'
+import { NOT_STARTED, standingsByAssignmentAndUser } from '../gradebook/standings'
+import { histogram, mean, median } from './stats'
 
 export function assignmentsRouter(ctx: AppContext): Router {
   const router = Router()

@@ -17,9 +17,9 @@ import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
 import { writeBackup } from '../infrastructure/database/backup'
 import { nowIso } from '../infrastructure/clock'
-import { invite } from '../services/invitations'
+import { invite } from '../invitations/invitations.service'
 import { presentMail, presentUser } from '../services/presenters'
-import { endAllSessions } from '../services/sessions'
+import { endAllSessions } from '../auth/sessions.service'
 
 export function adminRouter(ctx: AppContext): Router {
   const router = Router()

@@ -9,7 +9,7 @@ import { LRUCache } from 'lru-cache'
 import type { DataSource } from 'typeorm'
 import type { GradebookRow } from '@shared/api/gradebook'
 import type { CohortRow } from '../entities'
-import { loadGradebook, viewGradebook, type CohortGradebook, type GradebookFilter } from './gradebook'
+import { loadGradebook, viewGradebook, type CohortGradebook, type GradebookFilter } from './gradebook.service'
 
 export interface GradebookCacheOptions {
   /** Cohorts kept (default 200). */
