@@ -4,11 +4,11 @@ import { randomUUID } from 'node:crypto'
 import { mkdirSync, writeFileSync } from 'node:fs'
 import { extname, join } from 'node:path'
 import multer from 'multer'
-import type { Request } from 'express'
 import type { EntityManager } from 'typeorm'
 import type { AppContext } from '../../context'
 import { UploadEntity, type UploadRow } from '../../entities'
 import { HttpError } from '../../http-error'
+import { asMiddleware, type Middleware } from '../../middleware/validate'
 import { nowIso } from '../clock'
 
 export interface UploadKind {
@@ -20,15 +20,20 @@ export interface UploadKind {
   label: string
 }
 
-export function uploadMiddleware(kind: UploadKind) {
-  return multer({
-    storage: multer.memoryStorage(),
-    limits: { fileSize: kind.maxBytes, files: 1, fields: 5 },
-  }).single(kind.field)
+export function uploadMiddleware(kind: UploadKind): Middleware {
+  return asMiddleware(
+    multer({
+      storage: multer.memoryStorage(),
+      limits: { fileSize: kind.maxBytes, files: 1, fields: 5 },
+    }).single(kind.field),
+  )
 }
 
 /** The uploaded file as UTF-8 text, after checking it is what it claims to be (415 if not). */
-export function uploadedText(req: Request, kind: UploadKind): { file: Express.Multer.File; text: string } {
+export function uploadedText(
+  req: { file?: Express.Multer.File },
+  kind: UploadKind,
+): { file: Express.Multer.File; text: string } {
   const file = req.file
   if (!file) {
     throw new HttpError(400, 'validation_failed', `Attach the ${kind.label} as the “${kind.field}” field`, {
