@@ -1,30 +1,49 @@
-// Attempt submission: validate the target and the rules, grade on the server, store once (idempotent by id).
+// Attempts: submission (validate the target and the rules, grade on the server, store once, idempotent by
+// id), lists and detail as each role may see them, instructor feedback and audited grade overrides.
 import { randomUUID } from 'node:crypto'
-import { In } from 'typeorm'
-import type { SubmitAttemptRequest, AttemptSummary, GradeAuditEntry } from '@shared/api/attempts'
+import { In, type FindOptionsWhere } from 'typeorm'
+import type { z } from 'zod'
+import type {
+  AttemptDetail,
+  AttemptPage,
+  AttemptSummary,
+  Feedback,
+  GradeAuditEntry,
+  GradeOverrideRequest,
+  SubmitAttemptRequest,
+  attemptListQuerySchema,
+} from '@shared/api/attempts'
 import type { AttemptEvent } from '@shared/model/events'
+import { assignmentFor, attemptFor, isEnrolled } from '../access/access.service'
 import { appLink, type AppContext } from '../context'
 import {
   AssignmentEntity,
   AttemptEntity,
   AuditEntryEntity,
   CohortEntity,
+  FeedbackEntity,
   ScenarioEntity,
   UserEntity,
   type AssignmentRow,
   type AttemptRow,
   type AuditEntryRow,
+  type FeedbackRow,
   type ScenarioRow,
   type UserRow,
 } from '../entities'
-import { HttpError, conflict } from '../http-error'
-import { isEnrolled } from '../access/access.service'
+import { HttpError, conflict, forbidden } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
 import { findById } from '../infrastructure/database/lookups'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
+import {
+  presentAttemptDetail,
+  presentAttemptSummary,
+  presentAuditEntry,
+  presentFeedback,
+  type AttemptSummaryRow,
+} from './attempt.presenter'
 
-/** An attempt without its event log: everything a summary shows. */
-export type AttemptSummaryRow = Omit<AttemptRow, 'events'>
+type AttemptListQuery = z.output<typeof attemptListQuerySchema>
 
 /** TypeORM `select` for list routes: every column but the event log, which can run to megabytes. */
 export const ATTEMPT_SUMMARY_SELECT = {
@@ -46,7 +65,8 @@ export const ATTEMPT_SUMMARY_SELECT = {
   gradedAt: true,
 } satisfies Record<keyof AttemptSummaryRow, true>
 
-export async function presentAttempts(ctx: AppContext, rows: AttemptSummaryRow[]): Promise<AttemptSummary[]> {
+/** Summaries with their apprentices' names and scenario keys, read in two queries. */
+async function presentAttempts(ctx: AppContext, rows: AttemptSummaryRow[]): Promise<AttemptSummary[]> {
   if (rows.length === 0) return []
   const ds = ctx.dataSource
   const users = await ds.getRepository(UserEntity).find({
@@ -57,53 +77,33 @@ export async function presentAttempts(ctx: AppContext, rows: AttemptSummaryRow[]
     where: { id: In([...new Set(rows.map((r) => r.scenarioId))]) },
     select: { id: true, key: true, version: true },
   })
-  return rows.map((row) => {
-    const scenario = scenarios.find((s) => s.id === row.scenarioId)!
-    return {
-      id: row.id,
-      userId: row.userId,
+  return rows.map((row) =>
+    presentAttemptSummary(row, {
       userName: users.find((u) => u.id === row.userId)?.name ?? '',
-      assignmentId: row.assignmentId,
-      scenarioId: row.scenarioId,
-      scenarioKey: scenario.key,
-      scenarioVersion: scenario.version,
-      status: row.status,
-      eventCount: row.eventCount,
-      late: Boolean(row.late),
-      startedAt: row.startedAt,
-      updatedAt: row.updatedAt,
-      submittedAt: row.submittedAt,
-      grade:
-        row.score === null || row.autoScore === null
-          ? null
-          : {
-              score: row.score,
-              passed: Boolean(row.passed),
-              autoScore: row.autoScore,
-              autoPassed: Boolean(row.autoPassed),
-              overridden: row.score !== row.autoScore || Boolean(row.passed) !== Boolean(row.autoPassed),
-              evidence: row.evidence ? JSON.parse(row.evidence) : null,
-              gradedAt: row.gradedAt ?? row.submittedAt ?? row.updatedAt,
-            },
-    }
-  })
+      scenario: scenarios.find((s) => s.id === row.scenarioId)!,
+    }),
+  )
 }
 
-export async function presentAudit(ctx: AppContext, rows: AuditEntryRow[]): Promise<GradeAuditEntry[]> {
+const presentOne = async (ctx: AppContext, row: AttemptSummaryRow) => (await presentAttempts(ctx, [row]))[0]!
+
+async function presentFeedbackRows(ctx: AppContext, rows: FeedbackRow[]): Promise<Feedback[]> {
+  const authors = rows.length
+    ? await ctx.dataSource
+        .getRepository(UserEntity)
+        .findBy({ id: In([...new Set(rows.map((r) => r.authorId))]) })
+    : []
+  return rows.map((row) => presentFeedback(row, authors.find((a) => a.id === row.authorId)?.name ?? ''))
+}
+
+async function presentAuditRows(ctx: AppContext, rows: AuditEntryRow[]): Promise<GradeAuditEntry[]> {
   const actorIds = rows.map((r) => r.actorId).filter((id): id is string => id !== null)
   const actors = actorIds.length
     ? await ctx.dataSource.getRepository(UserEntity).findBy({ id: In(actorIds) })
     : []
-  return rows.map((row) => ({
-    id: row.id,
-    actorId: row.actorId,
-    actorName: row.actorId ? (actors.find((a) => a.id === row.actorId)?.name ?? '') : 'Slipway grader',
-    action: row.action === 'grade.overridden' ? 'overridden' : 'graded',
-    from: row.fromValue ? JSON.parse(row.fromValue) : null,
-    to: JSON.parse(row.toValue),
-    reason: row.reason,
-    createdAt: row.createdAt,
-  }))
+  return rows.map((row) =>
+    presentAuditEntry(row, row.actorId ? (actors.find((a) => a.id === row.actorId)?.name ?? '') : null),
+  )
 }
 
 interface Target {
@@ -156,8 +156,9 @@ function checkRules(assignment: AssignmentRow, events: AttemptEvent[], usedAttem
 class LostRace extends Error {}
 
 export interface SubmitResult {
+  /** False when the same id was already stored: the answer is then the stored result (200, not 201). */
   created: boolean
-  attempt: AttemptRow
+  attempt: AttemptSummary
 }
 
 export async function submitAttempt(
@@ -165,6 +166,15 @@ export async function submitAttempt(
   user: UserRow,
   body: SubmitAttemptRequest,
 ): Promise<SubmitResult> {
+  const { created, attempt } = await storeSubmission(ctx, user, body)
+  return { created, attempt: await presentOne(ctx, attempt) }
+}
+
+async function storeSubmission(
+  ctx: AppContext,
+  user: UserRow,
+  body: SubmitAttemptRequest,
+): Promise<{ created: boolean; attempt: AttemptRow }> {
   const ds = ctx.dataSource
   const attempts = ds.getRepository(AttemptEntity)
   const existing = await findById(ds, AttemptEntity, body.id)
@@ -255,4 +265,140 @@ export async function submitAttempt(
     )
   }
   return { created: !existing || submitting, attempt: row }
+}
+
+/** A page of attempts: apprentices see their own, instructors those on their cohorts' assignments. */
+export async function listAttempts(
+  ctx: AppContext,
+  user: UserRow,
+  q: AttemptListQuery,
+): Promise<AttemptPage> {
+  const ds = ctx.dataSource
+  const where: FindOptionsWhere<AttemptRow> = {
+    ...(q.status ? { status: q.status } : {}),
+    ...(q.userId ? { userId: q.userId } : {}),
+  }
+  if (q.assignmentId) {
+    await assignmentFor(ds, user, q.assignmentId, 'read')
+    where.assignmentId = q.assignmentId
+  }
+  if (user.role === 'apprentice') {
+    if (q.userId && q.userId !== user.id) throw forbidden('You can only list your own attempts')
+    where.userId = user.id
+  } else if (user.role === 'instructor' && !q.assignmentId) {
+    const cohorts = await ds.getRepository(CohortEntity).findBy({ ownerId: user.id })
+    const assignments = cohorts.length
+      ? await ds.getRepository(AssignmentEntity).findBy({ cohortId: In(cohorts.map((c) => c.id)) })
+      : []
+    where.assignmentId = In(assignments.map((a) => a.id))
+  }
+  const [rows, total] = await ds.getRepository(AttemptEntity).findAndCount({
+    where,
+    select: ATTEMPT_SUMMARY_SELECT,
+    order: { updatedAt: 'DESC' },
+    skip: (q.page - 1) * q.pageSize,
+    take: q.pageSize,
+  })
+  return { items: await presentAttempts(ctx, rows), total, page: q.page, pageSize: q.pageSize }
+}
+
+/** One attempt with its event log (for replay), feedback and grade history. */
+export async function getAttemptDetail(
+  ctx: AppContext,
+  user: UserRow,
+  attemptId: string,
+): Promise<AttemptDetail> {
+  const ds = ctx.dataSource
+  const attempt = await attemptFor(ds, user, attemptId, 'read')
+  const summary = await presentOne(ctx, attempt)
+  const feedback = await ds
+    .getRepository(FeedbackEntity)
+    .find({ where: { attemptId: attempt.id }, order: { createdAt: 'ASC' } })
+  const audit = await ds.getRepository(AuditEntryEntity).find({
+    where: { entityType: 'attempt', entityId: attempt.id },
+    order: { createdAt: 'ASC' },
+  })
+  return presentAttemptDetail(
+    summary,
+    attempt,
+    await presentFeedbackRows(ctx, feedback),
+    await presentAuditRows(ctx, audit),
+  )
+}
+
+/** Tells the attempt's owner (if still active) that their attempt was reviewed. */
+async function notifyOwner(
+  ctx: AppContext,
+  attempt: AttemptRow,
+  what: 'overridden' | 'feedback',
+  score?: number,
+  passed?: boolean,
+) {
+  const ds = ctx.dataSource
+  const owner = await ds.getRepository(UserEntity).findOneBy({ id: attempt.userId })
+  const assignment = attempt.assignmentId
+    ? await ds.getRepository(AssignmentEntity).findOneBy({ id: attempt.assignmentId })
+    : null
+  if (!owner?.active) return
+  ctx.mailer.send(
+    attemptReviewedMail({
+      to: owner.email,
+      name: owner.name,
+      title: assignment?.title ?? 'your practice attempt',
+      what,
+      score,
+      passed,
+      url: appLink(ctx, `/attempts/${attempt.id}`),
+    }),
+  )
+}
+
+export async function addFeedback(
+  ctx: AppContext,
+  user: UserRow,
+  attemptId: string,
+  body: string,
+): Promise<Feedback> {
+  const attempt = await attemptFor(ctx.dataSource, user, attemptId, 'manage')
+  const row: FeedbackRow = {
+    id: randomUUID(),
+    attemptId: attempt.id,
+    authorId: user.id,
+    body,
+    createdAt: nowIso(),
+  }
+  await ctx.dataSource.getRepository(FeedbackEntity).insert(row)
+  await notifyOwner(ctx, attempt, 'feedback')
+  return (await presentFeedbackRows(ctx, [row]))[0]!
+}
+
+/** An instructor's grade replaces the grader's as the one that counts; the change is audited with its reason. */
+export async function overrideGrade(
+  ctx: AppContext,
+  user: UserRow,
+  attemptId: string,
+  { score, passed, reason }: GradeOverrideRequest,
+): Promise<AttemptSummary> {
+  const ds = ctx.dataSource
+  const attempt = await attemptFor(ds, user, attemptId, 'manage')
+  if (attempt.status !== 'submitted' || attempt.score === null) {
+    throw conflict('conflict', 'Only a submitted, graded attempt can have its grade changed')
+  }
+  const now = nowIso()
+  await ds.transaction(async (manager) => {
+    await manager.getRepository(AttemptEntity).update({ id: attempt.id }, { score, passed, updatedAt: now })
+    await manager.getRepository(AuditEntryEntity).insert({
+      id: randomUUID(),
+      actorId: user.id,
+      action: 'grade.overridden',
+      entityType: 'attempt',
+      entityId: attempt.id,
+      fromValue: JSON.stringify({ score: attempt.score, passed: Boolean(attempt.passed) }),
+      toValue: JSON.stringify({ score, passed }),
+      reason,
+      createdAt: now,
+    })
+  })
+  await notifyOwner(ctx, attempt, 'overridden', score, passed)
+  return presentOne(ctx, await ds.getRepository(AttemptEntity).findOneByOrFail({ id: attempt.id }))
 }
