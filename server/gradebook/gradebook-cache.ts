@@ -9,6 +9,7 @@ import { LRUCache } from 'lru-cache'
 import type { DataSource } from 'typeorm'
 import type { GradebookRow } from '@shared/api/gradebook'
 import type { CohortRow } from '../entities'
+import { presentGradebookPage } from './gradebook.presenter'
 import { loadGradebook, viewGradebook, type CohortGradebook, type GradebookFilter } from './gradebook.service'
 
 export interface GradebookCacheOptions {
@@ -97,17 +98,9 @@ export function createGradebookCache(ds: DataSource, options: GradebookCacheOpti
       const key = `${viewKey(query)}|${query.page}|${query.pageSize}`
       const cached = entry.pages.get(key)
       if (cached) return cached
-      const { assignments, rows } = await viewOf(entry, query)
-      const start = (query.page - 1) * query.pageSize
+      const view = await viewOf(entry, query)
       const json = Buffer.from(
-        JSON.stringify({
-          cohortId: cohort.id,
-          assignments: assignments.map((a) => ({ id: a.id, title: a.title, dueAt: a.dueAt })),
-          rows: rows.slice(start, start + query.pageSize),
-          total: rows.length,
-          page: query.page,
-          pageSize: query.pageSize,
-        }),
+        JSON.stringify(presentGradebookPage(cohort.id, view, query.page, query.pageSize)),
       )
       const body = { json, etag: `"${createHash('sha1').update(json).digest('base64url')}"` }
       entry.pages.set(key, body)

@@ -1,5 +1,6 @@
 // The gradebook of a cohort: every apprentice × every assignment (loadGradebook, from the database), then
-// filtered and sorted (viewGradebook, pure). The route pages the result; gradebook-cache.ts keeps both.
+// filtered and sorted (viewGradebook, pure); gradebook-cache.ts keeps both between requests. Instructors
+// read it a page at a time (gradebookPage) or whole as CSV (gradebookCsvFile).
 import type { DataSource } from 'typeorm'
 import { In } from 'typeorm'
 import type { GradebookCellStatus, GradebookRow } from '@shared/api/gradebook'
@@ -9,7 +10,13 @@ import {
   UserEntity,
   type AssignmentRow,
   type CohortRow,
+  type UserRow,
 } from '../entities'
+import { cohortFor } from '../access/access.service'
+import type { AppContext } from '../context'
+import { nowIso } from '../infrastructure/clock'
+import type { GradebookPageBody, GradebookPageQuery } from './gradebook-cache'
+import { gradebookCsv, gradebookFileName } from './gradebook.presenter'
 import { NOT_STARTED, standingsByAssignmentAndUser } from './standings'
 
 export interface GradebookFilter {
@@ -109,4 +116,27 @@ export function viewGradebook(gradebook: CohortGradebook, filter: GradebookFilte
     return order * direction || collator.compare(a.name, b.name) || collator.compare(a.userId, b.userId)
   })
   return view
+}
+
+/** One page as JSON bytes with its entity tag, for the cohort's instructor or an admin. */
+export async function gradebookPage(
+  ctx: AppContext,
+  user: UserRow,
+  cohortId: string,
+  query: GradebookPageQuery,
+): Promise<GradebookPageBody> {
+  const cohort = await cohortFor(ctx.dataSource, user, cohortId, 'manage')
+  return ctx.gradebooks.page(cohort, query)
+}
+
+/** The whole filtered, sorted gradebook as a CSV file. */
+export async function gradebookCsvFile(
+  ctx: AppContext,
+  user: UserRow,
+  cohortId: string,
+  filter: GradebookFilter,
+): Promise<{ fileName: string; csv: string }> {
+  const cohort = await cohortFor(ctx.dataSource, user, cohortId, 'manage')
+  const view = await ctx.gradebooks.view(cohort, filter)
+  return { fileName: gradebookFileName(cohort.name, nowIso().slice(0, 10)), csv: gradebookCsv(view) }
 }
