@@ -1,6 +1,6 @@
 // What every route needs, built once per app: database, settings, mail, hashing and tokens.
 import type { DataSource } from 'typeorm'
-import type { Logger } from 'pino'
+import type { Logger } from './infrastructure/logging'
 import type { AppConfig } from './config'
 import type { Limiters } from './middleware/rate-limit'
 import type { GradebookCache } from './gradebook/gradebook-cache'

@@ -2,7 +2,7 @@
 // apprentices, assignments of the shipped scenarios, and sample attempts graded by the real grader.
 import { randomUUID } from 'node:crypto'
 import type { DataSource } from 'typeorm'
-import type { Logger } from 'pino'
+import type { Logger } from '../infrastructure/logging'
 import {
   AssignmentEntity,
   CohortEntity,
@@ -29,6 +29,11 @@ const DEMO_ASSIGNMENTS: { cohort: number; key: string; opensInDays: number; dueI
 
 export async function isDatabaseEmpty(dataSource: DataSource): Promise<boolean> {
   return (await dataSource.getRepository(UserEntity).count()) === 0
+}
+
+/** Whether the demo admin exists (then the start-up banner lists the demo sign-ins). */
+export async function hasDemoAccounts(dataSource: DataSource): Promise<boolean> {
+  return (await dataSource.getRepository(UserEntity).countBy({ email: DEMO_ACCOUNTS[0]!.email })) > 0
 }
 
 export async function seedDemo(

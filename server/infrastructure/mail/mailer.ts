@@ -1,6 +1,6 @@
 // Sends mail through nodemailer over SMTP, in the background: a failure is retried and never fails the request.
 import nodemailer, { type Transporter } from 'nodemailer'
-import type { Logger } from 'pino'
+import type { Logger } from '../logging'
 
 export interface OutgoingMail {
   to: string

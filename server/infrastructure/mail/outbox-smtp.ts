@@ -4,7 +4,7 @@ import { randomUUID } from 'node:crypto'
 import { simpleParser, type AddressObject } from 'mailparser'
 import { SMTPServer } from 'smtp-server'
 import type { DataSource } from 'typeorm'
-import type { Logger } from 'pino'
+import type { Logger } from '../logging'
 import { MailMessageEntity } from '../../entities'
 import { nowIso } from '../clock'
 
