@@ -29,7 +29,7 @@ export interface BackupFile {
   remove(): void
 }
 
-/** A consistent SQLite copy made while the app keeps running (from PostgreSQL too: see backup.ts). */
+/** A consistent SQLite copy made while the app keeps running (from PostgreSQL too: infrastructure/database/backup.ts). */
 export async function makeBackup(ctx: AppContext): Promise<BackupFile> {
   const dir = mkdtempSync(join(tmpdir(), 'slipway-backup-'))
   const remove = () => rmSync(dir, { recursive: true, force: true })

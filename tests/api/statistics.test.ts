@@ -1,4 +1,4 @@
-// The gradebook's statistics (server/services/stats.ts) against mathjs, over random score lists.
+// The gradebook's statistics (server/assignments/stats.ts) against mathjs, over random score lists.
 import fc from 'fast-check'
 import { mean as mathMean, median as mathMedian } from 'mathjs'
 import { describe, expect, it } from 'vitest'
