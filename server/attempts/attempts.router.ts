@@ -10,7 +10,8 @@ import { idParamsSchema } from '@shared/api/common'
 import type { AppContext } from '../context'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
-import { addFeedback, getAttemptDetail, listAttempts, overrideGrade, submitAttempt } from './attempts.service'
+import { addFeedback, getAttemptDetail, listAttempts, overrideGrade } from './attempts.service'
+import { submitAttempt } from './submission.service'
 
 export function attemptsRouter(ctx: AppContext): Router {
   const router = Router()
