@@ -5,28 +5,27 @@ import { fileURLToPath } from 'node:url'
 import cookieParser from 'cookie-parser'
 import express, { type Express } from 'express'
 import helmet from 'helmet'
-import { pino, type Logger } from 'pino'
-import { pinoHttp } from 'pino-http'
 import type { DataSource } from 'typeorm'
+import { adminRouter } from './admin/admin.router'
+import { assignmentsRouter } from './assignments/assignments.router'
+import { attemptsRouter } from './attempts/attempts.router'
+import { authRouter } from './auth/auth.router'
+import { cohortsRouter } from './cohorts/cohorts.router'
 import type { AppConfig } from './config'
 import type { AppContext } from './context'
+import { createGradebookCache } from './gradebook/gradebook-cache'
+import { gradebookRouter } from './gradebook/gradebook.router'
+import { healthRouter } from './health/health.router'
+import { createGradingPool, type GradingPool } from './infrastructure/grading/grading-pool'
+import { createLogger, requestLogger, type Logger } from './infrastructure/logging'
+import type { Mailer } from './infrastructure/mail/mailer'
+import { DatabaseRateLimitStore } from './infrastructure/rate-limit-store'
+import { createPasswordHasher, type PasswordHasher } from './infrastructure/security/passwords'
+import { createAccessTokens } from './infrastructure/security/tokens'
+import { invitationsRouter } from './invitations/invitations.router'
 import { apiNotFound, errorHandler } from './middleware/errors'
 import { createLimiters } from './middleware/rate-limit'
-import { adminRouter } from './routes/admin'
-import { assignmentsRouter } from './routes/assignments'
-import { attemptsRouter } from './routes/attempts'
-import { authRouter } from './routes/auth'
-import { cohortsRouter } from './routes/cohorts'
-import { gradebookRouter } from './routes/gradebook'
-import { healthRouter } from './routes/health'
-import { invitationsRouter } from './routes/invitations'
-import { scenariosRouter, scenarioVersionsRouter } from './routes/scenarios'
-import { createGradebookCache } from './services/gradebook-cache'
-import { createGradingPool, type GradingPool } from './services/grading-pool'
-import type { Mailer } from './services/mailer'
-import { createPasswordHasher, type PasswordHasher } from './services/passwords'
-import { DatabaseRateLimitStore } from './services/rate-limit-store'
-import { createAccessTokens } from './services/tokens'
+import { scenariosRouter, scenarioVersionsRouter } from './scenarios/scenarios.router'
 
 export interface AppDeps {
   dataSource: DataSource
@@ -44,7 +43,7 @@ export interface AppDeps {
 export const DEFAULT_CLIENT_DIR = fileURLToPath(new URL('../dist/client', import.meta.url))
 
 export function createApp(deps: AppDeps): Express {
-  const log = deps.log ?? pino({ level: deps.config.logLevel })
+  const log = deps.log ?? createLogger(deps.config.logLevel)
   const ctx: AppContext = {
     dataSource: deps.dataSource,
     config: deps.config,
@@ -86,21 +85,7 @@ export function createApp(deps: AppDeps): Express {
       },
     }),
   )
-  app.use(
-    pinoHttp({
-      logger: log,
-      autoLogging: { ignore: (req) => req.url === '/api/health' },
-      // Method, path and status only: no headers, so no tokens or cookies in the log.
-      serializers: {
-        req: (req: { id: unknown; method: string; url: string }) => ({
-          id: req.id,
-          method: req.method,
-          url: req.url.split('?')[0],
-        }),
-        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
-      },
-    }),
-  )
+  app.use(requestLogger(log))
   // Only the session routes read the refresh cookie; no other request pays for parsing cookies.
   app.use('/api/auth', cookieParser())
   // Attempt logs and scenario documents are large; everything else stays small.

@@ -2,19 +2,18 @@
 import type { Server } from 'node:http'
 import { mkdirSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
-import { pino } from 'pino'
 import { createApp } from './app'
 import { ConfigError, loadConfig } from './config'
-import { dataSourceOptionsFor, openDatabase } from './data-source'
-import { UserEntity } from './entities'
-import { DEMO_ACCOUNTS, demoSignInTable } from './services/demo-accounts'
-import { createGradingPool } from './services/grading-pool'
-import { createMailer, type SmtpTarget } from './services/mailer'
-import { startOutboxSmtp, type OutboxSmtp } from './services/outbox-smtp'
-import { createPasswordHasher } from './services/passwords'
-import { importShippedScenarios } from './services/scenarios'
-import { loadOrCreateJwtSecret } from './services/secrets'
-import { isDatabaseEmpty, seedDemo } from './services/seed'
+import { demoSignInTable } from './demo/demo-accounts'
+import { hasDemoAccounts, isDatabaseEmpty, seedDemo } from './demo/seed'
+import { dataSourceOptionsFor, openDatabase } from './infrastructure/database/data-source'
+import { createGradingPool } from './infrastructure/grading/grading-pool'
+import { createLogger } from './infrastructure/logging'
+import { createMailer, type SmtpTarget } from './infrastructure/mail/mailer'
+import { startOutboxSmtp, type OutboxSmtp } from './infrastructure/mail/outbox-smtp'
+import { createPasswordHasher } from './infrastructure/security/passwords'
+import { loadOrCreateJwtSecret } from './infrastructure/security/secrets'
+import { importShippedScenarios } from './scenarios/scenarios.service'
 import { APP_VERSION } from './version'
 
 export const SCENARIOS_DIR = fileURLToPath(new URL('../scenarios', import.meta.url))
@@ -35,7 +34,7 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
     }
     throw error
   }
-  const log = pino({ level: config.logLevel })
+  const log = createLogger(config.logLevel)
   mkdirSync(config.dataDir, { recursive: true })
   const jwtSecret = loadOrCreateJwtSecret(config.dataDir, config.jwtSecret)
   const passwords = createPasswordHasher(config.passwordHashing)
@@ -66,10 +65,9 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
     const s = app.listen(config.port, config.host, () => resolve(s))
     s.once('error', reject)
   })
-  const demoAdmin = await dataSource.getRepository(UserEntity).findOneBy({ email: DEMO_ACCOUNTS[0]!.email })
   const url = config.serveClient ? config.publicBaseUrl : `http://localhost:${config.port}`
   console.log(`\nSlipway ${APP_VERSION} listening on ${url}${config.serveClient ? '' : ' (API only)'}`)
-  if (demoAdmin) console.log(demoSignInTable() + '\n')
+  if (await hasDemoAccounts(dataSource)) console.log(demoSignInTable() + '\n')
 
   let stopping = false
   async function stop(signal: string) {

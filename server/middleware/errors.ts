@@ -1,7 +1,7 @@
 // Central error handling: every failure leaves as { error: { code, message, details } }, never a stack trace.
 import type { ErrorRequestHandler, RequestHandler } from 'express'
 import { MulterError } from 'multer'
-import { ZodError, z } from 'zod'
+import { ZodError } from 'zod'
 import { HttpError } from '../http-error'
 
 export function zodDetails(error: ZodError) {
@@ -48,11 +48,4 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   }
   req.log?.error({ err }, 'unhandled error')
   send(500, 'internal_error', 'Something went wrong on the server')
-}
-
-/** For routes that parse by hand (uploads): throw a 400 with the same details shape as validate(). */
-export function parseOrThrow<T extends z.ZodType>(schema: T, value: unknown): z.infer<T> {
-  const result = schema.safeParse(value)
-  if (!result.success) throw result.error
-  return result.data
 }

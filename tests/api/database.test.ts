@@ -5,7 +5,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { DataSource } from 'typeorm'
-import { openDatabase } from '../../server/data-source'
+import { openDatabase } from '../../server/infrastructure/database/data-source'
 
 describe('database', () => {
   let dir: string

@@ -5,8 +5,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { AttemptEvent } from '../../shared/model'
 import type { Scenario } from '../../shared/scenario/schema'
 import { HttpError } from '../../server/http-error'
-import { createGradingPool, type GradingPool } from '../../server/services/grading-pool'
-import { gradeAttempt } from '../../server/services/grading'
+import { createGradingPool, type GradingPool } from '../../server/infrastructure/grading/grading-pool'
+import { gradeAttempt } from '../../server/infrastructure/grading/grading'
 
 const FIXTURES = new URL('../fixtures/attempts/', import.meta.url)
 const SCENARIOS = new URL('../../scenarios/', import.meta.url)

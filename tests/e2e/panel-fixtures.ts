@@ -7,7 +7,7 @@ import { afterAll, beforeAll } from 'vitest'
 import type { Page } from 'playwright-core'
 import type { AttemptEvent } from '../../shared/model/events'
 import type { PanelDevice } from '../../src/panel/types'
-import { DEMO_ACCOUNTS } from '../../server/services/demo-accounts'
+import { DEMO_ACCOUNTS } from '../../server/demo/demo-accounts'
 import { launchBrowser, screenshot, startApp, type BrowserSession, type RunningApp } from './support'
 import { PanelDriver } from './panel-driver'
 

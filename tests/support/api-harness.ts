@@ -18,13 +18,13 @@ import {
   type PasswordHashing,
   type RateLimits,
 } from '../../server/config'
-import { dataSourceOptionsFor, openDatabase } from '../../server/data-source'
+import { dataSourceOptionsFor, openDatabase } from '../../server/infrastructure/database/data-source'
 import { MailMessageEntity, UserEntity, type MailMessageRow, type UserRow } from '../../server/entities'
 import { SCENARIOS_DIR } from '../../server/main'
-import { createMailer, type Mailer } from '../../server/services/mailer'
-import { startOutboxSmtp, type OutboxSmtp } from '../../server/services/outbox-smtp'
-import { createPasswordHasher, type PasswordHasher } from '../../server/services/passwords'
-import { importShippedScenarios } from '../../server/services/scenarios'
+import { createMailer, type Mailer } from '../../server/infrastructure/mail/mailer'
+import { startOutboxSmtp, type OutboxSmtp } from '../../server/infrastructure/mail/outbox-smtp'
+import { createPasswordHasher, type PasswordHasher } from '../../server/infrastructure/security/passwords'
+import { importShippedScenarios } from '../../server/scenarios/scenarios.service'
 import { createTestDatabase } from './test-database'
 
 /**
