@@ -21,6 +21,7 @@ import {
 import { dataSourceOptionsFor, openDatabase } from '../../server/infrastructure/database/data-source'
 import { MailMessageEntity, UserEntity, type MailMessageRow, type UserRow } from '../../server/entities'
 import { SCENARIOS_DIR } from '../../server/main'
+import { createGradingPool, type GradingPool } from '../../server/infrastructure/grading/grading-pool'
 import { createMailer, type Mailer } from '../../server/infrastructure/mail/mailer'
 import { startOutboxSmtp, type OutboxSmtp } from '../../server/infrastructure/mail/outbox-smtp'
 import { createPasswordHasher, type PasswordHasher } from '../../server/infrastructure/security/passwords'
@@ -43,6 +44,8 @@ export interface TestApiOptions {
   config?: Partial<AppConfig>
   /** A built client to serve (with config.serveClient). */
   clientDir?: string
+  /** Default: one grading thread, closed with the app. */
+  grading?: GradingPool
 }
 
 export interface TestUser {
@@ -58,6 +61,7 @@ export interface TestApi {
   dataSource: DataSource
   config: AppConfig
   mailer: Mailer
+  grading: GradingPool
   passwords: PasswordHasher
   outbox: OutboxSmtp
   dataDir: string
@@ -99,6 +103,9 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     retryDelaysMs: [50, 100],
   })
   const passwords = createPasswordHasher(config.passwordHashing)
+  // Real grading threads (the worker bundled from source, plain JavaScript), as in production.
+  const grading =
+    options.grading ?? createGradingPool({ threads: 1, queueLimit: config.gradingQueueLimit })
   const app = createApp({
     dataSource,
     config,
@@ -106,6 +113,7 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     jwtSecret: TEST_JWT_SECRET,
     log,
     passwords,
+    grading,
     clientDir: options.clientDir,
   })
   const http = supertest.agent(app)
@@ -148,6 +156,7 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     dataSource,
     config,
     mailer,
+    grading,
     passwords,
     outbox,
     dataDir,
@@ -158,6 +167,7 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
       return dataSource.getRepository(MailMessageEntity).find({ order: { receivedAt: 'ASC' } })
     },
     async close() {
+      await grading.close()
       await mailer.idle()
       mailer.close()
       await outbox.close()
