@@ -16,6 +16,7 @@ import {
 import { dirname, join, relative, resolve } from 'node:path'
 import { pathToFileURL } from 'node:url'
 import type { BuildOptions, OutputFile } from 'esbuild'
+import { WORKER_SOURCES } from '../server/infrastructure/worker-file'
 
 export const ROOT = resolve(import.meta.dirname, '..')
 export const SERVER_OUT = join(ROOT, 'dist/server')
@@ -26,11 +27,11 @@ const CLIENT_INDEX = join(ROOT, 'dist/client/index.html')
  */
 const SERVER_STAMP = join(SERVER_OUT, 'build-stamp.json')
 
-/** The bundles an operator runs, and the grading thread's own entry (worker threads load it by file). */
+/** The bundles an operator runs, and each worker thread's own entry (threads load them by file). */
 export const SERVER_ENTRIES = {
   index: 'server/index.ts',
   start: 'server/scripts/start.ts',
-  'grading-worker': 'server/infrastructure/grading/grading-worker.ts',
+  ...WORKER_SOURCES,
 }
 
 const SERVER_SOURCES = ['server', 'shared', 'scripts/build.ts', 'package.json', 'tsconfig.node.json']
@@ -132,8 +133,6 @@ export async function bundleFromSource(entry: string): Promise<string> {
   return path
 }
 
-/** The grading thread's script for a server running from TypeScript: plain JavaScript as in production. */
-export const bundleGradingWorker = () => bundleFromSource(SERVER_ENTRIES['grading-worker'])
 
 async function main(args: string[]) {
   const ifStale = args.includes('--if-stale')

@@ -52,6 +52,8 @@ interface LaunchOptions {
   healthPath: string
   timeoutMs: number
   cwd?: string
+  /** Flags for node itself, e.g. --cpu-prof when profiling a benchmark. */
+  nodeArgs?: string[]
 }
 
 export async function launch({
@@ -61,8 +63,9 @@ export async function launch({
   healthPath,
   timeoutMs,
   cwd = ROOT,
+  nodeArgs = [],
 }: LaunchOptions): Promise<ServerProcess> {
-  const child = spawn(process.execPath, [script], { cwd, env, stdio: ['ignore', 'pipe', 'pipe'] })
+  const child = spawn(process.execPath, [...nodeArgs, script], { cwd, env, stdio: ['ignore', 'pipe', 'pipe'] })
   let log = ''
   const keep = (chunk: Buffer) => {
     log = (log + chunk.toString()).slice(-20_000)
@@ -91,7 +94,7 @@ export async function launch({
 /** The production build (API + built client): NODE_ENV=production, its own DATA_DIR, loopback only. */
 export async function startSlipway(
   dataDir: string,
-  options: { port?: number; env?: NodeJS.ProcessEnv; timeoutMs?: number } = {},
+  options: { port?: number; env?: NodeJS.ProcessEnv; timeoutMs?: number; nodeArgs?: string[] } = {},
 ): Promise<ServerProcess> {
   const port = options.port ?? (await freePort())
   const env = {
@@ -107,6 +110,7 @@ export async function startSlipway(
   await ensureServerBuild()
   return launch({
     script: builtServerFile('start'),
+    nodeArgs: options.nodeArgs ?? (process.env.BENCH_NODE_ARGS?.split(' ').filter(Boolean) || []),
     env,
     port,
     healthPath: '/api/health',

@@ -5,7 +5,7 @@ import { Piscina } from 'piscina'
 import { HttpError } from '../../http-error'
 import { unreplayableLog } from './grading'
 import type { GradingTask, LogGradeReport, ReadReport, SubmissionHeader } from './grading-worker'
-import { gradingWorkerFile } from './worker-file'
+import { workerFile } from '../worker-file'
 
 /** A submission's body after a thread has parsed and validated it. */
 export interface ReadSubmission {
@@ -65,7 +65,7 @@ const QUEUE_FULL = 'Task queue is at limit'
 export function createGradingPool(options: GradingPoolOptions): GradingPool {
   const threads = options.threads
   const queueLimit = options.queueLimit ?? threads * 16
-  const pool = (options.workerFile ? Promise.resolve(options.workerFile) : gradingWorkerFile()).then(
+  const pool = (options.workerFile ? Promise.resolve(options.workerFile) : workerFile('grading-worker')).then(
     (filename) =>
       new Piscina<GradingTask, ReadReport | LogGradeReport>({
         filename,
