@@ -2,20 +2,24 @@
 // headers, so no tokens or cookies ever reach a log line). Every line written while a request is handled
 // carries its requestId (from http/request-context.ts), whichever logger wrote it.
 import type { RequestHandler } from 'express'
-import { pino, type Logger } from 'pino'
+import { pino, type DestinationStream, type Logger } from 'pino'
 import { pinoHttp } from 'pino-http'
 import { currentRequestId } from './http/request-context'
 
 export type { Logger }
 
-export const createLogger = (level: string): Logger =>
-  pino({
-    level,
-    mixin() {
-      const requestId = currentRequestId()
-      return requestId ? { requestId } : {}
+/** `destination`: standard output unless given (tests read the lines back). */
+export const createLogger = (level: string, destination?: DestinationStream): Logger =>
+  pino(
+    {
+      level,
+      mixin() {
+        const requestId = currentRequestId()
+        return requestId ? { requestId } : {}
+      },
     },
-  })
+    destination,
+  )
 
 export function requestLogger(log: Logger): RequestHandler {
   return pinoHttp({

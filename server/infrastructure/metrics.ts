@@ -105,7 +105,8 @@ export function createMetrics(): Metrics {
         get: () => route,
         set(value: { path?: unknown } | undefined) {
           route = value
-          if (typeof value?.path === 'string') template = req.baseUrl + value.path
+          if (typeof value?.path === 'string')
+            template = value.path === '/' && req.baseUrl ? req.baseUrl : req.baseUrl + value.path
         },
       })
       res.once('finish', () => {

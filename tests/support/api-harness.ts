@@ -6,7 +6,7 @@ import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import type { Express } from 'express'
-import { pino } from 'pino'
+import { pino, type Logger } from 'pino'
 import supertest from 'supertest'
 import type { DataSource } from 'typeorm'
 import type { Role } from '../../shared/api/auth'
@@ -22,6 +22,8 @@ import { dataSourceOptionsFor, openDatabase } from '../../server/infrastructure/
 import { MailMessageEntity, UserEntity, type MailMessageRow, type UserRow } from '../../server/entities'
 import { SCENARIOS_DIR } from '../../server/main'
 import { createGradingPool, type GradingPool } from '../../server/infrastructure/grading/grading-pool'
+import { createLifecycle, type Lifecycle } from '../../server/infrastructure/http/lifecycle'
+import { createMetrics } from '../../server/infrastructure/metrics'
 import { createMailer, type Mailer } from '../../server/infrastructure/mail/mailer'
 import { startOutboxSmtp, type OutboxSmtp } from '../../server/infrastructure/mail/outbox-smtp'
 import { createPasswordHasher, type PasswordHasher } from '../../server/infrastructure/security/passwords'
@@ -46,6 +48,8 @@ export interface TestApiOptions {
   clientDir?: string
   /** Default: one grading thread, closed with the app. */
   grading?: GradingPool
+  /** Default: silent (TEST_LOG_LEVEL to see it). */
+  log?: Logger
 }
 
 export interface TestUser {
@@ -62,6 +66,8 @@ export interface TestApi {
   config: AppConfig
   mailer: Mailer
   grading: GradingPool
+  /** Requests in flight; drain() starts a shutdown's 503s. */
+  lifecycle: Lifecycle
   passwords: PasswordHasher
   outbox: OutboxSmtp
   dataDir: string
@@ -77,7 +83,7 @@ export { DEFAULT_RATE_LIMITS }
 
 export async function createTestApi(options: TestApiOptions = {}): Promise<TestApi> {
   const dataDir = mkdtempSync(join(tmpdir(), 'slipway-api-test-'))
-  const log = pino({ level: process.env.TEST_LOG_LEVEL ?? 'silent' })
+  const log = options.log ?? pino({ level: process.env.TEST_LOG_LEVEL ?? 'silent' })
   const database = await createTestDatabase(dataDir)
   const base = loadConfig({
     NODE_ENV: 'test',
@@ -104,8 +110,11 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
   })
   const passwords = createPasswordHasher(config.passwordHashing)
   // Real grading threads (the worker bundled from source, plain JavaScript), as in production.
+  const metrics = createMetrics()
   const grading =
-    options.grading ?? createGradingPool({ threads: 1, queueLimit: config.gradingQueueLimit })
+    options.grading ??
+    createGradingPool({ threads: 1, queueLimit: config.gradingQueueLimit, onTask: metrics.gradingTask })
+  const lifecycle = createLifecycle()
   const app = createApp({
     dataSource,
     config,
@@ -114,6 +123,8 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     log,
     passwords,
     grading,
+    lifecycle,
+    metrics,
     clientDir: options.clientDir,
   })
   const http = supertest.agent(app)
@@ -157,6 +168,7 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     config,
     mailer,
     grading,
+    lifecycle,
     passwords,
     outbox,
     dataDir,
