@@ -93,9 +93,12 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
     // In-flight submissions finish (graded, stored, acknowledged); /api/ready says 503 meanwhile.
     const drained = await lifecycle.drain(config.shutdownTimeoutMs)
     if (!drained) log.warn({ inFlight: lifecycle.inFlight }, 'shutdown timeout: closing with requests in flight')
+    // A moment more of 503s: a client just acknowledged that sends again learns to wait (Retry-After)
+    // instead of finding its new connection cut by the listener closing.
+    await new Promise((resolve) => setTimeout(resolve, 250))
     const closed = new Promise<void>((resolve) => server.close(() => resolve()))
+    await Promise.race([closed, new Promise((resolve) => setTimeout(resolve, 2000))])
     server.closeAllConnections()
-    await closed
     await Promise.race([mailer.idle(), new Promise((r) => setTimeout(r, 3000))])
     mailer.close()
     await grading.close()

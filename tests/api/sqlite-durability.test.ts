@@ -95,6 +95,8 @@ describe('durable commits on SQLite', () => {
     serializeSqliteTransactions(scratch, sync.durable)
     try {
       await scratch.query('SELECT 1')
+      // A transaction that only reads has nothing to make durable.
+      await scratch.transaction((m) => m.getRepository(AuditEntryEntity).count())
       expect(sync.pending.length).toBe(0)
       let inserted = false
       const insert = scratch
