@@ -10,6 +10,7 @@ export {
   type GradeResult,
   type HintUse,
   type ObjectiveResult,
+  type SafetyViolation,
 } from './grade'
-export { type SafetyViolation } from './safety'
+export { createLiveGrader, type LiveGrader } from './liveGrader'
 export { formatTime } from './format'

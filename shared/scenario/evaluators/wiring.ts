@@ -2,11 +2,11 @@
 // The verdict comes from the last moment the condition held with the control supply on, so the
 // wiring as finally left is what counts.
 import type { InputReading, SimState } from '../../model'
-import { pointLabel } from '../safety'
 import { formatTime, formatVolts } from '../format'
+import { pointLabel } from '../names'
 import type { DeviceCondition, InputSelector, ObjectiveOf } from '../objectiveSchema'
-import type { AttemptTrace, Sample } from '../samples'
-import type { Evaluator } from './types'
+import type { Sample } from '../samples'
+import { folding, type Evaluator } from './types'
 
 const POSITION_TOLERANCE = 1e-3
 
@@ -58,12 +58,8 @@ interface Judgement {
   text: string
 }
 
-function judgeMoment(
-  objective: ObjectiveOf<'wiringCondition'>,
-  sample: Sample,
-  trace: AttemptTrace,
-): Judgement {
-  const circuit = trace.circuit(sample)
+function judgeMoment(objective: ObjectiveOf<'wiringCondition'>, sample: Sample): Judgement {
+  const circuit = sample.circuit
   const { expect, input } = objective
   if ('function' in input) {
     const assigned = circuit.inputs.filter((i) => i.function === input.function)
@@ -96,27 +92,26 @@ function judgeMoment(
   }
 }
 
-export const wiringCondition: Evaluator<'wiringCondition'> = (objective, { trace }) => {
-  // Only the last qualifying moment decides, so search from the end (the circuit is solved lazily).
+export const wiringCondition: Evaluator<'wiringCondition'> = (objective, { start }) => {
+  // Only the last qualifying moment decides: the wiring as finally left is what counts.
   const holds = conditionTest(objective.while)
-  let last: { sample: Sample; judgement: Judgement } | undefined
-  for (let i = trace.samples.length - 1; i >= 0 && !last; i--) {
-    const sample = trace.samples[i]
-    if (!holds(sample.state) || !trace.circuit(sample).supplyOn) continue
-    last = { sample, judgement: judgeMoment(objective, sample, trace) }
-  }
-  const initial = trace.samples[0].state
-  const situation = describeCondition(objective.while, initial)
-  if (!last) {
-    return {
-      met: false,
-      evidence: `Never tried with ${situation} while the control supply was on, so ${selectorName(objective.input)} was not checked.`,
-    }
-  }
-  const { sample, judgement } = last
-  return {
-    met: judgement.ok,
-    evidence: `At ${formatTime(sample.t)}, with ${situation}, ${judgement.text}.`,
-    at: sample.t,
-  }
+  const situation = describeCondition(objective.while, start.state)
+  return folding<Sample | undefined>(
+    undefined,
+    (last, sample) => (holds(sample.state) && sample.supplyOn ? sample : last),
+    (last) => {
+      if (!last) {
+        return {
+          met: false,
+          evidence: `Never tried with ${situation} while the control supply was on, so ${selectorName(objective.input)} was not checked.`,
+        }
+      }
+      const judgement = judgeMoment(objective, last)
+      return {
+        met: judgement.ok,
+        evidence: `At ${formatTime(last.t)}, with ${situation}, ${judgement.text}.`,
+        at: last.t,
+      }
+    },
+  )
 }
