@@ -86,8 +86,13 @@ class IncrementalGrader implements LiveGrader {
 
   result(endAt?: number): GradeResult {
     assertEndAt(endAt)
-    const end = this.#sampler.end(Math.max(this.#lastEventT, endAt ?? 0))
-    const verdicts = this.#objectives.map((objective) => objective.step(end).verdict(end))
+    // The moments after the last event are judged on copies: the running state stays as it was.
+    const tail = this.#sampler.end(Math.max(this.#lastEventT, endAt ?? 0))
+    const end = tail[tail.length - 1]!
+    const verdicts = this.#objectives.map((objective) => {
+      for (const sample of tail) objective = objective.step(sample)
+      return objective.verdict(end)
+    })
     return scoreAttempt(this.#scenario, verdicts, [...this.#safety.violations], [...this.#hintsUsed], end.t)
   }
 
@@ -101,7 +106,7 @@ class IncrementalGrader implements LiveGrader {
   #hintRevealed(id: string, t: number): void {
     if (this.#hintsUsed.some((h) => h.id === id)) return
     const hint = this.#scenario.hints.find((h) => h.id === id)
-    if (hint) this.#hintsUsed.push({ id: hint.id, t, cost: hint.cost })
+    if (hint) this.#hintsUsed.push({ id: hint.id, t, cost: hint.cost, text: hint.text })
   }
 }
 

@@ -1,6 +1,6 @@
 // The moments grading looks at, produced one event at a time: each event's time (just before and
 // just after it applies) and the model's breakpoints in between (a ramp reaching its target, a trip,
-// standstill …). Between two samples everything is closed form, so nothing is sampled per millisecond.
+// standstill …), up to the moment the attempt is judged at. Between two samples everything is closed form, so nothing is sampled per millisecond.
 // The live grader and the batch grade both read this one stream, so they judge the same moments.
 import {
   advance,
@@ -16,6 +16,7 @@ import {
   type SimulationSetup,
 } from '../model'
 import { applyEventCollecting } from '../model/simulation'
+import { advancePieces } from '../model/time'
 
 export type SampleAt = 'start' | 'before' | 'after' | 'breakpoint' | 'end'
 
@@ -147,15 +148,7 @@ export class AttemptSampler {
     const breakpoints: Breakpoint[] = []
     const next = applyEventCollecting(this.#state, event, breakpoints)
     const added: Sample[] = []
-    // Breakpoints are reported as they pass; those at the event's own millisecond are the event's.
-    let state = this.#state
-    const times = breakpoints.length > 1 ? ceilings(breakpoints).sort(byNumber) : ceilings(breakpoints)
-    for (const bt of times) {
-      if (bt <= state.t || bt >= event.t) continue
-      state = advance(state, bt - state.t)
-      added.push(this.#add(state, 'breakpoint', undefined))
-    }
-    if (event.t > state.t) state = advance(state, event.t - state.t)
+    const state = this.#passBreakpoints(breakpoints, event.t, added)
     added.push(this.#add(state, 'before', event))
     this.#applied++
     if (event.type === 'lock.applied') this.#isolation = { ...this.#isolation, lastLockT: event.t }
@@ -165,18 +158,42 @@ export class AttemptSampler {
     return added
   }
 
+  /**
+   * The moments from the last event to `t` (≥ it): the breakpoints passed on the way, then the moment
+   * the attempt is judged at. Not kept: a later event may come first.
+   */
+  end(t: number): Sample[] {
+    const breakpoints: Breakpoint[] = []
+    advancePieces(this.#state, t, breakpoints)
+    const samples: Sample[] = []
+    const last = this.#last
+    const state = this.#passBreakpoints(breakpoints, t, samples)
+    samples.push(this.#add(state, 'end', undefined))
+    this.#last = last
+    return samples
+  }
+
+  /**
+   * Adds a sample at each breakpoint strictly between the state after the last event and t; returns
+   * the state at t. Breakpoints at t itself belong to what happens at t.
+   */
+  #passBreakpoints(breakpoints: readonly Breakpoint[], t: number, samples: Sample[]): SimState {
+    let state = this.#state
+    const times = breakpoints.length > 1 ? ceilings(breakpoints).sort(byNumber) : ceilings(breakpoints)
+    for (const bt of times) {
+      if (bt <= state.t || bt >= t) continue
+      state = advance(state, bt - state.t)
+      samples.push(this.#add(state, 'breakpoint', undefined))
+    }
+    return t > state.t ? advance(state, t - state.t) : state
+  }
+
   /** A sample after the events applied so far (`event`: the one it is just before or after). */
   #add(state: SimState, at: SampleAt, event: AttemptEvent | undefined): StreamSample {
     const applied = this.#applied
     const eventIndex = event === undefined ? -1 : at === 'after' ? applied - 1 : applied
     this.#last = new StreamSample(state, at, eventIndex, event, applied, this.#isolation, this.#last)
     return this.#last
-  }
-
-  /** The moment the attempt is judged at (≥ the last event), not kept: a later event may come first. */
-  end(t: number): Sample {
-    const state = t > this.#state.t ? advance(this.#state, t - this.#state.t) : this.#state
-    return new StreamSample(state, 'end', -1, undefined, this.#applied, this.#isolation, this.#last)
   }
 }
 

@@ -1,6 +1,7 @@
 // functionalCheck: with the drive running, holding a button moves the reference the right way;
 // optionally, once released, the reference stays put (a creeping reference fails here).
 import { formatHz, formatSeconds, formatTime, upperFirst } from '../format'
+import { deviceName } from '../names'
 import { isRunning, sampleAt, type Sample } from '../samples'
 import { folding, type Evaluator, type Verdict } from './types'
 
@@ -48,7 +49,7 @@ interface PressWatch {
 }
 
 export const functionalCheck: Evaluator<'functionalCheck'> = (objective, { start }) => {
-  const label = start.state.devices[objective.device]?.spec.label ?? objective.device
+  const label = deviceName(objective.device, start.state)
   const holdMs = (objective.holdSeconds ?? DEFAULT_HOLD_SECONDS) * 1000
   const drifts = (sample: Sample, baseHz: number) =>
     !isRunning(sample.drive) || Math.abs(sample.drive.referenceHz - baseHz) > HELD_HZ

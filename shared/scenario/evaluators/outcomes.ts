@@ -1,6 +1,7 @@
 // noFaultTrips, noAlarms, faultFoundAndCleared, finishedWithin.
 import type { FaultCode, Notice, SimState } from '../../model'
 import { formatTime, joinTexts, upperFirst } from '../format'
+import { faultName } from '../names'
 import type { Sample } from '../samples'
 import type { ScenarioFault } from '../schema'
 import { fixed, folding, type Evaluator, type Verdict } from './types'
@@ -78,24 +79,9 @@ function faultPresent(fault: ScenarioFault, state: SimState): boolean {
   }
 }
 
-function faultName(fault: ScenarioFault, state: SimState): string {
-  switch (fault.kind) {
-    case 'brokenWire':
-      return `the broken wire ${fault.wireId}`
-    case 'blownFuse':
-      return 'the blown control fuse'
-    case 'contactFailedOpen':
-      return `the failed-open contact on ${state.devices[fault.device]?.spec.label ?? fault.device}`
-    case 'contactWelded':
-      return `the welded contact on ${state.devices[fault.device]?.spec.label ?? fault.device}`
-    case 'wrongContactType':
-      return `the wrong contact block on ${state.devices[fault.device]?.spec.label ?? fault.device}`
-  }
-}
-
 export const faultFoundAndCleared: Evaluator<'faultFoundAndCleared'> = (objective, { scenario, start }) => {
   const fault = scenario.faults[objective.fault]
-  if (!fault) return fixed({ met: false, evidence: `The scenario has no injected fault number ${objective.fault}.` })
+  if (!fault) return fixed({ met: false, evidence: 'The objective names an injected fault the scenario does not have.' })
   const name = faultName(fault, start.state)
   // When the fault was last put right: the start of the run of samples without it that lasts to now.
   return folding<{ clearedAt: number | undefined }>(

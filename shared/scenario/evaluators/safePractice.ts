@@ -2,9 +2,9 @@
 // isolated at the end. Thresholds: NEC 460.6 (capacitors to 50 V or less); IEC 60204-1 6.2.4 (60 V);
 // verifying isolation before work: OSHA 29 CFR 1910.147(d); live-dead-live: NFPA 70E 120.5(7).
 import { formatTime, formatVolts, lowerFirst, plural, upperFirst } from '../format'
-import { describeWork, pairLabel } from '../names'
+import { describeWork, pairName } from '../names'
 import { SAFE_VOLTS } from '../objectiveSchema'
-import { DEFAULT_DEAD_PAIRS, DeadTestWatcher, type DeadWatch } from '../proofs'
+import { DEFAULT_DEAD_PAIRS, DeadTestWatcher, type DeadWatch, type ProbePair } from '../proofs'
 import { energised, isolationStart, lockInForce } from '../safety'
 import { isTerminalWorkMoment, type Sample } from '../samples'
 import { folding, type Evaluator, type Verdict } from './types'
@@ -69,7 +69,8 @@ interface ProofWatch {
   missed: Verdict | undefined
 }
 
-export const absenceOfVoltageProved: Evaluator<'absenceOfVoltageProved'> = (objective) => {
+export const absenceOfVoltageProved: Evaluator<'absenceOfVoltageProved'> = (objective, { start }) => {
+  const pairLabel = (pair: ProbePair) => pairName(pair, start.state)
   const threshold = objective.thresholdVolts ?? SAFE_VOLTS
   const watcher = new DeadTestWatcher(
     objective.pairs ?? DEFAULT_DEAD_PAIRS,

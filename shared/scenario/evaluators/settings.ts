@@ -1,19 +1,10 @@
 // settingEquals / settingInRange: judged on the active (saved) value at the end of the attempt.
-import { isSettingKey, settingDef, type SettingKey } from '../../model'
-import { formatTime, formatValue } from '../format'
+import { isSettingKey } from '../../model'
+import { formatTime } from '../format'
+import { settingName, settingValueName } from '../names'
 import type { Sample } from '../samples'
 import { fixed, folding, type Folding } from './types'
 import type { Evaluator } from './types'
-
-function valueLabel(key: SettingKey, value: unknown): string {
-  const def = settingDef(key)
-  if (def.kind === 'choice') {
-    const option = def.options.find((o) => o.value === value)
-    if (option) return `${formatValue(value)} (${option.label})`
-  }
-  if (def.kind === 'number') return `${value} ${def.unit}`.trim()
-  return formatValue(value)
-}
 
 interface Watch {
   /** The active value at the last sample. */
@@ -23,8 +14,10 @@ interface Watch {
 }
 
 function judge(start: Sample, key: string, wanted: string, accepts: (value: unknown) => boolean): Folding {
-  if (!isSettingKey(key)) return fixed({ met: false, evidence: `"${key}" is not a drive setting.` })
-  const label = settingDef(key).label
+  if (!isSettingKey(key)) {
+    return fixed({ met: false, evidence: 'The objective names a setting the drive does not have.' })
+  }
+  const label = settingName(key)
   const initial: Watch = { value: start.state.settings.active[key], since: undefined }
   return folding(
     initial,
@@ -36,16 +29,16 @@ function judge(start: Sample, key: string, wanted: string, accepts: (value: unkn
       const active = end.state.settings.active[key]
       if (accepts(active)) {
         const when = since === undefined ? 'from the start' : `since ${formatTime(since)}`
-        return { met: true, evidence: `${label} is ${valueLabel(key, active)}, active ${when}.`, at: since }
+        return { met: true, evidence: `The setting ${label} is ${settingValueName(key, active)}, active ${when}.`, at: since }
       }
       const pending = end.state.settings.pending[key]
       const unsaved =
         pending !== undefined && accepts(pending)
-          ? ` A change to ${valueLabel(key, pending)} was never saved.`
+          ? ` A change to ${settingValueName(key, pending)} was never saved.`
           : ''
       return {
         met: false,
-        evidence: `${label} is ${valueLabel(key, active)} at the end (${formatTime(end.t)}); wanted ${wanted}.${unsaved}`,
+        evidence: `The setting ${label} is ${settingValueName(key, active)} at the end (${formatTime(end.t)}); wanted ${wanted}.${unsaved}`,
       }
     },
   )
@@ -55,7 +48,7 @@ export const settingEquals: Evaluator<'settingEquals'> = (objective, { start }) 
   judge(
     start,
     objective.key,
-    isSettingKey(objective.key) ? valueLabel(objective.key, objective.value) : formatValue(objective.value),
+    settingValueName(objective.key, objective.value),
     (value) => value === objective.value,
   )
 
@@ -63,6 +56,6 @@ export const settingInRange: Evaluator<'settingInRange'> = (objective, { start }
   judge(
     start,
     objective.key,
-    `${objective.min} to ${objective.max}`,
+    `${objective.min} to ${settingValueName(objective.key, objective.max)}`,
     (value) => typeof value === 'number' && value >= objective.min && value <= objective.max,
   )

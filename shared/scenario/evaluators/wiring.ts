@@ -3,7 +3,7 @@
 // wiring as finally left is what counts.
 import type { InputReading, SimState } from '../../model'
 import { formatTime, formatVolts } from '../format'
-import { pointLabel } from '../names'
+import { deviceName, inputFunctionName, pointName } from '../names'
 import type { DeviceCondition, InputSelector, ObjectiveOf } from '../objectiveSchema'
 import type { Sample } from '../samples'
 import { folding, type Evaluator } from './types'
@@ -33,7 +33,7 @@ function conditionTest(condition: DeviceCondition): (state: SimState) => boolean
 }
 
 export function describeCondition(condition: DeviceCondition, state: SimState): string {
-  const label = (id: string) => state.devices[id]?.spec.label ?? id
+  const label = (id: string) => deviceName(id, state)
   const parts: string[] = []
   for (const id of condition.held ?? []) parts.push(`${label(id)} held`)
   for (const id of condition.released ?? []) parts.push(`${label(id)} released`)
@@ -49,8 +49,10 @@ export function describeCondition(condition: DeviceCondition, state: SimState): 
   return parts.join(', ')
 }
 
-function selectorName(selector: InputSelector): string {
-  return 'function' in selector ? `the input assigned to ${selector.function}` : pointLabel(selector.point)
+function selectorName(selector: InputSelector, state: SimState): string {
+  return 'function' in selector
+    ? `the input assigned to ${inputFunctionName(selector.function)}`
+    : pointName(selector.point, state)
 }
 
 interface Judgement {
@@ -63,9 +65,11 @@ function judgeMoment(objective: ObjectiveOf<'wiringCondition'>, sample: Sample):
   const { expect, input } = objective
   if ('function' in input) {
     const assigned = circuit.inputs.filter((i) => i.function === input.function)
-    if (assigned.length === 0) return { ok: false, text: `no input was assigned to ${input.function}` }
+    if (assigned.length === 0) {
+      return { ok: false, text: `no input was assigned to ${inputFunctionName(input.function)}` }
+    }
     const describe = (i: InputReading) =>
-      `DI${i.input} (${i.function}) was ${i.on ? 'ON' : 'OFF'} at ${formatVolts(i.volts)}`
+      `DI${i.input}, assigned to ${inputFunctionName(i.function)}, was ${i.on ? 'ON' : 'OFF'} at ${formatVolts(i.volts)}`
     if (typeof expect === 'string') {
       const ok = assigned.every((i) => i.on === (expect === 'on'))
       return { ok, text: assigned.map(describe).join('; ') }
@@ -75,10 +79,10 @@ function judgeMoment(objective: ObjectiveOf<'wiringCondition'>, sample: Sample):
   }
   const digital = circuit.inputs.find((i) => i.point === input.point)
   if (typeof expect === 'string') {
-    if (!digital) return { ok: false, text: `${pointLabel(input.point)} is not a digital input` }
+    if (!digital) return { ok: false, text: `${pointName(input.point, sample.state)} is not a digital input` }
     return {
       ok: digital.on === (expect === 'on'),
-      text: `${pointLabel(input.point)} was ${digital.on ? 'ON' : 'OFF'} at ${formatVolts(digital.volts)}`,
+      text: `${pointName(input.point, sample.state)} was ${digital.on ? 'ON' : 'OFF'} at ${formatVolts(digital.volts)}`,
     }
   }
   const volts = digital
@@ -88,7 +92,7 @@ function judgeMoment(objective: ObjectiveOf<'wiringCondition'>, sample: Sample):
       : (circuit.nodes[input.point] ?? 0)
   return {
     ok: volts >= expect.minVolts && volts <= expect.maxVolts,
-    text: `${pointLabel(input.point)} read ${formatVolts(volts)} (wanted ${formatVolts(expect.minVolts)} to ${formatVolts(expect.maxVolts)})`,
+    text: `${pointName(input.point, sample.state)} read ${formatVolts(volts)} (wanted ${formatVolts(expect.minVolts)} to ${formatVolts(expect.maxVolts)})`,
   }
 }
 
@@ -103,7 +107,7 @@ export const wiringCondition: Evaluator<'wiringCondition'> = (objective, { start
       if (!last) {
         return {
           met: false,
-          evidence: `Never tried with ${situation} while the control supply was on, so ${selectorName(objective.input)} was not checked.`,
+          evidence: `Never tried with ${situation} while the control supply was on, so ${selectorName(objective.input, start.state)} was not checked.`,
         }
       }
       const judgement = judgeMoment(objective, last)

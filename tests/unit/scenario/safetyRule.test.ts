@@ -1,0 +1,104 @@
+// One safety rule: the live warnings are the grader's own violations, returned by push at the moment
+// the work happens. Every terminal work the grader counts (wire added or removed, contact block fitted,
+// fuse replaced) done while energised, without a lock or before proving dead raises a warning then.
+import { readdirSync, readFileSync } from 'node:fs'
+import { resolve } from 'node:path'
+import fc from 'fast-check'
+import { describe, expect, it } from 'vitest'
+import { applyEvent, createSimulation, readDrive, type AttemptEvent } from '@shared/model'
+import { createLiveGrader, grade, toSimulationSetup, type SafetyViolation, type Scenario } from '@shared/scenario'
+import { freshLog, mutatedLog } from './arbitraryLogs'
+import type { AttemptFixture } from './builders/buildFixtures'
+import { shippedScenario } from './helpers'
+
+const attemptsDir = resolve(import.meta.dirname, '../../fixtures/attempts')
+const fixtures: AttemptFixture[] = readdirSync(attemptsDir)
+  .filter((f) => f.endsWith('.json'))
+  .sort()
+  .map((f) => JSON.parse(readFileSync(resolve(attemptsDir, f), 'utf8')) as AttemptFixture)
+
+const TERMINAL_WORK = new Set(['wire.added', 'wire.removed', 'device.contactFitted', 'fuse.replaced'])
+/** NEC 460.6: capacitors discharged to 50 V or less before work. */
+const SAFE_BUS_VOLTS = 50
+
+/**
+ * The events that are terminal work on an energised drive, found from the model alone: the supply
+ * disconnect on, or the DC bus above 50 V, just before the event.
+ */
+function energisedWork(scenario: Scenario, events: readonly AttemptEvent[]): number[] {
+  let state = createSimulation(toSimulationSetup(scenario))
+  const found: number[] = []
+  events.forEach((event, i) => {
+    if (TERMINAL_WORK.has(event.type)) {
+      const before = readDrive(applyEvent(state, { t: event.t, type: 'meter.probes', red: null, black: null }))
+      if (before.lineOn || before.busVolts > SAFE_BUS_VOLTS) found.push(i)
+    }
+    state = applyEvent(state, event)
+  })
+  return found
+}
+
+/** Each event's live warnings, and the grade's violations. */
+function warnings(scenario: Scenario, events: readonly AttemptEvent[]) {
+  const live = createLiveGrader(scenario)
+  const byEvent = events.map((event) => live.push(event).violations)
+  return { byEvent, graded: grade(scenario, events).safetyViolations }
+}
+
+function expectOneRule(scenario: Scenario, events: readonly AttemptEvent[]): void {
+  const { byEvent, graded } = warnings(scenario, events)
+  // Every violation the grade lists was a live warning, at the push of its own event, in order.
+  expect(byEvent.flat()).toEqual(graded)
+  byEvent.forEach((found: SafetyViolation[], i) => {
+    for (const v of found) expect(v.t).toBe(events[i]!.t)
+    if (found.length > 0) expect(TERMINAL_WORK.has(events[i]!.type)).toBe(true)
+  })
+  // And every energised terminal work is among them.
+  for (const i of energisedWork(scenario, events)) {
+    expect(byEvent[i]!.map((v) => v.kind), `${events[i]!.type} at ${events[i]!.t} ms`).toContain('workWhileEnergised')
+  }
+}
+
+describe('one safety rule', () => {
+  it.each(fixtures.map((f) => [`${f.scenario}--${f.name}`, f] as const))(
+    '%s: every violation the grade lists is a live warning at its moment',
+    (_name, fixture) => expectOneRule(shippedScenario(fixture.scenario), fixture.events),
+  )
+
+  it.each([...new Set(fixtures.map((f) => f.scenario))])('%s: the same on generated logs', (id) => {
+    const scenario = shippedScenario(id)
+    const bases = fixtures.filter((f) => f.scenario === id).map((f) => f.events)
+    fc.assert(
+      fc.property(fc.oneof(freshLog(scenario, 60), ...bases.map((b) => mutatedLog(scenario, b))), (events) =>
+        expectOneRule(scenario, events),
+      ),
+      { numRuns: 25 },
+    )
+  })
+
+  it('warns live for a fuse replaced and a contact block fitted on a live drive, not only for wiring', () => {
+    // The fan station starts powered and unlocked.
+    const scenario = shippedScenario('fan-ramp-or-coast')
+    const events: AttemptEvent[] = [
+      { t: 1000, type: 'meter.probes', red: null, black: null },
+      { t: 5000, type: 'fuse.replaced' },
+      { t: 6000, type: 'device.contactFitted', device: 'runSwitch', contact: 'NC' },
+    ]
+    const { byEvent } = warnings(scenario, events)
+    expect(byEvent[0]).toEqual([])
+    for (const [i, what] of [
+      [1, /^Control fuse replaced at 00:05\.0 while the supply disconnect was on\.$/],
+      [2, /^A normally closed contact block fitted to Fan run \/ stop at 00:06\.0 while the supply disconnect was on\.$/],
+    ] as const) {
+      expect(byEvent[i]!.map((v) => v.kind)).toEqual(['workWhileEnergised', 'workWithoutLock', 'workWithoutProvingDead'])
+      expect(byEvent[i]![0]!.text).toMatch(what)
+    }
+  })
+
+  it('does not warn for work on an isolated, locked and proved-dead drive', () => {
+    const fixture = fixtures.find((f) => f.scenario === 'two-wire-run-stop' && f.name === 'reference')!
+    const { byEvent } = warnings(shippedScenario(fixture.scenario), fixture.events)
+    expect(fixture.events.some((e) => TERMINAL_WORK.has(e.type))).toBe(true)
+    expect(byEvent.flat()).toEqual([])
+  })
+})
