@@ -23,7 +23,11 @@ export const objectiveResultSchema = z.object({
 })
 export type ObjectiveResult = z.infer<typeof objectiveResultSchema>
 
-export const SAFETY_VIOLATION_KINDS = ['workWhileEnergised', 'workWithoutLock', 'workWithoutProvingDead'] as const
+export const SAFETY_VIOLATION_KINDS = [
+  'workWhileEnergised',
+  'workWithoutLock',
+  'workWithoutProvingDead',
+] as const
 export const safetyViolationKindSchema = z.enum(SAFETY_VIOLATION_KINDS)
 
 export const safetyViolationSchema = z.object({

@@ -14,3 +14,4 @@ export {
 } from './grade'
 export { createLiveGrader, type LiveGrader } from './liveGrader'
 export { formatTime } from './format'
+export * from './names'

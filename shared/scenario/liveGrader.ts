@@ -33,7 +33,9 @@ export class GradeInputError extends ModelInputError {
 
 export function assertEventTime(event: AttemptEvent, index: number, previousT: number): void {
   if (!Number.isInteger(event.t) || event.t < 0) {
-    throw new GradeInputError(`events[${index}].t must be a whole number of milliseconds ≥ 0 (got ${event.t})`)
+    throw new GradeInputError(
+      `events[${index}].t must be a whole number of milliseconds ≥ 0 (got ${event.t})`,
+    )
   }
   if (event.t < previousT) {
     throw new GradeInputError(

@@ -1,5 +1,6 @@
 // Names of things as the panel shows them, for every text a person reads: evidence, safety
 // messages, replay, mails and exports. No internal id, key or enum value leaves through here.
+// (Kinds of objectives and violations are named in kindLabels.ts, which needs no model.)
 import {
   POINT_LABELS,
   PROVER_LABELS,
@@ -11,45 +12,11 @@ import {
   type InputFunction,
   type SimState,
 } from '../model'
-import type { SafetyViolation } from '../api/grading'
-import type { ObjectiveKind } from './objectiveSchema'
 import type { ProbePair } from './proofs'
 import type { Sample } from './samples'
 import type { ScenarioFault } from './schema'
 
-const OBJECTIVE_KIND_LABELS: Record<ObjectiveKind, string> = {
-  settingEquals: 'Drive setting',
-  settingInRange: 'Drive setting within limits',
-  wiringCondition: 'Input wiring',
-  functionalCheck: 'Function test',
-  speedHeld: 'Speed held',
-  stoppedBy: 'Stopping method',
-  restartedWithRememberedReference: 'Restart at the remembered speed',
-  noWiringWhileEnergised: 'No work on live terminals',
-  lockBeforeWiring: 'Locked off before work',
-  absenceOfVoltageProved: 'Absence of voltage proved',
-  isolated: 'Left isolated',
-  noFaultTrips: 'No fault trips',
-  noAlarms: 'No alarms left showing',
-  faultFoundAndCleared: 'Fault found and put right',
-  finishedWithin: 'Finished in time',
-}
-
-/** An objective's kind in plain words (for a column or a filter). */
-export function objectiveKindLabel(kind: ObjectiveKind): string {
-  return OBJECTIVE_KIND_LABELS[kind]
-}
-
-const VIOLATION_KIND_LABELS: Record<SafetyViolation['kind'], string> = {
-  workWhileEnergised: 'Work on live terminals',
-  workWithoutLock: 'Work without a lock',
-  workWithoutProvingDead: 'Work before proving dead',
-}
-
-/** A safety violation's kind in plain words. */
-export function safetyViolationKindLabel(kind: SafetyViolation['kind']): string {
-  return VIOLATION_KIND_LABELS[kind]
-}
+export { objectiveKindLabel, safetyViolationKindLabel } from './kindLabels'
 
 /**
  * A wire's number as printed on its marker in the panel: the digits its id ends with (the panel
@@ -72,7 +39,10 @@ export function wireName(wireId: string, state: SimState, adding = false): strin
 }
 
 /** The panel's terminal numbers of a device: contact blocks 13–14 (normally open) or 11–12 (normally closed). */
-export function deviceTerminalLabels(kind: DeviceKind, contact: ContactType | undefined): Record<string, string> {
+export function deviceTerminalLabels(
+  kind: DeviceKind,
+  contact: ContactType | undefined,
+): Record<string, string> {
   if (kind === 'potentiometer') return { hi: 'H', wiper: 'W', lo: 'L' }
   return contact === 'NC' ? { a: '11', b: '12' } : { a: '13', b: '14' }
 }
@@ -108,7 +78,8 @@ export function deviceName(deviceId: string, state: SimState): string {
 /** A terminal as the panel labels it: "DI1", "L1", "Fan run / stop terminal 13", "Stirrer speed wiper (W)". */
 export function pointName(point: string | null, state: SimState): string {
   if (point === null) return 'nothing'
-  const fixed = (POINT_LABELS as Record<string, string>)[point] ?? (PROVER_LABELS as Record<string, string>)[point]
+  const fixed =
+    (POINT_LABELS as Record<string, string>)[point] ?? (PROVER_LABELS as Record<string, string>)[point]
   if (fixed) return fixed
   const dot = point.lastIndexOf('.')
   const device = state.devices[point.slice(0, dot)]

@@ -196,7 +196,9 @@ export const OBJECTIVE_KINDS = [
   'finishedWithin',
 ] as const satisfies readonly ObjectiveKind[]
 // A compile-time check that the list names every kind of the schema.
-export const OBJECTIVE_KINDS_COMPLETE: [Exclude<ObjectiveKind, (typeof OBJECTIVE_KINDS)[number]>] extends [never]
+export const OBJECTIVE_KINDS_COMPLETE: [Exclude<ObjectiveKind, (typeof OBJECTIVE_KINDS)[number]>] extends [
+  never,
+]
   ? true
   : never = true
 

@@ -112,7 +112,8 @@ export class DeadTestWatcher {
     if (!readings && !proof && !locks && !switchesOff) return watch
 
     nowFirstProof ??= proof
-    const update = (since: ReadingsSince): ReadingsSince => this.#update(since, t, readings, proof, nowFirstProof)
+    const update = (since: ReadingsSince): ReadingsSince =>
+      this.#update(since, t, readings, proof, nowFirstProof)
     const now = update(watch.now.from === t ? watch.now : this.#fresh(t))
     return {
       now,
@@ -157,7 +158,9 @@ export class DeadTestWatcher {
     for (const since of [watch.sinceLock, watch.sinceOff, watch.sinceStart]) {
       if (since?.from === from) return since
     }
-    throw new Error(`No readings kept since ${from} ms: the isolation start is not a lock, switch-off or the start`)
+    throw new Error(
+      `No readings kept since ${from} ms: the isolation start is not a lock, switch-off or the start`,
+    )
   }
 
   /** Each pair's dead test since a moment: proved when its lowest reading is below the threshold. */

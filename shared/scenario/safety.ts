@@ -54,7 +54,8 @@ export class SafetyRule {
     const what = describeWork(before)
     const when = formatTime(before.t)
     const live = energised(before)
-    if (live) found.push({ kind: 'workWhileEnergised', t: before.t, text: `${what} at ${when} while ${live}.` })
+    if (live)
+      found.push({ kind: 'workWhileEnergised', t: before.t, text: `${what} at ${when} while ${live}.` })
     if (lockInForce(before) === undefined) {
       found.push({
         kind: 'workWithoutLock',

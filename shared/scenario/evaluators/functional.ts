@@ -61,7 +61,11 @@ export const functionalCheck: Evaluator<'functionalCheck'> = (objective, { start
     const moved = objective.effect === 'raises' ? change >= MOVED_HZ : change <= -MOVED_HZ
     const span = `${formatTime(pressed.t)} to ${formatTime(released.t)}`
     if (!isRunning(released.drive)) {
-      return { order, met: false, miss: { text: `The drive stopped while ${label} was held (${span}).`, at: released.t } }
+      return {
+        order,
+        met: false,
+        miss: { text: `The drive stopped while ${label} was held (${span}).`, at: released.t },
+      }
     }
     const moveText = `holding ${label} from ${span} took the reference from ${formatHz(pressed.drive.referenceHz)} to ${formatHz(released.drive.referenceHz)}`
     if (!moved) {
@@ -75,7 +79,11 @@ export const functionalCheck: Evaluator<'functionalCheck'> = (objective, { start
       }
     }
     if (!objective.thenHolds) {
-      return { order, met: true, verdict: { met: true, evidence: `With the drive running, ${moveText}.`, at: pressed.t } }
+      return {
+        order,
+        met: true,
+        verdict: { met: true, evidence: `With the drive running, ${moveText}.`, at: pressed.t },
+      }
     }
     return { phase: 'released', order, pressed, released, moveText }
   }
@@ -168,12 +176,16 @@ export const functionalCheck: Evaluator<'functionalCheck'> = (objective, { start
       for (const press of watch.open) {
         let now: Press | Outcome = press
         if (press.phase === 'held' && isRelease) now = release(press, sample)
-        else if (press.phase === 'released') now = hold(press, sample) // the moment after the release
+        else if (press.phase === 'released')
+          now = hold(press, sample) // the moment after the release
         else if (press.phase === 'holding') {
           if (sample.t > press.windowEnd) now = judgeHold(press)
           else {
             const drifted =
-              press.drifted ?? (sample.t > press.releasedAfter.t && drifts(sample, press.releasedAfter.drive.referenceHz) ? sample : undefined)
+              press.drifted ??
+              (sample.t > press.releasedAfter.t && drifts(sample, press.releasedAfter.drive.referenceHz)
+                ? sample
+                : undefined)
             now = { ...press, drifted, lastInWindow: sample }
           }
         }
@@ -187,10 +199,16 @@ export const functionalCheck: Evaluator<'functionalCheck'> = (objective, { start
           next = decide(next, {
             order: sample.eventIndex,
             met: false,
-            miss: { text: `${label} was pressed at ${formatTime(sample.t)} while the drive was not running.`, at: sample.t },
+            miss: {
+              text: `${label} was pressed at ${formatTime(sample.t)} while the drive was not running.`,
+              at: sample.t,
+            },
           })
         } else {
-          next = { ...next, open: [...next.open, { phase: 'held', order: sample.eventIndex, pressed: sample }] }
+          next = {
+            ...next,
+            open: [...next.open, { phase: 'held', order: sample.eventIndex, pressed: sample }],
+          }
         }
       }
       return next
@@ -199,7 +217,8 @@ export const functionalCheck: Evaluator<'functionalCheck'> = (objective, { start
       let decided = watch
       for (const press of watch.open) decided = decide(decided, atEnd(press, end))
       if (decided.met) return decided.met.verdict
-      if (decided.lastMiss) return { met: false, evidence: decided.lastMiss.miss.text, at: decided.lastMiss.miss.at }
+      if (decided.lastMiss)
+        return { met: false, evidence: decided.lastMiss.miss.text, at: decided.lastMiss.miss.at }
       return { met: false, evidence: `${label} was never pressed while the drive was running.` }
     },
   )

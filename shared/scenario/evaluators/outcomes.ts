@@ -81,18 +81,27 @@ function faultPresent(fault: ScenarioFault, state: SimState): boolean {
 
 export const faultFoundAndCleared: Evaluator<'faultFoundAndCleared'> = (objective, { scenario, start }) => {
   const fault = scenario.faults[objective.fault]
-  if (!fault) return fixed({ met: false, evidence: 'The objective names an injected fault the scenario does not have.' })
+  if (!fault)
+    return fixed({
+      met: false,
+      evidence: 'The objective names an injected fault the scenario does not have.',
+    })
   const name = faultName(fault, start.state)
   // When the fault was last put right: the start of the run of samples without it that lasts to now.
   return folding<{ clearedAt: number | undefined }>(
     { clearedAt: undefined },
     (watch, sample) => {
-      if (faultPresent(fault, sample.state)) return watch.clearedAt === undefined ? watch : { clearedAt: undefined }
+      if (faultPresent(fault, sample.state))
+        return watch.clearedAt === undefined ? watch : { clearedAt: undefined }
       return watch.clearedAt === undefined ? { clearedAt: sample.t } : watch
     },
     ({ clearedAt }, end) => {
       if (clearedAt === undefined) {
-        return { met: false, evidence: `At the end (${formatTime(end.t)}) ${name} was still there.`, at: end.t }
+        return {
+          met: false,
+          evidence: `At the end (${formatTime(end.t)}) ${name} was still there.`,
+          at: end.t,
+        }
       }
       return {
         met: true,

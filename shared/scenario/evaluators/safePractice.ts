@@ -29,7 +29,11 @@ function workFolding(broken: (work: Sample) => string | null, met: (watch: WorkW
         count: watch.count + 1,
         highestBusVolts: Math.max(watch.highestBusVolts, sample.drive.busVolts),
         missed: why
-          ? { met: false, evidence: `${describeWork(sample)} at ${formatTime(sample.t)} ${why}.`, at: sample.t }
+          ? {
+              met: false,
+              evidence: `${describeWork(sample)} at ${formatTime(sample.t)} ${why}.`,
+              at: sample.t,
+            }
           : watch.missed,
       }
     },
@@ -78,7 +82,12 @@ export const absenceOfVoltageProved: Evaluator<'absenceOfVoltageProved'> = (obje
   )
 
   /** The proof of dead for one isolation, from `lockT` to `until` (`what` says which work or the end). */
-  const judge = (readings: DeadWatch, lockT: number, until: number, what: string): { proof: string } | Verdict => {
+  const judge = (
+    readings: DeadWatch,
+    lockT: number,
+    until: number,
+    what: string,
+  ): { proof: string } | Verdict => {
     const parts: string[] = []
     const tests = watcher.tests(watcher.since(readings, lockT), threshold)
     const failed = tests.find((d) => !d.proved)
@@ -95,7 +104,8 @@ export const absenceOfVoltageProved: Evaluator<'absenceOfVoltageProved'> = (obje
     const firstDead = Math.min(...tests.map((d) => d.lowest?.t ?? until))
     const lastDead = Math.max(...tests.map((d) => d.lowest?.t ?? lockT))
     if (objective.proveMeterBefore) {
-      const proved = readings.firstProof && readings.firstProof.t <= firstDead ? readings.firstProof : undefined
+      const proved =
+        readings.firstProof && readings.firstProof.t <= firstDead ? readings.firstProof : undefined
       if (!proved) {
         return {
           met: false,
@@ -170,9 +180,17 @@ export const isolated: Evaluator<'isolated'> = (objective) =>
       const { drive } = last
       const when = formatTime(last.t)
       if (drive.lineOn)
-        return { met: false, evidence: `At the end (${when}) the supply disconnect was still on.`, at: last.t }
+        return {
+          met: false,
+          evidence: `At the end (${when}) the supply disconnect was still on.`,
+          at: last.t,
+        }
       if (!drive.locked)
-        return { met: false, evidence: `At the end (${when}) the disconnect was off but not locked.`, at: last.t }
+        return {
+          met: false,
+          evidence: `At the end (${when}) the disconnect was off but not locked.`,
+          at: last.t,
+        }
       if (objective.thresholdVolts !== undefined && drive.busVolts > objective.thresholdVolts) {
         return {
           met: false,

@@ -29,7 +29,11 @@ function judge(start: Sample, key: string, wanted: string, accepts: (value: unkn
       const active = end.state.settings.active[key]
       if (accepts(active)) {
         const when = since === undefined ? 'from the start' : `since ${formatTime(since)}`
-        return { met: true, evidence: `The setting ${label} is ${settingValueName(key, active)}, active ${when}.`, at: since }
+        return {
+          met: true,
+          evidence: `The setting ${label} is ${settingValueName(key, active)}, active ${when}.`,
+          at: since,
+        }
       }
       const pending = end.state.settings.pending[key]
       const unsaved =

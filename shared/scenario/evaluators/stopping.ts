@@ -26,7 +26,10 @@ export const stoppedBy: Evaluator<'stoppedBy'> = (objective) => {
   const modeName = (drive: DriveReading) => (drive.control === 'coasting' ? 'coast' : 'ramp')
 
   /** How a ramp stop begun at `begun` ended, at the first sample no longer stopping (or the end). */
-  const outcome = (begun: { t: number; fromHz: number }, at: { t: number; drive: DriveReading } | undefined) => {
+  const outcome = (
+    begun: { t: number; fromHz: number },
+    at: { t: number; drive: DriveReading } | undefined,
+  ) => {
     const { t, fromHz } = begun
     if (at && at.drive.control === 'stopped' && !at.drive.tripped) {
       const verdict: Verdict = {
@@ -43,7 +46,10 @@ export const stoppedBy: Evaluator<'stoppedBy'> = (objective) => {
             : `The ${objective.mode} stop from ${formatHz(fromHz)} at ${formatTime(t)} was interrupted at ${formatTime(at.t)}.`,
           at: at.t,
         }
-      : { text: `The ${objective.mode} stop begun at ${formatTime(t)} had not finished when the attempt ended.`, at: t }
+      : {
+          text: `The ${objective.mode} stop begun at ${formatTime(t)} had not finished when the attempt ended.`,
+          at: t,
+        }
     return miss
   }
 
@@ -62,7 +68,8 @@ export const stoppedBy: Evaluator<'stoppedBy'> = (objective) => {
         pending = undefined
       }
       const before = watch.previous
-      const began = before && isRunning(before) && (now.control === 'rampStopping' || now.control === 'coasting')
+      const began =
+        before && isRunning(before) && (now.control === 'rampStopping' || now.control === 'coasting')
       if (began) {
         const t = sample.t
         const fromHz = before.outputHz
@@ -70,7 +77,10 @@ export const stoppedBy: Evaluator<'stoppedBy'> = (objective) => {
           const how = now.tripped
             ? `a trip (${joinTexts(now.faults.map((f) => f.text))})`
             : `a ${modeName(now)} stop`
-          lastMiss = { text: `At ${formatTime(t)} the drive stopped by ${how} from ${formatHz(fromHz)}.`, at: t }
+          lastMiss = {
+            text: `At ${formatTime(t)} the drive stopped by ${how} from ${formatHz(fromHz)}.`,
+            at: t,
+          }
         } else if (fromHz < minHz) {
           lastMiss = {
             text: `The ${objective.mode} stop at ${formatTime(t)} began at ${formatHz(fromHz)}, below ${formatHz(minHz)}.`,
@@ -109,7 +119,9 @@ interface RestartWatch {
   met: Verdict | undefined
 }
 
-export const restartedWithRememberedReference: Evaluator<'restartedWithRememberedReference'> = (objective) => {
+export const restartedWithRememberedReference: Evaluator<'restartedWithRememberedReference'> = (
+  objective,
+) => {
   const tolerance = objective.toleranceHz ?? DEFAULT_REFERENCE_TOLERANCE_HZ
   const minHz = objective.minReferenceHz ?? 0
   const initial: RestartWatch = {
@@ -144,7 +156,10 @@ export const restartedWithRememberedReference: Evaluator<'restartedWithRemembere
         if (objective.acrossPowerLoss && !watch.poweredDown) {
           lastMiss = { text: `${story}, but the drive was not powered down in between.`, at: t }
         } else if (remembered.hz < minHz) {
-          lastMiss = { text: `${story}; the remembered reference must be at least ${formatHz(minHz)}.`, at: t }
+          lastMiss = {
+            text: `${story}; the remembered reference must be at least ${formatHz(minHz)}.`,
+            at: t,
+          }
         } else if (Math.abs(restartHz - remembered.hz) > tolerance) {
           lastMiss = { text: `${story}: the reference was not remembered.`, at: t }
         } else {

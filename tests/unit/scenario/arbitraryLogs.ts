@@ -76,7 +76,10 @@ export function eventBody(scenario: Scenario): fc.Arbitrary<EventBody> {
         })
         .map((w) => ({ type: 'wire.added', ...w }) as EventBody),
     },
-    { weight: 2, arbitrary: fc.constantFrom(...wireIds).map((id) => ({ type: 'wire.removed', id }) as EventBody) },
+    {
+      weight: 2,
+      arbitrary: fc.constantFrom(...wireIds).map((id) => ({ type: 'wire.removed', id }) as EventBody),
+    },
     {
       weight: 4,
       arbitrary: deviceOf(['pushbutton']).chain((device) =>
@@ -106,16 +109,23 @@ export function eventBody(scenario: Scenario): fc.Arbitrary<EventBody> {
       weight: 3,
       arbitrary: fc
         .constantFrom(...settings)
-        .chain((def) => settingValue(def).map((value) => ({ type: 'setting.changed', key: def.key, value }) as EventBody)),
+        .chain((def) =>
+          settingValue(def).map((value) => ({ type: 'setting.changed', key: def.key, value }) as EventBody),
+        ),
     },
     { weight: 2, arbitrary: fc.constant<EventBody>({ type: 'settings.saved' }) },
     {
       weight: 3,
-      arbitrary: fc.constantFrom('run', 'stop', 'reset', 'up', 'down', 'enter').map(
-        (key) => ({ type: 'keypad.key', key }) as EventBody,
-      ),
+      arbitrary: fc
+        .constantFrom('run', 'stop', 'reset', 'up', 'down', 'enter')
+        .map((key) => ({ type: 'keypad.key', key }) as EventBody),
     },
-    { weight: 1, arbitrary: fc.constantFrom(...hintIds).map((hintId) => ({ type: 'hint.revealed', hintId }) as EventBody) },
+    {
+      weight: 1,
+      arbitrary: fc
+        .constantFrom(...hintIds)
+        .map((hintId) => ({ type: 'hint.revealed', hintId }) as EventBody),
+    },
   )
 }
 
@@ -137,9 +147,12 @@ export function timed(bodies: readonly EventBody[], gaps: readonly number[]): At
 
 /** A log made from scratch for the scenario. */
 export function freshLog(scenario: Scenario, maxLength = 40): fc.Arbitrary<AttemptEvent[]> {
-  return fc
-    .array(fc.tuple(eventBody(scenario), gap), { maxLength })
-    .map((steps) => timed(steps.map(([body]) => body), steps.map(([, g]) => g)))
+  return fc.array(fc.tuple(eventBody(scenario), gap), { maxLength }).map((steps) =>
+    timed(
+      steps.map(([body]) => body),
+      steps.map(([, g]) => g),
+    ),
+  )
 }
 
 /**

@@ -32,7 +32,9 @@ function expectLiveEqualsBatch(scenario: Scenario, events: readonly AttemptEvent
     const prefix = events.slice(0, i + 1)
     for (const later of LATER) {
       const endAt = event.t + later
-      expect(live.result(endAt), `after event ${i}, judged at ${endAt} ms`).toEqual(grade(scenario, prefix, { endAt }))
+      expect(live.result(endAt), `after event ${i}, judged at ${endAt} ms`).toEqual(
+        grade(scenario, prefix, { endAt }),
+      )
     }
   })
   // Asking along the way changed nothing: a grader fed the whole log at once says the same.
@@ -49,18 +51,21 @@ describe('live grader', () => {
     },
   )
 
-  it.each([...new Set(fixtures.map((f) => f.scenario))])('%s: equals the batch grade on generated logs', (id) => {
-    const scenario = shippedScenario(id)
-    const bases = fixtures.filter((f) => f.scenario === id).map((f) => f.events)
-    fc.assert(
-      fc.property(
-        fc.oneof(freshLog(scenario), ...bases.map((b) => mutatedLog(scenario, b))),
-        fc.integer({ min: 2, max: 8 }),
-        (events, every) => expectLiveEqualsBatch(scenario, events, every),
-      ),
-      { numRuns: 8 },
-    )
-  })
+  it.each([...new Set(fixtures.map((f) => f.scenario))])(
+    '%s: equals the batch grade on generated logs',
+    (id) => {
+      const scenario = shippedScenario(id)
+      const bases = fixtures.filter((f) => f.scenario === id).map((f) => f.events)
+      fc.assert(
+        fc.property(
+          fc.oneof(freshLog(scenario), ...bases.map((b) => mutatedLog(scenario, b))),
+          fc.integer({ min: 2, max: 8 }),
+          (events, every) => expectLiveEqualsBatch(scenario, events, every),
+        ),
+        { numRuns: 8 },
+      )
+    },
+  )
 
   it('gives results that parse with the API schema', () => {
     const fixture = fixtures.find((f) => f.name === 'mistake-rewired-live')!
@@ -83,7 +88,16 @@ describe('live grader', () => {
     // Nothing happens after the run switch is turned on: the drive ramps up and runs on. The ramp's
     // end is a model breakpoint, so the time at speed is exact, not interpolated from the last event.
     const scenario = benchScenario([
-      { id: 'held', title: 'Runs at 10 Hz', weight: 1, kind: 'speedHeld', target: 10, unit: 'Hz', tolerance: 0.5, holdSeconds: 5 },
+      {
+        id: 'held',
+        title: 'Runs at 10 Hz',
+        weight: 1,
+        kind: 'speedHeld',
+        target: 10,
+        unit: 'Hz',
+        tolerance: 0.5,
+        holdSeconds: 5,
+      },
     ])
     const b = ready(builderFor(scenario)).switchTo('runSwitch', 1)
     const events = b.events.slice()

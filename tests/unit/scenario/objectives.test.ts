@@ -14,7 +14,9 @@ describe('settingEquals', () => {
   it('is met once the value is saved', () => {
     const result = judge(scenario, (b) => ready(b).set('stop.mode', 'coast').wait(500).save().wait(1000))
     expect(result.met).toBe(true)
-    expect(result.evidence).toMatch(/^The setting "Stop method" is "Output off at once, motor coasts", active since 00:0\d\.\d/)
+    expect(result.evidence).toMatch(
+      /^The setting "Stop method" is "Output off at once, motor coasts", active since 00:0\d\.\d/,
+    )
   })
 
   it('is missed when the change was never saved, and says so', () => {

@@ -6,7 +6,13 @@ import { resolve } from 'node:path'
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { applyEvent, createSimulation, readDrive, type AttemptEvent } from '@shared/model'
-import { createLiveGrader, grade, toSimulationSetup, type SafetyViolation, type Scenario } from '@shared/scenario'
+import {
+  createLiveGrader,
+  grade,
+  toSimulationSetup,
+  type SafetyViolation,
+  type Scenario,
+} from '@shared/scenario'
 import { freshLog, mutatedLog } from './arbitraryLogs'
 import type { AttemptFixture } from './builders/buildFixtures'
 import { shippedScenario } from './helpers'
@@ -30,7 +36,9 @@ function energisedWork(scenario: Scenario, events: readonly AttemptEvent[]): num
   const found: number[] = []
   events.forEach((event, i) => {
     if (TERMINAL_WORK.has(event.type)) {
-      const before = readDrive(applyEvent(state, { t: event.t, type: 'meter.probes', red: null, black: null }))
+      const before = readDrive(
+        applyEvent(state, { t: event.t, type: 'meter.probes', red: null, black: null }),
+      )
       if (before.lineOn || before.busVolts > SAFE_BUS_VOLTS) found.push(i)
     }
     state = applyEvent(state, event)
@@ -55,7 +63,10 @@ function expectOneRule(scenario: Scenario, events: readonly AttemptEvent[]): voi
   })
   // And every energised terminal work is among them.
   for (const i of energisedWork(scenario, events)) {
-    expect(byEvent[i]!.map((v) => v.kind), `${events[i]!.type} at ${events[i]!.t} ms`).toContain('workWhileEnergised')
+    expect(
+      byEvent[i]!.map((v) => v.kind),
+      `${events[i]!.type} at ${events[i]!.t} ms`,
+    ).toContain('workWhileEnergised')
   }
 }
 
@@ -88,9 +99,16 @@ describe('one safety rule', () => {
     expect(byEvent[0]).toEqual([])
     for (const [i, what] of [
       [1, /^Control fuse replaced at 00:05\.0 while the supply disconnect was on\.$/],
-      [2, /^A normally closed contact block fitted to Fan run \/ stop at 00:06\.0 while the supply disconnect was on\.$/],
+      [
+        2,
+        /^A normally closed contact block fitted to Fan run \/ stop at 00:06\.0 while the supply disconnect was on\.$/,
+      ],
     ] as const) {
-      expect(byEvent[i]!.map((v) => v.kind)).toEqual(['workWhileEnergised', 'workWithoutLock', 'workWithoutProvingDead'])
+      expect(byEvent[i]!.map((v) => v.kind)).toEqual([
+        'workWhileEnergised',
+        'workWithoutLock',
+        'workWithoutProvingDead',
+      ])
       expect(byEvent[i]![0]!.text).toMatch(what)
     }
   })

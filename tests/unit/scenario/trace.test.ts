@@ -67,24 +67,28 @@ function onPair(sample: Sample, pair: ProbePair): boolean {
 }
 
 describe('attempt sample stream', () => {
-  it.each(streams)('%s: each event has one sample just before and one just after it, as replay has it', (_n, s) => {
-    const timeline = replay(s.setup, s.events)
-    const befores = s.samples.filter((x) => x.at === 'before')
-    const afters = s.samples.filter((x) => x.at === 'after')
-    expect(befores.map((x) => x.eventIndex)).toEqual(s.events.map((_, i) => i))
-    expect(afters.map((x) => x.eventIndex)).toEqual(s.events.map((_, i) => i))
-    s.events.forEach((event, i) => {
-      expect(befores[i]!.t).toBe(event.t)
-      expect(befores[i]!.event).toBe(event)
-      expect(befores[i]!.applied).toBe(i)
-      expect(afters[i]!.state).toEqual(timeline.segments[i + 1]!.state)
-      expect(afters[i]!.applied).toBe(i + 1)
-    })
-  })
+  it.each(streams)(
+    '%s: each event has one sample just before and one just after it, as replay has it',
+    (_n, s) => {
+      const timeline = replay(s.setup, s.events)
+      const befores = s.samples.filter((x) => x.at === 'before')
+      const afters = s.samples.filter((x) => x.at === 'after')
+      expect(befores.map((x) => x.eventIndex)).toEqual(s.events.map((_, i) => i))
+      expect(afters.map((x) => x.eventIndex)).toEqual(s.events.map((_, i) => i))
+      s.events.forEach((event, i) => {
+        expect(befores[i]!.t).toBe(event.t)
+        expect(befores[i]!.event).toBe(event)
+        expect(befores[i]!.applied).toBe(i)
+        expect(afters[i]!.state).toEqual(timeline.segments[i + 1]!.state)
+        expect(afters[i]!.applied).toBe(i + 1)
+      })
+    },
+  )
 
   it.each(streams)('%s: samples are in time order, breakpoints strictly between events', (_n, s) => {
     const breakpoints = replay(s.setup, s.events).breakpoints.map((b) => Math.ceil(b.t))
-    for (let i = 1; i < s.samples.length; i++) expect(s.samples[i]!.t).toBeGreaterThanOrEqual(s.samples[i - 1]!.t)
+    for (let i = 1; i < s.samples.length; i++)
+      expect(s.samples[i]!.t).toBeGreaterThanOrEqual(s.samples[i - 1]!.t)
     for (const [i, sample] of s.samples.entries()) {
       if (sample.at !== 'breakpoint') continue
       expect(breakpoints).toContain(sample.t)
@@ -93,12 +97,15 @@ describe('attempt sample stream', () => {
     }
   })
 
-  it.each(streams)('%s: every sample reads the drive and the supply as the model reads its state', (_n, s) => {
-    for (const sample of s.samples) {
-      expect(sample.drive).toEqual(readDrive(sample.state))
-      expect(sample.supplyOn).toBe(readCircuit(sample.state).supplyOn)
-    }
-  })
+  it.each(streams)(
+    '%s: every sample reads the drive and the supply as the model reads its state',
+    (_n, s) => {
+      for (const sample of s.samples) {
+        expect(sample.drive).toEqual(readDrive(sample.state))
+        expect(sample.supplyOn).toBe(readCircuit(sample.state).supplyOn)
+      }
+    },
+  )
 
   it.each(streams)('%s: a reading is shared only between samples of one moment', (_n, s) => {
     for (let i = 1; i < s.samples.length; i++) {
@@ -115,7 +122,8 @@ describe('attempt sample stream', () => {
         (k) => after.state[k] !== before.state[k],
       )
       // (A message left by the event before is cleared by the move: that changes the reading.)
-      const alike = before.state.messages.length === 0 && changed.every((k) => k === 'meter' || k === 'messages')
+      const alike =
+        before.state.messages.length === 0 && changed.every((k) => k === 'meter' || k === 'messages')
       return alike ? [[before, after] as const] : []
     })
     expect(probeMoves.length).toBeGreaterThan(10)
@@ -132,47 +140,57 @@ describe('attempt sample stream', () => {
     }
   })
 
-  it.each(streams)('%s: dead-test readings and meter proofs agree with a scan of every sample so far', (_n, s) => {
-    // Both orders of a pair, a pair named twice, and a pair nobody measures.
-    const pairs: ProbePair[] = [
-      ...DEFAULT_DEAD_PAIRS,
-      ['drive.l2', 'drive.l1'],
-      ['drive.l1', 'drive.l2'],
-      ['drive.p24', 'drive.0v'],
-      ['drive.pe', 'drive.l3'],
-    ]
-    const watcher = new DeadTestWatcher(pairs, true)
-    let watch = watcher.empty
-    const volts = (sample: Sample) => readCircuit(sample.state).meter.volts
-    const isProof = (sample: Sample) => {
-      const v = volts(sample)
-      return v !== null && Math.abs(v) >= PROVING_VOLTS
-    }
-    const every = Math.max(1, Math.floor(s.samples.length / 40))
-    s.samples.forEach((sample, n) => {
-      watch = watcher.step(watch, sample)
-      if (n % every !== 0 && !(sample.at === 'before' && sample.event?.type.startsWith('wire'))) return
-      const seen = s.samples.slice(0, n + 1)
-      const firstProof = seen.find(isProof)
-      expect(watch.firstProof).toEqual(firstProof && { t: firstProof.t, volts: Math.abs(volts(firstProof)!) })
-      for (const from of new Set([0, isolationStart(sample), sample.isolation.lastLockT ?? 0, sample.isolation.lastOffT ?? 0])) {
-        const window = seen.filter((x) => x.t >= from)
-        const lowest = pairs.map((pair) => {
-          let low: { volts: number; t: number } | undefined
-          for (const x of window) {
-            const v = onPair(x, pair) ? volts(x) : null
-            if (v !== null && (!low || Math.abs(v) < low.volts)) low = { volts: Math.abs(v), t: x.t }
-          }
-          return low
-        })
-        const since = watcher.since(watch, from)
-        expect(since.lowest).toEqual(lowest)
-        const lastDead = Math.max(...lowest.map((l) => l?.t ?? -1))
-        if (lastDead >= 0) {
-          const proof = window.find((x) => x.t >= lastDead && isProof(x))
-          expect(since.proofAfterDead).toEqual(proof && { t: proof.t, volts: Math.abs(volts(proof)!) })
-        }
+  it.each(streams)(
+    '%s: dead-test readings and meter proofs agree with a scan of every sample so far',
+    (_n, s) => {
+      // Both orders of a pair, a pair named twice, and a pair nobody measures.
+      const pairs: ProbePair[] = [
+        ...DEFAULT_DEAD_PAIRS,
+        ['drive.l2', 'drive.l1'],
+        ['drive.l1', 'drive.l2'],
+        ['drive.p24', 'drive.0v'],
+        ['drive.pe', 'drive.l3'],
+      ]
+      const watcher = new DeadTestWatcher(pairs, true)
+      let watch = watcher.empty
+      const volts = (sample: Sample) => readCircuit(sample.state).meter.volts
+      const isProof = (sample: Sample) => {
+        const v = volts(sample)
+        return v !== null && Math.abs(v) >= PROVING_VOLTS
       }
-    })
-  })
+      const every = Math.max(1, Math.floor(s.samples.length / 40))
+      s.samples.forEach((sample, n) => {
+        watch = watcher.step(watch, sample)
+        if (n % every !== 0 && !(sample.at === 'before' && sample.event?.type.startsWith('wire'))) return
+        const seen = s.samples.slice(0, n + 1)
+        const firstProof = seen.find(isProof)
+        expect(watch.firstProof).toEqual(
+          firstProof && { t: firstProof.t, volts: Math.abs(volts(firstProof)!) },
+        )
+        for (const from of new Set([
+          0,
+          isolationStart(sample),
+          sample.isolation.lastLockT ?? 0,
+          sample.isolation.lastOffT ?? 0,
+        ])) {
+          const window = seen.filter((x) => x.t >= from)
+          const lowest = pairs.map((pair) => {
+            let low: { volts: number; t: number } | undefined
+            for (const x of window) {
+              const v = onPair(x, pair) ? volts(x) : null
+              if (v !== null && (!low || Math.abs(v) < low.volts)) low = { volts: Math.abs(v), t: x.t }
+            }
+            return low
+          })
+          const since = watcher.since(watch, from)
+          expect(since.lowest).toEqual(lowest)
+          const lastDead = Math.max(...lowest.map((l) => l?.t ?? -1))
+          if (lastDead >= 0) {
+            const proof = window.find((x) => x.t >= lastDead && isProof(x))
+            expect(since.proofAfterDead).toEqual(proof && { t: proof.t, volts: Math.abs(volts(proof)!) })
+          }
+        }
+      })
+    },
+  )
 })

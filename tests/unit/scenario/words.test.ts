@@ -82,13 +82,16 @@ function escape(id: string): string {
 }
 
 function expectWords(result: GradeResult, identifiers: readonly string[]): void {
-  for (const [where, text] of texts(result)) expect(identifiersIn(text, identifiers), `${where}: ${text}`).toEqual([])
+  for (const [where, text] of texts(result))
+    expect(identifiersIn(text, identifiers), `${where}: ${text}`).toEqual([])
 }
 
 describe('words, not identifiers, in what the grader writes', () => {
   it('the scan finds the identifiers the grader used to write', () => {
     const scenario = shippedScenario('two-wire-run-stop')
-    const ids = identifiersOf(scenario, [{ t: 0, type: 'wire.added', id: 'wRunOut', from: 'drive.p24', to: 'runSwitch.a', colour: 'blue' }])
+    const ids = identifiersOf(scenario, [
+      { t: 0, type: 'wire.added', id: 'wRunOut', from: 'drive.p24', to: 'runSwitch.a', colour: 'blue' },
+    ])
     for (const bad of [
       'Wire wRunOut removed',
       'Contact block fitted to runSwitch',
