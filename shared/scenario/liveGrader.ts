@@ -56,6 +56,8 @@ class IncrementalGrader implements LiveGrader {
   readonly #objectives: Folding[]
   readonly #safety = new SafetyRule()
   readonly #hintsUsed: HintUse[] = []
+  /** The last sample stepped (the objectives compare a moment with the one before it). */
+  #previous: Sample | undefined
   #eventCount = 0
   #lastEventT = 0
 
@@ -80,8 +82,11 @@ class IncrementalGrader implements LiveGrader {
     const samples = this.#sampler.push(event)
     this.#eventCount++
     this.#lastEventT = event.t
-    const violations: SafetyViolation[] = []
-    for (const sample of samples) violations.push(...this.#take(sample))
+    let violations: SafetyViolation[] = []
+    for (const sample of samples) {
+      const found = this.#take(sample)
+      if (found.length > 0) violations = [...violations, ...found]
+    }
     if (event.type === 'hint.revealed') this.#hintRevealed(event.hintId, event.t)
     return { violations }
   }
@@ -92,15 +97,21 @@ class IncrementalGrader implements LiveGrader {
     const tail = this.#sampler.end(Math.max(this.#lastEventT, endAt ?? 0))
     const end = tail[tail.length - 1]!
     const verdicts = this.#objectives.map((objective) => {
-      for (const sample of tail) objective = objective.step(sample)
+      let previous = this.#previous
+      for (const sample of tail) {
+        objective = objective.step(sample, previous)
+        previous = sample
+      }
       return objective.verdict(end)
     })
     return scoreAttempt(this.#scenario, verdicts, [...this.#safety.violations], [...this.#hintsUsed], end.t)
   }
 
-  #take(sample: Sample): SafetyViolation[] {
+  #take(sample: Sample): readonly SafetyViolation[] {
     const objectives = this.#objectives
-    for (let i = 0; i < objectives.length; i++) objectives[i] = objectives[i]!.step(sample)
+    const previous = this.#previous
+    for (let i = 0; i < objectives.length; i++) objectives[i] = objectives[i]!.step(sample, previous)
+    this.#previous = sample
     return this.#safety.step(sample)
   }
 

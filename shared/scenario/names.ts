@@ -38,7 +38,11 @@ export function wireName(wireId: string, state: SimState, adding = false): strin
   return undefined
 }
 
-/** The panel's terminal numbers of a device: contact blocks 13–14 (normally open) or 11–12 (normally closed). */
+/**
+ * The terminal numbers of a field device as the panel prints them: contact blocks follow the
+ * IEC 60947-5-1 numbering (normally open 13–14, normally closed 11–12) of the block the scenario
+ * declares; a potentiometer's ends and wiper are H, L and W.
+ */
 export function deviceTerminalLabels(
   kind: DeviceKind,
   contact: ContactType | undefined,

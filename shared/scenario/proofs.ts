@@ -93,8 +93,8 @@ export class DeadTestWatcher {
     const { t, state } = sample
     // Each pair's reading, if the meter is on it.
     let readings: (number | null)[] | undefined
-    for (let k = 0; k < this.pairs.length; k++) {
-      if (!onPair(state.meter, this.pairs[k]!)) continue
+    const measured = this.#pairsMeasured(state.meter)
+    for (const k of measured) {
       const volts = sample.circuit.meter.volts
       if (volts === null) continue
       readings ??= this.pairs.map(() => null)
@@ -124,6 +124,19 @@ export class DeadTestWatcher {
       firstProof: watch.firstProof ?? proof,
       nowFirstProof,
     }
+  }
+
+  // Most samples share the meter placement of the sample before: look at each placement once.
+  #meter: SimState['meter'] | undefined
+  #measured: readonly number[] = []
+
+  /** Indices of the pairs the meter is on. */
+  #pairsMeasured(meter: SimState['meter']): readonly number[] {
+    if (meter !== this.#meter) {
+      this.#meter = meter
+      this.#measured = this.pairs.flatMap((pair, k) => (onPair(meter, pair) ? [k] : []))
+    }
+    return this.#measured
   }
 
   #update(

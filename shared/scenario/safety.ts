@@ -29,6 +29,8 @@ export function isolationStart(sample: Sample): number {
   return lockInForce(sample) ?? sample.isolation.lastOffT ?? 0
 }
 
+const NONE: readonly SafetyViolation[] = Object.freeze([])
+
 /** The safety rule over a stream of samples. Its state only grows by the violations it finds. */
 export class SafetyRule {
   readonly #watcher = new DeadTestWatcher(DEFAULT_DEAD_PAIRS, false)
@@ -36,9 +38,9 @@ export class SafetyRule {
   readonly #violations: SafetyViolation[] = []
 
   /** Takes the next sample; returns the violations the moment shows (none unless it is terminal work). */
-  step(sample: Sample): SafetyViolation[] {
+  step(sample: Sample): readonly SafetyViolation[] {
     this.#watch = this.#watcher.step(this.#watch, sample)
-    if (!isTerminalWorkMoment(sample)) return []
+    if (!isTerminalWorkMoment(sample)) return NONE
     const found = this.#judge(sample)
     this.#violations.push(...found)
     return found

@@ -98,6 +98,14 @@ class StreamSample implements Sample {
 }
 
 /**
+ * True when the circuit readings of both states are alike but for the meter: the circuit configured
+ * alike, the same input states and the same analog input (a meter probe moved, a setting edited).
+ */
+export function sameCircuitButMeter(a: SimState, b: SimState): boolean {
+  return sameCircuitConfig(a, b) && a.inputs === b.inputs && a.circuit === b.circuit
+}
+
+/**
  * True when the model configures the control circuit of both states alike (the parts its circuit
  * configuration reads are the same objects or values), so its solution — the supply, the inputs'
  * voltages — is the same. A meter probe moved, a setting edited but not saved, time passing.

@@ -47,6 +47,13 @@ export const noAlarms: Evaluator<'noAlarms'> = () =>
     (watch, sample) => {
       const { displayOn, alarms } = sample.drive
       if (!displayOn && alarms.length === 0) return watch
+      // The same reading as the last lit sample (one moment): nothing a verdict reads changes.
+      if (
+        sample.drive === watch.lit?.drive &&
+        (alarms.length === 0 || sample.drive === watch.lastAlarmed?.drive)
+      ) {
+        return watch
+      }
       return {
         lit: displayOn ? sample : watch.lit,
         lastAlarmed: alarms.length > 0 ? sample : watch.lastAlarmed,

@@ -12,7 +12,6 @@ interface Miss {
 }
 
 interface StopWatch {
-  previous: DriveReading | undefined
   /** The first stop of the wanted kind: the verdict, whatever follows. */
   met: Verdict | undefined
   lastMiss: Miss | undefined
@@ -53,12 +52,12 @@ export const stoppedBy: Evaluator<'stoppedBy'> = (objective) => {
     return miss
   }
 
-  const initial: StopWatch = { previous: undefined, met: undefined, lastMiss: undefined, stopping: undefined }
+  const initial: StopWatch = { met: undefined, lastMiss: undefined, stopping: undefined }
   return folding(
     initial,
-    (watch, sample) => {
+    (watch, sample, previous) => {
       // The same reading as the sample before (one moment) changes nothing.
-      if (watch.met || sample.drive === watch.previous) return watch
+      if (watch.met || sample.drive === previous?.drive) return watch
       const now = sample.drive
       let { lastMiss, stopping: pending } = watch
       if (pending && (now.control !== stopping || now.tripped)) {
@@ -67,7 +66,7 @@ export const stoppedBy: Evaluator<'stoppedBy'> = (objective) => {
         lastMiss = ended
         pending = undefined
       }
-      const before = watch.previous
+      const before = previous?.drive
       const began =
         before && isRunning(before) && (now.control === 'rampStopping' || now.control === 'coasting')
       if (began) {
@@ -99,7 +98,9 @@ export const stoppedBy: Evaluator<'stoppedBy'> = (objective) => {
           pending = { t, fromHz }
         }
       }
-      return { previous: now, met: undefined, lastMiss, stopping: pending }
+      return lastMiss === watch.lastMiss && pending === watch.stopping
+        ? watch
+        : { met: undefined, lastMiss, stopping: pending }
     },
     (watch) => {
       if (watch.met) return watch.met
@@ -111,8 +112,7 @@ export const stoppedBy: Evaluator<'stoppedBy'> = (objective) => {
 }
 
 interface RestartWatch {
-  previous: DriveReading | undefined
-  lastRunning: { hz: number; t: number } | undefined
+  /** The last running moment before the drive stopped (cleared by a restart). */
   stoppedAt: { hz: number; t: number } | undefined
   poweredDown: boolean
   lastMiss: Miss | undefined
@@ -125,8 +125,6 @@ export const restartedWithRememberedReference: Evaluator<'restartedWithRemembere
   const tolerance = objective.toleranceHz ?? DEFAULT_REFERENCE_TOLERANCE_HZ
   const minHz = objective.minReferenceHz ?? 0
   const initial: RestartWatch = {
-    previous: undefined,
-    lastRunning: undefined,
     stoppedAt: undefined,
     poweredDown: false,
     lastMiss: undefined,
@@ -134,40 +132,38 @@ export const restartedWithRememberedReference: Evaluator<'restartedWithRemembere
   }
   return folding(
     initial,
-    (last, { drive, t }) => {
+    (watch, { drive, t }, previous) => {
       // The same reading as the sample before (one moment) changes nothing.
-      if (last.met || drive === last.previous) return last
-      const watch = { ...last, previous: drive }
+      if (watch.met || drive === previous?.drive) return watch
       if (!isRunning(drive)) {
         let { stoppedAt, poweredDown } = watch
-        if (watch.lastRunning && !stoppedAt) {
-          stoppedAt = watch.lastRunning
+        // The first moment not running after running: the stop, with the reference it had.
+        if (!stoppedAt && previous && isRunning(previous.drive)) {
+          stoppedAt = { hz: previous.drive.referenceHz, t: previous.t }
           poweredDown = false
         }
         if (stoppedAt && !drive.displayOn) poweredDown = true
-        return { ...watch, stoppedAt, poweredDown }
+        return stoppedAt === watch.stoppedAt && poweredDown === watch.poweredDown
+          ? watch
+          : { ...watch, stoppedAt, poweredDown }
       }
-      let lastMiss = watch.lastMiss
       const remembered = watch.stoppedAt
-      if (remembered) {
-        // The first running sample after a stop: a restart.
-        const restartHz = drive.referenceHz
-        const story = `Stopped at ${formatTime(remembered.t)} with the reference at ${formatHz(remembered.hz)}; restarted at ${formatTime(t)} with ${formatHz(restartHz)}`
-        if (objective.acrossPowerLoss && !watch.poweredDown) {
-          lastMiss = { text: `${story}, but the drive was not powered down in between.`, at: t }
-        } else if (remembered.hz < minHz) {
-          lastMiss = {
-            text: `${story}; the remembered reference must be at least ${formatHz(minHz)}.`,
-            at: t,
-          }
-        } else if (Math.abs(restartHz - remembered.hz) > tolerance) {
-          lastMiss = { text: `${story}: the reference was not remembered.`, at: t }
-        } else {
-          const via = objective.acrossPowerLoss ? ' after a power-down' : ''
-          return { ...watch, met: { met: true, evidence: `${story}${via}.`, at: t } }
-        }
+      if (!remembered) return watch
+      // The first running sample after a stop: a restart.
+      const restartHz = drive.referenceHz
+      const story = `Stopped at ${formatTime(remembered.t)} with the reference at ${formatHz(remembered.hz)}; restarted at ${formatTime(t)} with ${formatHz(restartHz)}`
+      let lastMiss: Miss
+      if (objective.acrossPowerLoss && !watch.poweredDown) {
+        lastMiss = { text: `${story}, but the drive was not powered down in between.`, at: t }
+      } else if (remembered.hz < minHz) {
+        lastMiss = { text: `${story}; the remembered reference must be at least ${formatHz(minHz)}.`, at: t }
+      } else if (Math.abs(restartHz - remembered.hz) > tolerance) {
+        lastMiss = { text: `${story}: the reference was not remembered.`, at: t }
+      } else {
+        const via = objective.acrossPowerLoss ? ' after a power-down' : ''
+        return { ...watch, met: { met: true, evidence: `${story}${via}.`, at: t } }
       }
-      return { ...watch, stoppedAt: undefined, lastMiss, lastRunning: { hz: drive.referenceHz, t } }
+      return { ...watch, stoppedAt: undefined, lastMiss }
     },
     (watch) => {
       if (watch.met) return watch.met

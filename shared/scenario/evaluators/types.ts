@@ -15,8 +15,11 @@ export interface Verdict {
 
 /** An objective's running judgement: step it with each sample; ask for the verdict at any point. */
 export interface Folding {
-  /** The judgement after one more sample (this same object when the sample changes nothing). */
-  step(sample: Sample): Folding
+  /**
+   * The judgement after one more sample (this same object when the sample changes nothing).
+   * `previous` is the sample stepped before it (none for the first).
+   */
+  step(sample: Sample, previous: Sample | undefined): Folding
   /** The verdict if the attempt ended at `end`, the last sample stepped. */
   verdict(end: Sample): Verdict
 }
@@ -35,7 +38,7 @@ export type Evaluator<K extends ObjectiveKind> = (
 /** A Folding from a state, a pure step and a verdict. */
 export function folding<S>(
   state: S,
-  step: (state: S, sample: Sample) => S,
+  step: (state: S, sample: Sample, previous: Sample | undefined) => S,
   verdict: (state: S, end: Sample) => Verdict,
 ): Folding {
   return new StateFolding({ step, verdict }, state)
@@ -44,12 +47,15 @@ export function folding<S>(
 // One object per state and no closures per step: a long attempt takes thousands of steps.
 class StateFolding<S> implements Folding {
   constructor(
-    readonly rules: { step: (state: S, sample: Sample) => S; verdict: (state: S, end: Sample) => Verdict },
+    readonly rules: {
+      step: (state: S, sample: Sample, previous: Sample | undefined) => S
+      verdict: (state: S, end: Sample) => Verdict
+    },
     readonly state: S,
   ) {}
 
-  step(sample: Sample): Folding {
-    const next = this.rules.step(this.state, sample)
+  step(sample: Sample, previous: Sample | undefined): Folding {
+    const next = this.rules.step(this.state, sample, previous)
     return next === this.state ? this : new StateFolding(this.rules, next)
   }
 

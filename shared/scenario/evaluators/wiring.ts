@@ -5,30 +5,43 @@ import type { InputReading, SimState } from '../../model'
 import { formatTime, formatVolts } from '../format'
 import { deviceName, inputFunctionName, pointName } from '../names'
 import type { DeviceCondition, InputSelector, ObjectiveOf } from '../objectiveSchema'
-import type { Sample } from '../samples'
+import { sameCircuitButMeter, type Sample } from '../samples'
 import { folding, type Evaluator } from './types'
 
 const POSITION_TOLERANCE = 1e-3
 
-/** A test of the condition on a state, made once per objective (it runs on every sample). */
+/**
+ * A test of the condition on a state, made once per objective (it runs on every sample). It reads
+ * only the devices, which most events leave as they were: the answer for the last devices is kept.
+ */
 function conditionTest(condition: DeviceCondition): (state: SimState) => boolean {
   const held = condition.held ?? []
   const released = condition.released ?? []
   const positions = Object.entries(condition.positions ?? {})
-  return (state) => {
-    const { devices } = state
-    if (held.some((id) => !devices[id]?.pressed)) return false
-    if (released.some((id) => devices[id]?.pressed ?? true)) return false
+  const test = ({ devices, deviceOrder }: SimState): boolean => {
+    for (const id of held) if (!devices[id]?.pressed) return false
+    for (const id of released) if (devices[id]?.pressed ?? true) return false
     for (const [id, position] of positions) {
       const d = devices[id]
       if (!d || Math.abs(d.position - position) > POSITION_TOLERANCE) return false
     }
     if (condition.nothingHeld) {
-      for (const id of state.deviceOrder) {
-        if (devices[id].spec.kind === 'pushbutton' && devices[id].pressed) return false
+      for (const id of deviceOrder) {
+        if (devices[id]!.spec.kind === 'pushbutton' && devices[id]!.pressed) return false
       }
     }
     return true
+  }
+  let lastDevices: SimState['devices'] | undefined
+  let lastOrder: SimState['deviceOrder'] | undefined
+  let lastAnswer = false
+  return (state) => {
+    if (state.devices !== lastDevices || state.deviceOrder !== lastOrder) {
+      lastDevices = state.devices
+      lastOrder = state.deviceOrder
+      lastAnswer = test(state)
+    }
+    return lastAnswer
   }
 }
 
@@ -102,7 +115,11 @@ export const wiringCondition: Evaluator<'wiringCondition'> = (objective, { start
   const situation = describeCondition(objective.while, start.state)
   return folding<Sample | undefined>(
     undefined,
-    (last, sample) => (holds(sample.state) && sample.supplyOn ? sample : last),
+    (last, sample) => {
+      // A moment read alike at the same time (a meter probe moved) would be judged the same.
+      if (last && sample.t === last.t && sameCircuitButMeter(last.state, sample.state)) return last
+      return holds(sample.state) && sample.supplyOn ? sample : last
+    },
     (last) => {
       if (!last) {
         return {
