@@ -1,21 +1,17 @@
 // The grade result has one shape, in shared/api: the grader's types are inferred from the schema,
 // the attempt responses carry it, and grades already stored in attempts rows still parse.
-import { readdirSync, readFileSync } from 'node:fs'
+import { readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
 import { describe, expect, it } from 'vitest'
 import { attemptGradeSchema, gradeResultSchema } from '@shared/api'
 import { grade } from '@shared/scenario'
-import type { AttemptFixture } from '../scenario/builders/buildFixtures'
-import { shippedScenario } from '../scenario/helpers'
+import { attemptFixtures, shippedScenario } from '../scenario/helpers'
 
 const fixturesDir = resolve(import.meta.dirname, '../../fixtures')
 const stored = JSON.parse(
   readFileSync(resolve(fixturesDir, 'grades/stored-before-typed-evidence.json'), 'utf8'),
 ) as { grades: Record<string, unknown> }
-const attempts: AttemptFixture[] = readdirSync(resolve(fixturesDir, 'attempts'))
-  .filter((f) => f.endsWith('.json'))
-  .sort()
-  .map((f) => JSON.parse(readFileSync(resolve(fixturesDir, 'attempts', f), 'utf8')) as AttemptFixture)
+const attempts = attemptFixtures()
 
 describe('grade result schema', () => {
   it.each(Object.entries(stored.grades))('parses the stored grade %s unchanged', (_name, evidence) => {

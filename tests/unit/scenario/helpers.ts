@@ -1,5 +1,5 @@
 // Small scenarios and attempt builders for the objective tests.
-import { readFileSync } from 'node:fs'
+import { readdirSync, readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
 import {
   checkScenario,
@@ -9,9 +9,24 @@ import {
   type ObjectiveResult,
   type Scenario,
 } from '@shared/scenario'
+import type { AttemptFixture } from './builders/buildFixtures'
 import { LogBuilder } from './builders/logBuilder'
 
 const scenariosDir = resolve(import.meta.dirname, '../../../scenarios')
+const attemptsDir = resolve(import.meta.dirname, '../../fixtures/attempts')
+
+/** The stored attempt logs (tests/fixtures/attempts), in file-name order. */
+export function attemptFixtures(): AttemptFixture[] {
+  return readdirSync(attemptsDir)
+    .filter((f) => f.endsWith('.json'))
+    .sort()
+    .map((f) => JSON.parse(readFileSync(resolve(attemptsDir, f), 'utf8')) as AttemptFixture)
+}
+
+/** The scenario ids that have stored attempt logs. */
+export function fixtureScenarioIds(fixtures: readonly AttemptFixture[]): string[] {
+  return [...new Set(fixtures.map((f) => f.scenario))]
+}
 
 export function shippedScenario(id: string): Scenario {
   const result = checkScenario(JSON.parse(readFileSync(resolve(scenariosDir, `${id}.json`), 'utf8')))

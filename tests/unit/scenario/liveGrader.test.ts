@@ -1,22 +1,23 @@
 // The live grader folds each event into running objective state; whatever it is asked along the way,
 // its result equals the batch grade of the events so far, judged at the same moment: for every fixture
 // log at many cut points, and for generated logs.
-import { readdirSync, readFileSync } from 'node:fs'
-import { resolve } from 'node:path'
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { gradeResultSchema } from '@shared/api'
 import type { AttemptEvent } from '@shared/model'
 import { createLiveGrader, grade, GradeInputError, type Scenario } from '@shared/scenario'
 import { freshLog, mutatedLog } from './arbitraryLogs'
-import type { AttemptFixture } from './builders/buildFixtures'
-import { atSpeed, benchScenario, builderFor, ready, shippedScenario } from './helpers'
+import {
+  atSpeed,
+  benchScenario,
+  builderFor,
+  ready,
+  attemptFixtures,
+  fixtureScenarioIds,
+  shippedScenario,
+} from './helpers'
 
-const attemptsDir = resolve(import.meta.dirname, '../../fixtures/attempts')
-const fixtures: AttemptFixture[] = readdirSync(attemptsDir)
-  .filter((f) => f.endsWith('.json'))
-  .sort()
-  .map((f) => JSON.parse(readFileSync(resolve(attemptsDir, f), 'utf8')) as AttemptFixture)
+const fixtures = attemptFixtures()
 
 /** Later moments to judge at: the last event itself, a millisecond on, a live tick, minutes on. */
 const LATER = [0, 1500, 600_000]
@@ -51,21 +52,18 @@ describe('live grader', () => {
     },
   )
 
-  it.each([...new Set(fixtures.map((f) => f.scenario))])(
-    '%s: equals the batch grade on generated logs',
-    (id) => {
-      const scenario = shippedScenario(id)
-      const bases = fixtures.filter((f) => f.scenario === id).map((f) => f.events)
-      fc.assert(
-        fc.property(
-          fc.oneof(freshLog(scenario), ...bases.map((b) => mutatedLog(scenario, b))),
-          fc.integer({ min: 2, max: 8 }),
-          (events, every) => expectLiveEqualsBatch(scenario, events, every),
-        ),
-        { numRuns: 8 },
-      )
-    },
-  )
+  it.each(fixtureScenarioIds(fixtures))('%s: equals the batch grade on generated logs', (id) => {
+    const scenario = shippedScenario(id)
+    const bases = fixtures.filter((f) => f.scenario === id).map((f) => f.events)
+    fc.assert(
+      fc.property(
+        fc.oneof(freshLog(scenario), ...bases.map((b) => mutatedLog(scenario, b))),
+        fc.integer({ min: 2, max: 8 }),
+        (events, every) => expectLiveEqualsBatch(scenario, events, every),
+      ),
+      { numRuns: 8 },
+    )
+  })
 
   it('gives results that parse with the API schema', () => {
     const fixture = fixtures.find((f) => f.name === 'mistake-rewired-live')!

@@ -1,8 +1,6 @@
 // One safety rule: the live warnings are the grader's own violations, returned by push at the moment
 // the work happens. Every terminal work the grader counts (wire added or removed, contact block fitted,
 // fuse replaced) done while energised, without a lock or before proving dead raises a warning then.
-import { readdirSync, readFileSync } from 'node:fs'
-import { resolve } from 'node:path'
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { applyEvent, createSimulation, readDrive, type AttemptEvent } from '@shared/model'
@@ -14,14 +12,9 @@ import {
   type Scenario,
 } from '@shared/scenario'
 import { freshLog, mutatedLog } from './arbitraryLogs'
-import type { AttemptFixture } from './builders/buildFixtures'
-import { shippedScenario } from './helpers'
+import { attemptFixtures, fixtureScenarioIds, shippedScenario } from './helpers'
 
-const attemptsDir = resolve(import.meta.dirname, '../../fixtures/attempts')
-const fixtures: AttemptFixture[] = readdirSync(attemptsDir)
-  .filter((f) => f.endsWith('.json'))
-  .sort()
-  .map((f) => JSON.parse(readFileSync(resolve(attemptsDir, f), 'utf8')) as AttemptFixture)
+const fixtures = attemptFixtures()
 
 const TERMINAL_WORK = new Set(['wire.added', 'wire.removed', 'device.contactFitted', 'fuse.replaced'])
 /** NEC 460.6: capacitors discharged to 50 V or less before work. */
@@ -76,7 +69,7 @@ describe('one safety rule', () => {
     (_name, fixture) => expectOneRule(shippedScenario(fixture.scenario), fixture.events),
   )
 
-  it.each([...new Set(fixtures.map((f) => f.scenario))])('%s: the same on generated logs', (id) => {
+  it.each(fixtureScenarioIds(fixtures))('%s: the same on generated logs', (id) => {
     const scenario = shippedScenario(id)
     const bases = fixtures.filter((f) => f.scenario === id).map((f) => f.events)
     fc.assert(

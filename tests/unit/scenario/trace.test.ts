@@ -3,22 +3,15 @@
 // alike, the lock each moment falls under, and the dead-test readings kept since each isolation start.
 // Each must give exactly what the plain definition gives: the model's own replay, or a scan of every
 // sample so far.
-import { readdirSync, readFileSync } from 'node:fs'
-import { resolve } from 'node:path'
 import { describe, expect, it } from 'vitest'
 import { readCircuit, readDrive, replay, type AttemptEvent, type PointId } from '@shared/model'
 import { toSimulationSetup } from '@shared/scenario'
 import { DEFAULT_DEAD_PAIRS, DeadTestWatcher, PROVING_VOLTS, type ProbePair } from '@shared/scenario/proofs'
 import { isolationStart, lockInForce } from '@shared/scenario/safety'
 import { AttemptSampler, type Sample } from '@shared/scenario/samples'
-import type { AttemptFixture } from './builders/buildFixtures'
-import { shippedScenario } from './helpers'
+import { attemptFixtures, shippedScenario } from './helpers'
 
-const attemptsDir = resolve(import.meta.dirname, '../../fixtures/attempts')
-const fixtures: AttemptFixture[] = readdirSync(attemptsDir)
-  .filter((f) => f.endsWith('.json'))
-  .sort()
-  .map((f) => JSON.parse(readFileSync(resolve(attemptsDir, f), 'utf8')) as AttemptFixture)
+const fixtures = attemptFixtures()
 
 const PROBE_POINTS: (PointId | null)[] = ['drive.p24', 'drive.0v', 'drive.l1', 'drive.l2', 'drive.dcp', null]
 

@@ -1,8 +1,6 @@
 // People read words, not identifiers: every text the grader writes (objective evidence, safety
 // messages, the summary, live warnings) names things as the panel does. Graded for every fixture log,
 // at the end and at live ticks along the way, and for generated logs; any internal identifier fails.
-import { readdirSync, readFileSync } from 'node:fs'
-import { resolve } from 'node:path'
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { SAFETY_VIOLATION_KINDS } from '@shared/api'
@@ -17,14 +15,9 @@ import {
 } from '@shared/model'
 import { createLiveGrader, grade, OBJECTIVE_KINDS, type GradeResult, type Scenario } from '@shared/scenario'
 import { freshLog, mutatedLog } from './arbitraryLogs'
-import type { AttemptFixture } from './builders/buildFixtures'
-import { shippedScenario } from './helpers'
+import { attemptFixtures, fixtureScenarioIds, shippedScenario } from './helpers'
 
-const attemptsDir = resolve(import.meta.dirname, '../../fixtures/attempts')
-const fixtures: AttemptFixture[] = readdirSync(attemptsDir)
-  .filter((f) => f.endsWith('.json'))
-  .sort()
-  .map((f) => JSON.parse(readFileSync(resolve(attemptsDir, f), 'utf8')) as AttemptFixture)
+const fixtures = attemptFixtures()
 
 /** Ids and keys that are not words: the scenario's own, the catalogue's, the grader's enums. */
 function identifiersOf(scenario: Scenario, events: readonly AttemptEvent[]): string[] {
@@ -123,7 +116,7 @@ describe('words, not identifiers, in what the grader writes', () => {
     },
   )
 
-  it.each([...new Set(fixtures.map((f) => f.scenario))])('%s: generated logs', (id) => {
+  it.each(fixtureScenarioIds(fixtures))('%s: generated logs', (id) => {
     const scenario = shippedScenario(id)
     const bases = fixtures.filter((f) => f.scenario === id).map((f) => f.events)
     fc.assert(
