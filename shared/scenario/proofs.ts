@@ -65,6 +65,8 @@ function meterVolts(sample: Sample): number | null {
   return sample.circuit.meter.volts
 }
 
+const NOT_MEASURED: readonly number[] = []
+
 /** Watches the meter for proving dead on some pairs; with `proofs`, also for proofs on a live source. */
 export class DeadTestWatcher {
   /** The watch before any sample. */
@@ -134,7 +136,9 @@ export class DeadTestWatcher {
   #pairsMeasured(meter: SimState['meter']): readonly number[] {
     if (meter !== this.#meter) {
       this.#meter = meter
-      this.#measured = this.pairs.flatMap((pair, k) => (onPair(meter, pair) ? [k] : []))
+      let measured: number[] | undefined
+      for (let k = 0; k < this.pairs.length; k++) if (onPair(meter, this.pairs[k]!)) (measured ??= []).push(k)
+      this.#measured = measured ?? NOT_MEASURED
     }
     return this.#measured
   }
