@@ -1,6 +1,7 @@
 // How each wire colour of the model is drawn and labelled. Codes are the IEC 60757 colour codes,
 // printed on every wire's marker so colour is never the only signal.
 import { WIRE_COLOURS as MODEL_COLOURS, type WireColour as ModelColour } from '@shared/model/setup'
+import { wireNumber } from '@shared/schematic/markings'
 
 export interface WireColour {
   id: ModelColour
@@ -44,8 +45,7 @@ export function wireColour(id: string): WireColour {
   return { id: 'grey', code: id.slice(0, 4).toUpperCase(), name: id, hex: 0x8a8f96, use: '' }
 }
 
-/** The label printed on a wire marker sleeve, e.g. "W3 BU". */
+/** The label printed on a wire marker sleeve, e.g. "W3 BU" (numbered as the schematic and the grader do). */
 export function wireLabel(wireId: string, colourId: string, index: number): string {
-  const digits = /(\d+)$/.exec(wireId)?.[1] ?? String(index + 1)
-  return `W${digits} ${wireColour(colourId).code}`
+  return `${wireNumber(wireId, index)} ${wireColour(colourId).code}`
 }
