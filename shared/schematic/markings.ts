@@ -15,7 +15,8 @@ export interface WireColourMarking {
   stripe?: string
 }
 
-// Codes: IEC 60757. Colours as the panel draws them (src/panel/wireColours.ts keeps the same table).
+// Codes: IEC 60757, the one table of them (the panel takes its codes and names from here). Strokes are
+// the drawing's (the panel keeps its own fills).
 const COLOURS: Record<string, WireColourMarking> = {
   blue: { code: 'BU', name: 'Blue', stroke: '#1f5fbf' },
   whiteBlue: { code: 'WHBU', name: 'White/blue', stroke: '#f4f4f4', stripe: '#1f5fbf' },

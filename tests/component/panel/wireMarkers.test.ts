@@ -7,7 +7,7 @@ import { WIRE_COLOURS } from '@shared/model/setup'
 import { schematicInputFromWiring, wireMarkerText, wiringOfState } from '@shared/schematic'
 import { checkScenario, pointName, toSimulationSetup, wireName, type Scenario } from '@shared/scenario'
 import { layoutPanel } from '@/panel/layout'
-import { wireLabel } from '@/panel/wireColours'
+import { wireColour, wireLabel } from '@/panel/wireColours'
 
 const scenarioFiles = import.meta.glob<unknown>('../../../scenarios/*.json', {
   eager: true,
@@ -34,6 +34,14 @@ describe('wire markers', () => {
     ] as const) {
       expect(wireMarkerText(id, colour, index)).toBe(wireLabel(id, colour, index))
     }
+  })
+
+  it('match the panel for a colour the panel does not offer (a scenario file may name one)', () => {
+    for (const colour of ['salmon', 'sky-blue 2']) {
+      expect(wireMarkerText('w3', colour, 0)).toBe(wireLabel('w3', colour, 0))
+      expect(wireColour(colour).name).toBe(colour)
+    }
+    expect(wireLabel('w3', 'sky-blue 2', 0)).toBe('W3 SKYB')
   })
 
   it.each(shippedScenarios().map((s) => [s.id, s] as const))(
