@@ -62,10 +62,7 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
   }
   const mailer = createMailer({ target, from: config.mailFrom, log })
   const metrics = createMetrics()
-  metrics.registerQueue('mail', {
-    depth: () => mailer.stats().queued,
-    failed: () => mailer.stats().failed,
-  })
+  metrics.watchQueues(() => [{ queue: 'mail', depth: mailer.stats().queued, failed: mailer.stats().failed }])
   const grading = createGradingPool({
     threads: config.gradingThreads,
     queueLimit: config.gradingQueueLimit,

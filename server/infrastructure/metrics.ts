@@ -1,17 +1,22 @@
-// Prometheus metrics (prom-client), served at /api/metrics (health/metrics.router.ts): request latency by
+// Prometheus metrics (prom-client), served at /api/metrics (health/health.router.ts): request latency by
 // route template, the grading pool's queue and task times, and the depth and failures of background queues
-// (mail, jobs), which report through registerQueue() so each queue owns how it counts.
+// (mail, jobs), which report through watchQueues() so each queue owns how it counts.
 import type { RequestHandler } from 'express'
 import { collectDefaultMetrics, Counter, Gauge, Histogram, Registry } from 'prom-client'
 import type { GradingPoolStats, TaskKind } from './grading/grading-pool'
 
-/** A background queue as the metrics see it; read at each scrape (may query the database). */
-export interface QueueSource {
+/** One background queue (or one kind of job) as the metrics see it at a scrape. */
+export interface QueueFigures {
+  /** The label: `mail`, or a job kind. */
+  queue: string
   /** Items waiting or being worked on. */
-  depth(): number | Promise<number>
-  /** Items that failed for good (given up after their retries) since the process started or in total. */
-  failed(): number | Promise<number>
+  depth: number
+  /** Items that failed for good (given up after their retries). */
+  failed: number
 }
+
+/** Read at each scrape (it may query the database). */
+export type QueueReader = () => QueueFigures[] | Promise<QueueFigures[]>
 
 export interface Metrics {
   registry: Registry
@@ -21,8 +26,8 @@ export interface Metrics {
   gradingTask(kind: TaskKind, seconds: number, outcome: 'ok' | 'rejected' | 'error'): void
   /** The pool whose queue depth and threads are read at each scrape. */
   watchGradingPool(stats: () => GradingPoolStats): void
-  /** A queue (mail, jobs) whose depth and failures are read at each scrape, labelled queue="<name>". */
-  registerQueue(name: string, source: QueueSource): void
+  /** Background queues (mail, jobs) whose depth and failures are read at each scrape, labelled queue="…". */
+  watchQueues(read: QueueReader): void
 }
 
 const LATENCY_BUCKETS = [0.005, 0.01, 0.025, 0.05, 0.1, 0.25, 0.5, 1, 2.5, 5, 10]
@@ -69,27 +74,29 @@ export function createMetrics(): Metrics {
     registers: [registry],
   })
 
-  const queues = new Map<string, QueueSource>()
-  const readQueues = async (read: (q: QueueSource) => number | Promise<number>) =>
-    Promise.all([...queues].map(async ([name, source]) => [name, await read(source)] as const))
+  const readers: QueueReader[] = []
+  // Both gauges are filled from one read per scrape (the depth gauge is collected first).
+  let lastRead: QueueFigures[] = []
+  const failedGauge = new Gauge({
+    name: 'slipway_queue_failed',
+    help: 'Items of a background queue that failed for good',
+    labelNames: ['queue'] as const,
+    registers: [registry],
+    collect() {
+      for (const q of lastRead) this.set({ queue: q.queue }, q.failed)
+    },
+  })
   new Gauge({
     name: 'slipway_queue_depth',
     help: 'Items waiting in a background queue (mail, jobs)',
     labelNames: ['queue'] as const,
     registers: [registry],
     async collect() {
-      for (const [queue, depth] of await readQueues((q) => q.depth())) this.set({ queue }, depth)
+      lastRead = (await Promise.all(readers.map((read) => read()))).flat()
+      for (const q of lastRead) this.set({ queue: q.queue }, q.depth)
     },
   })
-  new Gauge({
-    name: 'slipway_queue_failed',
-    help: 'Items of a background queue that failed for good',
-    labelNames: ['queue'] as const,
-    registers: [registry],
-    async collect() {
-      for (const [queue, failed] of await readQueues((q) => q.failed())) this.set({ queue }, failed)
-    },
-  })
+  void failedGauge
 
   return {
     registry,
@@ -123,8 +130,8 @@ export function createMetrics(): Metrics {
     watchGradingPool(stats) {
       poolStats = stats
     },
-    registerQueue(name, source) {
-      queues.set(name, source)
+    watchQueues(read) {
+      readers.push(read)
     },
   }
 }
