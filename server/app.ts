@@ -1,7 +1,6 @@
 // createApp(deps): the whole Express app (API, and the built client in production) without listening.
 import { existsSync } from 'node:fs'
 import { join } from 'node:path'
-import { fileURLToPath } from 'node:url'
 import cookieParser from 'cookie-parser'
 import express, { type Express } from 'express'
 import helmet from 'helmet'
@@ -17,7 +16,11 @@ import { createGradebookCache } from './gradebook/gradebook-cache'
 import { gradebookRouter } from './gradebook/gradebook.router'
 import { healthRouter } from './health/health.router'
 import { createGradingPool, type GradingPool } from './infrastructure/grading/grading-pool'
+import { createLifecycle, type Lifecycle } from './infrastructure/http/lifecycle'
+import { requestContext } from './infrastructure/http/request-context'
 import { createLogger, requestLogger, type Logger } from './infrastructure/logging'
+import { createMetrics, type Metrics } from './infrastructure/metrics'
+import { CLIENT_DIR } from './infrastructure/paths'
 import type { Mailer } from './infrastructure/mail/mailer'
 import { DatabaseRateLimitStore } from './infrastructure/rate-limit-store'
 import { createPasswordHasher, type PasswordHasher } from './infrastructure/security/passwords'
@@ -34,16 +37,28 @@ export interface AppDeps {
   jwtSecret: string
   log?: Logger
   passwords?: PasswordHasher
-  /** Grades submissions (default: a pool of config.gradingThreads threads, closed with the app's owner). */
+  /** Reads and grades submissions (default: a pool of config.gradingThreads threads; whoever passes one closes it). */
   grading?: GradingPool
+  metrics?: Metrics
+  lifecycle?: Lifecycle
   /** Where the built client lives (default dist/client). */
   clientDir?: string
 }
 
-export const DEFAULT_CLIENT_DIR = fileURLToPath(new URL('../dist/client', import.meta.url))
+export const DEFAULT_CLIENT_DIR = CLIENT_DIR
 
 export function createApp(deps: AppDeps): Express {
   const log = deps.log ?? createLogger(deps.config.logLevel)
+  const metrics = deps.metrics ?? createMetrics()
+  const grading =
+    deps.grading ??
+    createGradingPool({
+      threads: deps.config.gradingThreads,
+      queueLimit: deps.config.gradingQueueLimit,
+      onTask: metrics.gradingTask,
+    })
+  metrics.watchGradingPool(grading.stats)
+  const lifecycle = deps.lifecycle ?? createLifecycle()
   const ctx: AppContext = {
     dataSource: deps.dataSource,
     config: deps.config,
@@ -59,12 +74,15 @@ export function createApp(deps: AppDeps): Express {
         : undefined,
     ),
     gradebooks: createGradebookCache(deps.dataSource),
-    grading: deps.grading ?? createGradingPool({ threads: deps.config.gradingThreads }),
+    grading,
+    metrics,
+    lifecycle,
   }
   const app = express()
   app.disable('x-powered-by')
   // Behind a reverse proxy on another host, TRUST_PROXY names it so rate limits see the client's address.
   app.set('trust proxy', deps.config.trustProxy)
+  app.use(requestContext())
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -86,14 +104,17 @@ export function createApp(deps: AppDeps): Express {
     }),
   )
   app.use(requestLogger(log))
+  app.use(metrics.httpMiddleware)
+  app.use(lifecycle.middleware)
   // Only the session routes read the refresh cookie; no other request pays for parsing cookies.
   app.use('/api/auth', cookieParser())
-  // Attempt logs and scenario documents are large; everything else stays small.
-  app.use('/api/attempts', express.json({ limit: '2mb' }))
+  // Attempt logs and scenario documents are large; everything else stays small. A submitted attempt stays
+  // bytes here: a grading thread parses and validates it (attempts.router.ts).
+  app.post('/api/attempts', express.raw({ type: 'application/json', limit: '2mb' }))
   app.use('/api/scenarios', express.json({ limit: '1mb' }))
   app.use('/api', express.json({ limit: '100kb' }))
 
-  app.use('/api/health', healthRouter(ctx))
+  app.use('/api', healthRouter(ctx))
   app.use('/api/auth', authRouter(ctx))
   app.use('/api/invitations', invitationsRouter(ctx))
   app.use('/api/admin', adminRouter(ctx))

@@ -5,6 +5,8 @@ import type { AppConfig } from './config'
 import type { Limiters } from './middleware/rate-limit'
 import type { GradebookCache } from './gradebook/gradebook-cache'
 import type { GradingPool } from './infrastructure/grading/grading-pool'
+import type { Lifecycle } from './infrastructure/http/lifecycle'
+import type { Metrics } from './infrastructure/metrics'
 import type { Mailer } from './infrastructure/mail/mailer'
 import type { PasswordHasher } from './infrastructure/security/passwords'
 import type { AccessTokens } from './infrastructure/security/tokens'
@@ -19,8 +21,12 @@ export interface AppContext {
   limits: Limiters
   /** Cohort gradebooks kept between requests, checked against the database's revision each time. */
   gradebooks: GradebookCache
-  /** Grades submitted attempts, inline or in worker threads (GRADING_THREADS). */
+  /** Reads and grades submitted attempts in worker threads (GRADING_THREADS). */
   grading: GradingPool
+  /** Prometheus metrics (/api/metrics). */
+  metrics: Metrics
+  /** Requests in flight, and whether the server is draining for a shutdown. */
+  lifecycle: Lifecycle
 }
 
 /** A link into the client, from the configured public base URL. */

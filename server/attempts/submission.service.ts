@@ -1,7 +1,7 @@
-// Attempt submission: validate the target and the rules, grade on the server, store once (idempotent by id).
+// Attempt submission: read the body in a grading thread, check the target and the rules, grade in a thread,
+// store once (idempotent by id).
 import { randomUUID } from 'node:crypto'
-import type { AttemptSummary, SubmitAttemptRequest } from '@shared/api/attempts'
-import type { AttemptEvent } from '@shared/model/events'
+import type { AttemptSummary } from '@shared/api/attempts'
 import { isEnrolled } from '../access/access.service'
 import { appLink, type AppContext } from '../context'
 import {
@@ -18,6 +18,8 @@ import {
 import { HttpError, conflict } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
 import { findById } from '../infrastructure/database/lookups'
+import type { ReadSubmission } from '../infrastructure/grading/grading-pool'
+import type { SubmissionHeader } from '../infrastructure/grading/grading-worker'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
 import { presentOne } from './attempts.service'
 
@@ -26,7 +28,7 @@ interface Target {
   assignment: AssignmentRow | null
 }
 
-async function resolveTarget(ctx: AppContext, user: UserRow, body: SubmitAttemptRequest): Promise<Target> {
+async function resolveTarget(ctx: AppContext, user: UserRow, body: SubmissionHeader): Promise<Target> {
   const ds = ctx.dataSource
   if (body.assignmentId) {
     const assignment = await findById(ds, AssignmentEntity, body.assignmentId)
@@ -51,7 +53,7 @@ async function resolveTarget(ctx: AppContext, user: UserRow, body: SubmitAttempt
   return { scenario, assignment: null }
 }
 
-function checkRules(assignment: AssignmentRow, events: AttemptEvent[], usedAttempts: number, now: string) {
+function checkRules(assignment: AssignmentRow, hintRevealed: boolean, usedAttempts: number, now: string) {
   if (now < assignment.opensAt) {
     throw conflict('assignment_not_open', `This assignment opens at ${assignment.opensAt}`)
   }
@@ -61,7 +63,7 @@ function checkRules(assignment: AssignmentRow, events: AttemptEvent[], usedAttem
       `All ${assignment.attemptLimit} attempt(s) allowed have been used`,
     )
   }
-  if (!assignment.hintsAllowed && events.some((e) => e.type === 'hint.revealed')) {
+  if (!assignment.hintsAllowed && hintRevealed) {
     throw new HttpError(400, 'hints_not_allowed', 'Hints are not allowed on this assignment', {
       fields: { events: ['Contains a revealed hint'] },
     })
@@ -76,20 +78,26 @@ export interface SubmitResult {
   attempt: AttemptSummary
 }
 
+/**
+ * `body`: the request body as received (null when no JSON was sent). A grading thread parses and validates it,
+ * so a 2 MB log costs the event loop nothing; a bad body is the same 400 the shared schema gives anywhere.
+ */
 export async function submitAttempt(
   ctx: AppContext,
   user: UserRow,
-  body: SubmitAttemptRequest,
+  body: Uint8Array | null,
 ): Promise<SubmitResult> {
-  const { created, attempt } = await storeSubmission(ctx, user, body)
+  const submission = await ctx.grading.read(body)
+  const { created, attempt } = await storeSubmission(ctx, user, submission)
   return { created, attempt: await presentOne(ctx, attempt) }
 }
 
 async function storeSubmission(
   ctx: AppContext,
   user: UserRow,
-  body: SubmitAttemptRequest,
+  submission: ReadSubmission,
 ): Promise<{ created: boolean; attempt: AttemptRow }> {
+  const { request: body, eventsJson } = submission
   const ds = ctx.dataSource
   const attempts = ds.getRepository(AttemptEntity)
   const existing = await findById(ds, AttemptEntity, body.id)
@@ -105,16 +113,12 @@ async function storeSubmission(
   }
   const { scenario, assignment } = await resolveTarget(ctx, user, body)
   const now = nowIso()
-  const events = body.events as AttemptEvent[]
   if (assignment) {
     const used = await attempts.countBy({ assignmentId: assignment.id, userId: user.id, status: 'submitted' })
-    checkRules(assignment, events, used, now)
+    checkRules(assignment, submission.hintRevealed, used, now)
   }
   const submitting = body.status === 'submitted'
-  // Serialised once: the row stores this text, and a grading thread parses it (cheaper than cloning
-  // thousands of event objects across the thread boundary).
-  const eventsJson = JSON.stringify(events)
-  const grade = submitting ? await ctx.grading.grade(scenario, { events, json: eventsJson }) : null
+  const grade = submitting ? await ctx.grading.grade(scenario, eventsJson) : null
   const row: AttemptRow = {
     id: body.id,
     userId: user.id,
@@ -122,7 +126,7 @@ async function storeSubmission(
     scenarioId: scenario.id,
     status: body.status,
     events: eventsJson,
-    eventCount: events.length,
+    eventCount: submission.eventCount,
     late: Boolean(assignment && submitting && now > assignment.dueAt),
     startedAt: existing?.startedAt ?? now,
     updatedAt: now,
@@ -131,7 +135,7 @@ async function storeSubmission(
     autoPassed: grade?.passed ?? null,
     score: grade?.score ?? null,
     passed: grade?.passed ?? null,
-    evidence: grade ? JSON.stringify(grade.evidence) : null,
+    evidence: grade?.evidenceJson ?? null,
     gradedAt: grade ? now : null,
   }
   try {

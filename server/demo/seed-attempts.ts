@@ -2,7 +2,6 @@
 // real grader, with one instructor comment and one audited override so every screen has something to show.
 import { randomUUID } from 'node:crypto'
 import { existsSync, readFileSync } from 'node:fs'
-import { fileURLToPath } from 'node:url'
 import type { DataSource } from 'typeorm'
 import { attemptLogSchema } from '@shared/model/events'
 import type { Scenario } from '@shared/scenario/schema'
@@ -17,10 +16,11 @@ import {
   type UserRow,
 } from '../entities'
 import { DAY, HOUR } from '../infrastructure/clock'
+import { ATTEMPT_FIXTURES_DIR } from '../infrastructure/paths'
 import { DEMO_ACCOUNTS } from './demo-accounts'
 import { gradeAttempt } from '../infrastructure/grading/grading'
 
-export const FIXTURE_DIR = fileURLToPath(new URL('../../tests/fixtures/attempts', import.meta.url))
+export const FIXTURE_DIR = ATTEMPT_FIXTURES_DIR
 
 /** [apprentice e-mail prefix, scenario key, fixture name, days ago, whether to leave it in progress]. */
 const PLAN: [string, string, string, number, boolean?][] = [

@@ -39,6 +39,8 @@ export interface BulkSeedResult {
   cohorts: string[]
   /** assignments[c] = the assignment ids of cohort c; the first of each uses `raise-lower-commissioning`. */
   assignments: string[][]
+  /** The scenario version id each assignment sets. */
+  assignmentScenarios: Record<string, string>
   counts: { users: number; cohorts: number; assignments: number; attempts: number }
   seedMs: number
 }
@@ -160,6 +162,7 @@ export async function bulkSeed(
       apprentices: [],
       cohorts: [],
       assignments: [],
+      assignmentScenarios: {},
       counts: { users: 0, cohorts: 0, assignments: 0, attempts: 0 },
       seedMs: 0,
     }
@@ -223,6 +226,7 @@ export async function bulkSeed(
             created,
           )
           assignmentScenario.set(id, scenario.id)
+          result.assignmentScenarios[id] = scenario.id
           ids.push(id)
         }
         result.assignments.push(ids)

@@ -21,6 +21,15 @@ function modelRows(result: ModelBenchResult): BenchRow[] {
     })),
     {
       group,
+      name: 'replay of 10k events vs JSON.parse of its text',
+      value: result.tenThousandMs,
+      unit: 'ms',
+      baseline: { name: 'JSON.parse (median)', value: result.parseTenThousandMs },
+      target: '≤ 4× JSON.parse',
+      met: result.tenThousandMs <= 4 * result.parseTenThousandMs,
+    },
+    {
+      group,
       name: '100k vs 10k events',
       value: result.eventsRatio,
       unit: '×',

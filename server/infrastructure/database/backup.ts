@@ -13,7 +13,7 @@ export async function writeBackup(dataSource: DataSource, file: string): Promise
     await sqliteHandle(dataSource).backup(file)
     return
   }
-  const copy = await openDatabase({ databasePath: file })
+  const copy = await openDatabase({ databasePath: file }, { backgroundCheckpoints: false })
   try {
     await dataSource.transaction('REPEATABLE READ', async (source) => {
       // `entities` lists parents before children, so foreign keys hold at every insert.

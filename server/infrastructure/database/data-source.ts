@@ -1,11 +1,13 @@
-// The TypeORM DataSource: SQLite through better-sqlite3 (the embedded default: WAL, synchronous FULL,
-// foreign keys, busy timeout) or PostgreSQL through pg when DATABASE_URL names one; the same entities and migrations on both.
+// The TypeORM DataSource: SQLite through better-sqlite3 (the embedded default: WAL, every commit synced
+// before it is reported — off the event loop, see sqlite-durability.ts — foreign keys, busy timeout) or
+// PostgreSQL through pg when DATABASE_URL names one; the same entities and migrations on both.
 import { mkdirSync } from 'node:fs'
 import { dirname } from 'node:path'
 import { DataSource } from 'typeorm'
 import type { AppConfig } from '../../config'
 import { entities } from '../../entities'
 import { migrations } from '../../migrations'
+import { createWalSync, startBackgroundCheckpoints } from './sqlite-durability'
 import { serializeSqliteTransactions } from './sqlite-transactions'
 
 export type DataSourceOptions =
@@ -51,10 +53,15 @@ export function createDataSource(options: DataSourceOptions): DataSource {
     prepareDatabase: (db: { pragma: (source: string) => unknown }) => {
       db.pragma('busy_timeout = 5000')
       db.pragma('foreign_keys = ON')
-      // FULL syncs the WAL on every commit, so an acknowledged grade survives a power cut and not only a
-      // process crash (sqlite.org, "PRAGMA synchronous"). Explicit, because a file already in WAL mode
-      // otherwise opens with this build's SQLITE_DEFAULT_WAL_SYNCHRONOUS=1 (NORMAL).
-      db.pragma('synchronous = FULL')
+      // NORMAL: a COMMIT appends to the WAL and returns; openDatabase() then syncs the WAL off the event
+      // loop before the commit is reported, which is what FULL would do on it (sqlite-durability.ts).
+      db.pragma('synchronous = NORMAL')
+      // Checkpoints run in their own thread (sqlite-checkpointer.ts); this one only steps in, on the event
+      // loop, if that thread falls far behind (40 MB of log).
+      db.pragma('wal_autocheckpoint = 10000')
+      db.pragma('journal_size_limit = 67108864')
+      // 64 MB of page cache: index pages of a large centre's attempts stay in memory.
+      db.pragma('cache_size = -65536')
     },
   })
 }
@@ -67,6 +74,8 @@ const STARTUP_LOCK_KEY = 7_355_120_231
 export interface OpenOptions {
   /** Runs after the migrations, still under the start-up lock (shipped scenarios, demo seed). */
   afterMigrations?: (dataSource: DataSource) => Promise<void>
+  /** SQLite: checkpoint in a thread of its own (default); false for a short-lived copy (backups). */
+  backgroundCheckpoints?: boolean
 }
 
 /**
@@ -76,7 +85,17 @@ export interface OpenOptions {
 export async function openDatabase(options: DataSourceOptions, open: OpenOptions = {}): Promise<DataSource> {
   const dataSource = createDataSource(options)
   await dataSource.initialize()
-  serializeSqliteTransactions(dataSource)
+  const file = 'databasePath' in options && options.databasePath !== ':memory:' ? options.databasePath : null
+  const walSync = file ? createWalSync(`${file}-wal`) : undefined
+  serializeSqliteTransactions(dataSource, walSync && (() => walSync.committed()))
+  const stopCheckpoints =
+    file && open.backgroundCheckpoints !== false ? await startBackgroundCheckpoints(file) : undefined
+  const destroy = dataSource.destroy.bind(dataSource)
+  dataSource.destroy = async () => {
+    await stopCheckpoints?.()
+    await walSync?.close()
+    await destroy()
+  }
   try {
     await underStartupLock(dataSource, async () => {
       await dataSource.runMigrations({ transaction: 'each' })

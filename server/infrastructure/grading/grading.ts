@@ -24,12 +24,16 @@ export function gradeReport(scenario: Scenario, events: AttemptEvent[]): GradeRe
   }
 }
 
+/** A log the model cannot replay is the client's mistake: 400, naming why. */
+export const unreplayableLog = (inputError: string) =>
+  new HttpError(400, 'validation_failed', `The event log cannot be replayed: ${inputError}`, {
+    fields: { events: [inputError] },
+  })
+
 /** The outcome of a report; an unreplayable log is the client's mistake: 400. */
 export function outcomeOf(report: GradeReport): GradeOutcome {
   if (report.ok) return report.outcome
-  throw new HttpError(400, 'validation_failed', `The event log cannot be replayed: ${report.inputError}`, {
-    fields: { events: [report.inputError] },
-  })
+  throw unreplayableLog(report.inputError)
 }
 
 /** Grades on the calling thread (seeding, benchmarks, tests); the API grades through a GradingPool. */

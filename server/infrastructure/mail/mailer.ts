@@ -24,6 +24,8 @@ export interface Mailer {
   send(mail: OutgoingMail): void
   /** Resolves when every queued message has been delivered or given up (tests, shutdown). */
   idle(): Promise<void>
+  /** Messages waiting or being sent, and those given up since start (metrics). */
+  stats(): { queued: number; failed: number }
   close(): void
 }
 
@@ -55,6 +57,7 @@ export function createMailer({
   const pending = new Set<Promise<void>>()
   const timers = new Set<NodeJS.Timeout>()
   let closed = false
+  let failed = 0
 
   const wait = (ms: number) =>
     new Promise<void>((resolve) => {
@@ -73,6 +76,7 @@ export function createMailer({
       } catch (err) {
         if (closed || attempt >= retryDelaysMs.length) {
           log.error({ err, to: mail.to, subject: mail.subject }, 'mail could not be sent; giving up')
+          failed++
           return
         }
         log.warn({ err, to: mail.to, attempt: attempt + 1 }, 'mail not sent; retrying')
@@ -89,6 +93,7 @@ export function createMailer({
     async idle() {
       while (pending.size) await Promise.all([...pending])
     },
+    stats: () => ({ queued: pending.size, failed }),
     close() {
       closed = true
       for (const timer of timers) clearTimeout(timer)
