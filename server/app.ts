@@ -18,7 +18,6 @@ import { gradebookRouter } from './gradebook/gradebook.router'
 import { healthRouter } from './health/health.router'
 import { createGradingPool, type GradingPool } from './infrastructure/grading/grading-pool'
 import { createLogger, requestLogger, type Logger } from './infrastructure/logging'
-import type { Mailer } from './infrastructure/mail/mailer'
 import { DatabaseRateLimitStore } from './infrastructure/rate-limit-store'
 import { createPasswordHasher, type PasswordHasher } from './infrastructure/security/passwords'
 import { createAccessTokens } from './infrastructure/security/tokens'
@@ -30,7 +29,6 @@ import { scenariosRouter, scenarioVersionsRouter } from './scenarios/scenarios.r
 export interface AppDeps {
   dataSource: DataSource
   config: AppConfig
-  mailer: Mailer
   jwtSecret: string
   log?: Logger
   passwords?: PasswordHasher
@@ -47,7 +45,6 @@ export function createApp(deps: AppDeps): Express {
   const ctx: AppContext = {
     dataSource: deps.dataSource,
     config: deps.config,
-    mailer: deps.mailer,
     passwords: deps.passwords ?? createPasswordHasher(deps.config.passwordHashing),
     tokens: createAccessTokens(deps.jwtSecret),
     log,

@@ -1,5 +1,6 @@
 // A fresh app per test file: temporary data folder and database (migrated, shipped scenarios loaded),
-// the embedded SMTP outbox on a random loopback port, and helpers to create users and sign in.
+// the background jobs with the embedded SMTP outbox on a random loopback port (jobs run when a test asks,
+// through `api.mail()` or `api.jobs.worker.runDue()`), and helpers to create users and sign in.
 // With TEST_DATABASE_URL set, each app gets its own new PostgreSQL database on that server instead.
 import { randomUUID } from 'node:crypto'
 import { mkdtempSync, rmSync } from 'node:fs'
@@ -21,8 +22,8 @@ import {
 import { dataSourceOptionsFor, openDatabase } from '../../server/infrastructure/database/data-source'
 import { MailMessageEntity, UserEntity, type MailMessageRow, type UserRow } from '../../server/entities'
 import { SCENARIOS_DIR } from '../../server/main'
-import { createMailer, type Mailer } from '../../server/infrastructure/mail/mailer'
-import { startOutboxSmtp, type OutboxSmtp } from '../../server/infrastructure/mail/outbox-smtp'
+import { startBackgroundJobs, type BackgroundJobs } from '../../server/background-jobs'
+import type { OutboxSmtp } from '../../server/infrastructure/mail/outbox-smtp'
 import { createPasswordHasher, type PasswordHasher } from '../../server/infrastructure/security/passwords'
 import { importShippedScenarios } from '../../server/scenarios/scenarios.service'
 import { createTestDatabase } from './test-database'
@@ -57,14 +58,15 @@ export interface TestApi {
   http: supertest.Agent
   dataSource: DataSource
   config: AppConfig
-  mailer: Mailer
+  /** The job worker and the embedded outbox; `jobs.worker.runDue()` runs every job due now. */
+  jobs: BackgroundJobs
   passwords: PasswordHasher
   outbox: OutboxSmtp
   dataDir: string
   /** Creates an active user directly in the database and signs them in. */
   createUser(role: Role, fields?: Partial<Pick<UserRow, 'name' | 'email'>>): Promise<TestUser>
   signIn(email: string, password: string): Promise<{ token: string; cookie: string }>
-  /** Waits for queued mail to reach the outbox, then returns every message (oldest first). */
+  /** Runs the due jobs (queued mail reaches the outbox), then returns every message received (oldest first). */
   mail(): Promise<MailMessageRow[]>
   close(): Promise<void>
 }
@@ -91,18 +93,12 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
   }
   const dataSource = await openDatabase(dataSourceOptionsFor(config))
   if (options.scenarios !== false) await importShippedScenarios(dataSource, SCENARIOS_DIR)
-  const outbox = await startOutboxSmtp(dataSource, log)
-  const mailer = createMailer({
-    target: { host: outbox.host, port: outbox.port, secure: false },
-    from: config.mailFrom,
-    log,
-    retryDelaysMs: [50, 100],
-  })
+  const jobs = await startBackgroundJobs({ dataSource, config, log, run: false })
+  const outbox = jobs.outbox!
   const passwords = createPasswordHasher(config.passwordHashing)
   const app = createApp({
     dataSource,
     config,
-    mailer,
     jwtSecret: TEST_JWT_SECRET,
     log,
     passwords,
@@ -147,20 +143,18 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     http,
     dataSource,
     config,
-    mailer,
+    jobs,
     passwords,
     outbox,
     dataDir,
     createUser,
     signIn,
     async mail() {
-      await mailer.idle()
+      await jobs.worker.runDue()
       return dataSource.getRepository(MailMessageEntity).find({ order: { receivedAt: 'ASC' } })
     },
     async close() {
-      await mailer.idle()
-      mailer.close()
-      await outbox.close()
+      await jobs.close()
       await dataSource.destroy()
       await database.drop()
       rmSync(dataDir, { recursive: true, force: true })
