@@ -5,6 +5,7 @@
 // was taken over cannot overwrite the new owner's result.
 import { DataSource, type EntityManager } from 'typeorm'
 import type { JobRow, JobStatus } from '../../entities'
+import { noteEnqueued } from './wake'
 
 interface Result {
   records: Record<string, unknown>[]
@@ -139,6 +140,7 @@ export async function retryFailedJob(db: DataSource | EntityManager, id: string,
      WHERE "id" = ? AND "status" = 'failed'`,
     [at, at, id],
   )
+  if (affected) noteEnqueued(db instanceof DataSource ? db.manager : db)
   return affected > 0
 }
 

@@ -152,9 +152,9 @@ export function createJobWorker(options: JobWorkerOptions): JobWorker {
     try {
       const timeout = new Promise<never>((_, reject) => {
         timer = setTimeout(() => {
-          abort.abort()
           const minutes = Math.round(registration.kind.timeoutMs / 60_000)
           reject(new JobError(`It did not finish within ${minutes || 1} minute(s)`))
+          abort.abort() // after the rejection, so a handler that returns on abort does not count as done
         }, registration.kind.timeoutMs)
       })
       await Promise.race([
