@@ -1,23 +1,17 @@
-// Boots the server: config, database (migrate, shipped scenarios, demo seed if asked for and empty, first admin),
-// background jobs (mail …), HTTP, shutdown.
+// Boots the server: config, database (migrate, then prepare-database.ts: shipped scenarios, demo if asked for,
+// first admin), background jobs (mail …), HTTP, shutdown.
 import type { Server } from 'node:http'
 import { mkdirSync } from 'node:fs'
-import { fileURLToPath } from 'node:url'
 import { createApp } from './app'
 import { startBackgroundJobs } from './background-jobs'
 import { ConfigError, loadConfig } from './config'
-import { demoSignInTable } from './demo/demo-accounts'
-import { hasDemoAccounts, isDatabaseEmpty, seedDemo } from './demo/seed'
 import { dataSourceOptionsFor, openDatabase } from './infrastructure/database/data-source'
 import { createGradingPool } from './infrastructure/grading/grading-pool'
 import { createLogger } from './infrastructure/logging'
+import { prepareDatabase, startupNotices } from './prepare-database'
 import { createPasswordHasher } from './infrastructure/security/passwords'
 import { loadOrCreateJwtSecret } from './infrastructure/security/secrets'
-import { importShippedScenarios } from './scenarios/scenarios.service'
-import { ensureFirstAdmin, FIRST_ADMIN_HELP, hasActiveAdmin } from './users/first-admin.service'
 import { APP_VERSION } from './version'
-
-export const SCENARIOS_DIR = fileURLToPath(new URL('../scenarios', import.meta.url))
 
 export interface StartOptions {
   mode?: 'api' | 'app'
@@ -39,16 +33,9 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
   mkdirSync(config.dataDir, { recursive: true })
   const jwtSecret = loadOrCreateJwtSecret(config.dataDir, config.jwtSecret)
   const passwords = createPasswordHasher(config.passwordHashing)
-  // Seeding runs under the start-up lock, so instances starting together against one database seed once.
+  // Under the start-up lock, so instances starting together against one database seed once.
   const dataSource = await openDatabase(dataSourceOptionsFor(config), {
-    async afterMigrations(ds) {
-      const shipped = await importShippedScenarios(ds, SCENARIOS_DIR)
-      if (shipped.added) log.info({ added: shipped.added }, 'shipped scenarios imported')
-      for (const skip of shipped.skipped) log.warn(skip, 'shipped scenario skipped')
-      // The published demo accounts only when asked for (DEMO=true: npm start, npm run dev), never by default.
-      if (config.demo && (await isDatabaseEmpty(ds))) await seedDemo(ds, passwords, log)
-      await ensureFirstAdmin(ds, passwords, config.firstAdmin, log)
-    },
+    afterMigrations: (ds) => prepareDatabase(ds, { config, passwords, log }),
   })
 
   const jobs = await startBackgroundJobs({ dataSource, config, log })
@@ -61,14 +48,7 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
   })
   const url = config.serveClient ? config.publicBaseUrl : `http://localhost:${config.port}`
   console.log(`\nSlipway ${APP_VERSION} listening on ${url}${config.serveClient ? '' : ' (API only)'}`)
-  if (await hasDemoAccounts(dataSource)) {
-    console.log(demoSignInTable() + '\n')
-    if (!config.demo) log.warn('this database holds the demo accounts, whose password is published')
-  }
-  if (!(await hasActiveAdmin(dataSource))) {
-    console.log(`\n${FIRST_ADMIN_HELP}\n`)
-    log.warn('no admin account exists yet (how to create one is printed above and in the README)')
-  }
+  for (const notice of await startupNotices(dataSource, config)) console.log(notice + '\n')
 
   let stopping = false
   async function stop(signal: string) {

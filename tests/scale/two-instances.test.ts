@@ -60,7 +60,7 @@ describe.skipIf(!onPostgres)('two API instances sharing one PostgreSQL database'
 
   beforeAll(async () => {
     db = await createPostgresTestDatabase()
-    const env = { DATABASE_URL: db.url, JWT_SECRET, PUBLIC_BASE_URL: 'http://slipway.test' }
+    const env = { DATABASE_URL: db.url, JWT_SECRET, PUBLIC_BASE_URL: 'http://slipway.test', DEMO: 'true' }
     // Started together on an empty database: one migrates and seeds while the other waits.
     ;[a, b] = await Promise.all([startServerProcess(env), startServerProcess(env)])
     sql = new pg.Client({ connectionString: db.url })

@@ -21,7 +21,7 @@ import {
 } from '../../server/config'
 import { dataSourceOptionsFor, openDatabase } from '../../server/infrastructure/database/data-source'
 import { MailMessageEntity, UserEntity, type MailMessageRow, type UserRow } from '../../server/entities'
-import { SCENARIOS_DIR } from '../../server/main'
+import { SCENARIOS_DIR } from '../../server/prepare-database'
 import { startBackgroundJobs, type BackgroundJobs } from '../../server/background-jobs'
 import type { OutboxSmtp } from '../../server/infrastructure/mail/outbox-smtp'
 import { createPasswordHasher, type PasswordHasher } from '../../server/infrastructure/security/passwords'

@@ -85,7 +85,11 @@ async function launch({ script, env, port, healthPath, timeoutMs }: LaunchOption
   return server
 }
 
-/** The production build (API + built client): NODE_ENV=production, its own DATA_DIR, loopback only. */
+/**
+ * The production build (API + built client): NODE_ENV=production, its own DATA_DIR, loopback only, with the
+ * demo centre seeded into the empty database as `npm start` does (DEMO=true; pass DEMO: 'false' in `env` for a
+ * plain production start).
+ */
 export async function startSlipway(
   dataDir: string,
   options: { port?: number; env?: NodeJS.ProcessEnv; timeoutMs?: number } = {},
@@ -99,6 +103,7 @@ export async function startSlipway(
     DATA_DIR: dataDir,
     PUBLIC_BASE_URL: `http://127.0.0.1:${port}`,
     LOG_LEVEL: 'warn',
+    DEMO: 'true',
     ...options.env,
   }
   return launch({
