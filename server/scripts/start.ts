@@ -1,4 +1,5 @@
-// `npm start`: build the client if it is missing or older than its sources, then serve everything on one port.
+// `npm start`: build the client if it is missing or older than its sources, then serve everything on one port
+// (with the demo centre, unless NODE_ENV=production or DEMO says otherwise).
 import { spawnSync } from 'node:child_process'
 import { existsSync, readdirSync, statSync } from 'node:fs'
 import { join, resolve } from 'node:path'
@@ -28,6 +29,8 @@ if (builtAt < sourcesAt) {
   if (result.status !== 0) process.exit(result.status ?? 1)
 }
 
+// `npm start` serves the demo; an operator's production start (NODE_ENV=production) never seeds its accounts.
+process.env.DEMO ??= process.env.NODE_ENV === 'production' ? 'false' : 'true'
 process.env.NODE_ENV ??= 'production'
 const { startServer } = await import('../main')
 await startServer({ mode: 'app' })

@@ -15,7 +15,7 @@ export type OutgoingMail = z.infer<typeof outgoingMailSchema>
 export const mailJob = defineJobKind({
   kind: 'mail',
   payload: outgoingMailSchema,
-  // 15 s, 30 s, 1 min … then hourly: about five hours of a relay being down before a message is given up.
+  // 15 s, 30 s, 1 min … then hourly: about four hours of a relay being down before a message is given up.
   retry: { maxAttempts: 12, firstDelayMs: 15_000, maxDelayMs: 3_600_000 },
   timeoutMs: 2 * 60_000,
   label: (mail) => mail.to,
