@@ -16,6 +16,15 @@ export const STATUS_COLOURS: Record<OutboxStatus, string> = {
   failed: 'error',
 }
 
+/** What an empty list under a status filter means. */
+export const EMPTY_TEXTS: Record<OutboxStatus | 'all', string> = {
+  all: 'Invitations, password resets and grade notices appear here once queued.',
+  queued: 'No message is waiting to be sent.',
+  sending: 'No message is being handed to the mail relay right now.',
+  sent: 'No message has been sent in the last 90 days.',
+  failed: 'Every message went out: none is marked “Not sent”.',
+}
+
 const attemptsText = (n: number) => (n === 1 ? '1 attempt' : `${n} attempts`)
 
 /** One sentence on where the message stands and, when something went wrong, why. */
