@@ -1,6 +1,5 @@
 // `npm run db:reset` on the configured database: SQLite's file is recreated; PostgreSQL's tables are dropped
 // and rebuilt only when the operator confirms with --yes.
-import { spawn } from 'node:child_process'
 import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
@@ -11,7 +10,7 @@ import { createDataSource, openDatabase } from '../../server/infrastructure/data
 import { createPasswordHasher } from '../../server/infrastructure/security/passwords'
 import { createAdminAccount } from '../../server/users/first-admin.service'
 import { TEST_JWT_SECRET, TEST_PASSWORD_HASHING } from '../support/api-harness'
-import { ROOT } from '../support/server-process'
+import { runScript } from '../support/server-process'
 import { createTestDatabase, onPostgres, type TestDatabase } from '../support/test-database'
 
 describe('npm run db:reset', () => {
@@ -29,26 +28,10 @@ describe('npm run db:reset', () => {
   const options = () =>
     onPostgres ? { postgresUrl: db.url } : { databasePath: join(dataDir, 'slipway.sqlite') }
 
-  function reset(args: string[] = []) {
-    return new Promise<{ code: number | null; out: string }>((resolve) => {
-      const child = spawn(process.execPath, ['--import', 'tsx', 'server/scripts/db-reset.ts', ...args], {
-        cwd: ROOT,
-        env: {
-          PATH: process.env.PATH ?? '/usr/bin:/bin',
-          TSX_TSCONFIG_PATH: 'tsconfig.node.json',
-          DATA_DIR: dataDir,
-          DATABASE_URL: db.url,
-          JWT_SECRET: TEST_JWT_SECRET,
-          LOG_LEVEL: 'silent',
-        },
-        stdio: ['ignore', 'pipe', 'pipe'],
-      })
-      let out = ''
-      child.stdout.on('data', (c: Buffer) => (out += c.toString()))
-      child.stderr.on('data', (c: Buffer) => (out += c.toString()))
-      child.on('close', (code) => resolve({ code, out }))
+  const reset = (args: string[] = []) =>
+    runScript('server/scripts/db-reset.ts', args, {
+      env: { DATA_DIR: dataDir, DATABASE_URL: db.url, JWT_SECRET: TEST_JWT_SECRET },
     })
-  }
 
   async function emails(): Promise<string[]> {
     const ds = createDataSource(options())

@@ -1,6 +1,5 @@
 // Demo data only for the demo, and the first admin of a production database: from ADMIN_EMAIL, ADMIN_NAME and
 // ADMIN_PASSWORD at start, or from `npm run admin:create`.
-import { spawn } from 'node:child_process'
 import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
@@ -13,7 +12,7 @@ import { AuditEntryEntity, ScenarioEntity, UserEntity } from '../../server/entit
 import { prepareDatabase, startupNotices } from '../../server/prepare-database'
 import { FIRST_ADMIN_HELP } from '../../server/users/first-admin.service'
 import { createTestApi, TEST_JWT_SECRET, type TestApi } from '../support/api-harness'
-import { ROOT } from '../support/server-process'
+import { runScript } from '../support/server-process'
 import { createTestDatabase, type TestDatabase } from '../support/test-database'
 
 const log = pino({ level: 'silent' })
@@ -115,32 +114,12 @@ describe('npm run admin:create', () => {
     rmSync(dataDir, { recursive: true, force: true })
   })
 
-  /** The command as an operator runs it, against the test database, with `input` on standard input. */
-  function run(
-    args: string[],
-    { env = {}, input = '' }: { env?: Record<string, string>; input?: string } = {},
-  ) {
-    return new Promise<{ code: number | null; out: string }>((resolve) => {
-      const child = spawn(process.execPath, ['--import', 'tsx', 'server/scripts/admin-create.ts', ...args], {
-        cwd: ROOT,
-        env: {
-          PATH: process.env.PATH ?? '/usr/bin:/bin',
-          TSX_TSCONFIG_PATH: 'tsconfig.node.json',
-          DATA_DIR: dataDir,
-          DATABASE_URL: db.url,
-          JWT_SECRET: TEST_JWT_SECRET,
-          LOG_LEVEL: 'silent',
-          ...env,
-        },
-        stdio: ['pipe', 'pipe', 'pipe'],
-      })
-      let out = ''
-      child.stdout.on('data', (c: Buffer) => (out += c.toString()))
-      child.stderr.on('data', (c: Buffer) => (out += c.toString()))
-      child.stdin.end(input)
-      child.on('close', (code) => resolve({ code, out }))
+  /** The command against the test database. */
+  const run = (args: string[], options: { env?: Record<string, string>; input?: string } = {}) =>
+    runScript('server/scripts/admin-create.ts', args, {
+      input: options.input,
+      env: { DATA_DIR: dataDir, DATABASE_URL: db.url, JWT_SECRET: TEST_JWT_SECRET, ...options.env },
     })
-  }
 
   it('creates an admin with the password from standard input, and refuses the same address twice', async () => {
     const args = ['--email', 'Founding.Admin@Slipway.test', '--name', 'Tamsin Oakridge']

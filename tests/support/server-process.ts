@@ -146,3 +146,31 @@ export async function startBareExpress(): Promise<ServerProcess> {
     timeoutMs: 30_000,
   })
 }
+
+/**
+ * One of the npm commands' scripts (`server/scripts/…`) as an operator runs it: a minimal environment plus
+ * `env`, `input` on standard input; resolves with the exit code and everything it printed.
+ */
+export function runScript(
+  script: string,
+  args: string[],
+  { env = {}, input = '' }: { env?: Record<string, string>; input?: string } = {},
+): Promise<{ code: number | null; out: string }> {
+  return new Promise((resolve) => {
+    const child = spawn(process.execPath, [...TSX, script, ...args], {
+      cwd: ROOT,
+      env: {
+        PATH: process.env.PATH ?? '/usr/bin:/bin',
+        TSX_TSCONFIG_PATH: 'tsconfig.node.json',
+        LOG_LEVEL: 'silent',
+        ...env,
+      },
+      stdio: ['pipe', 'pipe', 'pipe'],
+    })
+    let out = ''
+    child.stdout!.on('data', (chunk: Buffer) => (out += chunk.toString()))
+    child.stderr!.on('data', (chunk: Buffer) => (out += chunk.toString()))
+    child.stdin!.end(input)
+    child.on('close', (code) => resolve({ code, out }))
+  })
+}
