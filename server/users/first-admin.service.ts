@@ -78,11 +78,19 @@ export async function ensureFirstAdmin(
   log: Logger,
 ): Promise<void> {
   if (!account || (await hasActiveAdmin(ds))) return
-  const user = await createAdminAccount(ds, passwords, account, 'First admin, from ADMIN_EMAIL at start')
-  log.info(
-    { email: user.email },
-    'first admin account created from ADMIN_EMAIL; ADMIN_PASSWORD may now be removed',
-  )
+  try {
+    const user = await createAdminAccount(ds, passwords, account, 'First admin, from ADMIN_EMAIL at start')
+    log.info(
+      { email: user.email },
+      'first admin account created from ADMIN_EMAIL; ADMIN_PASSWORD may now be removed',
+    )
+  } catch (error) {
+    // An address that already has an account (say, a deactivated admin's): start anyway, and say what to do.
+    if (!(error instanceof AdminAccountError)) throw error
+    log.warn(
+      `no admin created from ADMIN_EMAIL: ${error.message}; use npm run admin:create with another address`,
+    )
+  }
 }
 
 /** What to do when there is no admin: printed at start and by the command's help. */

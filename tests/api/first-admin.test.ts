@@ -95,6 +95,22 @@ describe('preparing the database at start', () => {
     expect(signIn.status).toBe(200)
   })
 
+  it('starts anyway when ADMIN_EMAIL names an existing account, creating nothing', async () => {
+    const person = await api.createUser('instructor', { email: 'taken@slipway.test' })
+    const firstAdmin = loadConfig({
+      ...ADMIN,
+      ADMIN_EMAIL: person.email,
+      ADMIN_PASSWORD: PASSWORD,
+    }).firstAdmin
+    await prepareDatabase(api.dataSource, {
+      config: { demo: false, firstAdmin },
+      passwords: api.passwords,
+      log,
+    })
+    expect((await users()).map((u) => [u.email, u.role])).toEqual([['taken@slipway.test', 'instructor']])
+    expect(await startupNotices(api.dataSource, { demo: false })).toEqual([FIRST_ADMIN_HELP])
+  })
+
   it('warns when a production start finds the demo accounts, whose password is published', async () => {
     await prepareDatabase(api.dataSource, { config: { demo: true }, passwords: api.passwords, log })
     const notices = await startupNotices(api.dataSource, { demo: false })
