@@ -70,6 +70,9 @@ export const errorCodes = [
   'hints_not_allowed',
   'roster_invalid',
   'rate_limited',
+  'lti_launch_invalid',
+  'lti_not_linked',
+  'lti_service_failed',
   'internal_error',
 ] as const
 export const errorCodeSchema = z.enum(errorCodes)
