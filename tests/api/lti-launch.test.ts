@@ -8,8 +8,10 @@ import {
   EnrollmentEntity,
   LtiContextEntity,
   LtiIdentityEntity,
+  LtiLoginEntity,
   UserEntity,
 } from '../../server/entities'
+import { hashToken } from '../../server/infrastructure/security/tokens'
 import { bearer, createTestApi, type TestApi, type TestUser } from '../support/api-harness'
 import { FakeLtiPlatform, ROLE } from '../support/fake-lti-platform'
 import {
@@ -319,8 +321,9 @@ describe('LTI 1.3 launch', () => {
 
     it('an expired login (the platform answered too late)', async () => {
       const login = await startLogin(api, platform)
-      const { LtiLoginEntity } = await import('../../server/entities')
-      await api.dataSource.getRepository(LtiLoginEntity).update({}, { expiresAt: new Date(Date.now() - 1000).toISOString() })
+      await api.dataSource
+        .getRepository(LtiLoginEntity)
+        .update({ stateHash: hashToken(login.state) }, { expiresAt: new Date(Date.now() - 1000).toISOString() })
       const idToken = await platform.sign({ ...platform.launchClaims(person), nonce: login.nonce })
       const response = await postLaunch(api, { id_token: idToken, state: login.state }, login.cookie)
       expect(response.headers[REFUSAL]).toBe('state_expired')
