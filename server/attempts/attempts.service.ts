@@ -29,6 +29,7 @@ import {
 } from '../entities'
 import { conflict, forbidden } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
+import { scoreChanged } from '../lti/passback.service'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
 import {
   presentAttemptDetail,
@@ -235,6 +236,7 @@ export async function overrideGrade(
       createdAt: now,
     })
   })
+  if (attempt.assignmentId) await scoreChanged(ctx, attempt.assignmentId, attempt.userId)
   await notifyOwner(ctx, attempt, 'overridden', score, passed)
   return presentOne(ctx, await ds.getRepository(AttemptEntity).findOneByOrFail({ id: attempt.id }))
 }

@@ -19,6 +19,7 @@ import { HttpError, conflict } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
 import { findById } from '../infrastructure/database/lookups'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
+import { scoreChanged } from '../lti/passback.service'
 import { presentOne } from './attempts.service'
 
 interface Target {
@@ -167,6 +168,8 @@ async function storeSubmission(
     throw error
   }
   if (grade && assignment) {
+    // A learning platform that links this assignment receives the grade (nothing happens otherwise).
+    await scoreChanged(ctx, assignment.id, user.id)
     ctx.mailer.send(
       attemptReviewedMail({
         to: user.email,

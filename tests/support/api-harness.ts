@@ -10,7 +10,7 @@ import { pino } from 'pino'
 import supertest from 'supertest'
 import type { DataSource } from 'typeorm'
 import type { Role } from '../../shared/api/auth'
-import { createApp } from '../../server/app'
+import { createApp, type AppDeps } from '../../server/app'
 import {
   DEFAULT_RATE_LIMITS,
   loadConfig,
@@ -43,6 +43,8 @@ export interface TestApiOptions {
   config?: Partial<AppConfig>
   /** A built client to serve (with config.serveClient). */
   clientDir?: string
+  /** Learning-platform timings (key-set cache, grade retries). */
+  lti?: AppDeps['lti']
 }
 
 export interface TestUser {
@@ -107,6 +109,7 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     log,
     passwords,
     clientDir: options.clientDir,
+    lti: options.lti,
   })
   const http = supertest.agent(app)
 
