@@ -3,7 +3,7 @@
 // Browser-flow failures are pages, not JSON: the person is looking at them inside the platform.
 import { randomBytes } from 'node:crypto'
 import cookieParser from 'cookie-parser'
-import express, { Router, type Response } from 'express'
+import express, { Router, type Request, type Response } from 'express'
 import { launchExchangeRequestSchema } from '@shared/api/lti'
 import type { AppContext } from '../context'
 import { HttpError } from '../http-error'
@@ -25,16 +25,17 @@ import {
 } from './session-cookie'
 import { publicKeySet } from './tool-keys'
 
-function sendRefusal(ctx: AppContext, res: Response, error: unknown) {
+/** A page for a browser (the usual case: the platform's form post), the API's error body for anything else. */
+function sendRefusal(ctx: AppContext, req: Request, res: Response, error: unknown) {
   if (!(error instanceof LtiRefusal)) throw error
   ctx.log.info({ reason: error.reason }, 'LTI launch refused')
   const newWindowUrl = (error as LtiRefusal & { newWindowUrl?: string }).newWindowUrl
-  res
-    .status(error.status)
-    .setHeader(REFUSAL_HEADER, error.reason)
-    .setHeader('Cache-Control', 'no-store')
-    .type('html')
-    .send(refusalPage(error.message, { newWindowUrl }))
+  res.status(error.status).setHeader(REFUSAL_HEADER, error.reason).setHeader('Cache-Control', 'no-store')
+  if (req.get('accept')?.includes('text/html')) {
+    res.type('html').send(refusalPage(error.message, { newWindowUrl }))
+  } else {
+    res.json({ error: { code: 'lti_launch_refused', message: error.message, details: { reason: error.reason } } })
+  }
 }
 
 export function launchRouter(ctx: AppContext): Router {
@@ -57,7 +58,7 @@ export function launchRouter(ctx: AppContext): Router {
       res.setHeader('Cache-Control', 'no-store')
       res.redirect(302, answer.redirectUrl)
     } catch (error) {
-      sendRefusal(ctx, res, error)
+      sendRefusal(ctx, req as Request, res, error)
     }
   })
 
@@ -69,7 +70,7 @@ export function launchRouter(ctx: AppContext): Router {
       // 303: the browser follows with a GET of the client's hand-over page.
       res.redirect(303, answer.redirectUrl)
     } catch (error) {
-      sendRefusal(ctx, res, error)
+      sendRefusal(ctx, req as Request, res, error)
     }
   })
 

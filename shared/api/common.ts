@@ -71,6 +71,7 @@ export const errorCodes = [
   'roster_invalid',
   'rate_limited',
   'lti_launch_invalid',
+  'lti_launch_refused',
   'lti_not_linked',
   'lti_service_failed',
   'internal_error',

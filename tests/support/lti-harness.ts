@@ -57,7 +57,8 @@ export async function startLogin(
 }
 
 export function postLaunch(api: TestApi, form: Record<string, string>, cookie?: string) {
-  const request = supertest(api.app).post('/api/lti/launch').type('form')
+  // As a browser posts the platform's form: it asks for a page.
+  const request = supertest(api.app).post('/api/lti/launch').type('form').set('Accept', 'text/html')
   if (cookie) request.set('Cookie', cookie)
   return request.send(form)
 }
