@@ -31,18 +31,28 @@ export function courseRouter(ctx: AppContext): Router {
     res.json(await cohortLink(ctx, currentUser(req), req.params.id))
   })
 
-  router.post('/cohorts/:id/roster-pull', ...staff, validate({ params: idParamsSchema }), async (req, res) => {
-    res.json(await pullRoster(ctx, currentUser(req), req.params.id))
-  })
+  router.post(
+    '/cohorts/:id/roster-pull',
+    ...staff,
+    validate({ params: idParamsSchema }),
+    async (req, res) => {
+      res.json(await pullRoster(ctx, currentUser(req), req.params.id))
+    },
+  )
 
   router.get('/cohorts/:id/score-sync', ...staff, validate({ params: idParamsSchema }), async (req, res) => {
     res.setHeader('Cache-Control', 'no-store')
     res.json(await cohortScoreSyncs(ctx, currentUser(req), req.params.id))
   })
 
-  router.post('/cohorts/:id/score-sync/retry', ...staff, validate({ params: idParamsSchema }), async (req, res) => {
-    res.json(await retryFailedScores(ctx, currentUser(req), req.params.id))
-  })
+  router.post(
+    '/cohorts/:id/score-sync/retry',
+    ...staff,
+    validate({ params: idParamsSchema }),
+    async (req, res) => {
+      res.json(await retryFailedScores(ctx, currentUser(req), req.params.id))
+    },
+  )
 
   return router
 }

@@ -37,12 +37,20 @@ async function openRequest(ctx: AppContext, user: UserRow, id: string): Promise<
     throw new HttpError(409, 'conflict', 'This activity has already been added. Add another from the course.')
   }
   if (request.expiresAt <= nowIso()) {
-    throw new HttpError(409, 'conflict', 'This request has expired. Start adding the activity again from the course.')
+    throw new HttpError(
+      409,
+      'conflict',
+      'This request has expired. Start adding the activity again from the course.',
+    )
   }
   return request
 }
 
-export async function getDeepLinkRequest(ctx: AppContext, user: UserRow, id: string): Promise<DeepLinkingRequest> {
+export async function getDeepLinkRequest(
+  ctx: AppContext,
+  user: UserRow,
+  id: string,
+): Promise<DeepLinkingRequest> {
   const request = await openRequest(ctx, user, id)
   const platform = await findById(ctx.dataSource, LtiPlatformEntity, request.platformId)
   const context = await findById(ctx.dataSource, LtiContextEntity, request.contextRowId)
@@ -80,7 +88,12 @@ export async function answerDeepLink(
     text: `A Slipway exercise${assignment.attemptLimit ? `, ${assignment.attemptLimit} attempt(s) allowed` : ''}.`,
     url: toolUrls(ctx).launch,
     custom: { [ASSIGNMENT_PARAMETER]: assignment.id },
-    lineItem: { scoreMaximum: SCORE_MAXIMUM, label: assignment.title, resourceId: assignment.id, tag: 'slipway' },
+    lineItem: {
+      scoreMaximum: SCORE_MAXIMUM,
+      label: assignment.title,
+      resourceId: assignment.id,
+      tag: 'slipway',
+    },
     available: { startDateTime: assignment.opensAt },
     submission: { endDateTime: assignment.dueAt },
   }
@@ -109,11 +122,15 @@ export async function answerDeepLink(
 }
 
 /** The signed answer and where to post it, once: the page that posts it spends the code. */
-export async function takeDeepLinkAnswer(ctx: AppContext, code: string): Promise<{ returnUrl: string; jwt: string }> {
+export async function takeDeepLinkAnswer(
+  ctx: AppContext,
+  code: string,
+): Promise<{ returnUrl: string; jwt: string }> {
   const repo = ctx.dataSource.getRepository(LtiDeepLinkRequestEntity)
   const returnCodeHash = hashToken(code)
   const request = await repo.findOneBy({ returnCodeHash })
-  const spent = request && (await repo.update({ id: request.id, respondedAt: IsNull() }, { respondedAt: nowIso() }))
+  const spent =
+    request && (await repo.update({ id: request.id, respondedAt: IsNull() }, { respondedAt: nowIso() }))
   if (!request?.responseJwt || !spent?.affected) {
     throw new HttpError(404, 'not_found', 'This answer was already sent to the course, or never existed.')
   }

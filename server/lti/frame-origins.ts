@@ -28,7 +28,11 @@ export function createFrameOriginCache(ds: DataSource, maxAgeMs = 10_000): Frame
     })
     const origins = new Set<string>()
     for (const p of platforms) {
-      for (const url of [p.issuer, p.authorizationEndpoint, ...(JSON.parse(p.extraFrameOrigins) as string[])]) {
+      for (const url of [
+        p.issuer,
+        p.authorizationEndpoint,
+        ...(JSON.parse(p.extraFrameOrigins) as string[]),
+      ]) {
         const origin = originOf(url)
         if (origin) origins.add(origin)
       }

@@ -31,7 +31,8 @@ export function framingFor(ctx: AppContext) {
       ((res as WithLocals).locals?.frameAncestors as string | undefined) ?? "'none'",
     /** After helmet: X-Frame-Options cannot name origins; with frame-ancestors present it is redundant. */
     dropFrameOptions: ((_req, res, next) => {
-      if (res.locals.frameAncestors && res.locals.frameAncestors !== "'none'") res.removeHeader('X-Frame-Options')
+      if (res.locals.frameAncestors && res.locals.frameAncestors !== "'none'")
+        res.removeHeader('X-Frame-Options')
       next()
     }) as Middleware,
   }

@@ -57,7 +57,11 @@ export async function verifyLaunchToken(input: VerifyLaunchInput): Promise<Verif
     if (error instanceof PlatformKeyError) {
       throw error.reason === 'unknown_key'
         ? refuse('unknown_key', 'The launch message is signed with a key the platform does not publish.')
-        : refuse('key_set_unavailable', 'Slipway could not read the platform’s published keys. Try again shortly.', 502)
+        : refuse(
+            'key_set_unavailable',
+            'Slipway could not read the platform’s published keys. Try again shortly.',
+            502,
+          )
     }
     throw error
   }
@@ -89,7 +93,10 @@ export async function verifyLaunchToken(input: VerifyLaunchInput): Promise<Verif
   if (!audiences.includes(platform.clientId)) {
     throw refuse('wrong_audience', 'The launch message is addressed to another tool.')
   }
-  if ((audiences.length > 1 && claims.azp === undefined) || (claims.azp !== undefined && claims.azp !== platform.clientId)) {
+  if (
+    (audiences.length > 1 && claims.azp === undefined) ||
+    (claims.azp !== undefined && claims.azp !== platform.clientId)
+  ) {
     throw refuse('wrong_authorised_party', 'The launch message names another tool as its authorised party.')
   }
   // Step 6: not expired; step 7: issued recently (both with a small allowance for clock differences).
@@ -113,7 +120,11 @@ export async function verifyLaunchToken(input: VerifyLaunchInput): Promise<Verif
     throw refuse('wrong_message_type', 'Slipway does not handle this kind of launch message.', 400)
   }
   if (claims[CLAIM.version] !== LTI_VERSION) {
-    throw refuse('wrong_version', `Slipway speaks LTI ${LTI_VERSION}; the platform sent another version.`, 400)
+    throw refuse(
+      'wrong_version',
+      `Slipway speaks LTI ${LTI_VERSION}; the platform sent another version.`,
+      400,
+    )
   }
   const deploymentId = claims[CLAIM.deploymentId]
   if (!deploymentId || !(await input.isRegisteredDeployment(deploymentId))) {
@@ -134,7 +145,11 @@ export async function verifyLaunchToken(input: VerifyLaunchInput): Promise<Verif
     }
   }
   if (!claims[CLAIM.context]) {
-    throw refuse('missing_claim', 'The launch message names no course (context); Slipway needs one for a cohort.', 400)
+    throw refuse(
+      'missing_claim',
+      'The launch message names no course (context); Slipway needs one for a cohort.',
+      400,
+    )
   }
   return { claims, messageType, deploymentId, subject: claims.sub }
 }

@@ -34,7 +34,9 @@ function sendRefusal(ctx: AppContext, req: Request, res: Response, error: unknow
   if (req.get('accept')?.includes('text/html')) {
     res.type('html').send(refusalPage(error.message, { newWindowUrl }))
   } else {
-    res.json({ error: { code: 'lti_launch_refused', message: error.message, details: { reason: error.reason } } })
+    res.json({
+      error: { code: 'lti_launch_refused', message: error.message, details: { reason: error.reason } },
+    })
   }
 }
 
@@ -51,7 +53,8 @@ export function launchRouter(ctx: AppContext): Router {
 
   // LTI Core §5.1.1: the platform may send the login initiation as a GET or a form POST.
   router.all('/login', forms, async (req, res) => {
-    if (req.method !== 'GET' && req.method !== 'POST') throw new HttpError(405, 'bad_request', 'Use GET or POST')
+    if (req.method !== 'GET' && req.method !== 'POST')
+      throw new HttpError(405, 'bad_request', 'Use GET or POST')
     try {
       const answer = await initiateLogin(ctx, parseLoginRequest(req.method === 'GET' ? req.query : req.body))
       setBindingCookie(res, answer.binding)

@@ -56,7 +56,11 @@ export interface LaunchAnswer {
 async function spendLogin(ctx: AppContext, form: LaunchForm, cookies: Record<string, unknown>) {
   if (typeof form.error === 'string') {
     // The platform answered the login with an OIDC error (e.g. login_required): nothing to verify.
-    throw refuse('bad_request', `The platform did not sign you in (${form.error_description ?? form.error}).`, 400)
+    throw refuse(
+      'bad_request',
+      `The platform did not sign you in (${form.error_description ?? form.error}).`,
+      400,
+    )
   }
   if (typeof form.state !== 'string' || form.state === '') {
     throw refuse('state_missing', 'The launch came without the state of its sign-in.', 400)

@@ -56,7 +56,11 @@ async function platformFor(ctx: AppContext, iss: string, clientId?: string): Pro
 export function parseLoginRequest(input: unknown): LoginRequest {
   const parsed = loginRequestSchema.safeParse(input)
   if (!parsed.success) {
-    throw refuse('bad_request', 'The platform sent an incomplete sign-in request (issuer, login hint or target).', 400)
+    throw refuse(
+      'bad_request',
+      'The platform sent an incomplete sign-in request (issuer, login hint or target).',
+      400,
+    )
   }
   return parsed.data
 }
@@ -80,7 +84,9 @@ export async function initiateLogin(ctx: AppContext, request: LoginRequest): Pro
   const stateHash = hashToken(state)
   const ds = ctx.dataSource
   // Old logins are useless after they expire; clear a day's worth behind us now and then.
-  await ds.getRepository(LtiLoginEntity).delete({ expiresAt: LessThan(new Date(Date.now() - DAY).toISOString()) })
+  await ds
+    .getRepository(LtiLoginEntity)
+    .delete({ expiresAt: LessThan(new Date(Date.now() - DAY).toISOString()) })
   await ds.getRepository(LtiLoginEntity).insert({
     stateHash,
     platformId: platform.id,
@@ -111,7 +117,8 @@ export async function initiateLogin(ctx: AppContext, request: LoginRequest): Pro
     state,
     nonce,
   }
-  for (const [name, value] of Object.entries(query)) if (value !== undefined) url.searchParams.set(name, value)
+  for (const [name, value] of Object.entries(query))
+    if (value !== undefined) url.searchParams.set(name, value)
   return {
     redirectUrl: url.toString(),
     binding: { name: bindingCookieName(stateHash), value: binding, maxAgeMs: LOGIN_TTL_MS },

@@ -10,7 +10,9 @@ import { ltiRuntime, resumeWaitingScores, type LtiOptions } from './runtime'
 export function ltiRouter(ctx: AppContext, options: LtiOptions = {}): Router {
   ltiRuntime(ctx, options)
   // Grades that were waiting when the server last stopped are sent again.
-  resumeWaitingScores(ctx).catch((err) => ctx.log.error({ err }, 'could not resume grades waiting for platforms'))
+  resumeWaitingScores(ctx).catch((err) =>
+    ctx.log.error({ err }, 'could not resume grades waiting for platforms'),
+  )
   const router = Router()
   router.use(launchRouter(ctx))
   router.use(registrationRouter(ctx))

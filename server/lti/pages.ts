@@ -1,7 +1,10 @@
 // The few pages the platform's browser flow shows without the client app: a refusal (with a way forward when
 // there is one), and the page that carries a signed answer back to the platform as an auto-submitted form.
 const escape = (value: string) =>
-  value.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!)
+  value.replace(
+    /[&<>"']/g,
+    (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!,
+  )
 
 const STYLE = `body{font-family:system-ui,sans-serif;margin:0;padding:2rem 1.25rem;color:#1b2430;background:#f6f7f9}
 main{max-width:34rem;margin:0 auto;background:#fff;border:1px solid #d5dae1;border-radius:8px;padding:1.5rem}

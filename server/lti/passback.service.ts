@@ -57,7 +57,11 @@ export async function scoreChanged(ctx: AppContext, assignmentId: string, userId
 }
 
 /** The grade that counts for the platform: the best or the latest graded attempt, as the assignment says. */
-async function gradeThatCounts(ctx: AppContext, assignment: AssignmentRow, userId: string): Promise<number | null> {
+async function gradeThatCounts(
+  ctx: AppContext,
+  assignment: AssignmentRow,
+  userId: string,
+): Promise<number | null> {
   const graded = await ctx.dataSource.getRepository(AttemptEntity).find({
     where: { assignmentId: assignment.id, userId, status: 'submitted' },
     select: { id: true, score: true, submittedAt: true },
@@ -115,7 +119,8 @@ async function lineItemOf(
     })
     if (!created.ok) throw serviceFailure('a new gradebook column', created)
     const item = lineItemSchema.safeParse(await created.json().catch(() => undefined))
-    if (!item.success) throw new PlatformServiceError('The platform sent an unreadable gradebook column.', true)
+    if (!item.success)
+      throw new PlatformServiceError('The platform sent an unreadable gradebook column.', true)
     lineItemUrl = item.data.id
   }
   await ctx.dataSource
@@ -143,12 +148,18 @@ export async function postScore(
   if (!sync || !assignment) return 'done'
   const score = await gradeThatCounts(ctx, assignment, post.userId)
   if (score === null) {
-    await record(ctx, sync, { state: 'failed', tries: attempt.number, problem: 'There is no graded attempt to send.' })
+    await record(ctx, sync, {
+      state: 'failed',
+      tries: attempt.number,
+      problem: 'There is no graded attempt to send.',
+    })
     return 'done'
   }
   try {
     const links = await ds.getRepository(LtiResourceLinkEntity).findBy({ assignmentId: assignment.id })
-    const contexts = await ds.getRepository(LtiContextEntity).findBy({ id: In(links.map((l) => l.contextRowId)) })
+    const contexts = await ds
+      .getRepository(LtiContextEntity)
+      .findBy({ id: In(links.map((l) => l.contextRowId)) })
     const platforms = await ds
       .getRepository(LtiPlatformEntity)
       .findBy({ id: In([...new Set(contexts.map((c) => c.platformId))]) })
@@ -165,19 +176,26 @@ export async function postScore(
         )
       }
       const lineItemUrl = await lineItemOf(ctx, platform, context, link, assignment)
-      const response = await callPlatform(ctx, ltiRuntime(ctx).serviceTokens, platform, [SCOPE.score], withPath(lineItemUrl, '/scores'), {
-        method: 'POST',
-        headers: { 'content-type': MEDIA.score },
-        body: JSON.stringify({
-          userId: identity.subject,
-          scoreGiven: score,
-          scoreMaximum: SCORE_MAXIMUM,
-          activityProgress: 'Completed',
-          gradingProgress: 'FullyGraded',
-          // The time the grade changed: a platform keeps the score with the newest timestamp (AGS §3.4.6).
-          timestamp: sync.changedAt,
-        }),
-      })
+      const response = await callPlatform(
+        ctx,
+        ltiRuntime(ctx).serviceTokens,
+        platform,
+        [SCOPE.score],
+        withPath(lineItemUrl, '/scores'),
+        {
+          method: 'POST',
+          headers: { 'content-type': MEDIA.score },
+          body: JSON.stringify({
+            userId: identity.subject,
+            scoreGiven: score,
+            scoreMaximum: SCORE_MAXIMUM,
+            activityProgress: 'Completed',
+            gradingProgress: 'FullyGraded',
+            // The time the grade changed: a platform keeps the score with the newest timestamp (AGS §3.4.6).
+            timestamp: sync.changedAt,
+          }),
+        },
+      )
       if (!response.ok) throw serviceFailure('the grade', response)
     }
     await record(ctx, sync, { state: 'sent', score, tries: attempt.number, problem: null, sentAt: nowIso() })
@@ -204,10 +222,16 @@ export async function waitingPosts(ctx: AppContext): Promise<ScorePost[]> {
 }
 
 /** The gradebook's sync states for a cohort's linked assignments (instructor of the cohort, or admin). */
-export async function cohortScoreSyncs(ctx: AppContext, user: UserRow, cohortId: string): Promise<ScoreSyncList> {
+export async function cohortScoreSyncs(
+  ctx: AppContext,
+  user: UserRow,
+  cohortId: string,
+): Promise<ScoreSyncList> {
   const ds = ctx.dataSource
   const cohort = await cohortFor(ds, user, cohortId, 'manage')
-  const assignments = await ds.getRepository(AssignmentEntity).find({ where: { cohortId: cohort.id }, select: { id: true } })
+  const assignments = await ds
+    .getRepository(AssignmentEntity)
+    .find({ where: { cohortId: cohort.id }, select: { id: true } })
   const linkedIds = assignments.length
     ? [
         ...new Set(
@@ -227,7 +251,11 @@ export async function cohortScoreSyncs(ctx: AppContext, user: UserRow, cohortId:
 }
 
 /** Sends every failed grade of a cohort again (after the platform's administrator fixed what was wrong). */
-export async function retryFailedScores(ctx: AppContext, user: UserRow, cohortId: string): Promise<ScoreSyncList> {
+export async function retryFailedScores(
+  ctx: AppContext,
+  user: UserRow,
+  cohortId: string,
+): Promise<ScoreSyncList> {
   const list = await cohortScoreSyncs(ctx, user, cohortId)
   for (const cell of list.cells.filter((c) => c.state === 'failed')) {
     await scoreChanged(ctx, cell.assignmentId, cell.userId)

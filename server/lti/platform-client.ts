@@ -49,7 +49,11 @@ export function createServiceTokenCache(): ServiceTokenCache {
 
 const TIMEOUT_MS = 10_000
 
-async function requestToken(ctx: AppContext, platform: LtiPlatformRow, scopes: string[]): Promise<CachedToken> {
+async function requestToken(
+  ctx: AppContext,
+  platform: LtiPlatformRow,
+  scopes: string[],
+): Promise<CachedToken> {
   const assertion = await signWithToolKey(
     ctx.dataSource,
     { iss: platform.clientId, sub: platform.clientId, aud: platform.tokenEndpoint },
@@ -83,7 +87,10 @@ async function requestToken(ctx: AppContext, platform: LtiPlatformRow, scopes: s
   }
   const parsed = tokenResponseSchema.safeParse(await response.json().catch(() => undefined))
   if (!parsed.success) throw new PlatformServiceError('The platform sent an unreadable access token.', true)
-  return { token: parsed.data.access_token, expiresAtMs: Date.now() + (parsed.data.expires_in ?? 3600) * 1000 }
+  return {
+    token: parsed.data.access_token,
+    expiresAtMs: Date.now() + (parsed.data.expires_in ?? 3600) * 1000,
+  }
 }
 
 /**

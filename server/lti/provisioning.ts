@@ -75,57 +75,61 @@ export async function accountFor(
   const ds = ctx.dataSource
   const passwordHash = await unusablePasswordHash(ctx)
   const name = displayName(person)
-  const sharedEmail = person.email && EMAIL_SHAPE.test(person.email) ? person.email.trim().toLowerCase() : undefined
-  const findOrCreate = () => ds.transaction(async (manager) => {
-    const identities = manager.getRepository(LtiIdentityEntity)
-    const users = manager.getRepository(UserEntity)
-    const identity = await identities.findOneBy({ issuer: platform.issuer, subject: person.subject })
-    const now = nowIso()
-    if (identity) {
-      const user = await users.findOneByOrFail({ id: identity.userId })
-      const changes: Partial<UserRow> = {}
-      if (name && name !== user.name) changes.name = name
-      if (sharedEmail && sharedEmail !== user.email && (await emailFree(manager, sharedEmail, user.id))) {
-        changes.email = sharedEmail
+  const sharedEmail =
+    person.email && EMAIL_SHAPE.test(person.email) ? person.email.trim().toLowerCase() : undefined
+  const findOrCreate = () =>
+    ds.transaction(async (manager) => {
+      const identities = manager.getRepository(LtiIdentityEntity)
+      const users = manager.getRepository(UserEntity)
+      const identity = await identities.findOneBy({ issuer: platform.issuer, subject: person.subject })
+      const now = nowIso()
+      if (identity) {
+        const user = await users.findOneByOrFail({ id: identity.userId })
+        const changes: Partial<UserRow> = {}
+        if (name && name !== user.name) changes.name = name
+        if (sharedEmail && sharedEmail !== user.email && (await emailFree(manager, sharedEmail, user.id))) {
+          changes.email = sharedEmail
+        }
+        if (user.role === 'apprentice' && person.role === 'instructor') changes.role = 'instructor'
+        if (Object.keys(changes).length) {
+          await users.update({ id: user.id }, { ...changes, updatedAt: now })
+          return { ...user, ...changes }
+        }
+        return user
       }
-      if (user.role === 'apprentice' && person.role === 'instructor') changes.role = 'instructor'
-      if (Object.keys(changes).length) {
-        await users.update({ id: user.id }, { ...changes, updatedAt: now })
-        return { ...user, ...changes }
+      const user: UserRow = {
+        id: randomUUID(),
+        email:
+          sharedEmail && (await emailFree(manager, sharedEmail))
+            ? sharedEmail
+            : placeholderEmail(platform.issuer, person.subject),
+        name: name ?? NAME_NOT_SHARED,
+        role: person.role,
+        passwordHash,
+        active: true,
+        tokenVersion: 0,
+        createdAt: now,
+        updatedAt: now,
+        lastSignInAt: null,
       }
+      await users.insert(user)
+      await identities.insert({
+        id: randomUUID(),
+        platformId: platform.id,
+        issuer: platform.issuer,
+        subject: person.subject,
+        userId: user.id,
+        createdAt: now,
+      })
       return user
-    }
-    const user: UserRow = {
-      id: randomUUID(),
-      email:
-        sharedEmail && (await emailFree(manager, sharedEmail))
-          ? sharedEmail
-          : placeholderEmail(platform.issuer, person.subject),
-      name: name ?? NAME_NOT_SHARED,
-      role: person.role,
-      passwordHash,
-      active: true,
-      tokenVersion: 0,
-      createdAt: now,
-      updatedAt: now,
-      lastSignInAt: null,
-    }
-    await users.insert(user)
-    await identities.insert({
-      id: randomUUID(),
-      platformId: platform.id,
-      issuer: platform.issuer,
-      subject: person.subject,
-      userId: user.id,
-      createdAt: now,
     })
-    return user
-  })
   try {
     return await findOrCreate()
   } catch (error) {
     // Two first launches of one person at once: the other created the account; this one finds it.
-    if (await ds.getRepository(LtiIdentityEntity).countBy({ issuer: platform.issuer, subject: person.subject })) {
+    if (
+      await ds.getRepository(LtiIdentityEntity).countBy({ issuer: platform.issuer, subject: person.subject })
+    ) {
       return findOrCreate()
     }
     throw error
@@ -163,7 +167,8 @@ export async function cohortForCourse(
   const existing = await contexts.findOneBy({ platformId: platform.id, contextId: course.contextId })
   if (existing) {
     const changes = { ...services, ...(title !== existing.title ? { title } : {}) }
-    if (Object.keys(changes).length) await contexts.update({ id: existing.id }, { ...changes, updatedAt: now })
+    if (Object.keys(changes).length)
+      await contexts.update({ id: existing.id }, { ...changes, updatedAt: now })
     const cohort = await findById(ds, CohortEntity, existing.cohortId)
     if (!cohort) throw new Error(`LTI context ${existing.id} names a missing cohort`)
     return { cohort, context: { ...existing, ...changes } }

@@ -2,12 +2,7 @@
 // deployments and the addresses Slipway calls; and the values a platform's administrator enters in return.
 import { randomUUID } from 'node:crypto'
 import { In } from 'typeorm'
-import type {
-  CreatePlatformRequest,
-  Platform,
-  ToolConfiguration,
-  UpdatePlatformRequest,
-} from '@shared/api/lti'
+import type { CreatePlatformRequest, Platform, ToolConfiguration } from '@shared/api/lti'
 import type { AppContext } from '../context'
 import {
   LtiContextEntity,
@@ -110,7 +105,12 @@ async function replaceDeployments(ctx: AppContext, platformId: string, deploymen
     const repo = manager.getRepository(LtiDeploymentEntity)
     await repo.delete({ platformId })
     await repo.insert(
-      deploymentIds.map((deploymentId) => ({ id: randomUUID(), platformId, deploymentId, createdAt: nowIso() })),
+      deploymentIds.map((deploymentId) => ({
+        id: randomUUID(),
+        platformId,
+        deploymentId,
+        createdAt: nowIso(),
+      })),
     )
   })
 }
@@ -137,7 +137,11 @@ export async function createPlatform(ctx: AppContext, body: CreatePlatform): Pro
 }
 
 /** The issuer is the platform's identity (people are matched by it): register a new platform to change it. */
-export async function updatePlatform(ctx: AppContext, id: string, changes: UpdatePlatform): Promise<Platform> {
+export async function updatePlatform(
+  ctx: AppContext,
+  id: string,
+  changes: UpdatePlatform,
+): Promise<Platform> {
   const row = await platformRow(ctx, id)
   const { deploymentIds, extraFrameOrigins, issuer: _issuer, ...fields } = changes
   if (fields.clientId && fields.clientId !== row.clientId) {

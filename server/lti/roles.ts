@@ -15,7 +15,8 @@ const TEACHING_INSTITUTION_ROLES = ['Faculty', 'Instructor', 'Administrator']
 function principal(uri: string): { vocabulary: 'context' | 'institution' | 'other'; name: string } {
   // LTI 1.1-style short names ("Instructor") are deprecated but still sent by some platforms (§A.2.4).
   if (!uri.includes('/')) return { vocabulary: 'context', name: uri }
-  if (uri.startsWith(`${MEMBERSHIP}#`)) return { vocabulary: 'context', name: uri.slice(MEMBERSHIP.length + 1) }
+  if (uri.startsWith(`${MEMBERSHIP}#`))
+    return { vocabulary: 'context', name: uri.slice(MEMBERSHIP.length + 1) }
   if (uri.startsWith(`${MEMBERSHIP}/`)) {
     // membership/Instructor#TeachingAssistant → Instructor
     return { vocabulary: 'context', name: uri.slice(MEMBERSHIP.length + 1).split('#')[0]! }

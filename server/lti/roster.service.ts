@@ -58,24 +58,40 @@ async function fetchMembers(
   const members: Member[] = []
   let next: string | undefined = url
   for (let page = 0; next && page < MAX_PAGES; page++) {
-    const response = await callPlatform(ctx, ltiRuntime(ctx).serviceTokens, platform, [SCOPE.memberships], next, {
-      headers: { accept: MEDIA.memberships },
-    })
+    const response = await callPlatform(
+      ctx,
+      ltiRuntime(ctx).serviceTokens,
+      platform,
+      [SCOPE.memberships],
+      next,
+      {
+        headers: { accept: MEDIA.memberships },
+      },
+    )
     if (!response.ok) throw serviceFailure('the request for the course roster', response)
     const parsed = membershipContainerSchema.safeParse(await response.json().catch(() => undefined))
-    if (!parsed.success) throw new PlatformServiceError('The platform sent a roster Slipway could not read.', true)
+    if (!parsed.success)
+      throw new PlatformServiceError('The platform sent a roster Slipway could not read.', true)
     members.push(...parsed.data.members)
     next = nextPageUrl(response.headers.get('link'))
   }
   return members
 }
 
-export async function pullRoster(ctx: AppContext, user: UserRow, cohortId: string): Promise<RosterPullResult> {
+export async function pullRoster(
+  ctx: AppContext,
+  user: UserRow,
+  cohortId: string,
+): Promise<RosterPullResult> {
   const ds = ctx.dataSource
   const cohort = await cohortFor(ds, user, cohortId, 'manage')
   const context = await ds.getRepository(LtiContextEntity).findOneBy({ cohortId: cohort.id })
   if (!context) {
-    throw new HttpError(409, 'lti_not_linked', 'This cohort is not linked to a course on a learning platform.')
+    throw new HttpError(
+      409,
+      'lti_not_linked',
+      'This cohort is not linked to a course on a learning platform.',
+    )
   }
   if (!context.membershipsUrl) {
     throw new HttpError(
@@ -138,6 +154,8 @@ export async function pullRoster(ctx: AppContext, user: UserRow, cohortId: strin
       result.notInCourse = people.map((p) => ({ userId: p.id, name: p.name }))
     }
   }
-  await ds.getRepository(LtiContextEntity).update({ id: context.id }, { lastRosterPullAt: nowIso(), updatedAt: nowIso() })
+  await ds
+    .getRepository(LtiContextEntity)
+    .update({ id: context.id }, { lastRosterPullAt: nowIso(), updatedAt: nowIso() })
   return result
 }

@@ -11,7 +11,10 @@ export interface ScorePost {
 export type ScorePostOutcome = 'done' | 'retry'
 
 /** Sends one post; told which try this is and whether it is the last one allowed. */
-export type ScorePostHandler = (post: ScorePost, attempt: { number: number; last: boolean }) => Promise<ScorePostOutcome>
+export type ScorePostHandler = (
+  post: ScorePost,
+  attempt: { number: number; last: boolean },
+) => Promise<ScorePostOutcome>
 
 export interface ScorePostQueue {
   /** Schedules a post; a post already waiting for the same assignment and apprentice is not doubled. */

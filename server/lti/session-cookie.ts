@@ -13,7 +13,11 @@ const LOGIN_BINDING_PATH = '/api/lti/launch'
 const crossSite = { httpOnly: true, secure: true, sameSite: 'none' as const, partitioned: true }
 
 export function setBindingCookie(res: Response, binding: { name: string; value: string; maxAgeMs: number }) {
-  res.cookie(binding.name, binding.value, { ...crossSite, path: LOGIN_BINDING_PATH, maxAge: binding.maxAgeMs })
+  res.cookie(binding.name, binding.value, {
+    ...crossSite,
+    path: LOGIN_BINDING_PATH,
+    maxAge: binding.maxAgeMs,
+  })
 }
 
 export function clearBindingCookie(res: Response, name: string) {

@@ -99,7 +99,14 @@ const TABLES = [
   }),
   new Table({
     name: 'lti_identities',
-    columns: [id, uuid('platformId'), str('issuer', 500), str('subject', 255), uuid('userId'), ts('createdAt')],
+    columns: [
+      id,
+      uuid('platformId'),
+      str('issuer', 500),
+      str('subject', 255),
+      uuid('userId'),
+      ts('createdAt'),
+    ],
     uniques: [unique('uq_lti_identities_issuer_subject', 'issuer', 'subject')],
     indices: [index('idx_lti_identities_user', 'userId')],
     foreignKeys: [fk('platformId', 'lti_platforms', 'RESTRICT'), fk('userId', 'users', 'CASCADE')],
@@ -138,7 +145,10 @@ const TABLES = [
     ],
     uniques: [unique('uq_lti_resource_links_context_link', 'contextRowId', 'resourceLinkId')],
     indices: [index('idx_lti_resource_links_assignment', 'assignmentId')],
-    foreignKeys: [fk('contextRowId', 'lti_contexts', 'CASCADE'), fk('assignmentId', 'assignments', 'CASCADE')],
+    foreignKeys: [
+      fk('contextRowId', 'lti_contexts', 'CASCADE'),
+      fk('assignmentId', 'assignments', 'CASCADE'),
+    ],
   }),
   new Table({
     name: 'lti_deep_link_requests',

@@ -9,9 +9,12 @@ import { idSchema, isoDateTimeSchema } from './common'
 const httpsOrLocalUrl = z
   .url({ error: 'Must be a web address such as https://learn.example.edu/…' })
   .max(500, { error: 'At most 500 characters' })
-  .refine((value) => /^https:\/\//i.test(value) || /^http:\/\/(localhost|127\.0\.0\.1)(:\d+)?(\/|$)/i.test(value), {
-    error: 'Must start with https:// (plain http:// only for a platform on this machine)',
-  })
+  .refine(
+    (value) => /^https:\/\//i.test(value) || /^http:\/\/(localhost|127\.0\.0\.1)(:\d+)?(\/|$)/i.test(value),
+    {
+      error: 'Must start with https:// (plain http:// only for a platform on this machine)',
+    },
+  )
 
 /** The origin of a platform page that shows Slipway in a frame, e.g. https://learn.example.edu */
 const originSchema = httpsOrLocalUrl.transform((value) => new URL(value).origin)

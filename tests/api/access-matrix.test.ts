@@ -283,7 +283,12 @@ const ROUTES: Route[] = [
   { method: 'post', path: () => '/api/lti/login', body: () => ({}), expect: everyone(400) },
   { method: 'post', path: () => '/api/lti/launch', body: () => ({}), expect: everyone(400) },
   { method: 'get', path: () => `/api/lti/deep-linking/return/${FAKE_TOKEN}`, expect: everyone(404) },
-  { method: 'post', path: () => '/api/lti/session', body: () => ({ code: FAKE_TOKEN }), expect: everyone(400) },
+  {
+    method: 'post',
+    path: () => '/api/lti/session',
+    body: () => ({ code: FAKE_TOKEN }),
+    expect: everyone(400),
+  },
   { method: 'post', path: () => '/api/lti/session/refresh', expect: everyone(401) },
   { method: 'post', path: () => '/api/lti/session/sign-out', expect: everyone(204) },
   // LTI: admins register platforms and keep Slipway's keys
@@ -314,7 +319,11 @@ const ROUTES: Route[] = [
     expect: staffOnly(404),
   },
   { method: 'get', path: (w) => `/api/lti/cohorts/${w.cohortA.id}`, expect: ownCohortStaff(200) },
-  { method: 'post', path: (w) => `/api/lti/cohorts/${w.cohortA.id}/roster-pull`, expect: ownCohortStaff(409) },
+  {
+    method: 'post',
+    path: (w) => `/api/lti/cohorts/${w.cohortA.id}/roster-pull`,
+    expect: ownCohortStaff(409),
+  },
   { method: 'get', path: (w) => `/api/lti/cohorts/${w.cohortA.id}/score-sync`, expect: ownCohortStaff(200) },
   {
     method: 'post',

@@ -37,8 +37,18 @@ describe('LTI 1.3 launch', () => {
     admin = await api.createUser('admin')
     platform = await startFakePlatform(api)
     await registerPlatform(api, admin, platform)
-    platform.addPerson({ sub: 'inst-1', name: 'Tamsin Rook', email: 'tamsin.rook@harbour.example', roles: [ROLE.instructor] })
-    platform.addPerson({ sub: 'learner-1', name: 'Pell Ardent', email: 'pell.ardent@harbour.example', roles: [ROLE.learner] })
+    platform.addPerson({
+      sub: 'inst-1',
+      name: 'Tamsin Rook',
+      email: 'tamsin.rook@harbour.example',
+      roles: [ROLE.instructor],
+    })
+    platform.addPerson({
+      sub: 'learner-1',
+      name: 'Pell Ardent',
+      email: 'pell.ardent@harbour.example',
+      roles: [ROLE.learner],
+    })
     platform.addPerson({ sub: 'learner-2', roles: [ROLE.learner] }) // shares neither name nor e-mail
   })
   afterAll(async () => {
@@ -56,12 +66,22 @@ describe('LTI 1.3 launch', () => {
 
     it('creates the instructor (by issuer and subject) and a cohort for the course, and opens the cohort', async () => {
       const { session, setCookie } = await launchSession(api, platform, { person: 'inst-1' })
-      expect(session.user).toMatchObject({ name: 'Tamsin Rook', email: 'tamsin.rook@harbour.example', role: 'instructor' })
+      expect(session.user).toMatchObject({
+        name: 'Tamsin Rook',
+        email: 'tamsin.rook@harbour.example',
+        role: 'instructor',
+      })
       expect(session.destination.kind).toBe('cohort')
-      const identity = await api.dataSource.getRepository(LtiIdentityEntity).findOneByOrFail({ subject: 'inst-1' })
+      const identity = await api.dataSource
+        .getRepository(LtiIdentityEntity)
+        .findOneByOrFail({ subject: 'inst-1' })
       expect(identity).toMatchObject({ issuer: platform.issuer, userId: session.user.id })
-      const context = await api.dataSource.getRepository(LtiContextEntity).findOneByOrFail({ contextId: platform.contextId })
-      const cohort = await api.dataSource.getRepository(CohortEntity).findOneByOrFail({ id: context.cohortId })
+      const context = await api.dataSource
+        .getRepository(LtiContextEntity)
+        .findOneByOrFail({ contextId: platform.contextId })
+      const cohort = await api.dataSource
+        .getRepository(CohortEntity)
+        .findOneByOrFail({ id: context.cohortId })
       expect(cohort).toMatchObject({ name: platform.contextTitle, ownerId: session.user.id })
       expect(context.membershipsUrl).toBe(platform.membershipsUrl())
       // The framed session's refresh cookie: partitioned, cross-site, HTTP only, only for its own route.
@@ -88,8 +108,14 @@ describe('LTI 1.3 launch', () => {
       expect(session.user.role).toBe('apprentice')
       // No exercise is linked to this activity yet.
       expect(session.destination.kind).toBe('notReady')
-      const context = await api.dataSource.getRepository(LtiContextEntity).findOneByOrFail({ contextId: platform.contextId })
-      expect(await api.dataSource.getRepository(EnrollmentEntity).countBy({ cohortId: context.cohortId, userId: session.user.id })).toBe(1)
+      const context = await api.dataSource
+        .getRepository(LtiContextEntity)
+        .findOneByOrFail({ contextId: platform.contextId })
+      expect(
+        await api.dataSource
+          .getRepository(EnrollmentEntity)
+          .countBy({ cohortId: context.cohortId, userId: session.user.id }),
+      ).toBe(1)
     })
 
     it('gives a person who shares no name or address a readable name and an address mail never goes to', async () => {
@@ -112,7 +138,9 @@ describe('LTI 1.3 launch', () => {
       expect(refreshed.status).toBe(200)
       expect(refreshed.body.accessToken).toEqual(expect.any(String))
       const next = ([] as string[]).concat(refreshed.headers['set-cookie'] ?? [])[0]!.split(';')[0]!
-      expect((await supertest(api.app).post('/api/lti/session/sign-out').set('Cookie', next)).status).toBe(204)
+      expect((await supertest(api.app).post('/api/lti/session/sign-out').set('Cookie', next)).status).toBe(
+        204,
+      )
       expect((await supertest(api.app).post('/api/lti/session/refresh').set('Cookie', next)).status).toBe(401)
     })
 
@@ -160,7 +188,12 @@ describe('LTI 1.3 launch', () => {
     it('a deployment that is not registered', async () => {
       const response = await supertest(api.app)
         .get('/api/lti/login')
-        .query({ iss: platform.issuer, login_hint: 'x', target_link_uri: LAUNCH_URL, lti_deployment_id: 'other' })
+        .query({
+          iss: platform.issuer,
+          login_hint: 'x',
+          target_link_uri: LAUNCH_URL,
+          lti_deployment_id: 'other',
+        })
       expect(response.headers[REFUSAL]).toBe('unknown_deployment')
     })
 
@@ -203,7 +236,9 @@ describe('LTI 1.3 launch', () => {
 
     it('a wrong signature (a key the platform never published, under its current key id)', async () => {
       const forger = await platform.unpublishedKey()
-      await refusedWith('wrong_signature', same, (c) => platform.sign(c, { key: forger, kid: platform.currentKid }))
+      await refusedWith('wrong_signature', same, (c) =>
+        platform.sign(c, { key: forger, kid: platform.currentKid }),
+      )
     })
 
     it('an unknown key id, after fetching the key set once more', async () => {
@@ -249,7 +284,9 @@ describe('LTI 1.3 launch', () => {
     it('a replayed message under a fresh login (its nonce answers another sign-in)', async () => {
       const first = await startLogin(api, platform)
       const idToken = await platform.sign({ ...platform.launchClaims(person), nonce: first.nonce })
-      expect((await postLaunch(api, { id_token: idToken, state: first.state }, first.cookie)).status).toBe(303)
+      expect((await postLaunch(api, { id_token: idToken, state: first.state }, first.cookie)).status).toBe(
+        303,
+      )
       const second = await startLogin(api, platform)
       const replay = await postLaunch(api, { id_token: idToken, state: second.state }, second.cookie)
       expect(replay.headers[REFUSAL]).toBe('nonce_mismatch')
@@ -310,7 +347,10 @@ describe('LTI 1.3 launch', () => {
     })
 
     it('another LTI version', async () => {
-      await refusedWith('wrong_version', (c) => ({ ...c, 'https://purl.imsglobal.org/spec/lti/claim/version': '1.1.0' }))
+      await refusedWith('wrong_version', (c) => ({
+        ...c,
+        'https://purl.imsglobal.org/spec/lti/claim/version': '1.1.0',
+      }))
     })
 
     it('a message that is not a signed token at all', async () => {
@@ -323,7 +363,10 @@ describe('LTI 1.3 launch', () => {
       const login = await startLogin(api, platform)
       await api.dataSource
         .getRepository(LtiLoginEntity)
-        .update({ stateHash: hashToken(login.state) }, { expiresAt: new Date(Date.now() - 1000).toISOString() })
+        .update(
+          { stateHash: hashToken(login.state) },
+          { expiresAt: new Date(Date.now() - 1000).toISOString() },
+        )
       const idToken = await platform.sign({ ...platform.launchClaims(person), nonce: login.nonce })
       const response = await postLaunch(api, { id_token: idToken, state: login.state }, login.cookie)
       expect(response.headers[REFUSAL]).toBe('state_expired')

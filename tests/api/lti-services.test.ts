@@ -12,7 +12,9 @@ import { ROLE, type FakeLtiPlatform } from '../support/fake-lti-platform'
 import { launchSession, registerPlatform, startFakePlatform } from '../support/lti-harness'
 import { EMPTY_LOG, expectStatus, submit } from '../support/world'
 
-const reference = JSON.parse(readFileSync('tests/fixtures/attempts/two-wire-run-stop--reference.json', 'utf8'))
+const reference = JSON.parse(
+  readFileSync('tests/fixtures/attempts/two-wire-run-stop--reference.json', 'utf8'),
+)
 const DL = 'https://purl.imsglobal.org/spec/lti-dl/claim/'
 
 describe('LTI Advantage services', () => {
@@ -31,8 +33,18 @@ describe('LTI Advantage services', () => {
     admin = await api.createUser('admin')
     platform = await startFakePlatform(api)
     platformId = (await registerPlatform(api, admin, platform)).id
-    platform.addPerson({ sub: 'inst-1', name: 'Tamsin Rook', email: 'tamsin.rook@harbour.example', roles: [ROLE.instructor] })
-    platform.addPerson({ sub: 'learner-1', name: 'Pell Ardent', email: 'pell.ardent@harbour.example', roles: [ROLE.learner] })
+    platform.addPerson({
+      sub: 'inst-1',
+      name: 'Tamsin Rook',
+      email: 'tamsin.rook@harbour.example',
+      roles: [ROLE.instructor],
+    })
+    platform.addPerson({
+      sub: 'learner-1',
+      name: 'Pell Ardent',
+      email: 'pell.ardent@harbour.example',
+      roles: [ROLE.learner],
+    })
   })
   afterAll(async () => {
     await platform?.stop()
@@ -45,7 +57,11 @@ describe('LTI Advantage services', () => {
     it('lists the platform with its deployments and the values its administrator enters', async () => {
       const list = await expectStatus(admins().get('/api/lti/platforms').set(bearer(admin.token)), 200)
       expect(list.body.items).toEqual([
-        expect.objectContaining({ issuer: platform.issuer, clientId: platform.clientId, deploymentIds: ['deployment-1'] }),
+        expect.objectContaining({
+          issuer: platform.issuer,
+          clientId: platform.clientId,
+          deploymentIds: ['deployment-1'],
+        }),
       ])
       const tool = await expectStatus(admins().get('/api/lti/tool').set(bearer(admin.token)), 200)
       expect(tool.body).toMatchObject({
@@ -59,7 +75,10 @@ describe('LTI Advantage services', () => {
     })
 
     it('refuses a second registration of the same issuer and client id, and a plain-http remote issuer', async () => {
-      const again = await admins().post('/api/lti/platforms').set(bearer(admin.token)).send(platform.registration)
+      const again = await admins()
+        .post('/api/lti/platforms')
+        .set(bearer(admin.token))
+        .send(platform.registration)
       expect(again.status).toBe(409)
       const insecure = await admins()
         .post('/api/lti/platforms')
@@ -71,18 +90,30 @@ describe('LTI Advantage services', () => {
 
     it('rotates its key: a new current key, the previous one still published', async () => {
       const before = (await admins().get('/api/lti/jwks')).body.keys as { kid: string }[]
-      const rotated = await expectStatus(admins().post('/api/lti/tool/keys/rotate').set(bearer(admin.token)), 200)
+      const rotated = await expectStatus(
+        admins().post('/api/lti/tool/keys/rotate').set(bearer(admin.token)),
+        200,
+      )
       const current = rotated.body.keys.find((k: { state: string }) => k.state === 'current')
       expect(before.map((k) => k.kid)).not.toContain(current.kid)
-      const after = (await admins().get('/api/lti/jwks')).body.keys as { kid: string; n: string; d?: string }[]
-      expect(after.map((k) => k.kid)).toEqual(expect.arrayContaining([current.kid, ...before.map((k) => k.kid)]))
+      const after = (await admins().get('/api/lti/jwks')).body.keys as {
+        kid: string
+        n: string
+        d?: string
+      }[]
+      expect(after.map((k) => k.kid)).toEqual(
+        expect.arrayContaining([current.kid, ...before.map((k) => k.kid)]),
+      )
       expect(after.every((k) => k.d === undefined)).toBe(true) // public parts only
     })
   })
 
   describe('deep linking', () => {
     it('lets the instructor pick a scenario, and the platform receives a signed resource link for it', async () => {
-      const { session } = await launchSession(api, platform, { person: 'inst-1', messageType: 'LtiDeepLinkingRequest' })
+      const { session } = await launchSession(api, platform, {
+        person: 'inst-1',
+        messageType: 'LtiDeepLinkingRequest',
+      })
       instructorToken = session.accessToken
       expect(session.destination.kind).toBe('deepLinking')
       const requestId = (session.destination as { requestId: string }).requestId
@@ -92,7 +123,8 @@ describe('LTI Advantage services', () => {
       )
       cohortId = request.body.cohortId
       expect(request.body.courseTitle).toBe(platform.contextTitle)
-      const scenario = (await admins().get('/api/scenarios/two-wire-run-stop').set(bearer(instructorToken))).body
+      const scenario = (await admins().get('/api/scenarios/two-wire-run-stop').set(bearer(instructorToken)))
+        .body
       const answer = await expectStatus(
         admins()
           .post(`/api/lti/deep-linking/${requestId}`)
@@ -116,7 +148,10 @@ describe('LTI Advantage services', () => {
       expect(action).toBe(`${platform.url}/deep-link-return`)
       const jwt = /name="JWT" value="([^"]+)"/.exec(page.text)![1]!
       // The page posts it; here the test does, and the platform verifies it against Slipway's key set.
-      await expectStatus(supertest(platform.url).post('/deep-link-return').type('form').send({ JWT: jwt }), 200)
+      await expectStatus(
+        supertest(platform.url).post('/deep-link-return').type('form').send({ JWT: jwt }),
+        200,
+      )
       const received = platform.deepLinkAnswers[0]!
       expect(received).toMatchObject({
         iss: platform.clientId,
@@ -156,7 +191,9 @@ describe('LTI Advantage services', () => {
         scenarioKey: 'two-wire-run-stop',
         scenarioVersion: 1,
       })
-      const link = await api.dataSource.getRepository(LtiResourceLinkEntity).findOneByOrFail({ resourceLinkId: 'activity-7' })
+      const link = await api.dataSource
+        .getRepository(LtiResourceLinkEntity)
+        .findOneByOrFail({ resourceLinkId: 'activity-7' })
       expect(link).toMatchObject({ assignmentId, lineItemUrl: lineItem })
     })
 
@@ -172,11 +209,15 @@ describe('LTI Advantage services', () => {
 
   describe('grades back', () => {
     const syncs = async () =>
-      (await admins().get(`/api/lti/cohorts/${cohortId}/score-sync`).set(bearer(instructorToken))).body as ScoreSyncList
+      (await admins().get(`/api/lti/cohorts/${cohortId}/score-sync`).set(bearer(instructorToken)))
+        .body as ScoreSyncList
     const cellOf = async () => (await syncs()).cells.find((c) => c.userId === learnerId)
 
     it('posts the grade of a submitted attempt to the activity’s line item', async () => {
-      const graded = await expectStatus(submit(api, { token: learnerToken } as TestUser, { assignmentId, events: reference.events }), 201)
+      const graded = await expectStatus(
+        submit(api, { token: learnerToken } as TestUser, { assignmentId, events: reference.events }),
+        201,
+      )
       const score = graded.body.grade.score as number
       await expect.poll(() => platform.scores.length, { timeout: 10_000 }).toBe(1)
       expect(platform.scores[0]).toMatchObject({
@@ -193,7 +234,10 @@ describe('LTI Advantage services', () => {
 
     it('keeps the best score when a worse attempt follows (the assignment counts the best)', async () => {
       const best = platform.scores.at(-1)!.scoreGiven
-      await expectStatus(submit(api, { token: learnerToken } as TestUser, { assignmentId, events: EMPTY_LOG }), 201)
+      await expectStatus(
+        submit(api, { token: learnerToken } as TestUser, { assignmentId, events: EMPTY_LOG }),
+        201,
+      )
       await expect.poll(() => platform.scores.length, { timeout: 10_000 }).toBe(2)
       expect(platform.scores[1]!.scoreGiven).toBe(best)
       expect(platform.scores[1]!.timestamp > platform.scores[0]!.timestamp).toBe(true)
@@ -201,10 +245,15 @@ describe('LTI Advantage services', () => {
 
     it('sends the latest score once the assignment counts the latest, and follows an override', async () => {
       await expectStatus(
-        admins().patch(`/api/assignments/${assignmentId}`).set(bearer(instructorToken)).send({ scorePolicy: 'latest' }),
+        admins()
+          .patch(`/api/assignments/${assignmentId}`)
+          .set(bearer(instructorToken))
+          .send({ scorePolicy: 'latest' }),
         200,
       )
-      const attempts = (await admins().get('/api/attempts').query({ assignmentId }).set(bearer(instructorToken))).body.items
+      const attempts = (
+        await admins().get('/api/attempts').query({ assignmentId }).set(bearer(instructorToken))
+      ).body.items
       const latest = attempts.find((a: { grade: { score: number } }) => a.grade.score < 50) ?? attempts[0]
       await expectStatus(
         admins()
@@ -219,7 +268,9 @@ describe('LTI Advantage services', () => {
 
     it('tries again when the platform is briefly unavailable', async () => {
       platform.failNextScores = 1
-      const attempts = (await admins().get('/api/attempts').query({ assignmentId }).set(bearer(instructorToken))).body.items
+      const attempts = (
+        await admins().get('/api/attempts').query({ assignmentId }).set(bearer(instructorToken))
+      ).body.items
       const sent = platform.scores.length
       await expectStatus(
         admins()
@@ -245,7 +296,9 @@ describe('LTI Advantage services', () => {
       )
       await expectStatus(submit(api, local, { assignmentId, events: EMPTY_LOG }), 201)
       await expect
-        .poll(async () => (await syncs()).cells.find((c) => c.userId === local.user.id)?.state, { timeout: 10_000 })
+        .poll(async () => (await syncs()).cells.find((c) => c.userId === local.user.id)?.state, {
+          timeout: 10_000,
+        })
         .toBe('failed')
       const cell = (await syncs()).cells.find((c) => c.userId === local.user.id)!
       expect(cell.problem).toMatch(/has not come in from Harbour Learning/)
@@ -253,17 +306,30 @@ describe('LTI Advantage services', () => {
 
     it('changes nothing for an assignment no platform links (standalone Slipway)', async () => {
       const other = await api.createUser('instructor')
-      const cohort = (await admins().post('/api/cohorts').set(bearer(other.token)).send({ name: 'Standalone cohort' })).body
-      const list = await expectStatus(admins().get(`/api/lti/cohorts/${cohort.id}/score-sync`).set(bearer(other.token)), 200)
+      const cohort = (
+        await admins().post('/api/cohorts').set(bearer(other.token)).send({ name: 'Standalone cohort' })
+      ).body
+      const list = await expectStatus(
+        admins().get(`/api/lti/cohorts/${cohort.id}/score-sync`).set(bearer(other.token)),
+        200,
+      )
       expect(list.body).toEqual({ linkedAssignmentIds: [], cells: [] })
-      const link = await expectStatus(admins().get(`/api/lti/cohorts/${cohort.id}`).set(bearer(other.token)), 200)
+      const link = await expectStatus(
+        admins().get(`/api/lti/cohorts/${cohort.id}`).set(bearer(other.token)),
+        200,
+      )
       expect(link.body).toMatchObject({ linked: false, canPullRoster: false })
     })
   })
 
   describe('rosters in', () => {
     it('enrols the course’s active learners, counts staff and inactive members, and names those no longer listed', async () => {
-      platform.addPerson({ sub: 'learner-3', name: 'Wren Holloway', email: 'wren.holloway@harbour.example', roles: [ROLE.learner] })
+      platform.addPerson({
+        sub: 'learner-3',
+        name: 'Wren Holloway',
+        email: 'wren.holloway@harbour.example',
+        roles: [ROLE.learner],
+      })
       platform.addPerson({ sub: 'learner-4', name: 'Ossian Brack', roles: [ROLE.learner] })
       platform.addPerson({ sub: 'learner-5', name: 'Left Early', roles: [ROLE.learner], status: 'Inactive' })
       const pulled = await expectStatus(
@@ -272,7 +338,8 @@ describe('LTI Advantage services', () => {
       )
       expect(pulled.body).toMatchObject({ enrolled: 2, alreadyEnrolled: 1, staff: 1, inactive: 1 })
       expect(pulled.body.notInCourse.map((p: { name: string }) => p.name)).toEqual(['Orrin Vale'])
-      const members = (await admins().get(`/api/cohorts/${cohortId}/members`).set(bearer(instructorToken))).body
+      const members = (await admins().get(`/api/cohorts/${cohortId}/members`).set(bearer(instructorToken)))
+        .body
       const names = (members.items ?? members).map((m: { name: string }) => m.name)
       expect(names).toEqual(expect.arrayContaining(['Pell Ardent', 'Wren Holloway', 'Ossian Brack']))
       // The platform was asked with the roster scope only.
@@ -280,8 +347,15 @@ describe('LTI Advantage services', () => {
         scope: 'https://purl.imsglobal.org/spec/lti-nrps/scope/contextmembership.readonly',
         ok: true,
       })
-      const link = await expectStatus(admins().get(`/api/lti/cohorts/${cohortId}`).set(bearer(instructorToken)), 200)
-      expect(link.body).toMatchObject({ linked: true, platformName: 'Harbour Learning (test platform)', canPullRoster: true })
+      const link = await expectStatus(
+        admins().get(`/api/lti/cohorts/${cohortId}`).set(bearer(instructorToken)),
+        200,
+      )
+      expect(link.body).toMatchObject({
+        linked: true,
+        platformName: 'Harbour Learning (test platform)',
+        canPullRoster: true,
+      })
       expect(link.body.lastRosterPullAt).toEqual(expect.any(String))
     })
 

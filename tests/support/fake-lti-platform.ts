@@ -173,7 +173,10 @@ export class FakeLtiPlatform {
         data: 'opaque-platform-data-42',
       }
     } else {
-      claims[`${LTI}resource_link`] = { id: spec.resourceLinkId ?? 'activity-1', title: 'Commissioning exercise' }
+      claims[`${LTI}resource_link`] = {
+        id: spec.resourceLinkId ?? 'activity-1',
+        title: 'Commissioning exercise',
+      }
       if (spec.custom) claims[`${LTI}custom`] = spec.custom
     }
     return claims
@@ -214,7 +217,12 @@ export class FakeLtiPlatform {
 
     // A course page showing an activity: the iframe starts Slipway's login (third-party initiated login).
     app.get('/course', (req, res) => {
-      const spec = { person: String(req.query.person), resourceLinkId: String(req.query.link ?? 'activity-1'), custom: req.query.assignment ? { slipway_assignment_id: String(req.query.assignment) } : undefined, messageType: req.query.deepLink ? 'LtiDeepLinkingRequest' : undefined }
+      const spec = {
+        person: String(req.query.person),
+        resourceLinkId: String(req.query.link ?? 'activity-1'),
+        custom: req.query.assignment ? { slipway_assignment_id: String(req.query.assignment) } : undefined,
+        messageType: req.query.deepLink ? 'LtiDeepLinkingRequest' : undefined,
+      }
       const login = new URL(`${this.options.toolUrl}/api/lti/login`)
       login.searchParams.set('iss', this.issuer)
       login.searchParams.set('login_hint', spec.person)
@@ -222,7 +230,8 @@ export class FakeLtiPlatform {
       login.searchParams.set('lti_message_hint', Buffer.from(JSON.stringify(spec)).toString('base64url'))
       login.searchParams.set('client_id', this.clientId)
       login.searchParams.set('lti_deployment_id', this.deploymentId)
-      res.type('html').send(`<!doctype html><html><head><meta name="viewport" content="width=device-width,initial-scale=1">
+      res.type('html')
+        .send(`<!doctype html><html><head><meta name="viewport" content="width=device-width,initial-scale=1">
 <title>Harbour Learning — ${this.contextTitle}</title><style>body{margin:0;font-family:sans-serif;background:#eef1ee}
 header{background:#2d4a3e;color:#fff;padding:.6rem 1rem;font-size:1rem}iframe{display:block;border:0;width:100%;height:calc(100vh - 2.6rem)}</style></head>
 <body><header>Harbour Learning · ${this.contextTitle}</header>
@@ -232,12 +241,23 @@ header{background:#2d4a3e;color:#fff;padding:.6rem 1rem;font-size:1rem}iframe{di
     // OIDC authorisation endpoint: answers with the launch as an auto-submitted form (response_mode=form_post).
     app.get('/auth', async (req, res) => {
       const q = req.query as Record<string, string>
-      const spec = JSON.parse(Buffer.from(q.lti_message_hint ?? '', 'base64url').toString() || '{}') as FakeLaunchSpec
-      if (q.client_id !== this.clientId || !q.redirect_uri || !q.state || !q.nonce || q.response_mode !== 'form_post') {
+      const spec = JSON.parse(
+        Buffer.from(q.lti_message_hint ?? '', 'base64url').toString() || '{}',
+      ) as FakeLaunchSpec
+      if (
+        q.client_id !== this.clientId ||
+        !q.redirect_uri ||
+        !q.state ||
+        !q.nonce ||
+        q.response_mode !== 'form_post'
+      ) {
         res.status(400).send('bad authorisation request')
         return
       }
-      const idToken = await this.sign({ ...this.launchClaims({ ...spec, lineItem: this.lineItemFor(spec) }), nonce: q.nonce })
+      const idToken = await this.sign({
+        ...this.launchClaims({ ...spec, lineItem: this.lineItemFor(spec) }),
+        nonce: q.nonce,
+      })
       res.type('html').send(`<!doctype html><html><body><form id="f" method="post" action="${q.redirect_uri}">
 <input type="hidden" name="id_token" value="${idToken}"><input type="hidden" name="state" value="${q.state}"></form>
 <script>document.getElementById('f').submit()</script></body></html>`)
@@ -247,7 +267,9 @@ header{background:#2d4a3e;color:#fff;padding:.6rem 1rem;font-size:1rem}iframe{di
       try {
         const payload = await this.verifyToolJwt(String(req.body.JWT), this.issuer)
         this.deepLinkAnswers.push(payload)
-        res.type('html').send('<!doctype html><html><body><h1>Activity added to the course</h1></body></html>')
+        res
+          .type('html')
+          .send('<!doctype html><html><body><h1>Activity added to the course</h1></body></html>')
       } catch (error) {
         res.status(400).send(`deep-linking answer refused: ${(error as Error).message}`)
       }
@@ -263,7 +285,10 @@ header{background:#2d4a3e;color:#fff;padding:.6rem 1rem;font-size:1rem}iframe{di
         const claims = await this.verifyToolJwt(body.client_assertion ?? '', `${this.url}/token`)
         if (claims.iss !== this.clientId || claims.sub !== this.clientId) throw new Error('iss/sub')
         const allowed = new Set(Object.values(SCOPES))
-        const scope = (body.scope ?? '').split(' ').filter((s) => allowed.has(s)).join(' ')
+        const scope = (body.scope ?? '')
+          .split(' ')
+          .filter((s) => allowed.has(s))
+          .join(' ')
         const token = randomUUID()
         this.issuedTokens.set(token, scope)
         this.tokenRequests.push({ scope, ok: true })
@@ -276,31 +301,39 @@ header{background:#2d4a3e;color:#fff;padding:.6rem 1rem;font-size:1rem}iframe{di
 
     const courseUrl = `/courses/${this.contextId}`
     app.get(`${courseUrl}/lineitems`, (req, res) => {
-      if (!this.bearerScope(req.headers.authorization)?.includes(SCOPES.lineItem)) return void res.status(401).end()
+      if (!this.bearerScope(req.headers.authorization)?.includes(SCOPES.lineItem))
+        return void res.status(401).end()
       const link = req.query.resource_link_id
       res
         .type('application/vnd.ims.lis.v2.lineitemcontainer+json')
         .send([...this.lineItems.values()].filter((item) => !link || item.resourceLinkId === link))
     })
     app.post(`${courseUrl}/lineitems`, (req, res) => {
-      if (!this.bearerScope(req.headers.authorization)?.includes(SCOPES.lineItem)) return void res.status(401).end()
+      if (!this.bearerScope(req.headers.authorization)?.includes(SCOPES.lineItem))
+        return void res.status(401).end()
       const id = `${this.url}${courseUrl}/lineitems/${randomUUID()}`
       const item = { ...(req.body as Record<string, unknown>), id }
       this.lineItems.set(id, item)
       res.status(201).type('application/vnd.ims.lis.v2.lineitem+json').send(item)
     })
     app.post(`${courseUrl}/lineitems/:item/scores`, (req, res) => {
-      if (!this.bearerScope(req.headers.authorization)?.includes(SCOPES.score)) return void res.status(401).end()
-      if (req.headers['content-type'] !== 'application/vnd.ims.lis.v1.score+json') return void res.status(415).end()
+      if (!this.bearerScope(req.headers.authorization)?.includes(SCOPES.score))
+        return void res.status(401).end()
+      if (req.headers['content-type'] !== 'application/vnd.ims.lis.v1.score+json')
+        return void res.status(415).end()
       if (this.failNextScores > 0) {
         this.failNextScores--
         return void res.status(503).end()
       }
-      this.scores.push({ lineItemId: `${this.url}${courseUrl}/lineitems/${req.params.item}`, ...(req.body as Omit<RecordedScore, 'lineItemId'>) })
+      this.scores.push({
+        lineItemId: `${this.url}${courseUrl}/lineitems/${req.params.item}`,
+        ...(req.body as Omit<RecordedScore, 'lineItemId'>),
+      })
       res.status(204).end()
     })
     app.get(`${courseUrl}/memberships`, (req, res) => {
-      if (!this.bearerScope(req.headers.authorization)?.includes(SCOPES.memberships)) return void res.status(401).end()
+      if (!this.bearerScope(req.headers.authorization)?.includes(SCOPES.memberships))
+        return void res.status(401).end()
       // Two members a page, so Slipway has to follow the Link header (NRPS 2.0 §2.4.2).
       const all = [...this.people.values()]
       const page = Number(req.query.page ?? 1)
@@ -311,7 +344,8 @@ header{background:#2d4a3e;color:#fff;padding:.6rem 1rem;font-size:1rem}iframe{di
         ...(p.name ? { name: p.name } : {}),
         ...(p.email ? { email: p.email } : {}),
       }))
-      if (page * 2 < all.length) res.setHeader('Link', `<${this.membershipsUrl()}?page=${page + 1}>; rel="next"`)
+      if (page * 2 < all.length)
+        res.setHeader('Link', `<${this.membershipsUrl()}?page=${page + 1}>; rel="next"`)
       res.type('application/vnd.ims.lti-nrps.v2.membershipcontainer+json').send({
         id: this.membershipsUrl(),
         context: { id: this.contextId, title: this.contextTitle },
@@ -329,8 +363,7 @@ header{background:#2d4a3e;color:#fff;padding:.6rem 1rem;font-size:1rem}iframe{di
   /** The line item a launch names: the one made for its activity, if any. */
   private lineItemFor(spec: FakeLaunchSpec): string | undefined {
     return [...this.lineItems.values()].find((item) => item.resourceLinkId === spec.resourceLinkId)?.id as
-      | string
-      | undefined
+      string | undefined
   }
 
   /** Makes the line item a platform creates from a deep-linking answer's lineItem, for an activity. */

@@ -18,7 +18,11 @@ export async function startFakePlatform(api: TestApi): Promise<FakeLtiPlatform> 
   return platform
 }
 
-export async function registerPlatform(api: TestApi, admin: TestUser, platform: FakeLtiPlatform): Promise<Platform> {
+export async function registerPlatform(
+  api: TestApi,
+  admin: TestUser,
+  platform: FakeLtiPlatform,
+): Promise<Platform> {
   const response = await supertest(api.app)
     .post('/api/lti/platforms')
     .set(bearer(admin.token))
@@ -53,7 +57,12 @@ export async function startLogin(
   if (response.status !== 302) throw new Error(`login failed: ${response.status} ${response.text}`)
   const redirect = new URL(response.headers.location!)
   const cookie = ([] as string[]).concat(response.headers['set-cookie'] ?? [])[0]!.split(';')[0]!
-  return { state: redirect.searchParams.get('state')!, nonce: redirect.searchParams.get('nonce')!, cookie, redirect }
+  return {
+    state: redirect.searchParams.get('state')!,
+    nonce: redirect.searchParams.get('nonce')!,
+    cookie,
+    redirect,
+  }
 }
 
 export function postLaunch(api: TestApi, form: Record<string, string>, cookie?: string) {
@@ -77,7 +86,8 @@ export async function launch(
 
 /** The hand-over code of a successful launch's redirect. */
 export function codeOf(response: supertest.Response): string {
-  if (response.status !== 303) throw new Error(`launch refused: ${response.status} ${response.headers['x-slipway-lti-refusal']}`)
+  if (response.status !== 303)
+    throw new Error(`launch refused: ${response.status} ${response.headers['x-slipway-lti-refusal']}`)
   const location = new URL(response.headers.location!)
   return new URLSearchParams(location.hash.slice(1)).get('code')!
 }
