@@ -1,4 +1,5 @@
 // The signed-in user and the access token (kept in memory only; the refresh token is an httpOnly cookie).
+import { browserStorage } from '@/composables/browserStorage'
 import { computed, ref } from 'vue'
 import { defineStore } from 'pinia'
 import type { ChangePasswordRequest, LaunchSession, SessionResponse, SignInRequest, User } from '@shared/api'
@@ -26,7 +27,10 @@ export const useSessionStore = defineStore('session', () => {
   const endedUnexpectedly = ref(false)
 
   /** True when this tab's session came from a learning platform's launch. */
-  const launched = ref(sessionStorage.getItem(FRAMED_KEY) === '1')
+  // Inside a frame a session can only have come from a launch (Slipway is framed by platforms only), and the
+  // browser may refuse the frame any storage: then the partitioned refresh cookie is all there is.
+  const inFrame = window.self !== window.top
+  const launched = ref(inFrame || browserStorage('sessionStorage').getItem(FRAMED_KEY) === '1')
 
   const signedIn = computed(() => user.value !== null && accessToken.value !== null)
   const role = computed(() => user.value?.role ?? null)
@@ -35,15 +39,15 @@ export const useSessionStore = defineStore('session', () => {
     accessToken.value = session.accessToken
     user.value = session.user
     endedUnexpectedly.value = false
-    localStorage.setItem(HAD_SESSION_KEY, '1')
+    browserStorage('localStorage').setItem(HAD_SESSION_KEY, '1')
   }
 
   function clear() {
     accessToken.value = null
     user.value = null
-    localStorage.removeItem(HAD_SESSION_KEY)
-    sessionStorage.removeItem(FRAMED_KEY)
-    launched.value = false
+    browserStorage('localStorage').removeItem(HAD_SESSION_KEY)
+    browserStorage('sessionStorage').removeItem(FRAMED_KEY)
+    launched.value = inFrame
   }
 
   async function refresh(): Promise<boolean> {
@@ -65,7 +69,7 @@ export const useSessionStore = defineStore('session', () => {
   /** Resumes a session once per page load; later calls wait for the same attempt. */
   function restore(): Promise<void> {
     if (restored.value) return Promise.resolve()
-    if (!launched.value && !localStorage.getItem(HAD_SESSION_KEY)) {
+    if (!launched.value && !browserStorage('localStorage').getItem(HAD_SESSION_KEY)) {
       restored.value = true
       return Promise.resolve()
     }
@@ -99,7 +103,7 @@ export const useSessionStore = defineStore('session', () => {
     accessToken.value = launch.accessToken
     user.value = launch.user
     endedUnexpectedly.value = false
-    sessionStorage.setItem(FRAMED_KEY, '1')
+    browserStorage('sessionStorage').setItem(FRAMED_KEY, '1')
     launched.value = true
     restored.value = true
     return launch

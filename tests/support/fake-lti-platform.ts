@@ -89,6 +89,8 @@ export class FakeLtiPlatform {
   /** Line items: id → body. */
   lineItems = new Map<string, Record<string, unknown>>()
   tokenRequests: { scope: string; ok: boolean }[] = []
+  /** Activities made from deep-linking answers: resource link id → its custom parameters. */
+  activities = new Map<string, { title: string; custom: Record<string, string> }>()
   /** Deep-linking answers received (verified payloads). */
   deepLinkAnswers: JWTPayload[] = []
   /** How many score posts to refuse with 503 before accepting (to test retries). */
@@ -217,10 +219,11 @@ export class FakeLtiPlatform {
 
     // A course page showing an activity: the iframe starts Slipway's login (third-party initiated login).
     app.get('/course', (req, res) => {
-      const spec = {
+      const resourceLinkId = String(req.query.link ?? 'activity-1')
+      const spec: FakeLaunchSpec = {
         person: String(req.query.person),
-        resourceLinkId: String(req.query.link ?? 'activity-1'),
-        custom: req.query.assignment ? { slipway_assignment_id: String(req.query.assignment) } : undefined,
+        resourceLinkId,
+        custom: this.activities.get(resourceLinkId)?.custom,
         messageType: req.query.deepLink ? 'LtiDeepLinkingRequest' : undefined,
       }
       const login = new URL(`${this.options.toolUrl}/api/lti/login`)
@@ -267,6 +270,14 @@ header{background:#2d4a3e;color:#fff;padding:.6rem 1rem;font-size:1rem}iframe{di
       try {
         const payload = await this.verifyToolJwt(String(req.body.JWT), this.issuer)
         this.deepLinkAnswers.push(payload)
+        // As a platform does: each resource link becomes an activity, with a gradebook column if asked for.
+        type Item = { title: string; custom?: Record<string, string>; lineItem?: { label: string } }
+        for (const item of (payload['https://purl.imsglobal.org/spec/lti-dl/claim/content_items'] ??
+          []) as Item[]) {
+          const resourceLinkId = `activity-${this.activities.size + 1}`
+          this.activities.set(resourceLinkId, { title: item.title, custom: item.custom ?? {} })
+          if (item.lineItem) this.createLineItem(resourceLinkId, item.lineItem.label)
+        }
         res
           .type('html')
           .send('<!doctype html><html><body><h1>Activity added to the course</h1></body></html>')
