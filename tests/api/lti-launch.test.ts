@@ -186,14 +186,12 @@ describe('LTI 1.3 launch', () => {
     })
 
     it('a deployment that is not registered', async () => {
-      const response = await supertest(api.app)
-        .get('/api/lti/login')
-        .query({
-          iss: platform.issuer,
-          login_hint: 'x',
-          target_link_uri: LAUNCH_URL,
-          lti_deployment_id: 'other',
-        })
+      const response = await supertest(api.app).get('/api/lti/login').query({
+        iss: platform.issuer,
+        login_hint: 'x',
+        target_link_uri: LAUNCH_URL,
+        lti_deployment_id: 'other',
+      })
       expect(response.headers[REFUSAL]).toBe('unknown_deployment')
     })
 
