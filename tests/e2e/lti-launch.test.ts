@@ -254,4 +254,25 @@ describe('Slipway launched from a learning platform', () => {
       await partitioned.close()
     }
   })
+
+  it('shows the course link on the cohort page, pulls the roster, and marks the grade sent in the gradebook', async () => {
+    platform.addPerson({ sub: 'learner-8', name: 'Wren Holloway', roles: [ROLE.learner] })
+    const local = toolUrl.replace('localhost', '127.0.0.1')
+    const assignmentId = platform.activities.get('activity-1')!.custom.slipway_assignment_id!
+    const { cohortId } = await api(local, `/api/assignments/${assignmentId}`, { token: adminToken })
+    const { page } = browser // the admin, signed in by the first test
+    await page.goto(`${toolUrl}/teach/cohorts/${cohortId}`)
+    await page.getByTestId('course-link').getByText(platform.contextTitle, { exact: false }).waitFor()
+    await page.getByTestId('roster-pull').click()
+    await expect(page.getByTestId('roster-result').textContent()).resolves.toMatch(
+      /1 apprentice enrolled, 1 already here/,
+    )
+    await page.getByRole('cell', { name: 'Wren Holloway' }).first().waitFor()
+    await screenshot(page, 'lti-cohort-course-link')
+    await page.goto(`${toolUrl}/teach/gradebook?cohort=${cohortId}`)
+    const mark = page.getByTestId('score-sync').first()
+    await mark.waitFor()
+    await expect(mark.getAttribute('aria-label')).resolves.toBe('Sent to the course: 72')
+    await screenshot(page, 'lti-gradebook-sync')
+  })
 })
