@@ -4,6 +4,7 @@
 // holds an address in Slipway, so an existing Slipway account with the same address stays separate.
 import { createHash, randomUUID } from 'node:crypto'
 import type { EntityManager } from 'typeorm'
+import { PLACEHOLDER_EMAIL_DOMAIN } from '@shared/api/users'
 import type { AppContext } from '../context'
 import {
   CohortEntity,
@@ -45,9 +46,8 @@ function displayName(person: PlatformPerson): string | undefined {
  */
 function placeholderEmail(issuer: string, subject: string): string {
   const digest = createHash('sha256').update(`${issuer}\n${subject}`).digest('hex').slice(0, 20)
-  return `lti-${digest}@platform.invalid`
+  return `lti-${digest}${PLACEHOLDER_EMAIL_DOMAIN}`
 }
-export const isPlaceholderEmail = (email: string) => email.endsWith('@platform.invalid')
 
 async function emailFree(manager: EntityManager, email: string, exceptUserId?: string) {
   const holder = await manager.getRepository(UserEntity).findOneBy({ email })
@@ -184,7 +184,7 @@ export async function cohortForCourse(
     const cohort: CohortRow = {
       id: randomUUID(),
       name: title,
-      description: `Linked to the course “${title}” on ${platform.name}.`,
+      description: '', // the cohort page names its course (components/lti/CourseLinkCard.vue)
       ownerId: launchedBy.id,
       archived: false,
       createdAt: now,
