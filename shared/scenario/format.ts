@@ -1,5 +1,4 @@
 // Plain-words formatting of times and values for grading evidence.
-import { settingDef } from '../model/settings'
 
 /** Simulated ms as mm:ss.d (hh:mm:ss.d past an hour), e.g. 42300 → "00:42.3". */
 export function formatTime(ms: number): string {
@@ -35,10 +34,6 @@ export function formatSeconds(ms: number): string {
   return `${formatNumber(ms / 1000, 1)} s`
 }
 
-export function formatValue(value: unknown): string {
-  return typeof value === 'string' ? `"${value}"` : String(value)
-}
-
 /** Joins notice texts (which end with a full stop) into one sentence without doubled stops. */
 export function joinTexts(texts: string[]): string {
   return texts.map((t) => t.replace(/\.+$/, '')).join('; ')
@@ -54,11 +49,4 @@ export function upperFirst(text: string): string {
 
 export function plural(count: number, one: string, many = `${one}s`): string {
   return `${count} ${count === 1 ? one : many}`
-}
-
-/** An input function in words, from the settings catalogue: 'raise' → "raise speed". */
-export function inputFunctionName(fn: string): string {
-  const def = settingDef('di1.function')
-  const option = def.kind === 'choice' ? def.options.find((o) => o.value === fn) : undefined
-  return option ? lowerFirst(option.label.replace(/\s*\(.*\)$/, '')) : fn
 }

@@ -10,7 +10,13 @@ import {
 } from '../model/points'
 import type { DeviceSpec, WireSpec } from '../model/setup'
 import type { SimState } from '../model/types'
-import { POTENTIOMETER_MARKINGS, contactMarkings, wireColourMarking, wireNumber } from './markings'
+import {
+  POTENTIOMETER_MARKINGS,
+  contactMarkings,
+  contactWords,
+  wireColourMarking,
+  wireNumber,
+} from './markings'
 import type {
   SchematicDevice,
   SchematicDeviceTerminal,
@@ -58,8 +64,6 @@ function formatOhms(ohms: number): string {
   return `${+ohms.toFixed(1)} Ω`
 }
 
-const CONTACT_WORDS = { NO: 'normally open', NC: 'normally closed' } as const
-
 function deviceOf(spec: Wiring['devices'][number]): SchematicDevice {
   const kind: DeviceKind = spec.kind
   const point = (terminal: string) => `${spec.id}.${terminal}`
@@ -80,7 +84,7 @@ function deviceOf(spec: Wiring['devices'][number]): SchematicDevice {
     name: spec.label,
     symbol: kind,
     contact,
-    description: `${kind === 'pushbutton' ? 'Pushbutton' : 'Selector switch'}, ${CONTACT_WORDS[contact]}`,
+    description: `${kind === 'pushbutton' ? 'Pushbutton' : 'Selector switch'}, ${contactWords(contact)}`,
     terminals: [
       { point: point(a), marking: marks.a, role: 'contactA' },
       { point: point(b), marking: marks.b, role: 'contactB' },

@@ -23,6 +23,9 @@ export {
   wireMarkerText,
   wireColourMarking,
   contactMarkings,
+  contactWords,
+  deviceTerminalLabels,
+  POTENTIOMETER_MARKINGS,
   type WireColourMarking,
 } from './markings'
 export { textWidth, wrapText, FONT_FAMILY } from './text'

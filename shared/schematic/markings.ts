@@ -1,5 +1,7 @@
-// How wires and device terminals are marked: the same numbers, colour codes and terminal markings the
-// panel prints, so the drawing and the bench read alike.
+// How wires and device terminals are marked: the one definition of the wire numbers, colour codes and
+// terminal markings that the panel prints, the schematic draws and the grader writes (through
+// shared/scenario/names.ts), so the drawing, the bench and the evidence read alike.
+import type { DeviceKind } from '../model/points'
 import type { ContactType } from '../model/setup'
 
 export interface WireColourMarking {
@@ -13,7 +15,8 @@ export interface WireColourMarking {
   stripe?: string
 }
 
-// Codes: IEC 60757. Colours as the panel draws them (src/panel/wireColours.ts keeps the same table).
+// Codes: IEC 60757, the one table of them (the panel takes its codes and names from here). Strokes are
+// the drawing's (the panel keeps its own fills).
 const COLOURS: Record<string, WireColourMarking> = {
   blue: { code: 'BU', name: 'Blue', stroke: '#1f5fbf' },
   whiteBlue: { code: 'WHBU', name: 'White/blue', stroke: '#f4f4f4', stripe: '#1f5fbf' },
@@ -65,3 +68,16 @@ export function contactMarkings(contact: ContactType): { a: string; b: string } 
 }
 
 export const POTENTIOMETER_MARKINGS = { hi: 'H', wiper: 'W', lo: 'L' } as const
+
+/** A field device's terminal markings by terminal name: a contact block's (as `contact`), a potentiometer's. */
+export function deviceTerminalLabels(
+  kind: DeviceKind,
+  contact: ContactType | undefined,
+): Record<string, string> {
+  return kind === 'potentiometer' ? { ...POTENTIOMETER_MARKINGS } : contactMarkings(contact ?? 'NO')
+}
+
+/** A contact type in words, as printed on the block's label. */
+export function contactWords(contact: ContactType): string {
+  return contact === 'NC' ? 'normally closed' : 'normally open'
+}

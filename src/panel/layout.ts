@@ -1,6 +1,7 @@
 // Where everything sits on the panel, in scene units (the canvas scales this to fit).
 // All wireable terminals share one horizontal line so wires can leave downward into the wireway
 // and never cover a terminal's label, which is printed above its screw.
+import { deviceTerminalLabels as terminalLabels } from '@shared/schematic/markings'
 import type { DeviceSpot, KeySpot, PanelDevice, PanelLayout, PointId, TerminalSpot } from './types'
 
 export const SCENE_WIDTH = 1280
@@ -52,11 +53,11 @@ const KEYPAD: readonly { key: KeySpot['key']; label: string; col: number; row: n
 
 /**
  * Terminal marking of a field device. Contact blocks follow the IEC 60947-5-1 numbering
- * (NO 13–14, NC 11–12) as printed on the block, i.e. as declared by the scenario.
+ * (NO 13–14, NC 11–12) as printed on the block, i.e. as declared by the scenario. The schematic and
+ * the grader mark terminals by the same rule (shared/schematic/markings.ts).
  */
 export function deviceTerminalLabels(device: PanelDevice): Record<string, string> {
-  if (device.kind === 'potentiometer') return { hi: 'H', wiper: 'W', lo: 'L' }
-  return device.contact === 'NC' ? { a: '11', b: '12' } : { a: '13', b: '14' }
+  return terminalLabels(device.kind, device.contact)
 }
 
 function deviceTerminalNames(device: PanelDevice): string[] {

@@ -9,6 +9,7 @@ const root = resolve(import.meta.dirname, '../..')
 
 export interface AttemptFixture {
   scenario: string
+  scenarioVersion: number
   name: string
   description: string
   misses: string[]
