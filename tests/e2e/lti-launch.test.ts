@@ -131,6 +131,7 @@ describe('Slipway launched from a learning platform', () => {
     await dialog.getByLabel(/Sign-in \(authorisation\) address/).fill(reg.authorizationEndpoint)
     await dialog.getByLabel('Access token address').fill(reg.tokenEndpoint)
     await dialog.getByLabel('Public key set address').fill(reg.jwksUrl)
+    await screenshot(page, 'lti-registration-dialog')
     await dialog.getByTestId('platform-save').click()
     await page.getByText(reg.name, { exact: true }).waitFor()
     for (const size of SIZES) {
