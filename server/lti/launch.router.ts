@@ -45,6 +45,7 @@ export function launchRouter(ctx: AppContext): Router {
   // Platforms post forms (application/x-www-form-urlencoded); an ID token is a few kilobytes.
   const forms = asMiddleware(express.urlencoded({ extended: false, limit: '64kb' }))
   const cookies = asMiddleware(cookieParser())
+  const limit = ctx.limits.ltiLaunch
 
   router.get('/jwks', async (_req, res) => {
     res.setHeader('Cache-Control', 'public, max-age=300')
@@ -52,7 +53,7 @@ export function launchRouter(ctx: AppContext): Router {
   })
 
   // LTI Core §5.1.1: the platform may send the login initiation as a GET or a form POST.
-  router.all('/login', forms, async (req, res) => {
+  router.all('/login', limit, forms, async (req, res) => {
     if (req.method !== 'GET' && req.method !== 'POST')
       throw new HttpError(405, 'bad_request', 'Use GET or POST')
     try {
@@ -65,7 +66,7 @@ export function launchRouter(ctx: AppContext): Router {
     }
   })
 
-  router.post('/launch', forms, cookies, async (req, res) => {
+  router.post('/launch', limit, forms, cookies, async (req, res) => {
     try {
       const answer = await handleLaunch(ctx, (req.body ?? {}) as Record<string, unknown>, req.cookies ?? {})
       clearBindingCookie(res, answer.clearCookie)
@@ -92,7 +93,7 @@ export function launchRouter(ctx: AppContext): Router {
     res.type('html').send(autoPostPage(returnUrl, { JWT: jwt }, nonce))
   })
 
-  router.post('/session', validate({ body: launchExchangeRequestSchema }), async (req, res) => {
+  router.post('/session', limit, validate({ body: launchExchangeRequestSchema }), async (req, res) => {
     sendFramedSession(res, await exchangeLaunchCode(ctx, req.body.code))
   })
 

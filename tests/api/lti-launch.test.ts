@@ -12,7 +12,13 @@ import {
   UserEntity,
 } from '../../server/entities'
 import { hashToken } from '../../server/infrastructure/security/tokens'
-import { bearer, createTestApi, type TestApi, type TestUser } from '../support/api-harness'
+import {
+  bearer,
+  createTestApi,
+  DEFAULT_RATE_LIMITS,
+  type TestApi,
+  type TestUser,
+} from '../support/api-harness'
 import { FakeLtiPlatform, ROLE } from '../support/fake-lti-platform'
 import {
   codeOf,
@@ -170,6 +176,23 @@ describe('LTI 1.3 launch', () => {
       const health = await supertest(api.app).get('/api/health')
       expect(health.headers['content-security-policy']).toContain("frame-ancestors 'none'")
     })
+  })
+
+  it('limits how often one address may start logins and launches', async () => {
+    const limited = await createTestApi({
+      rateLimits: { ...DEFAULT_RATE_LIMITS, ltiLaunch: { windowMs: 60_000, limit: 2 } },
+    })
+    try {
+      const query = { iss: 'https://stranger.example', login_hint: 'x', target_link_uri: LAUNCH_URL }
+      for (let i = 0; i < 2; i++) {
+        expect((await supertest(limited.app).get('/api/lti/login').query(query)).status).toBe(400)
+      }
+      const third = await supertest(limited.app).get('/api/lti/login').query(query)
+      expect(third.status).toBe(429)
+      expect(third.headers['retry-after']).toEqual(expect.any(String))
+    } finally {
+      await limited.close()
+    }
   })
 
   describe('login initiation refuses', () => {
