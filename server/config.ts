@@ -84,6 +84,8 @@ export interface RateLimits {
   signIn: RateLimitRule
   passwordReset: RateLimitRule
   invitations: RateLimitRule
+  /** A learning platform's login, launch and session hand-over (per address: a classroom shares one). */
+  ltiLaunch: RateLimitRule
 }
 
 /** argon2id cost; the OWASP Password Storage Cheat Sheet minimum is 19 MiB, 2 iterations, 1 lane. */
@@ -145,6 +147,7 @@ export const DEFAULT_RATE_LIMITS: RateLimits = {
   signIn: { windowMs: 15 * 60_000, limit: 20 },
   passwordReset: { windowMs: 15 * 60_000, limit: 5 },
   invitations: { windowMs: 15 * 60_000, limit: 60 },
+  ltiLaunch: { windowMs: 15 * 60_000, limit: 600 },
 }
 
 export class ConfigError extends Error {}

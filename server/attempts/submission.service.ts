@@ -22,6 +22,7 @@ import type { ReadSubmission } from '../infrastructure/grading/grading-pool'
 import type { SubmissionHeader } from '../infrastructure/grading/grading-worker'
 import { queueMail } from '../infrastructure/mail/mail-job'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
+import { scoreChanged } from '../lti/passback.service'
 import { presentOne } from './attempts.service'
 
 interface Target {
@@ -184,6 +185,10 @@ async function storeSubmission(
     if (winner?.userId === user.id && (error instanceof LostRace || !existing))
       return { created: false, attempt: winner }
     throw error
+  }
+  if (grade && assignment) {
+    // A learning platform that links this assignment receives the grade (nothing happens otherwise).
+    await scoreChanged(ctx, assignment.id, user.id)
   }
   return { created: !existing || submitting, attempt: row }
 }

@@ -7,6 +7,7 @@ import { EnrollmentEntity } from './enrollment'
 import { FeedbackEntity } from './feedback'
 import { InvitationEntity } from './invitation'
 import { JobEntity } from './job'
+import { ltiEntities } from './lti'
 import { MailMessageEntity } from './mail-message'
 import { PasswordResetEntity } from './password-reset'
 import { RateLimitCounterEntity } from './rate-limit-counter'
@@ -23,6 +24,7 @@ export * from './enrollment'
 export * from './feedback'
 export * from './invitation'
 export * from './job'
+export * from './lti'
 export * from './mail-message'
 export * from './password-reset'
 export * from './rate-limit-counter'
@@ -47,4 +49,5 @@ export const entities = [
   UploadEntity,
   RateLimitCounterEntity,
   JobEntity,
+  ...ltiEntities,
 ]

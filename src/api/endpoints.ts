@@ -59,4 +59,18 @@ export const endpoints = {
     retryMessage: (id: string) => `/admin/outbox/${enc(id)}/retry`,
     backup: '/admin/backup',
   },
+  lti: {
+    session: '/lti/session',
+    refresh: '/lti/session/refresh',
+    signOut: '/lti/session/sign-out',
+    tool: '/lti/tool',
+    rotateKey: '/lti/tool/keys/rotate',
+    platforms: '/lti/platforms',
+    platform: (id: string) => `/lti/platforms/${enc(id)}`,
+    deepLinking: (id: string) => `/lti/deep-linking/${enc(id)}`,
+    cohort: (id: string) => `/lti/cohorts/${enc(id)}`,
+    rosterPull: (id: string) => `/lti/cohorts/${enc(id)}/roster-pull`,
+    scoreSync: (id: string) => `/lti/cohorts/${enc(id)}/score-sync`,
+    scoreSyncRetry: (id: string) => `/lti/cohorts/${enc(id)}/score-sync/retry`,
+  },
 } as const

@@ -1,4 +1,5 @@
 // Keeps an attempt in progress (its id and event log) in localStorage, so a reload loses nothing.
+import { browserStorage } from '@/composables/browserStorage'
 import { z } from 'zod'
 import { attemptLogSchema, type AttemptEvent } from '@shared/model/events'
 
@@ -21,7 +22,10 @@ export interface AttemptStorage {
   clear(): void
 }
 
-export function useAttemptStorage(key: string, storage: Storage = window.localStorage): AttemptStorage {
+export function useAttemptStorage(
+  key: string,
+  storage: Storage = browserStorage('localStorage'),
+): AttemptStorage {
   return {
     load() {
       const raw = storage.getItem(key)

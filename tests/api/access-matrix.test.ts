@@ -52,6 +52,7 @@ const ownCohortStaff = (ok: number): Expect => ({ ...staffOnly(ok), otherInstruc
 const adminOnly = (ok: number): Expect => ({ none: 401, apprentice: 403, instructor: 403, admin: ok })
 const future = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString()
 const FAKE_TOKEN = 'x'.repeat(43)
+const NO_SUCH_ID = '00000000-0000-4000-8000-000000000000'
 
 const ROUTES: Route[] = [
   { method: 'get', path: () => '/api/health', expect: everyone(200) },
@@ -278,6 +279,59 @@ const ROUTES: Route[] = [
   // An id that names no message: the role check comes first, then 404.
   { method: 'post', path: () => `/api/admin/outbox/${randomUUID()}/retry`, expect: adminOnly(404) },
   { method: 'get', path: () => '/api/admin/backup', expect: adminOnly(200) },
+  // learning platforms (LTI): the platform's browser flow needs no sign-in
+  { method: 'get', path: () => '/api/lti/jwks', expect: everyone(200) },
+  { method: 'get', path: () => '/api/lti/login', expect: everyone(400) },
+  { method: 'post', path: () => '/api/lti/login', body: () => ({}), expect: everyone(400) },
+  { method: 'post', path: () => '/api/lti/launch', body: () => ({}), expect: everyone(400) },
+  { method: 'get', path: () => `/api/lti/deep-linking/return/${FAKE_TOKEN}`, expect: everyone(404) },
+  {
+    method: 'post',
+    path: () => '/api/lti/session',
+    body: () => ({ code: FAKE_TOKEN }),
+    expect: everyone(400),
+  },
+  { method: 'post', path: () => '/api/lti/session/refresh', expect: everyone(401) },
+  { method: 'post', path: () => '/api/lti/session/sign-out', expect: everyone(204) },
+  // LTI: admins register platforms and keep Slipway's keys
+  { method: 'get', path: () => '/api/lti/tool', expect: adminOnly(200) },
+  { method: 'post', path: () => '/api/lti/tool/keys/rotate', expect: adminOnly(200) },
+  { method: 'get', path: () => '/api/lti/platforms', expect: adminOnly(200) },
+  { method: 'post', path: () => '/api/lti/platforms', body: () => ({}), expect: adminOnly(400) },
+  { method: 'get', path: () => `/api/lti/platforms/${NO_SUCH_ID}`, expect: adminOnly(404) },
+  {
+    method: 'patch',
+    path: () => `/api/lti/platforms/${NO_SUCH_ID}`,
+    body: () => ({ name: 'Renamed platform' }),
+    expect: adminOnly(404),
+  },
+  { method: 'delete', path: () => `/api/lti/platforms/${NO_SUCH_ID}`, expect: adminOnly(404) },
+  // LTI: instructors' course tools
+  { method: 'get', path: () => `/api/lti/deep-linking/${NO_SUCH_ID}`, expect: staffOnly(404) },
+  {
+    method: 'post',
+    path: () => `/api/lti/deep-linking/${NO_SUCH_ID}`,
+    body: (w) => ({
+      scenarioId: w.scenario.id,
+      opensAt: future(-1),
+      dueAt: future(5),
+      attemptLimit: null,
+      hintsAllowed: true,
+    }),
+    expect: staffOnly(404),
+  },
+  { method: 'get', path: (w) => `/api/lti/cohorts/${w.cohortA.id}`, expect: ownCohortStaff(200) },
+  {
+    method: 'post',
+    path: (w) => `/api/lti/cohorts/${w.cohortA.id}/roster-pull`,
+    expect: ownCohortStaff(409),
+  },
+  { method: 'get', path: (w) => `/api/lti/cohorts/${w.cohortA.id}/score-sync`, expect: ownCohortStaff(200) },
+  {
+    method: 'post',
+    path: (w) => `/api/lti/cohorts/${w.cohortA.id}/score-sync/retry`,
+    expect: ownCohortStaff(200),
+  },
 ]
 
 function expected(e: Expect, who: Who): number {

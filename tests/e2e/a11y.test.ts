@@ -152,7 +152,7 @@ describe('accessibility of every main screen', () => {
     expectOnlyKnown(found)
   })
 
-  it('admin: users and roles, the outbox, the backup', async () => {
+  it('admin: users and roles, the outbox, the backup, learning platforms', async () => {
     const { page } = browser
     await signOut(page)
     await signIn(page, app.url, demo('admin'))
@@ -160,6 +160,7 @@ describe('accessibility of every main screen', () => {
       ...(await visit('/admin/users', 'Users and roles', 'admin-users')),
       ...(await visit('/admin/outbox', 'Mail outbox', 'admin-outbox')),
       ...(await visit('/admin/backup', 'Database backup', 'admin-backup')),
+      ...(await visit('/admin/learning-platforms', 'Learning platforms', 'admin-lti')),
     ]
     expectOnlyKnown(found)
   })
