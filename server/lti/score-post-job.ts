@@ -16,7 +16,7 @@ export type ScorePost = z.infer<typeof scorePostSchema>
 export const scorePostJob = defineJobKind({
   kind: 'lti.score-post',
   payload: scorePostSchema,
-  // 10 s, 20 s, 40 s … capped at an hour: about three hours of a platform being down before it is failed.
+  // 10 s, 20 s, 40 s … capped at an hour: about three and a half hours of a platform being down before it is failed.
   retry: { maxAttempts: 12, firstDelayMs: 10_000, maxDelayMs: 3_600_000 },
   // Each platform call has its own 10-second limit; a post makes at most a handful per linked activity.
   timeoutMs: 2 * 60_000,
