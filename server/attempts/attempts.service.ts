@@ -30,7 +30,7 @@ import {
 import { conflict, forbidden } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
 import { queueMail } from '../infrastructure/mail/mail-job'
-import { scoreChanged } from '../lti/passback.service'
+import { queueScorePost } from '../lti/score-post-job'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
 import {
   presentAttemptDetail,
@@ -240,7 +240,9 @@ export async function overrideGrade(
       createdAt: now,
     })
     await notifyOwner(ctx, manager, attempt, 'overridden', score, passed)
+    if (attempt.assignmentId) {
+      await queueScorePost(manager, { assignmentId: attempt.assignmentId, userId: attempt.userId })
+    }
   })
-  if (attempt.assignmentId) await scoreChanged(ctx, attempt.assignmentId, attempt.userId)
   return presentOne(ctx, await ds.getRepository(AttemptEntity).findOneByOrFail({ id: attempt.id }))
 }

@@ -22,7 +22,7 @@ import type { ReadSubmission } from '../infrastructure/grading/grading-pool'
 import type { SubmissionHeader } from '../infrastructure/grading/grading-worker'
 import { queueMail } from '../infrastructure/mail/mail-job'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
-import { scoreChanged } from '../lti/passback.service'
+import { queueScorePost } from '../lti/score-post-job'
 import { presentOne } from './attempts.service'
 
 interface Target {
@@ -177,6 +177,8 @@ async function storeSubmission(
             url: appLink(ctx, `/attempts/${row.id}`),
           }),
         )
+        // A learning platform that links this assignment receives the grade (nothing happens otherwise).
+        await queueScorePost(manager, { assignmentId: assignment.id, userId: user.id })
       }
     })
   } catch (error) {
@@ -185,10 +187,6 @@ async function storeSubmission(
     if (winner?.userId === user.id && (error instanceof LostRace || !existing))
       return { created: false, attempt: winner }
     throw error
-  }
-  if (grade && assignment) {
-    // A learning platform that links this assignment receives the grade (nothing happens otherwise).
-    await scoreChanged(ctx, assignment.id, user.id)
   }
   return { created: !existing || submitting, attempt: row }
 }

@@ -5,14 +5,10 @@ import type { AppContext } from '../context'
 import { courseRouter } from './course.router'
 import { launchRouter } from './launch.router'
 import { registrationRouter } from './registration.router'
-import { ltiRuntime, resumeWaitingScores, type LtiOptions } from './runtime'
+import { ltiRuntime, type LtiOptions } from './runtime'
 
 export function ltiRouter(ctx: AppContext, options: LtiOptions = {}): Router {
   ltiRuntime(ctx, options)
-  // Grades that were waiting when the server last stopped are sent again.
-  resumeWaitingScores(ctx).catch((err) =>
-    ctx.log.error({ err }, 'could not resume grades waiting for platforms'),
-  )
   const router = Router()
   router.use(launchRouter(ctx))
   router.use(registrationRouter(ctx))

@@ -1,11 +1,11 @@
 // Grades back to the platform (Assignment and Grade Services 2.0): every graded attempt and every override
-// on a linked assignment marks the apprentice's grade as waiting and enqueues a post; the post reads the
+// on a linked assignment marks the apprentice's grade as waiting and queues a job (score-post-job.ts); the
+// job (postScore, the handler of kind 'lti.score-post') reads the
 // grade that counts at that moment (best or latest, as the assignment says) and sends it to the line item
 // of each activity linked to the assignment, creating the line item first if the platform has none.
 // The state of each (assignment, apprentice) is a row in lti_score_syncs, which the gradebook shows; it is
 // read live by its own route rather than through the gradebook cache, so it never waits on a revision.
-import { randomUUID } from 'node:crypto'
-import { In } from 'typeorm'
+import { In, type DataSource } from 'typeorm'
 import type { ScoreSyncList } from '@shared/api/lti'
 import { cohortFor } from '../access/access.service'
 import type { AppContext } from '../context'
@@ -25,44 +25,22 @@ import {
   type UserRow,
 } from '../entities'
 import { nowIso } from '../infrastructure/clock'
+import { JobError, type RunningJob } from '../infrastructure/jobs'
 import { lineItemSchema, MEDIA, SCOPE } from './claims'
-import { callPlatform, PlatformServiceError, serviceFailure } from './platform-client'
-import { ltiRuntime } from './runtime'
-import type { ScorePost, ScorePostOutcome } from './score-queue'
+import { callPlatform, PlatformServiceError, serviceFailure, type ServiceTokenCache } from './platform-client'
+import { queueScorePost, type ScorePost } from './score-post-job'
 import { presentScoreSync } from './sync.presenter'
 
 /** Scores are percentages in Slipway; the line item's maximum says so to the platform. */
 export const SCORE_MAXIMUM = 100
 
-/**
- * Called after a grade changes (submission graded, override). Cheap for a centre without platforms: one
- * indexed query finds no linked activity and nothing else happens. Never throws into the caller's request.
- */
-export async function scoreChanged(ctx: AppContext, assignmentId: string, userId: string): Promise<void> {
-  try {
-    const linked = await ctx.dataSource.getRepository(LtiResourceLinkEntity).countBy({ assignmentId })
-    if (!linked) return
-    const now = nowIso()
-    const syncs = ctx.dataSource.getRepository(LtiScoreSyncEntity)
-    const existing = await syncs.findOneBy({ assignmentId, userId })
-    const waiting = { state: 'waiting' as const, tries: 0, problem: null, changedAt: now, updatedAt: now }
-    if (existing) await syncs.update({ id: existing.id }, waiting)
-    else {
-      await syncs.insert({ id: randomUUID(), assignmentId, userId, score: null, sentAt: null, ...waiting })
-    }
-    ltiRuntime(ctx).scores.enqueueScorePost({ assignmentId, userId })
-  } catch (err) {
-    ctx.log.error({ err, assignmentId, userId }, 'could not queue a grade for the learning platform')
-  }
-}
-
 /** The grade that counts for the platform: the best or the latest graded attempt, as the assignment says. */
 async function gradeThatCounts(
-  ctx: AppContext,
+  ds: DataSource,
   assignment: AssignmentRow,
   userId: string,
 ): Promise<number | null> {
-  const graded = await ctx.dataSource.getRepository(AttemptEntity).find({
+  const graded = await ds.getRepository(AttemptEntity).find({
     where: { assignmentId: assignment.id, userId, status: 'submitted' },
     select: { id: true, score: true, submittedAt: true },
     order: { submittedAt: 'DESC' },
@@ -82,7 +60,7 @@ const withPath = (url: string, suffix: string) => {
 
 /** The line item of an activity: the one the launch named, one the platform lists for it, or a new one. */
 async function lineItemOf(
-  ctx: AppContext,
+  deps: PassbackDeps,
   platform: LtiPlatformRow,
   context: LtiContextRow,
   link: LtiResourceLinkRow,
@@ -96,17 +74,17 @@ async function lineItemOf(
       false,
     )
   }
-  const tokens = ltiRuntime(ctx).serviceTokens
+  const { serviceTokens: tokens } = deps
   const listUrl = new URL(context.lineItemsUrl)
   listUrl.searchParams.set('resource_link_id', link.resourceLinkId)
-  const listed = await callPlatform(ctx, tokens, platform, [SCOPE.lineItem], listUrl.toString(), {
+  const listed = await callPlatform(deps, tokens, platform, [SCOPE.lineItem], listUrl.toString(), {
     headers: { accept: MEDIA.lineItems },
   })
   if (!listed.ok) throw serviceFailure('a request for its gradebook columns', listed)
   const existing = lineItemSchema.array().safeParse(await listed.json().catch(() => undefined))
   let lineItemUrl = existing.success ? existing.data[0]?.id : undefined
   if (!lineItemUrl) {
-    const created = await callPlatform(ctx, tokens, platform, [SCOPE.lineItem], context.lineItemsUrl, {
+    const created = await callPlatform(deps, tokens, platform, [SCOPE.lineItem], context.lineItemsUrl, {
       method: 'POST',
       headers: { 'content-type': MEDIA.lineItem, accept: MEDIA.lineItem },
       body: JSON.stringify({
@@ -123,37 +101,47 @@ async function lineItemOf(
       throw new PlatformServiceError('The platform sent an unreadable gradebook column.', true)
     lineItemUrl = item.data.id
   }
-  await ctx.dataSource
+  await deps.dataSource
     .getRepository(LtiResourceLinkEntity)
     .update({ id: link.id }, { lineItemUrl, updatedAt: nowIso() })
   return lineItemUrl
 }
 
-async function record(ctx: AppContext, sync: LtiScoreSyncRow, changes: Partial<LtiScoreSyncRow>) {
+async function record(ds: DataSource, sync: LtiScoreSyncRow, changes: Partial<LtiScoreSyncRow>) {
   // Only if no newer grade arrived meanwhile: that one has its own post coming.
-  await ctx.dataSource
+  await ds
     .getRepository(LtiScoreSyncEntity)
     .update({ id: sync.id, changedAt: sync.changedAt }, { ...changes, updatedAt: nowIso() })
 }
 
-/** Sends one apprentice's grade on one assignment to every activity linked to it (the queue's handler). */
+/** What a post needs: the database, and service tokens kept between posts (one cache per worker). */
+export interface PassbackDeps {
+  dataSource: DataSource
+  serviceTokens: ServiceTokenCache
+}
+
+const UNEXPECTED_PROBLEM = 'An unexpected error stopped it; the server log has the details.'
+
+/**
+ * Sends one apprentice's grade on one assignment to every activity linked to it: the handler of the job kind
+ * 'lti.score-post'. The lti_score_syncs row says how it went, in words; a JobError tells the queue whether
+ * to try again (a platform that is down or busy) or not (a refusal trying again cannot change).
+ */
 export async function postScore(
-  ctx: AppContext,
+  deps: PassbackDeps,
   post: ScorePost,
-  attempt: { number: number; last: boolean },
-): Promise<ScorePostOutcome> {
-  const ds = ctx.dataSource
+  job: Pick<RunningJob, 'attempt' | 'maxAttempts'>,
+): Promise<void> {
+  const ds = deps.dataSource
   const sync = await ds.getRepository(LtiScoreSyncEntity).findOneBy(post)
   const assignment = await ds.getRepository(AssignmentEntity).findOneBy({ id: post.assignmentId })
-  if (!sync || !assignment) return 'done'
-  const score = await gradeThatCounts(ctx, assignment, post.userId)
+  if (!sync || !assignment) return // deleted since: nothing left to send
+  const tries = job.attempt
+  const score = await gradeThatCounts(ds, assignment, post.userId)
   if (score === null) {
-    await record(ctx, sync, {
-      state: 'failed',
-      tries: attempt.number,
-      problem: 'There is no graded attempt to send.',
-    })
-    return 'done'
+    const problem = 'There is no graded attempt to send.'
+    await record(ds, sync, { state: 'failed', tries, problem })
+    throw new JobError(problem, { permanent: true })
   }
   try {
     const links = await ds.getRepository(LtiResourceLinkEntity).findBy({ assignmentId: assignment.id })
@@ -175,10 +163,10 @@ export async function postScore(
           false,
         )
       }
-      const lineItemUrl = await lineItemOf(ctx, platform, context, link, assignment)
+      const lineItemUrl = await lineItemOf(deps, platform, context, link, assignment)
       const response = await callPlatform(
-        ctx,
-        ltiRuntime(ctx).serviceTokens,
+        deps,
+        deps.serviceTokens,
         platform,
         [SCOPE.score],
         withPath(lineItemUrl, '/scores'),
@@ -198,27 +186,23 @@ export async function postScore(
       )
       if (!response.ok) throw serviceFailure('the grade', response)
     }
-    await record(ctx, sync, { state: 'sent', score, tries: attempt.number, problem: null, sentAt: nowIso() })
-    return 'done'
+    await record(ds, sync, { state: 'sent', score, tries, problem: null, sentAt: nowIso() })
   } catch (error) {
-    if (!(error instanceof PlatformServiceError)) throw error
-    const again = error.retry && !attempt.last
-    await record(ctx, sync, {
+    const last = job.attempt >= job.maxAttempts
+    if (!(error instanceof PlatformServiceError)) {
+      // The queue logs it and tries again; after the last attempt the gradebook must not show it waiting.
+      if (last) await record(ds, sync, { state: 'failed', score, tries, problem: UNEXPECTED_PROBLEM })
+      throw error
+    }
+    const again = error.retry && !last
+    await record(ds, sync, {
       state: again ? 'waiting' : 'failed',
       score,
-      tries: attempt.number,
+      tries,
       problem: again ? `${error.message} Trying again shortly.` : error.message,
     })
-    return again ? 'retry' : 'done'
+    throw new JobError(error.message, { permanent: !error.retry, cause: error })
   }
-}
-
-/** Rows still waiting (after a restart), to enqueue again. */
-export async function waitingPosts(ctx: AppContext): Promise<ScorePost[]> {
-  const rows = await ctx.dataSource
-    .getRepository(LtiScoreSyncEntity)
-    .find({ where: { state: 'waiting' }, select: { assignmentId: true, userId: true } })
-  return rows.map((r) => ({ assignmentId: r.assignmentId, userId: r.userId }))
 }
 
 /** The gradebook's sync states for a cohort's linked assignments (instructor of the cohort, or admin). */
@@ -257,8 +241,10 @@ export async function retryFailedScores(
   cohortId: string,
 ): Promise<ScoreSyncList> {
   const list = await cohortScoreSyncs(ctx, user, cohortId)
-  for (const cell of list.cells.filter((c) => c.state === 'failed')) {
-    await scoreChanged(ctx, cell.assignmentId, cell.userId)
-  }
+  await ctx.dataSource.transaction(async (manager) => {
+    for (const cell of list.cells.filter((c) => c.state === 'failed')) {
+      await queueScorePost(manager, { assignmentId: cell.assignmentId, userId: cell.userId })
+    }
+  })
   return cohortScoreSyncs(ctx, user, cohortId)
 }

@@ -50,7 +50,7 @@ export function createServiceTokenCache(): ServiceTokenCache {
 const TIMEOUT_MS = 10_000
 
 async function requestToken(
-  ctx: AppContext,
+  ctx: Pick<AppContext, 'dataSource'>,
   platform: LtiPlatformRow,
   scopes: string[],
 ): Promise<CachedToken> {
@@ -98,7 +98,7 @@ async function requestToken(
  * more with a fresh one (the platform may have revoked it early).
  */
 export async function callPlatform(
-  ctx: AppContext,
+  ctx: Pick<AppContext, 'dataSource'>,
   tokens: ServiceTokenCache,
   platform: LtiPlatformRow,
   scopes: string[],

@@ -1,12 +1,14 @@
 // LTI Advantage against the fake platform: registration and key rotation, deep linking (the signed answer
 // the platform receives), launches of the linked activity, grades sent back (Assignment and Grade Services:
-// best or latest, overrides, retries, plain-words failures) and rosters pulled (Names and Role Provisioning).
+// best or latest, overrides, retries and refusals through the durable job queue, plain-words failures) and
+// rosters pulled (Names and Role Provisioning).
 import { readFileSync } from 'node:fs'
 import supertest from 'supertest'
 import { decodeJwt } from 'jose'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { ScoreSyncList } from '../../shared/api/lti'
-import { LtiResourceLinkEntity } from '../../server/entities'
+import { JobEntity, LtiResourceLinkEntity } from '../../server/entities'
+import { scorePostJob } from '../../server/lti/score-post-job'
 import { bearer, createTestApi, type TestApi, type TestUser } from '../support/api-harness'
 import { ROLE, type FakeLtiPlatform } from '../support/fake-lti-platform'
 import { launchSession, registerPlatform, startFakePlatform } from '../support/lti-harness'
@@ -29,7 +31,7 @@ describe('LTI Advantage services', () => {
   let learnerId: string
 
   beforeAll(async () => {
-    api = await createTestApi({ lti: { scoreRetryDelaysMs: [50, 50] } })
+    api = await createTestApi()
     admin = await api.createUser('admin')
     platform = await startFakePlatform(api)
     platformId = (await registerPlatform(api, admin, platform)).id
@@ -212,6 +214,20 @@ describe('LTI Advantage services', () => {
       (await admins().get(`/api/lti/cohorts/${cohortId}/score-sync`).set(bearer(instructorToken)))
         .body as ScoreSyncList
     const cellOf = async () => (await syncs()).cells.find((c) => c.userId === learnerId)
+    /** The grade posts in the job queue, oldest first. */
+    const postJobs = () =>
+      api.dataSource
+        .getRepository(JobEntity)
+        .find({ where: { kind: scorePostJob.kind }, order: { createdAt: 'ASC' } })
+    /** Runs the posts due now; `later` first makes those waiting out a retry due (no waiting in tests). */
+    const runPosts = async ({ later = false } = {}) => {
+      if (later) {
+        await api.dataSource
+          .getRepository(JobEntity)
+          .update({ kind: scorePostJob.kind, status: 'queued' }, { runAt: new Date().toISOString() })
+      }
+      await api.jobs.worker.runDue()
+    }
 
     it('posts the grade of a submitted attempt to the activity’s line item', async () => {
       const graded = await expectStatus(
@@ -219,7 +235,14 @@ describe('LTI Advantage services', () => {
         201,
       )
       const score = graded.body.grade.score as number
-      await expect.poll(() => platform.scores.length, { timeout: 10_000 }).toBe(1)
+      // Queued with the grade, in the same transaction; nothing is sent until the worker runs it.
+      expect(platform.scores).toHaveLength(0)
+      expect(await cellOf()).toMatchObject({ state: 'waiting' })
+      expect(await postJobs()).toMatchObject([
+        { status: 'queued', payload: JSON.stringify({ assignmentId, userId: learnerId }) },
+      ])
+      await runPosts()
+      expect(platform.scores).toHaveLength(1)
       expect(platform.scores[0]).toMatchObject({
         userId: 'learner-1',
         scoreGiven: score,
@@ -227,8 +250,8 @@ describe('LTI Advantage services', () => {
         activityProgress: 'Completed',
         gradingProgress: 'FullyGraded',
       })
-      await expect.poll(async () => (await cellOf())?.state).toBe('sent')
-      expect(await cellOf()).toMatchObject({ score, tries: 1, problem: null })
+      expect(await cellOf()).toMatchObject({ state: 'sent', score, tries: 1, problem: null })
+      expect((await postJobs())[0]).toMatchObject({ status: 'done', attempts: 1 })
       expect((await syncs()).linkedAssignmentIds).toEqual([assignmentId])
     })
 
@@ -238,7 +261,8 @@ describe('LTI Advantage services', () => {
         submit(api, { token: learnerToken } as TestUser, { assignmentId, events: EMPTY_LOG }),
         201,
       )
-      await expect.poll(() => platform.scores.length, { timeout: 10_000 }).toBe(2)
+      await runPosts()
+      expect(platform.scores).toHaveLength(2)
       expect(platform.scores[1]!.scoreGiven).toBe(best)
       expect(platform.scores[1]!.timestamp > platform.scores[0]!.timestamp).toBe(true)
     })
@@ -262,8 +286,30 @@ describe('LTI Advantage services', () => {
           .send({ score: 37, passed: false, reason: 'Meter left on the wrong range' }),
         200,
       )
-      await expect.poll(() => platform.scores.at(-1)?.scoreGiven, { timeout: 10_000 }).toBe(37)
-      await expect.poll(async () => (await cellOf())?.score).toBe(37)
+      await runPosts()
+      expect(platform.scores.at(-1)?.scoreGiven).toBe(37)
+      expect(await cellOf()).toMatchObject({ state: 'sent', score: 37 })
+    })
+
+    it('queues one post for grades that change again before it runs, and sends the newest', async () => {
+      const attempts = (
+        await admins().get('/api/attempts').query({ assignmentId }).set(bearer(instructorToken))
+      ).body.items
+      const counting = attempts.find((a: { grade: { score: number } }) => a.grade.score === 37)
+      const before = (await postJobs()).length
+      const sent = platform.scores.length
+      for (const score of [41, 43]) {
+        await expectStatus(
+          admins()
+            .post(`/api/attempts/${counting.id}/grade-override`)
+            .set(bearer(instructorToken))
+            .send({ score, passed: false, reason: 'Reviewed the isolation steps again' }),
+          200,
+        )
+      }
+      expect(await postJobs()).toHaveLength(before + 1)
+      await runPosts()
+      expect(platform.scores.slice(sent).map((s) => s.scoreGiven)).toEqual([43])
     })
 
     it('tries again when the platform is briefly unavailable', async () => {
@@ -271,18 +317,57 @@ describe('LTI Advantage services', () => {
       const attempts = (
         await admins().get('/api/attempts').query({ assignmentId }).set(bearer(instructorToken))
       ).body.items
+      const counting = attempts.find((a: { grade: { score: number } }) => a.grade.score === 43)
       const sent = platform.scores.length
       await expectStatus(
         admins()
-          .post(`/api/attempts/${attempts[0].id}/grade-override`)
+          .post(`/api/attempts/${counting.id}/grade-override`)
           .set(bearer(instructorToken))
           .send({ score: 64, passed: true, reason: 'Second look at the evidence' }),
         200,
       )
-      await expect.poll(() => platform.scores.length, { timeout: 10_000 }).toBe(sent + 1)
+      await runPosts()
       expect(platform.failNextScores).toBe(0)
-      await expect.poll(async () => (await cellOf())?.state).toBe('sent')
-      expect((await cellOf())!.tries).toBe(2)
+      expect(platform.scores).toHaveLength(sent)
+      expect(await cellOf()).toMatchObject({ state: 'waiting', tries: 1 })
+      expect((await cellOf())!.problem).toMatch(/status 503.*Trying again shortly/)
+      const waiting = (await postJobs()).at(-1)!
+      // Backoff from the job queue: not due again at once.
+      expect(waiting).toMatchObject({ status: 'queued', attempts: 1 })
+      expect(Date.parse(waiting.runAt)).toBeGreaterThan(Date.now())
+      await runPosts({ later: true })
+      expect(platform.scores).toHaveLength(sent + 1)
+      expect(platform.scores.at(-1)!.scoreGiven).toBe(64)
+      expect(await cellOf()).toMatchObject({ state: 'sent', tries: 2, problem: null })
+    })
+
+    it('sends a newer grade at once, with fresh attempts, rather than after an older one’s backoff', async () => {
+      platform.failNextScores = 1
+      const attempts = (
+        await admins().get('/api/attempts').query({ assignmentId }).set(bearer(instructorToken))
+      ).body.items
+      const counting = attempts.find((a: { grade: { score: number } }) => a.grade.score === 64)
+      const override = (score: number) =>
+        expectStatus(
+          admins()
+            .post(`/api/attempts/${counting.id}/grade-override`)
+            .set(bearer(instructorToken))
+            .send({ score, passed: true, reason: 'Moderated with the second assessor' }),
+          200,
+        )
+      const sent = platform.scores.length
+      const before = (await postJobs()).length
+      await override(66)
+      await runPosts()
+      expect((await postJobs()).at(-1)).toMatchObject({ status: 'queued', attempts: 1 })
+      await override(68)
+      const jobs = await postJobs()
+      expect(jobs).toHaveLength(before + 1)
+      expect(jobs.at(-1)).toMatchObject({ status: 'queued', attempts: 0, lastError: null })
+      expect(Date.parse(jobs.at(-1)!.runAt)).toBeLessThanOrEqual(Date.now())
+      await runPosts()
+      expect(platform.scores.slice(sent).map((s) => s.scoreGiven)).toEqual([68])
+      expect(await cellOf()).toMatchObject({ state: 'sent', score: 68, tries: 1 })
     })
 
     it('says in plain words why an apprentice who never came from the course cannot be sent', async () => {
@@ -295,13 +380,27 @@ describe('LTI Advantage services', () => {
         201,
       )
       await expectStatus(submit(api, local, { assignmentId, events: EMPTY_LOG }), 201)
-      await expect
-        .poll(async () => (await syncs()).cells.find((c) => c.userId === local.user.id)?.state, {
-          timeout: 10_000,
-        })
-        .toBe('failed')
+      await runPosts()
       const cell = (await syncs()).cells.find((c) => c.userId === local.user.id)!
+      expect(cell).toMatchObject({ state: 'failed', tries: 1 })
       expect(cell.problem).toMatch(/has not come in from Harbour Learning/)
+      // Not worth retrying: the job failed at once, with the same words for the admin.
+      const job = (await postJobs()).at(-1)!
+      expect(job).toMatchObject({ status: 'failed', attempts: 1 })
+      expect(job.lastError).toMatch(/has not come in from Harbour Learning/)
+
+      // "Send again" queues a fresh post for every failed grade of the cohort, in one transaction.
+      const retried = await expectStatus(
+        admins().post(`/api/lti/cohorts/${cohortId}/score-sync/retry`).set(bearer(instructorToken)),
+        200,
+      )
+      const again = (retried.body as ScoreSyncList).cells.find((c) => c.userId === local.user.id)
+      expect(again).toMatchObject({ state: 'waiting', problem: null })
+      const jobs = await postJobs()
+      expect(jobs.at(-1)).toMatchObject({ status: 'queued', attempts: 0 })
+      expect(jobs.at(-1)!.id).not.toBe(job.id)
+      await runPosts()
+      expect((await syncs()).cells.find((c) => c.userId === local.user.id)).toMatchObject({ state: 'failed' })
     })
 
     it('changes nothing for an assignment no platform links (standalone Slipway)', async () => {
