@@ -25,6 +25,7 @@ import { createAccessTokens } from './infrastructure/security/tokens'
 import { invitationsRouter } from './invitations/invitations.router'
 import { apiNotFound, errorHandler } from './middleware/errors'
 import { createLimiters } from './middleware/rate-limit'
+import { recordsRouter } from './records/records.router'
 import { scenariosRouter, scenarioVersionsRouter } from './scenarios/scenarios.router'
 
 export interface AppDeps {
@@ -103,6 +104,7 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api/scenario-versions', scenarioVersionsRouter(ctx))
   app.use('/api/attempts', attemptsRouter(ctx))
   app.use('/api', assignmentsRouter(ctx))
+  app.use('/api', recordsRouter(ctx))
   app.use('/api', apiNotFound)
 
   const clientDir = deps.clientDir ?? DEFAULT_CLIENT_DIR

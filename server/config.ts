@@ -51,7 +51,22 @@ const envSchema = z.object({
     .min(0)
     .max(64)
     .optional(),
+  CENTRE_NAME: optionalText.pipe(
+    z.string().max(160, { error: 'CENTRE_NAME: at most 160 characters' }).optional(),
+  ),
+  CENTRE_TIME_ZONE: optionalText.refine((value) => value === undefined || isTimeZone(value), {
+    error: 'CENTRE_TIME_ZONE must be an IANA time zone such as Europe/London or Pacific/Auckland',
+  }),
 })
+
+function isTimeZone(value: string): boolean {
+  try {
+    new Intl.DateTimeFormat('en-GB', { timeZone: value })
+    return true
+  } catch {
+    return false
+  }
+}
 
 export interface RateLimitRule {
   windowMs: number
@@ -103,6 +118,8 @@ export interface AppConfig {
   passwordHashing: PasswordHashing
   /** Worker threads that grade submitted attempts; 0 (the default) grades on the event loop. */
   gradingThreads: number
+  /** The centre named on printed records, and the time zone their dates are printed in. */
+  centre: { name: string; timeZone: string }
   version: string
 }
 
@@ -178,6 +195,7 @@ export function loadConfig(
     // Off by default: on Node 20, worker threads that load TypeScript through tsx's module hooks next to a
     // main thread doing the same were seen to hang a restarted server (see README, Configuration).
     gradingThreads: e.GRADING_THREADS ?? 0,
+    centre: { name: e.CENTRE_NAME ?? 'Slipway training centre', timeZone: e.CENTRE_TIME_ZONE ?? 'UTC' },
     version: options.version ?? '0.0.0',
   }
 }

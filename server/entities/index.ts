@@ -7,6 +7,7 @@ import { EnrollmentEntity } from './enrollment'
 import { FeedbackEntity } from './feedback'
 import { InvitationEntity } from './invitation'
 import { MailMessageEntity } from './mail-message'
+import { OutcomeSignOffEntity } from './outcome-sign-off'
 import { PasswordResetEntity } from './password-reset'
 import { RateLimitCounterEntity } from './rate-limit-counter'
 import { RefreshTokenEntity } from './refresh-token'
@@ -22,6 +23,7 @@ export * from './enrollment'
 export * from './feedback'
 export * from './invitation'
 export * from './mail-message'
+export * from './outcome-sign-off'
 export * from './password-reset'
 export * from './rate-limit-counter'
 export * from './refresh-token'
@@ -44,4 +46,5 @@ export const entities = [
   MailMessageEntity,
   UploadEntity,
   RateLimitCounterEntity,
+  OutcomeSignOffEntity,
 ]
