@@ -1,9 +1,16 @@
 // Training data → what the screens and the PDF show: the outcome list (one policy for both: an outcome is
 // shown by the first passed attempt on its exercise), the training record's view model, the JSON summary.
-import type { OutcomeSignOff, TrainingOutcome, TrainingRecordSummary } from '@shared/api/records'
+import type {
+  CommissioningRecord,
+  OutcomeSignOff,
+  TrainingOutcome,
+  TrainingRecordSummary,
+} from '@shared/api/records'
 import type { OutcomeSignOffRow } from '../entities'
 import type { RecordAttempt, TrainingData } from './trainingData'
-import type { RecordCentre, TrainingRecordView } from './types'
+import { ASSISTANCE_LEVELS } from './format'
+import { trendChartSvg } from './trendChart'
+import type { CommissioningRecordView, RecordCentre, TrainingRecordView } from './types'
 
 /** Exercise keys in the order the record lists them (set work first, then practice), each at its newest version. */
 function exercises(data: TrainingData) {
@@ -125,4 +132,14 @@ export function fileSlug(text: string): string {
     .replace(/^-+|-+$/g, '')
     .slice(0, 60)
   return slug || 'record'
+}
+
+/** The commissioning record for the print view: the PDF's view model, the trend drawn, levels in words. */
+export function presentCommissioningRecord(view: CommissioningRecordView): CommissioningRecord {
+  const { trend, ...rest } = view
+  return {
+    ...rest,
+    attempt: { ...view.attempt, assistance: ASSISTANCE_LEVELS[view.attempt.assistance] },
+    trendSvg: trendChartSvg(trend),
+  }
 }

@@ -8,6 +8,7 @@ import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
 import {
   cohortTrainingRecordsZip,
+  commissioningRecordJson,
   commissioningRecordFile,
   signOffOutcome,
   trainingRecordFile,
@@ -33,6 +34,15 @@ export function recordsRouter(ctx: AppContext): Router {
     validate({ params: idParamsSchema }),
     async (req, res) => {
       sendFile(res, 'application/pdf', await commissioningRecordFile(ctx, currentUser(req), req.params.id))
+    },
+  )
+
+  router.get(
+    '/attempts/:id/commissioning-record',
+    auth,
+    validate({ params: idParamsSchema }),
+    async (req, res) => {
+      res.json(await commissioningRecordJson(ctx, currentUser(req), req.params.id))
     },
   )
 

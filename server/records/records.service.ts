@@ -6,6 +6,7 @@ import { In } from 'typeorm'
 import type { AttemptEvent } from '@shared/model'
 import { gradeResultSchema } from '@shared/api/grading'
 import type {
+  CommissioningRecord,
   OutcomeSignOff,
   SignOffRequest,
   TrainingRecordQuery,
@@ -31,10 +32,16 @@ import { nowIso } from '../infrastructure/clock'
 import { zipFiles } from './archive'
 import { buildCommissioningView } from './commissioningView'
 import { commissioningRecordPdf } from './commissioningRecord'
-import { fileSlug, presentSignOff, presentTrainingSummary, trainingRecordView } from './records.presenter'
+import {
+  fileSlug,
+  presentCommissioningRecord,
+  presentSignOff,
+  presentTrainingSummary,
+  trainingRecordView,
+} from './records.presenter'
 import { labelsOfApprentice, loadTrainingData, type TrainingScope } from './trainingData'
 import { trainingRecordPdf } from './trainingRecord'
-import type { RecordCentre } from './types'
+import type { CommissioningRecordView, RecordCentre } from './types'
 
 export interface RecordFile {
   fileName: string
@@ -48,12 +55,12 @@ const centreOf = (ctx: AppContext): RecordCentre => ({
 
 const notReady = (message: string) => conflict('conflict', message)
 
-/** The commissioning record of one submitted attempt, for whoever may read the attempt. */
-export async function commissioningRecordFile(
+/** The commissioning record's view model of one submitted attempt, for whoever may read the attempt. */
+async function commissioningRecordView(
   ctx: AppContext,
   user: UserRow,
   attemptId: string,
-): Promise<RecordFile> {
+): Promise<{ view: CommissioningRecordView; fileName: string }> {
   const ds = ctx.dataSource
   const attempt = await attemptFor(ds, user, attemptId, 'read')
   if (attempt.status !== 'submitted') {
@@ -117,9 +124,27 @@ export async function commissioningRecordFile(
   })
   const attemptNumber = label.replace(/\D+/g, '') || '1'
   return {
+    view,
     fileName: `commissioning-record-${fileSlug(scenarioRow.key)}-attempt-${attemptNumber}-${fileSlug(apprentice.name)}.pdf`,
-    bytes: await commissioningRecordPdf(view),
   }
+}
+
+export async function commissioningRecordFile(
+  ctx: AppContext,
+  user: UserRow,
+  attemptId: string,
+): Promise<RecordFile> {
+  const { view, fileName } = await commissioningRecordView(ctx, user, attemptId)
+  return { fileName, bytes: await commissioningRecordPdf(view) }
+}
+
+/** The same record as JSON, for the browser's print view. */
+export async function commissioningRecordJson(
+  ctx: AppContext,
+  user: UserRow,
+  attemptId: string,
+): Promise<CommissioningRecord> {
+  return presentCommissioningRecord((await commissioningRecordView(ctx, user, attemptId)).view)
 }
 
 async function apprenticeById(ctx: AppContext, id: string): Promise<UserRow> {

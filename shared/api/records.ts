@@ -50,3 +50,74 @@ export const trainingRecordSummarySchema = z.object({
   safetyViolations: z.number().int().nonnegative(),
 })
 export type TrainingRecordSummary = z.infer<typeof trainingRecordSummarySchema>
+
+/** A commissioning record for the browser's print view: the same view model the PDF is made from. */
+const objectiveLineSchema = z.object({
+  title: z.string(),
+  required: z.boolean(),
+  safety: z.boolean(),
+  met: z.boolean(),
+  pointsEarned: z.number(),
+  pointsPossible: z.number(),
+  evidence: z.string(),
+})
+
+export const commissioningRecordSchema = z.object({
+  centre: z.object({ name: z.string(), timeZone: z.string(), locale: z.string().optional() }),
+  generatedAt: z.string(),
+  scenario: z.object({ title: z.string(), version: z.number(), site: z.string(), machine: z.string() }),
+  apprentice: z.object({ name: z.string() }),
+  instructor: z.object({ name: z.string() }).nullable(),
+  attempt: z.object({
+    label: z.string(),
+    startedAt: z.string(),
+    submittedAt: z.string().nullable(),
+    simulatedMs: z.number(),
+    /** In words, e.g. "Assessment (no extra help)". */
+    assistance: z.string(),
+  }),
+  result: z.object({
+    score: z.number(),
+    passed: z.boolean(),
+    autoScore: z.number(),
+    autoPassed: z.boolean(),
+    points: z.object({
+      earned: z.number(),
+      hintCost: z.number(),
+      net: z.number(),
+      possible: z.number(),
+      passMark: z.number(),
+    }),
+    summary: z.string(),
+  }),
+  objectives: z.array(objectiveLineSchema),
+  hintsUsed: z.array(z.object({ text: z.string(), atMs: z.number(), cost: z.number() })),
+  safetyViolations: z.array(z.object({ atMs: z.number(), text: z.string() })),
+  schematic: z.object({ svg: z.string(), width: z.number(), height: z.number() }),
+  trendSvg: z.string(),
+  wires: z.array(z.object({ number: z.string(), colour: z.string(), from: z.string(), to: z.string() })),
+  settings: z.array(
+    z.object({
+      group: z.string(),
+      label: z.string(),
+      value: z.string(),
+      defaultValue: z.string(),
+      changedFromDefault: z.boolean(),
+      changedInAttempt: z.boolean(),
+    }),
+  ),
+  unsavedSettings: z.array(z.object({ label: z.string(), value: z.string() })),
+  review: z.object({
+    feedback: z.array(z.object({ author: z.string(), at: z.string(), body: z.string() })),
+    override: z
+      .object({
+        by: z.string(),
+        at: z.string(),
+        from: z.object({ score: z.number(), passed: z.boolean() }),
+        to: z.object({ score: z.number(), passed: z.boolean() }),
+        reason: z.string(),
+      })
+      .nullable(),
+  }),
+})
+export type CommissioningRecord = z.infer<typeof commissioningRecordSchema>

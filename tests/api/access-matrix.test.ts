@@ -258,6 +258,11 @@ const ROUTES: Route[] = [
   // records
   {
     method: 'get',
+    path: (w) => `/api/attempts/${w.attemptA1.id}/commissioning-record`,
+    expect: { none: 401, apprentice: 200, peer: 403, instructor: 200, otherInstructor: 403, admin: 200 },
+  },
+  {
+    method: 'get',
     path: (w) => `/api/attempts/${w.attemptA1.id}/commissioning-record.pdf`,
     expect: { none: 401, apprentice: 200, peer: 403, instructor: 200, otherInstructor: 403, admin: 200 },
   },

@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { SETTINGS, type SettingKey } from '../../shared/model'
 import {
   attemptSummarySchema,
+  commissioningRecordSchema,
   outcomeSignOffSchema,
   trainingRecordSummarySchema,
   type AttemptSummary,
@@ -114,6 +115,24 @@ describe('records', () => {
       expect(pdf).toContain('12 %, not passed (changed by the instructor')
     }, 60_000)
 
+    it('gives the print view the same record as JSON, with levels and settings in words', async () => {
+      const res = await expectStatus(
+        supertest(api.app)
+          .get(`/api/attempts/${passed.id}/commissioning-record`)
+          .set(bearer(w.instructorA.token)),
+        200,
+      )
+      const record = commissioningRecordSchema.parse(res.body)
+      expect(record.attempt.label).toBe('Attempt 2')
+      expect(record.attempt.assistance).toBe('Standard')
+      expect(record.schematic.svg).toMatch(/^<svg /)
+      expect(record.trendSvg).toMatch(/^<svg /)
+      expect(record.result.score).toBe(passed.grade!.score)
+      const drawing = drawSchematic(wiringOfState(endState(scenario, reference.events)))
+      expect(record.wires.map((x) => x.number)).toEqual(drawing.layout.wires.map((x) => x.number))
+      expect(JSON.stringify(record)).not.toMatch(/"(drive|motor)\.[a-zA-Z]+"/)
+    })
+
     it('refuses an attempt still in progress with a clear reason, not a server error', async () => {
       const saved = await expectStatus(
         submit(api, w.apprenticeA1, { assignmentId: w.assignmentA.id, status: 'inProgress', events: [] }),
@@ -124,6 +143,10 @@ describe('records', () => {
         .set(bearer(w.apprenticeA1.token))
       expect(res.status).toBe(409)
       expect(res.body.error.message).toMatch(/not been submitted yet/)
+      const json = await supertest(api.app)
+        .get(`/api/attempts/${saved.body.id}/commissioning-record`)
+        .set(bearer(w.apprenticeA1.token))
+      expect(json.status).toBe(409)
     })
 
     it('answers a malformed or unknown attempt id with 400 and 404', async () => {
