@@ -8,7 +8,7 @@ import type {
 } from '@shared/api/records'
 import type { OutcomeSignOffRow } from '../entities'
 import type { RecordAttempt, TrainingData } from './trainingData'
-import { ASSISTANCE_LEVELS } from './format'
+import { ASSISTANCE_LEVELS, formatAttemptTime, formatDateTime, formatDuration } from './format'
 import { trendChartSvg } from './trendChart'
 import type { CommissioningRecordView, RecordCentre, TrainingRecordView } from './types'
 
@@ -136,10 +136,25 @@ export function fileSlug(text: string): string {
 
 /** The commissioning record for the print view: the PDF's view model, the trend drawn, levels in words. */
 export function presentCommissioningRecord(view: CommissioningRecordView): CommissioningRecord {
-  const { trend, ...rest } = view
+  const clock = { timeZone: view.centre.timeZone, locale: view.centre.locale ?? 'en-GB' }
+  const at = (iso: string) => formatDateTime(iso, clock)
+  const { trend, generatedAt: _generatedAt, ...rest } = view
   return {
     ...rest,
-    attempt: { ...view.attempt, assistance: ASSISTANCE_LEVELS[view.attempt.assistance] },
+    generated: at(view.generatedAt),
+    attempt: {
+      label: view.attempt.label,
+      started: at(view.attempt.startedAt),
+      submitted: view.attempt.submittedAt ? at(view.attempt.submittedAt) : null,
+      timeOnBench: formatDuration(view.attempt.simulatedMs),
+      assistance: ASSISTANCE_LEVELS[view.attempt.assistance],
+    },
+    hintsUsed: view.hintsUsed.map((h) => ({ text: h.text, at: formatAttemptTime(h.atMs), cost: h.cost })),
+    safetyViolations: view.safetyViolations.map((v) => ({ text: v.text, at: formatAttemptTime(v.atMs) })),
     trendSvg: trendChartSvg(trend),
+    review: {
+      feedback: view.review.feedback.map((f) => ({ ...f, at: at(f.at) })),
+      override: view.review.override && { ...view.review.override, at: at(view.review.override.at) },
+    },
   }
 }

@@ -51,7 +51,10 @@ export const trainingRecordSummarySchema = z.object({
 })
 export type TrainingRecordSummary = z.infer<typeof trainingRecordSummarySchema>
 
-/** A commissioning record for the browser's print view: the same view model the PDF is made from. */
+/**
+ * A commissioning record for the browser's print view: the view model the PDF is made from, with every
+ * date and time already written in words in the centre's time zone (as the PDF prints them).
+ */
 const objectiveLineSchema = z.object({
   title: z.string(),
   required: z.boolean(),
@@ -64,15 +67,16 @@ const objectiveLineSchema = z.object({
 
 export const commissioningRecordSchema = z.object({
   centre: z.object({ name: z.string(), timeZone: z.string(), locale: z.string().optional() }),
-  generatedAt: z.string(),
+  generated: z.string(),
   scenario: z.object({ title: z.string(), version: z.number(), site: z.string(), machine: z.string() }),
   apprentice: z.object({ name: z.string() }),
   instructor: z.object({ name: z.string() }).nullable(),
   attempt: z.object({
     label: z.string(),
-    startedAt: z.string(),
-    submittedAt: z.string().nullable(),
-    simulatedMs: z.number(),
+    started: z.string(),
+    submitted: z.string().nullable(),
+    /** Simulated time on the bench, e.g. "12 min 30 s". */
+    timeOnBench: z.string(),
     /** In words, e.g. "Assessment (no extra help)". */
     assistance: z.string(),
   }),
@@ -91,8 +95,9 @@ export const commissioningRecordSchema = z.object({
     summary: z.string(),
   }),
   objectives: z.array(objectiveLineSchema),
-  hintsUsed: z.array(z.object({ text: z.string(), atMs: z.number(), cost: z.number() })),
-  safetyViolations: z.array(z.object({ atMs: z.number(), text: z.string() })),
+  /** `at`: time into the attempt, e.g. "01:27.2". */
+  hintsUsed: z.array(z.object({ text: z.string(), at: z.string(), cost: z.number() })),
+  safetyViolations: z.array(z.object({ at: z.string(), text: z.string() })),
   schematic: z.object({ svg: z.string(), width: z.number(), height: z.number() }),
   trendSvg: z.string(),
   wires: z.array(z.object({ number: z.string(), colour: z.string(), from: z.string(), to: z.string() })),
