@@ -240,6 +240,28 @@ describe('records', () => {
       expect(text).toMatch(/Attempt 2 \d+ \w+ \d{4} 100 % Passed/)
     }, 60_000)
 
+    it('shows free practice to the apprentice, never to the instructor', async () => {
+      await expectStatus(
+        submit(api, w.apprenticeA1, { scenarioId: w.scenario.id, events: reference.events }),
+        201,
+      )
+      const as = async (token: string) =>
+        trainingRecordSummarySchema.parse(
+          (
+            await expectStatus(
+              supertest(api.app)
+                .get(`/api/apprentices/${w.apprenticeA1.user.id}/training-record`)
+                .set(bearer(token)),
+              200,
+            )
+          ).body,
+        ).attempts
+      const own = await as(w.apprenticeA1.token)
+      const instructors = await as(w.instructorA.token)
+      expect(own).toBe(instructors + 1)
+      expect(await as(w.admin.token)).toBe(own)
+    })
+
     it('keeps records to their people: a peer and another cohort’s instructor are refused', async () => {
       const path = `/api/apprentices/${w.apprenticeA1.user.id}/training-record.pdf`
       expect((await supertest(api.app).get(path).set(bearer(w.apprenticeA2.token))).status).toBe(403)
