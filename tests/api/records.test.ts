@@ -13,6 +13,7 @@ import {
   type AttemptSummary,
 } from '../../shared/api'
 import { drawSchematic, wiringOfState } from '../../shared/schematic'
+import { ConfigError, loadConfig } from '../../server/config'
 import { AuditEntryEntity, OutcomeSignOffEntity } from '../../server/entities'
 import { bearer, createTestApi, type TestApi } from '../support/api-harness'
 import { attemptFixtures, endState, scenarioById } from '../support/shipped-attempts'
@@ -304,5 +305,15 @@ describe('records', () => {
       expect(res.status).toBe(409)
       expect(res.body.error.message).toMatch(/no apprentices yet/)
     })
+  })
+})
+
+describe('the centre on the records (configuration)', () => {
+  it('takes its name and an IANA time zone, and refuses a zone that does not exist', () => {
+    const config = loadConfig({ CENTRE_NAME: 'Kestrel Vale', CENTRE_TIME_ZONE: 'Pacific/Auckland' })
+    expect(config.centre).toEqual({ name: 'Kestrel Vale', timeZone: 'Pacific/Auckland' })
+    expect(loadConfig({}).centre.timeZone).toBe('UTC')
+    expect(() => loadConfig({ CENTRE_TIME_ZONE: 'Mars/Olympus_Mons' })).toThrow(ConfigError)
+    expect(() => loadConfig({ CENTRE_TIME_ZONE: 'Mars/Olympus_Mons' })).toThrow(/CENTRE_TIME_ZONE/)
   })
 })
