@@ -9,6 +9,7 @@ import { InvitationEntity } from './invitation'
 import { JobEntity } from './job'
 import { ltiEntities } from './lti'
 import { MailMessageEntity } from './mail-message'
+import { OutcomeSignOffEntity } from './outcome-sign-off'
 import { PasswordResetEntity } from './password-reset'
 import { RateLimitCounterEntity } from './rate-limit-counter'
 import { RefreshTokenEntity } from './refresh-token'
@@ -26,6 +27,7 @@ export * from './invitation'
 export * from './job'
 export * from './lti'
 export * from './mail-message'
+export * from './outcome-sign-off'
 export * from './password-reset'
 export * from './rate-limit-counter'
 export * from './refresh-token'
@@ -50,4 +52,5 @@ export const entities = [
   RateLimitCounterEntity,
   JobEntity,
   ...ltiEntities,
+  OutcomeSignOffEntity,
 ]

@@ -5,6 +5,7 @@ import { GradebookCoveringIndex1764800000000 } from './1764800000000-gradebook-c
 import { GradebookRevision1764900000000 } from './1764900000000-gradebook-revision'
 import { JobQueue1765000000000 } from './1765000000000-job-queue'
 import { Lti1765100000000 } from './1765100000000-lti'
+import { OutcomeSignOffs1765200000000 } from './1765200000000-outcome-sign-offs'
 
 export const migrations = [
   InitialSchema1764600000000,
@@ -13,4 +14,5 @@ export const migrations = [
   GradebookRevision1764900000000,
   JobQueue1765000000000,
   Lti1765100000000,
+  OutcomeSignOffs1765200000000,
 ]

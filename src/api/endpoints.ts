@@ -51,6 +51,14 @@ export const endpoints = {
     feedback: (id: string) => `/attempts/${enc(id)}/feedback`,
     override: (id: string) => `/attempts/${enc(id)}/grade-override`,
   },
+  records: {
+    commissioning: (attemptId: string) => `/attempts/${enc(attemptId)}/commissioning-record`,
+    commissioningPdf: (attemptId: string) => `/attempts/${enc(attemptId)}/commissioning-record.pdf`,
+    training: (apprenticeId: string) => `/apprentices/${enc(apprenticeId)}/training-record`,
+    trainingPdf: (apprenticeId: string) => `/apprentices/${enc(apprenticeId)}/training-record.pdf`,
+    signOffs: (apprenticeId: string) => `/apprentices/${enc(apprenticeId)}/sign-offs`,
+    cohortZip: (cohortId: string) => `/cohorts/${enc(cohortId)}/training-records.zip`,
+  },
   admin: {
     users: '/admin/users',
     user: (id: string) => `/admin/users/${enc(id)}`,

@@ -86,6 +86,12 @@ export const routes: RouteRecordRaw[] = [
     meta: { roles: ['apprentice'], title: 'Attempt result' },
   },
   {
+    path: '/records/commissioning/:id',
+    name: 'commissioning-record',
+    component: () => import('@/views/CommissioningRecordPrintView.vue'),
+    meta: { title: 'Commissioning record' },
+  },
+  {
     path: '/simulator/:key/:version(\\d+)?',
     name: 'simulator',
     component: () => import('@/views/SimulatorView.vue'),

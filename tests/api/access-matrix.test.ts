@@ -5,7 +5,7 @@ import { randomUUID } from 'node:crypto'
 import { readFileSync } from 'node:fs'
 import supertest from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { EnrollmentEntity } from '../../server/entities'
+import { EnrollmentEntity, OutcomeSignOffEntity } from '../../server/entities'
 import { createTestApi, type TestApi, type TestUser } from '../support/api-harness'
 import { buildWorld, EMPTY_LOG, type World } from '../support/world'
 
@@ -256,6 +256,46 @@ const ROUTES: Route[] = [
     body: () => ({ score: 55, passed: false, reason: 'Matrix override' }),
     expect: ownCohortStaff(200),
   },
+  // records
+  {
+    method: 'get',
+    path: (w) => `/api/attempts/${w.attemptA1.id}/commissioning-record`,
+    expect: { none: 401, apprentice: 200, peer: 403, instructor: 200, otherInstructor: 403, admin: 200 },
+  },
+  {
+    method: 'get',
+    path: (w) => `/api/attempts/${w.attemptA1.id}/commissioning-record.pdf`,
+    expect: { none: 401, apprentice: 200, peer: 403, instructor: 200, otherInstructor: 403, admin: 200 },
+  },
+  {
+    method: 'get',
+    path: (w) => `/api/apprentices/${w.apprenticeA1.user.id}/training-record`,
+    expect: { none: 401, apprentice: 200, peer: 403, instructor: 200, otherInstructor: 403, admin: 200 },
+  },
+  {
+    method: 'get',
+    path: (w) => `/api/apprentices/${w.apprenticeA1.user.id}/training-record.pdf`,
+    expect: { none: 401, apprentice: 200, peer: 403, instructor: 200, otherInstructor: 403, admin: 200 },
+  },
+  {
+    method: 'post',
+    path: (w) => `/api/apprentices/${w.apprenticeA1.user.id}/sign-offs`,
+    body: (w) => ({
+      cohortId: w.cohortA.id,
+      scenarioKey: w.scenario.key,
+      outcome: shipped(w.scenario.key).learningOutcomes[0],
+      note: 'Matrix sign-off',
+    }),
+    expect: ownCohortStaff(201),
+    restore: async (_w, api) => {
+      await api.dataSource.getRepository(OutcomeSignOffEntity).clear()
+    },
+  },
+  {
+    method: 'get',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/training-records.zip`,
+    expect: ownCohortStaff(200),
+  },
   // admin
   { method: 'get', path: () => '/api/admin/users', expect: adminOnly(200) },
   {
@@ -399,7 +439,7 @@ describe('access matrix: every route × every role', () => {
     const response = await request
     if (user && route.endsSessions) user.token = (await api.signIn(user.email, user.password)).token
     await route.restore?.(w, api)
-    expect(response.status, response.text.slice(0, 300)).toBe(status)
+    expect(response.status, (response.text ?? '').slice(0, 300)).toBe(status) // no text for a PDF or zip
     if (status >= 400) expect(response.body.error?.code, 'error body').toEqual(expect.any(String))
   })
 

@@ -106,7 +106,7 @@ describe('accessibility of every main screen', () => {
     expectOnlyKnown(found)
   })
 
-  it('apprentice: home, practice, attempts, a result, the simulator, profile', async () => {
+  it('apprentice: home, practice, attempts, a result and its printed record, the simulator, profile', async () => {
     const { page } = browser
     await signIn(page, app.url, demo('apprentice'))
     const found = [
@@ -117,6 +117,9 @@ describe('accessibility of every main screen', () => {
     await page.getByRole('link', { name: 'Details' }).first().click()
     await page.getByRole('heading', { name: 'Objectives' }).waitFor()
     found.push(...(await check('attempt-result')))
+    await page.getByRole('link', { name: 'Print view' }).click()
+    await page.getByRole('heading', { name: 'Commissioning record', level: 1 }).waitFor()
+    found.push(...(await check('commissioning-record-print')))
     await page.goto(`${app.url}/simulator/raise-lower-commissioning`)
     // The safety notice first (a dialog), then the panel around the canvas.
     await page.getByTestId('safety-understood').waitFor({ timeout: 30_000 })
