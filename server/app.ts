@@ -10,6 +10,7 @@ import { adminRouter } from './admin/admin.router'
 import { assignmentsRouter } from './assignments/assignments.router'
 import { attemptsRouter } from './attempts/attempts.router'
 import { authRouter } from './auth/auth.router'
+import { centreRouter } from './centre/centre.router'
 import { cohortsRouter } from './cohorts/cohorts.router'
 import type { AppConfig } from './config'
 import type { AppContext } from './context'
@@ -97,6 +98,7 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api/auth', authRouter(ctx))
   app.use('/api/invitations', invitationsRouter(ctx))
   app.use('/api/admin', adminRouter(ctx))
+  app.use('/api/centre', centreRouter(ctx))
   app.use('/api/cohorts', cohortsRouter(ctx))
   app.use('/api/cohorts', gradebookRouter(ctx))
   app.use('/api/scenarios', scenariosRouter(ctx))

@@ -5,7 +5,7 @@ import { In } from 'typeorm'
 import type {
   Assignment,
   AssignmentStats,
-  CreateAssignmentRequest,
+  CreateAssignment,
   UpdateAssignmentRequest,
 } from '@shared/api/assignments'
 import { assignmentFor, cohortFor, readableCohortIds } from '../access/access.service'
@@ -20,11 +20,14 @@ import {
   type AssignmentRow,
   type UserRow,
 } from '../entities'
-import { NOT_STARTED, standingsByAssignmentAndUser } from '../gradebook/standings'
+import { centreTimeZone } from '../centre/centre.service'
+import { standingsFor, pairKey } from '../gradebook/standings'
 import { HttpError, conflict } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
 import { assignmentPublishedMail } from '../infrastructure/mail/templates'
+import { passRulesOf, UNKNOWN_RULE } from '../scenarios/pass-rules'
 import { presentAssignment, presentAssignmentStats } from './assignment.presenter'
+import { refreshLateFlags } from './late-flags'
 
 /** Assignments as the viewer sees them: cohort names, scenario keys, and an apprentice's own standing. */
 async function presentAssignments(
@@ -42,18 +45,12 @@ async function presentAssignments(
     select: { id: true, key: true, version: true },
   })
   const mine =
-    viewer.role === 'apprentice'
-      ? await standingsByAssignmentAndUser(
-          ds,
-          rows.map((r) => r.id),
-          viewer.id,
-        )
-      : undefined
+    viewer.role === 'apprentice' ? await standingsFor(ds, rows, [viewer.id], nowIso(), viewer.id) : undefined
   return rows.map((row) =>
     presentAssignment(row, {
       cohortName: cohorts.find((c) => c.id === row.cohortId)?.name ?? '',
       scenario: scenarios.find((s) => s.id === row.scenarioId)!,
-      mine: mine ? (mine.get(`${row.id}:${viewer.id}`) ?? NOT_STARTED) : undefined,
+      mine: mine?.get(pairKey(row.id, viewer.id)),
     }),
   )
 }
@@ -82,7 +79,11 @@ export async function listAssignments(
     where: ids ? { cohortId: In(ids) } : {},
     order: { dueAt: 'ASC' },
   })
-  return presentAssignments(ctx, rows, user)
+  const presented = await presentAssignments(ctx, rows, user)
+  // An apprentice sees only the work set for them.
+  return user.role === 'apprentice'
+    ? presented.filter((a) => a.myProgress?.status !== 'notAssigned')
+    : presented
 }
 
 /** Publishing tells every active member of the cohort by mail. */
@@ -90,7 +91,7 @@ export async function createAssignment(
   ctx: AppContext,
   user: UserRow,
   cohortId: string,
-  body: CreateAssignmentRequest,
+  body: CreateAssignment,
 ): Promise<Assignment> {
   const ds = ctx.dataSource
   const cohort = await cohortFor(ds, user, cohortId, 'manage')
@@ -113,12 +114,16 @@ export async function createAssignment(
     hintsAllowed: body.hintsAllowed,
     createdById: user.id,
     createdAt: nowIso(),
+    latePolicy: body.latePolicy,
+    latePenalty: body.latePolicy === 'acceptLate' ? body.latePenalty : 0,
+    audience: 'cohort',
   }
   await ds.getRepository(AssignmentEntity).insert(row)
   const members = await ds.getRepository(EnrollmentEntity).findBy({ cohortId: cohort.id })
   const people = members.length
     ? await ds.getRepository(UserEntity).findBy({ id: In(members.map((m) => m.userId)), active: true })
     : []
+  const timeZone = await centreTimeZone(ds)
   for (const person of people) {
     ctx.mailer.send(
       assignmentPublishedMail({
@@ -127,6 +132,7 @@ export async function createAssignment(
         title: row.title,
         cohortName: cohort.name,
         dueAt: row.dueAt,
+        timeZone,
         url: appLink(ctx, `/assignments/${row.id}`),
       }),
     )
@@ -157,14 +163,21 @@ export async function updateAssignment(
     dueAt: changes.dueAt ? new Date(changes.dueAt).toISOString() : assignment.dueAt,
     attemptLimit: changes.attemptLimit === undefined ? assignment.attemptLimit : changes.attemptLimit,
     hintsAllowed: changes.hintsAllowed ?? Boolean(assignment.hintsAllowed),
+    latePolicy: changes.latePolicy ?? assignment.latePolicy,
+    latePenalty: changes.latePenalty ?? assignment.latePenalty,
   }
+  if (next.latePolicy === 'closeAtDue') next.latePenalty = 0
   if (next.dueAt <= next.opensAt) {
     throw new HttpError(400, 'validation_failed', 'The due date must be after the opening date', {
       fields: { dueAt: ['Must be after the opening date'] },
     })
   }
   const { id: _id, ...fields } = next
-  await ctx.dataSource.getRepository(AssignmentEntity).update({ id: assignment.id }, fields)
+  await ctx.dataSource.transaction(async (manager) => {
+    await manager.getRepository(AssignmentEntity).update({ id: assignment.id }, fields)
+    // A moved due date decides again which attempts were late.
+    if (next.dueAt !== assignment.dueAt) await refreshLateFlags(manager, next)
+  })
   return presentOne(ctx, next, user)
 }
 
@@ -189,7 +202,12 @@ export async function assignmentStats(
   const ds = ctx.dataSource
   const { assignment } = await assignmentFor(ds, user, assignmentId, 'manage')
   const members = await ds.getRepository(EnrollmentEntity).findBy({ cohortId: assignment.cohortId })
-  const byMember = await standingsByAssignmentAndUser(ds, [assignment.id])
-  const standings = members.map((m) => byMember.get(`${assignment.id}:${m.userId}`) ?? NOT_STARTED)
-  return presentAssignmentStats(assignment.id, standings)
+  const userIds = members.map((m) => m.userId)
+  const byMember = await standingsFor(ds, [assignment], userIds, nowIso())
+  const rule = (await passRulesOf(ds, [assignment.scenarioId])).get(assignment.scenarioId) ?? UNKNOWN_RULE
+  return presentAssignmentStats(
+    assignment.id,
+    userIds.map((id) => byMember.get(pairKey(assignment.id, id))!),
+    rule,
+  )
 }

@@ -2,7 +2,10 @@
 import { randomUUID } from 'node:crypto'
 import type { AttemptSummary, SubmitAttemptRequest } from '@shared/api/attempts'
 import type { AttemptEvent } from '@shared/model/events'
+import { checkSubmission, personalTerms } from '@shared/progress'
+import { formatInZone } from '@shared/time/zone'
 import { isEnrolled } from '../access/access.service'
+import { centreTimeZone } from '../centre/centre.service'
 import { appLink, type AppContext } from '../context'
 import {
   AssignmentEntity,
@@ -19,6 +22,7 @@ import { HttpError, conflict } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
 import { findById } from '../infrastructure/database/lookups'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
+import { apprenticeFacts, assignmentTerms } from '../gradebook/standings'
 import { presentOne } from './attempts.service'
 
 interface Target {
@@ -51,21 +55,46 @@ async function resolveTarget(ctx: AppContext, user: UserRow, body: SubmitAttempt
   return { scenario, assignment: null }
 }
 
-function checkRules(assignment: AssignmentRow, events: AttemptEvent[], usedAttempts: number, now: string) {
-  if (now < assignment.opensAt) {
-    throw conflict('assignment_not_open', `This assignment opens at ${assignment.opensAt}`)
-  }
-  if (assignment.attemptLimit !== null && usedAttempts >= assignment.attemptLimit) {
-    throw conflict(
-      'attempt_limit_reached',
-      `All ${assignment.attemptLimit} attempt(s) allowed have been used`,
-    )
+/**
+ * The apprentice's own terms decide (shared/progress): their due date, allowance and the late policy.
+ * Returns whether the work is late.
+ */
+async function checkRules(
+  ctx: AppContext,
+  user: UserRow,
+  assignment: AssignmentRow,
+  events: AttemptEvent[],
+  usedAttempts: number,
+  now: string,
+): Promise<boolean> {
+  const facts = await apprenticeFacts(ctx.dataSource, [assignment], user.id)
+  const terms = personalTerms(assignmentTerms(assignment), facts.facts(assignment, user.id))
+  const check = checkSubmission(terms, now, usedAttempts)
+  if (!check.ok) {
+    const timeZone = await centreTimeZone(ctx.dataSource)
+    switch (check.refusal) {
+      case 'notAssigned':
+        throw new HttpError(403, 'forbidden', check.message)
+      case 'notOpen':
+        throw conflict(
+          'assignment_not_open',
+          `This assignment opens on ${formatInZone(terms.opensAt, timeZone, 'dateTimeZone')}`,
+        )
+      case 'closed':
+        throw conflict(
+          'assignment_closed',
+          `This assignment closed on ${formatInZone(terms.dueAt, timeZone, 'dateTimeZone')}; ask your instructor for an extension`,
+        )
+      case 'noAttemptsLeft':
+        throw conflict('attempt_limit_reached', check.message)
+    }
   }
   if (!assignment.hintsAllowed && events.some((e) => e.type === 'hint.revealed')) {
     throw new HttpError(400, 'hints_not_allowed', 'Hints are not allowed on this assignment', {
       fields: { events: ['Contains a revealed hint'] },
     })
   }
+  return check.late
 }
 
 class LostRace extends Error {}
@@ -106,9 +135,10 @@ async function storeSubmission(
   const { scenario, assignment } = await resolveTarget(ctx, user, body)
   const now = nowIso()
   const events = body.events as AttemptEvent[]
+  let late = false
   if (assignment) {
     const used = await attempts.countBy({ assignmentId: assignment.id, userId: user.id, status: 'submitted' })
-    checkRules(assignment, events, used, now)
+    late = await checkRules(ctx, user, assignment, events, used, now)
   }
   const submitting = body.status === 'submitted'
   // Serialised once: the row stores this text, and a grading thread parses it (cheaper than cloning
@@ -123,7 +153,7 @@ async function storeSubmission(
     status: body.status,
     events: eventsJson,
     eventCount: events.length,
-    late: Boolean(assignment && submitting && now > assignment.dueAt),
+    late: submitting && late,
     startedAt: existing?.startedAt ?? now,
     updatedAt: now,
     submittedAt: submitting ? now : null,
@@ -133,6 +163,10 @@ async function storeSubmission(
     passed: grade?.passed ?? null,
     evidence: grade ? JSON.stringify(grade.evidence) : null,
     gradedAt: grade ? now : null,
+    reviewedAt: existing?.reviewedAt ?? null,
+    reviewedById: existing?.reviewedById ?? null,
+    overriddenAt: null,
+    overrideReason: null,
   }
   try {
     await ds.transaction(async (manager) => {

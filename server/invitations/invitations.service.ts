@@ -14,6 +14,7 @@ import {
 } from '@shared/api/invitations'
 import { cohortFor } from '../access/access.service'
 import { startSession, type IssuedSession } from '../auth/sessions.service'
+import { centreTimeZone } from '../centre/centre.service'
 import { appLink, type AppContext } from '../context'
 import {
   CohortEntity,
@@ -40,6 +41,8 @@ export interface InviteInput {
   role: Role
   cohort: CohortRow | null
   inviter: UserRow
+  /** The centre's time zone, read before the transaction (the expiry date in the mail is on its clock). */
+  timeZone: string
 }
 
 /** Runs inside the caller's transaction; returns the mail to send once it has committed. */
@@ -95,6 +98,7 @@ async function invite(
     role: input.role,
     url: appLink(ctx, `/invitation?token=${encodeURIComponent(token)}`),
     expiresAt: row.expiresAt,
+    timeZone: input.timeZone,
   })
   return { outcome: { outcome: 'invited', email: input.email, invitation: presentInvitation(row) }, mail }
 }
@@ -118,8 +122,9 @@ export async function inviteInstructor(
   inviter: UserRow,
   person: { email: string; name: string },
 ): Promise<InviteOutcome> {
+  const timeZone = await centreTimeZone(ctx.dataSource)
   const { outcome, mail } = await ctx.dataSource.transaction((manager) =>
-    invite(ctx, manager, { ...person, role: 'instructor', cohort: null, inviter }),
+    invite(ctx, manager, { ...person, role: 'instructor', cohort: null, inviter, timeZone }),
   )
   if (mail) ctx.mailer.send(mail)
   return outcome
@@ -140,8 +145,9 @@ export async function inviteToCohort(
   person: { email: string; name: string },
 ): Promise<InviteOutcome> {
   const cohort = await openCohortFor(ctx, inviter, cohortId)
+  const timeZone = await centreTimeZone(ctx.dataSource)
   const { outcome, mail } = await ctx.dataSource.transaction((manager) =>
-    invite(ctx, manager, { ...person, role: 'apprentice', cohort, inviter }),
+    invite(ctx, manager, { ...person, role: 'apprentice', cohort, inviter, timeZone }),
   )
   if (mail) ctx.mailer.send(mail)
   return outcome
@@ -165,6 +171,7 @@ export async function inviteRoster(
       { rows: errors },
     )
   }
+  const timeZone = await centreTimeZone(ctx.dataSource)
   const results = await ctx.dataSource.transaction(async (manager) => {
     const done: { outcome: InviteOutcome; mail?: OutgoingMail }[] = []
     for (const row of rows) {
@@ -176,6 +183,7 @@ export async function inviteRoster(
             role: 'apprentice',
             cohort,
             inviter,
+            timeZone,
           }),
         )
       } catch (error) {

@@ -1,6 +1,9 @@
 // Assignments: one scenario version set for a cohort with a window, an attempt limit and a hint rule.
 import { z } from 'zod'
+import { LATE_POLICIES, WORK_STATUSES } from '../progress/standing'
 import { idSchema, isoDateTimeSchema } from './common'
+
+export const latePolicyFieldSchema = z.enum(LATE_POLICIES)
 
 const assignmentFields = {
   title: z.string().trim().max(160).optional(),
@@ -8,6 +11,9 @@ const assignmentFields = {
   dueAt: isoDateTimeSchema,
   attemptLimit: z.number().int().min(1).max(100).nullable(),
   hintsAllowed: z.boolean(),
+  /** Close at the due date, or accept late work with a penalty (points off a late attempt's score). */
+  latePolicy: latePolicyFieldSchema.default('acceptLate'),
+  latePenalty: z.number().int().min(0).max(100).default(0),
 }
 
 export const createAssignmentRequestSchema = z
@@ -16,7 +22,8 @@ export const createAssignmentRequestSchema = z
     error: 'The due date must be after the opening date',
     path: ['dueAt'],
   })
-export type CreateAssignmentRequest = z.infer<typeof createAssignmentRequestSchema>
+export type CreateAssignmentRequest = z.input<typeof createAssignmentRequestSchema>
+export type CreateAssignment = z.output<typeof createAssignmentRequestSchema>
 
 export const updateAssignmentRequestSchema = z
   .object({
@@ -25,18 +32,28 @@ export const updateAssignmentRequestSchema = z
     dueAt: assignmentFields.dueAt.optional(),
     attemptLimit: assignmentFields.attemptLimit.optional(),
     hintsAllowed: assignmentFields.hintsAllowed.optional(),
+    latePolicy: latePolicyFieldSchema.optional(),
+    latePenalty: z.number().int().min(0).max(100).optional(),
   })
   .refine((value) => Object.values(value).some((field) => field !== undefined), {
     error: 'Give at least one field to change',
   })
 export type UpdateAssignmentRequest = z.infer<typeof updateAssignmentRequestSchema>
 
-/** The apprentice's own standing on it (only in apprentice views). */
+/** The apprentice's own standing on it (only in apprentice views), under their own terms. */
 export const myProgressSchema = z.object({
   attemptsUsed: z.number().int().nonnegative(),
+  /** The score that counts (late penalty applied). */
   bestScore: z.number().nullable(),
   passed: z.boolean(),
   inProgressAttemptId: idSchema.nullable(),
+  status: z.enum(WORK_STATUSES),
+  /** Their own due date (an extension, or none when it passed before they enrolled). */
+  dueAt: isoDateTimeSchema.nullable(),
+  /** Their own attempt allowance (the assignment's plus any extra attempts). */
+  attemptLimit: z.number().int().nullable(),
+  excused: z.boolean(),
+  extended: z.boolean(),
 })
 export type MyProgress = z.infer<typeof myProgressSchema>
 
@@ -52,6 +69,8 @@ export const assignmentSchema = z.object({
   dueAt: isoDateTimeSchema,
   attemptLimit: z.number().int().nullable(),
   hintsAllowed: z.boolean(),
+  latePolicy: latePolicyFieldSchema,
+  latePenalty: z.number().int(),
   createdAt: isoDateTimeSchema,
   myProgress: myProgressSchema.nullable(),
 })
@@ -69,6 +88,17 @@ export const assignmentStatsSchema = z.object({
   mean: z.number().nullable(), // of each apprentice's best score
   median: z.number().nullable(),
   passRate: z.number().min(0).max(1).nullable(), // passed / attempted
-  histogram: z.array(z.object({ from: z.number(), to: z.number(), count: z.number().int().nonnegative() })),
+  /** Best scores per bin, passes and the rest apart (count = passed + not passed). */
+  histogram: z.array(
+    z.object({
+      from: z.number(),
+      to: z.number(),
+      count: z.number().int().nonnegative(),
+      passed: z.number().int().nonnegative(),
+    }),
+  ),
+  /** The pass mark as a score out of 100, and how many objectives must be met whatever the score. */
+  passMark: z.number().nullable(),
+  requiredObjectives: z.number().int().nonnegative(),
 })
 export type AssignmentStats = z.infer<typeof assignmentStatsSchema>

@@ -51,6 +51,7 @@ export const endpoints = {
     feedback: (id: string) => `/attempts/${enc(id)}/feedback`,
     override: (id: string) => `/attempts/${enc(id)}/grade-override`,
   },
+  centre: '/centre',
   admin: {
     users: '/admin/users',
     user: (id: string) => `/admin/users/${enc(id)}`,

@@ -154,6 +154,12 @@ export const routes: RouteRecordRaw[] = [
     meta: { roles: ['admin'], title: 'Mail outbox' },
   },
   {
+    path: '/admin/centre',
+    name: 'admin-centre',
+    component: () => import('@/views/AdminCentreView.vue'),
+    meta: { roles: ['admin'], title: 'Centre settings' },
+  },
+  {
     path: '/admin/backup',
     name: 'admin-backup',
     component: () => import('@/views/AdminBackupView.vue'),

@@ -255,6 +255,20 @@ const ROUTES: Route[] = [
     body: () => ({ score: 55, passed: false, reason: 'Matrix override' }),
     expect: ownCohortStaff(200),
   },
+  {
+    method: 'post',
+    path: (w) => `/api/attempts/${w.attemptA1.id}/review`,
+    body: () => ({ reviewed: true }),
+    expect: ownCohortStaff(200),
+  },
+  // centre settings
+  { method: 'get', path: () => '/api/centre', expect: signedIn(200) },
+  {
+    method: 'patch',
+    path: () => '/api/centre',
+    body: () => ({ timeZone: 'Europe/London' }),
+    expect: adminOnly(200),
+  },
   // admin
   { method: 'get', path: () => '/api/admin/users', expect: adminOnly(200) },
   {

@@ -75,6 +75,7 @@ describe('the gradebook', () => {
     const { page } = browser
     const download = page.waitForEvent('download')
     await page.getByRole('button', { name: 'Export CSV' }).click()
+    await page.getByRole('menuitem', { name: /Every apprentice/ }).click()
     const file = await download
     expect(file.suggestedFilename()).toMatch(/^gradebook-.*\.csv$/)
     const path = await file.path()

@@ -10,6 +10,7 @@ import {
   mdiSineWave,
   mdiTableLarge,
   mdiAccountKeyOutline,
+  mdiOfficeBuildingCogOutline,
 } from '@mdi/js'
 import type { Role } from '@shared/api'
 
@@ -39,6 +40,7 @@ export function navFor(role: Role): NavItem[] {
   return [
     { title: 'Users and roles', to: '/admin/users', icon: mdiAccountKeyOutline },
     { title: 'Mail outbox', to: '/admin/outbox', icon: mdiEmailOutline },
+    { title: 'Centre settings', to: '/admin/centre', icon: mdiOfficeBuildingCogOutline },
     { title: 'Backup', to: '/admin/backup', icon: mdiDatabaseArrowDownOutline },
     ...teaching,
     about,

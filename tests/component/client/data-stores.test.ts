@@ -9,7 +9,17 @@ import { ids, stubFetch } from './helpers'
 const gradebookReply = (name: string) => ({
   cohortId: ids.cohort,
   assignments: [],
-  rows: [{ userId: ids.user, name, email: 'x@bench.example', average: null, lastActivity: null, cells: [] }],
+  rows: [
+    {
+      userId: ids.user,
+      name,
+      email: 'x@bench.example',
+      average: null,
+      completion: { passed: 0, assigned: 0 },
+      lastActivity: null,
+      cells: [],
+    },
+  ],
   total: 1,
   page: 1,
   pageSize: 10,
@@ -69,6 +79,8 @@ describe('the data stores', () => {
       dueAt: '2026-12-08T17:00:00.000Z',
       attemptLimit: 3,
       hintsAllowed: true,
+      latePolicy: 'acceptLate',
+      latePenalty: 0,
       createdAt: '2026-12-01T09:00:00.000Z',
       myProgress: null,
     }
