@@ -8,6 +8,7 @@ import helmet from 'helmet'
 import type { DataSource } from 'typeorm'
 import { adminRouter } from './admin/admin.router'
 import { assignmentsRouter } from './assignments/assignments.router'
+import { attentionRouter } from './attention/attention.router'
 import { attemptsRouter } from './attempts/attempts.router'
 import { authRouter } from './auth/auth.router'
 import { centreRouter } from './centre/centre.router'
@@ -99,6 +100,7 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api/invitations', invitationsRouter(ctx))
   app.use('/api/admin', adminRouter(ctx))
   app.use('/api/centre', centreRouter(ctx))
+  app.use('/api/attention', attentionRouter(ctx))
   app.use('/api/cohorts', cohortsRouter(ctx))
   app.use('/api/cohorts', gradebookRouter(ctx))
   app.use('/api/scenarios', scenariosRouter(ctx))

@@ -64,6 +64,13 @@ export async function attemptFor(
   throw forbidden('This attempt is not yours')
 }
 
+/** Cohort ids a user manages: those an instructor teaches; every cohort for an admin (undefined). */
+export async function managedCohortIds(ds: DataSource, user: UserRow): Promise<string[] | undefined> {
+  if (user.role === 'admin') return undefined
+  if (user.role !== 'instructor') return []
+  return (await ds.getRepository(CohortEntity).findBy({ ownerId: user.id })).map((c) => c.id)
+}
+
 /** Cohort ids a user may read: enrolled (apprentice), owned (instructor), all (admin → undefined). */
 export async function readableCohortIds(ds: DataSource, user: UserRow): Promise<string[] | undefined> {
   if (user.role === 'admin') return undefined

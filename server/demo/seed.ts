@@ -24,7 +24,8 @@ import { seedSampleAttempts } from './seed-attempts'
 const DEMO_ASSIGNMENTS: { cohort: number; key: string; opensInDays: number; dueInDays: number }[] = [
   { cohort: 0, key: 'safe-isolation', opensInDays: -21, dueInDays: -7 },
   { cohort: 0, key: 'two-wire-run-stop', opensInDays: -14, dueInDays: 7 },
-  { cohort: 0, key: 'raise-lower-commissioning', opensInDays: -3, dueInDays: 14 },
+  // Due tomorrow: the instructor's needs-attention page has work closing soon to show.
+  { cohort: 0, key: 'raise-lower-commissioning', opensInDays: -3, dueInDays: 1 },
   { cohort: 1, key: 'safe-isolation', opensInDays: -7, dueInDays: 7 },
   { cohort: 1, key: 'three-wire-start-stop', opensInDays: -2, dueInDays: 21 },
 ]

@@ -188,11 +188,14 @@ export function standingOf(terms: PersonalTerms, pair: PairTally, now: string): 
   }
 }
 
-/** The standing of each given apprentice on each assignment, keyed by pairKey. */
+/**
+ * The standing of apprentices on assignments, keyed by pairKey: `people` names who, per assignment (the
+ * members of its cohort, say), or is the same list for every assignment.
+ */
 export async function standingsFor(
   ds: DataSource | EntityManager,
   assignments: AssignmentRow[],
-  userIds: string[],
+  people: string[] | ((assignment: AssignmentRow) => string[]),
   now: string,
   onlyUser?: string,
 ): Promise<Map<string, Standing>> {
@@ -202,7 +205,7 @@ export async function standingsFor(
   const standings = new Map<string, Standing>()
   for (const assignment of assignments) {
     const terms = assignmentTerms(assignment)
-    for (const userId of userIds) {
+    for (const userId of typeof people === 'function' ? people(assignment) : people) {
       const key = pairKey(assignment.id, userId)
       standings.set(
         key,

@@ -34,3 +34,12 @@ export function passRuleText(passMark: number | null, requiredObjectives: number
 }
 
 export const yesNo = (value: boolean) => (value ? 'yes' : 'no')
+
+/** The grader's safety violation kinds (shared/scenario/safety.ts), in words. */
+export const SAFETY_VIOLATION_LABELS: Record<string, string> = {
+  workWhileEnergised: 'Work on live terminals',
+  workWithoutLock: 'Work without a lock applied',
+  workWithoutProvingDead: 'Work before proving dead',
+}
+
+export const safetyViolationLabel = (kind: string) => SAFETY_VIOLATION_LABELS[kind] ?? 'Unsafe work'

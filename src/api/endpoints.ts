@@ -52,6 +52,7 @@ export const endpoints = {
     override: (id: string) => `/attempts/${enc(id)}/grade-override`,
   },
   centre: '/centre',
+  attention: '/attention',
   admin: {
     users: '/admin/users',
     user: (id: string) => `/admin/users/${enc(id)}`,

@@ -86,6 +86,12 @@ export const routes: RouteRecordRaw[] = [
 
   // Instructor (admins may open these too)
   {
+    path: '/teach',
+    name: 'needs-attention',
+    component: () => import('@/views/NeedsAttentionView.vue'),
+    meta: { roles: STAFF, title: 'Needs attention' },
+  },
+  {
     path: '/teach/cohorts',
     name: 'cohorts',
     component: () => import('@/views/CohortsView.vue'),

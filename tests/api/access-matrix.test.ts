@@ -261,6 +261,8 @@ const ROUTES: Route[] = [
     body: () => ({ reviewed: true }),
     expect: ownCohortStaff(200),
   },
+  // the instructor's week
+  { method: 'get', path: () => '/api/attention', expect: staffOnly(200) },
   // centre settings
   { method: 'get', path: () => '/api/centre', expect: signedIn(200) },
   {

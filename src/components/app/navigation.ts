@@ -1,6 +1,7 @@
 // The navigation entries per role, shared by the drawer and tests.
 import {
   mdiAccountGroupOutline,
+  mdiBellAlertOutline,
   mdiBookOpenPageVariantOutline,
   mdiClipboardTextOutline,
   mdiDatabaseArrowDownOutline,
@@ -31,6 +32,7 @@ export function navFor(role: Role): NavItem[] {
     ]
   }
   const teaching: NavItem[] = [
+    { title: 'Needs attention', to: '/teach', icon: mdiBellAlertOutline },
     { title: 'Cohorts', to: '/teach/cohorts', icon: mdiAccountGroupOutline },
     { title: 'Gradebook', to: '/teach/gradebook', icon: mdiTableLarge },
     { title: 'Scenario library', to: '/scenarios', icon: mdiBookOpenPageVariantOutline },
