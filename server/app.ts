@@ -7,6 +7,7 @@ import express, { type Express } from 'express'
 import helmet from 'helmet'
 import type { DataSource } from 'typeorm'
 import { adminRouter } from './admin/admin.router'
+import { apprenticesRouter } from './apprentices/apprentices.router'
 import { assignmentsRouter } from './assignments/assignments.router'
 import { attentionRouter } from './attention/attention.router'
 import { attemptsRouter } from './attempts/attempts.router'
@@ -101,6 +102,7 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api/admin', adminRouter(ctx))
   app.use('/api/centre', centreRouter(ctx))
   app.use('/api/attention', attentionRouter(ctx))
+  app.use('/api/apprentices', apprenticesRouter(ctx))
   app.use('/api/cohorts', cohortsRouter(ctx))
   app.use('/api/cohorts', gradebookRouter(ctx))
   app.use('/api/scenarios', scenariosRouter(ctx))

@@ -12,6 +12,7 @@ import type { AppContext } from '../context'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
 import { addFeedback, getAttemptDetail, listAttempts, markReviewed, overrideGrade } from './attempts.service'
+import { attemptNeighbours } from './neighbours'
 import { submitAttempt } from './submission.service'
 
 export function attemptsRouter(ctx: AppContext): Router {
@@ -40,6 +41,10 @@ export function attemptsRouter(ctx: AppContext): Router {
       res.status(201).json(await addFeedback(ctx, currentUser(req), req.params.id, req.body.body))
     },
   )
+
+  router.get('/:id/neighbours', staff, validate({ params: idParamsSchema }), async (req, res) => {
+    res.json(await attemptNeighbours(ctx, currentUser(req), req.params.id))
+  })
 
   router.post(
     '/:id/review',

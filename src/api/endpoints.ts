@@ -50,9 +50,14 @@ export const endpoints = {
     one: (id: string) => `/attempts/${enc(id)}`,
     feedback: (id: string) => `/attempts/${enc(id)}/feedback`,
     override: (id: string) => `/attempts/${enc(id)}/grade-override`,
+    review: (id: string) => `/attempts/${enc(id)}/review`,
+    neighbours: (id: string) => `/attempts/${enc(id)}/neighbours`,
   },
   centre: '/centre',
   attention: '/attention',
+  apprentices: {
+    one: (id: string) => `/apprentices/${enc(id)}`,
+  },
   admin: {
     users: '/admin/users',
     user: (id: string) => `/admin/users/${enc(id)}`,

@@ -110,6 +110,12 @@ export const routes: RouteRecordRaw[] = [
     meta: { roles: STAFF, title: 'Assign a scenario' },
   },
   {
+    path: '/teach/apprentices/:id',
+    name: 'apprentice',
+    component: () => import('@/views/ApprenticeView.vue'),
+    meta: { roles: STAFF, title: 'Apprentice' },
+  },
+  {
     path: '/teach/gradebook',
     name: 'gradebook',
     component: () => import('@/views/GradebookView.vue'),

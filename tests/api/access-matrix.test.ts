@@ -263,6 +263,16 @@ const ROUTES: Route[] = [
   },
   // the instructor's week
   { method: 'get', path: () => '/api/attention', expect: staffOnly(200) },
+  {
+    method: 'get',
+    path: (w) => `/api/apprentices/${w.apprenticeA1.user.id}`,
+    expect: ownCohortStaff(200),
+  },
+  {
+    method: 'get',
+    path: (w) => `/api/attempts/${w.attemptA1.id}/neighbours`,
+    expect: ownCohortStaff(200),
+  },
   // centre settings
   { method: 'get', path: () => '/api/centre', expect: signedIn(200) },
   {

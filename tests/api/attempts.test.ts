@@ -205,7 +205,7 @@ describe('attempts', () => {
     expect(response.status).toBe(403)
   })
 
-  it('accepts free practice on a scenario version, visible to its owner but not to instructors', async () => {
+  it('accepts free practice on a scenario version, visible to its owner and their cohort’s instructor only', async () => {
     const response = await submit(api, w.apprenticeB1, { scenarioId: w.scenario.id })
     expect(response.status).toBe(201)
     expect(response.body.assignmentId).toBeNull()
@@ -215,6 +215,10 @@ describe('attempts', () => {
     ).toBe(200)
     expect(
       (await supertest(api.app).get(`/api/attempts/${response.body.id}`).set(bearer(w.instructorB.token)))
+        .status,
+    ).toBe(200)
+    expect(
+      (await supertest(api.app).get(`/api/attempts/${response.body.id}`).set(bearer(w.instructorA.token)))
         .status,
     ).toBe(403)
   })
