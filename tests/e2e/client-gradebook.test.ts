@@ -27,7 +27,7 @@ describe('the gradebook', () => {
   it('lists the cohort’s apprentices sorted by name', async () => {
     const { page } = browser
     await signIn(page, app.url, demo('instructor'))
-    await page.getByRole('link', { name: 'Gradebook' }).click()
+    await page.getByRole('link', { name: 'Gradebook' }).first().click()
     await page.locator('[data-testid="gradebook-table"] tbody tr').first().waitFor()
     await settled(page)
     const names = await firstNames(page)
