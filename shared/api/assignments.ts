@@ -102,3 +102,45 @@ export const assignmentStatsSchema = z.object({
   requiredObjectives: z.number().int().nonnegative(),
 })
 export type AssignmentStats = z.infer<typeof assignmentStatsSchema>
+
+/** An apprentice on one assignment: their own terms and where they stand (the assignment page). */
+export const assignmentApprenticeSchema = z.object({
+  userId: idSchema,
+  name: z.string(),
+  email: z.string(),
+  /** False when the assignment is set for selected apprentices and not for this one. */
+  assigned: z.boolean(),
+  status: z.enum(WORK_STATUSES),
+  score: z.number().nullable(),
+  attempts: z.number().int().nonnegative(),
+  /** Their own due date; null when it passed before they enrolled. */
+  dueAt: isoDateTimeSchema.nullable(),
+  extended: z.boolean(),
+  attemptLimit: z.number().int().nullable(),
+  extraAttempts: z.number().int().nonnegative(),
+  excused: z.boolean(),
+  /** Why the instructor made an exception (empty when none). */
+  reason: z.string(),
+})
+export type AssignmentApprentice = z.infer<typeof assignmentApprenticeSchema>
+export const assignmentApprenticeListSchema = z.object({ items: z.array(assignmentApprenticeSchema) })
+
+/**
+ * One exception for each apprentice named: their own due date (null: the assignment's), extra attempts,
+ * excused. Fields left out keep what each already has.
+ */
+export const exceptionRequestSchema = z
+  .object({
+    userIds: z.array(idSchema).min(1, { error: 'Choose at least one apprentice' }).max(2000),
+    dueAt: isoDateTimeSchema.nullable().optional(),
+    extraAttempts: z.number().int().min(0).max(50).optional(),
+    excused: z.boolean().optional(),
+    /** Kept with the exception and shown beside it. */
+    reason: z.string().trim().min(1, { error: 'Say why (it is kept with the exception)' }).max(500),
+  })
+  .refine((v) => v.dueAt !== undefined || v.extraAttempts !== undefined || v.excused !== undefined, {
+    error: 'Give a due date, extra attempts or an excusal',
+  })
+export type ExceptionRequest = z.infer<typeof exceptionRequestSchema>
+
+export const assignmentMemberParamsSchema = z.object({ id: idSchema, userId: idSchema })

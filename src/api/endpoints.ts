@@ -43,6 +43,9 @@ export const endpoints = {
     list: '/assignments',
     one: (id: string) => `/assignments/${enc(id)}`,
     stats: (id: string) => `/assignments/${enc(id)}/stats`,
+    apprentices: (id: string) => `/assignments/${enc(id)}/apprentices`,
+    exceptions: (id: string) => `/assignments/${enc(id)}/exceptions`,
+    exception: (id: string, userId: string) => `/assignments/${enc(id)}/exceptions/${enc(userId)}`,
   },
   attempts: {
     list: '/attempts',

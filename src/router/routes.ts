@@ -110,6 +110,12 @@ export const routes: RouteRecordRaw[] = [
     meta: { roles: STAFF, title: 'Assign a scenario' },
   },
   {
+    path: '/teach/assignments/:id',
+    name: 'assignment',
+    component: () => import('@/views/AssignmentView.vue'),
+    meta: { roles: STAFF, title: 'Assignment' },
+  },
+  {
     path: '/teach/apprentices/:id',
     name: 'apprentice',
     component: () => import('@/views/ApprenticeView.vue'),

@@ -225,6 +225,23 @@ const ROUTES: Route[] = [
   },
   { method: 'delete', path: (w) => `/api/assignments/${w.assignmentA.id}`, expect: ownCohortStaff(409) },
   { method: 'get', path: (w) => `/api/assignments/${w.assignmentA.id}/stats`, expect: ownCohortStaff(200) },
+  {
+    method: 'get',
+    path: (w) => `/api/assignments/${w.assignmentA.id}/apprentices`,
+    expect: ownCohortStaff(200),
+  },
+  {
+    // An exception that changes nothing: allowed, and leaves no row behind.
+    method: 'post',
+    path: (w) => `/api/assignments/${w.assignmentA.id}/exceptions`,
+    body: (w) => ({ userIds: [w.apprenticeA2.user.id], extraAttempts: 0, reason: 'Matrix exception' }),
+    expect: ownCohortStaff(200),
+  },
+  {
+    method: 'delete',
+    path: (w) => `/api/assignments/${w.assignmentA.id}/exceptions/${w.apprenticeA2.user.id}`,
+    expect: ownCohortStaff(404),
+  },
   // attempts
   {
     method: 'post',
