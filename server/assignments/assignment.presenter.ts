@@ -25,6 +25,7 @@ export const presentAssignment = (
     hintsAllowed: Boolean(row.hintsAllowed),
     latePolicy: terms.latePolicy,
     latePenalty: terms.latePenalty,
+    targeted: row.audience === 'selected',
     createdAt: row.createdAt,
     myProgress: mine
       ? {

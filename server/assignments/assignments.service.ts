@@ -1,7 +1,7 @@
 // Assignments: set in a cohort by its instructor (publishing mails every member), seen by its apprentices
 // with their own standing; statistics for staff.
 import { randomUUID } from 'node:crypto'
-import { In } from 'typeorm'
+import { In, type DataSource, type EntityManager } from 'typeorm'
 import type {
   Assignment,
   AssignmentStats,
@@ -12,6 +12,7 @@ import { assignmentFor, cohortFor, readableCohortIds } from '../access/access.se
 import { appLink, type AppContext } from '../context'
 import {
   AssignmentEntity,
+  AssignmentRecipientEntity,
   AttemptEntity,
   CohortEntity,
   EnrollmentEntity,
@@ -22,7 +23,7 @@ import {
 } from '../entities'
 import { centreTimeZone } from '../centre/centre.service'
 import { standingsFor, pairKey } from '../gradebook/standings'
-import { HttpError, conflict } from '../http-error'
+import { HttpError, conflict, forbidden } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
 import { assignmentPublishedMail } from '../infrastructure/mail/templates'
 import { passRulesOf, UNKNOWN_RULE } from '../scenarios/pass-rules'
@@ -86,7 +87,59 @@ export async function listAssignments(
     : presented
 }
 
-/** Publishing tells every active member of the cohort by mail. */
+/** The apprentices named, all of them members of the cohort (else a field error names who is not). */
+function checkAudience(members: string[], apprenticeIds: string[]): string[] {
+  const outsiders = apprenticeIds.filter((id) => !members.includes(id))
+  if (outsiders.length) {
+    throw new HttpError(400, 'validation_failed', 'Set work only for members of the cohort', {
+      fields: { apprenticeIds: [`${outsiders.length} of those named are not members of this cohort`] },
+    })
+  }
+  return [...new Set(apprenticeIds)]
+}
+
+/** Replaces who a selected-audience assignment is for (none kept for a whole-cohort one). */
+async function setRecipients(manager: EntityManager, assignment: AssignmentRow, userIds: string[]) {
+  const repo = manager.getRepository(AssignmentRecipientEntity)
+  await repo.delete({ assignmentId: assignment.id })
+  if (assignment.audience !== 'selected' || !userIds.length) return
+  const now = nowIso()
+  await repo.insert(
+    userIds.map((userId) => ({ id: randomUUID(), assignmentId: assignment.id, userId, createdAt: now })),
+  )
+}
+
+/** Mails each active apprentice named that the work is set for them. */
+async function tellApprentices(ctx: AppContext, row: AssignmentRow, cohortName: string, userIds: string[]) {
+  const ds = ctx.dataSource
+  const people = userIds.length
+    ? await ds.getRepository(UserEntity).findBy({ id: In(userIds), active: true })
+    : []
+  const timeZone = await centreTimeZone(ds)
+  for (const person of people) {
+    ctx.mailer.send(
+      assignmentPublishedMail({
+        to: person.email,
+        name: person.name,
+        title: row.title,
+        cohortName,
+        dueAt: row.dueAt,
+        timeZone,
+        url: appLink(ctx, `/assignments/${row.id}`),
+      }),
+    )
+  }
+}
+
+/** Who an assignment is set for now: its recipients, or every member of the cohort. */
+async function audienceOf(ds: DataSource, row: AssignmentRow, members: string[]): Promise<string[]> {
+  if (row.audience !== 'selected') return members
+  return (await ds.getRepository(AssignmentRecipientEntity).findBy({ assignmentId: row.id })).map(
+    (r) => r.userId,
+  )
+}
+
+/** Publishing tells every active apprentice it is set for by mail. */
 export async function createAssignment(
   ctx: AppContext,
   user: UserRow,
@@ -116,27 +169,17 @@ export async function createAssignment(
     createdAt: nowIso(),
     latePolicy: body.latePolicy,
     latePenalty: body.latePolicy === 'acceptLate' ? body.latePenalty : 0,
-    audience: 'cohort',
+    audience: body.apprenticeIds ? 'selected' : 'cohort',
   }
-  await ds.getRepository(AssignmentEntity).insert(row)
-  const members = await ds.getRepository(EnrollmentEntity).findBy({ cohortId: cohort.id })
-  const people = members.length
-    ? await ds.getRepository(UserEntity).findBy({ id: In(members.map((m) => m.userId)), active: true })
-    : []
-  const timeZone = await centreTimeZone(ds)
-  for (const person of people) {
-    ctx.mailer.send(
-      assignmentPublishedMail({
-        to: person.email,
-        name: person.name,
-        title: row.title,
-        cohortName: cohort.name,
-        dueAt: row.dueAt,
-        timeZone,
-        url: appLink(ctx, `/assignments/${row.id}`),
-      }),
-    )
-  }
+  const members = (await ds.getRepository(EnrollmentEntity).findBy({ cohortId: cohort.id })).map(
+    (m) => m.userId,
+  )
+  const audience = body.apprenticeIds ? checkAudience(members, body.apprenticeIds) : members
+  await ds.transaction(async (manager) => {
+    await manager.getRepository(AssignmentEntity).insert(row)
+    if (body.apprenticeIds) await setRecipients(manager, row, audience)
+  })
+  await tellApprentices(ctx, row, cohort.name, audience)
   return presentOne(ctx, row, user)
 }
 
@@ -146,7 +189,9 @@ export async function getAssignment(
   assignmentId: string,
 ): Promise<Assignment> {
   const { assignment } = await assignmentFor(ctx.dataSource, user, assignmentId, 'read')
-  return presentOne(ctx, assignment, user)
+  const presented = await presentOne(ctx, assignment, user)
+  if (presented.myProgress?.status === 'notAssigned') throw forbidden('This assignment is not set for you')
+  return presented
 }
 
 export async function updateAssignment(
@@ -155,7 +200,7 @@ export async function updateAssignment(
   assignmentId: string,
   changes: UpdateAssignmentRequest,
 ): Promise<Assignment> {
-  const { assignment } = await assignmentFor(ctx.dataSource, user, assignmentId, 'manage')
+  const { assignment, cohort } = await assignmentFor(ctx.dataSource, user, assignmentId, 'manage')
   const next: AssignmentRow = {
     ...assignment,
     title: changes.title || assignment.title,
@@ -165,6 +210,12 @@ export async function updateAssignment(
     hintsAllowed: changes.hintsAllowed ?? Boolean(assignment.hintsAllowed),
     latePolicy: changes.latePolicy ?? assignment.latePolicy,
     latePenalty: changes.latePenalty ?? assignment.latePenalty,
+    audience:
+      changes.apprenticeIds === undefined
+        ? assignment.audience
+        : changes.apprenticeIds === null
+          ? 'cohort'
+          : 'selected',
   }
   if (next.latePolicy === 'closeAtDue') next.latePenalty = 0
   if (next.dueAt <= next.opensAt) {
@@ -173,11 +224,26 @@ export async function updateAssignment(
     })
   }
   const { id: _id, ...fields } = next
+  const members = (await ctx.dataSource.getRepository(EnrollmentEntity).findBy({ cohortId: cohort.id })).map(
+    (m) => m.userId,
+  )
+  const before = await audienceOf(ctx.dataSource, assignment, members)
+  const audience = changes.apprenticeIds ? checkAudience(members, changes.apprenticeIds) : members
   await ctx.dataSource.transaction(async (manager) => {
     await manager.getRepository(AssignmentEntity).update({ id: assignment.id }, fields)
+    if (changes.apprenticeIds !== undefined) await setRecipients(manager, next, audience)
     // A moved due date decides again which attempts were late.
     if (next.dueAt !== assignment.dueAt) await refreshLateFlags(manager, next)
   })
+  // Those it is newly set for hear of it as the first ones did.
+  if (changes.apprenticeIds !== undefined) {
+    await tellApprentices(
+      ctx,
+      next,
+      cohort.name,
+      audience.filter((id) => !before.includes(id)),
+    )
+  }
   return presentOne(ctx, next, user)
 }
 

@@ -17,7 +17,17 @@ const assignmentFields = {
 }
 
 export const createAssignmentRequestSchema = z
-  .object({ scenarioId: idSchema, ...assignmentFields })
+  .object({
+    scenarioId: idSchema,
+    ...assignmentFields,
+    /** Set for these members only (absent or null: the whole cohort). */
+    apprenticeIds: z
+      .array(idSchema)
+      .min(1, { error: 'Choose at least one apprentice' })
+      .max(2000)
+      .nullable()
+      .optional(),
+  })
   .refine((value) => Date.parse(value.dueAt) > Date.parse(value.opensAt), {
     error: 'The due date must be after the opening date',
     path: ['dueAt'],
@@ -34,6 +44,13 @@ export const updateAssignmentRequestSchema = z
     hintsAllowed: assignmentFields.hintsAllowed.optional(),
     latePolicy: latePolicyFieldSchema.optional(),
     latePenalty: z.number().int().min(0).max(100).optional(),
+    /** Who it is set for: members by id, or null for the whole cohort. */
+    apprenticeIds: z
+      .array(idSchema)
+      .min(1, { error: 'Choose at least one apprentice' })
+      .max(2000)
+      .nullable()
+      .optional(),
   })
   .refine((value) => Object.values(value).some((field) => field !== undefined), {
     error: 'Give at least one field to change',
@@ -71,6 +88,8 @@ export const assignmentSchema = z.object({
   hintsAllowed: z.boolean(),
   latePolicy: latePolicyFieldSchema,
   latePenalty: z.number().int(),
+  /** Set for selected apprentices only (the assignment page lists who). */
+  targeted: z.boolean(),
   createdAt: isoDateTimeSchema,
   myProgress: myProgressSchema.nullable(),
 })

@@ -158,6 +158,20 @@ const ROUTES: Route[] = [
     path: (w) => `/api/cohorts/${w.cohortA.id}/invitations/00000000-0000-4000-8000-000000000000`,
     expect: ownCohortStaff(404),
   },
+  // several members at once
+  {
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/messages`,
+    body: (w) => ({ userIds: [w.apprenticeA2.user.id], subject: 'Matrix', body: 'Bring your meter.' }),
+    expect: ownCohortStaff(200),
+  },
+  {
+    // Nobody real is named, so nobody leaves: access is checked before the names.
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/members/remove`,
+    body: () => ({ userIds: ['00000000-0000-4000-8000-000000000000'] }),
+    expect: ownCohortStaff(400),
+  },
   // gradebook
   { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/gradebook`, expect: ownCohortStaff(200) },
   { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/gradebook.csv`, expect: ownCohortStaff(200) },

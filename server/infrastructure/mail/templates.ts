@@ -128,3 +128,27 @@ export function attemptReviewedMail(input: {
     action: { label: 'See your attempt', url: input.url },
   })
 }
+
+export function cohortMessageMail(input: {
+  to: string
+  name: string
+  cohortName: string
+  instructorName: string
+  subject: string
+  body: string
+  url: string
+}): OutgoingMail {
+  return render({
+    to: input.to,
+    subject: `${input.cohortName}: ${input.subject}`,
+    greeting: `Hello ${input.name},`,
+    paragraphs: [
+      ...input.body
+        .split(/\n\s*\n/)
+        .map((p) => p.trim())
+        .filter(Boolean),
+      `— ${input.instructorName}, your instructor for ${input.cohortName}`,
+    ],
+    action: { label: 'Open Slipway', url: input.url },
+  })
+}

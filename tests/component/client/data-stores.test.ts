@@ -81,6 +81,7 @@ describe('the data stores', () => {
       hintsAllowed: true,
       latePolicy: 'acceptLate',
       latePenalty: 0,
+      targeted: false,
       createdAt: '2026-12-01T09:00:00.000Z',
       myProgress: null,
     }
