@@ -6,9 +6,12 @@ import express, { type Express } from 'express'
 import helmet from 'helmet'
 import type { DataSource } from 'typeorm'
 import { adminRouter } from './admin/admin.router'
+import { apprenticesRouter } from './apprentices/apprentices.router'
 import { assignmentsRouter } from './assignments/assignments.router'
+import { attentionRouter } from './attention/attention.router'
 import { attemptsRouter } from './attempts/attempts.router'
 import { authRouter } from './auth/auth.router'
+import { centreRouter } from './centre/centre.router'
 import { cohortsRouter } from './cohorts/cohorts.router'
 import type { AppConfig } from './config'
 import type { AppContext } from './context'
@@ -125,6 +128,9 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api/auth', authRouter(ctx))
   app.use('/api/invitations', invitationsRouter(ctx))
   app.use('/api/admin', adminRouter(ctx))
+  app.use('/api/centre', centreRouter(ctx))
+  app.use('/api/attention', attentionRouter(ctx))
+  app.use('/api/apprentices', apprenticesRouter(ctx))
   app.use('/api/cohorts', cohortsRouter(ctx))
   app.use('/api/cohorts', gradebookRouter(ctx))
   app.use('/api/scenarios', scenariosRouter(ctx))

@@ -6,6 +6,7 @@ import {
   AttemptEntity,
   CohortEntity,
   EnrollmentEntity,
+  UserEntity,
   type AssignmentRow,
   type AttemptRow,
   type CohortRow,
@@ -61,7 +62,43 @@ export async function attemptFor(
     const cohort = assignment && (await ds.getRepository(CohortEntity).findOneBy({ id: assignment.cohortId }))
     if (cohort?.ownerId === user.id) return attempt
   }
+  // Free practice belongs to no cohort: the instructors of the apprentice's cohorts may read it.
+  if (user.role === 'instructor' && !attempt.assignmentId && mode === 'read') {
+    if ((await taughtCohortsOf(ds, user, attempt.userId)).length) return attempt
+  }
   throw forbidden('This attempt is not yours')
+}
+
+/** The cohorts an apprentice is enrolled in that the user manages (every one of them for an admin). */
+export async function taughtCohortsOf(
+  ds: DataSource,
+  user: UserRow,
+  apprenticeId: string,
+): Promise<{ cohortId: string; enrolledAt: string }[]> {
+  const enrolments = await ds.getRepository(EnrollmentEntity).findBy({ userId: apprenticeId })
+  const managed = await managedCohortIds(ds, user)
+  return enrolments
+    .filter((e) => managed === undefined || managed.includes(e.cohortId))
+    .map((e) => ({ cohortId: e.cohortId, enrolledAt: e.createdAt }))
+}
+
+/**
+ * An apprentice as their instructors may see them: missing (or not an apprentice) → 404, in none of the
+ * caller's cohorts → 403. Returns the cohorts of theirs the caller teaches.
+ */
+export async function apprenticeFor(ds: DataSource, user: UserRow, apprenticeId: string) {
+  const apprentice = await findById(ds, UserEntity, apprenticeId)
+  if (!apprentice || apprentice.role !== 'apprentice') throw notFound('Apprentice')
+  const cohorts = await taughtCohortsOf(ds, user, apprentice.id)
+  if (user.role !== 'admin' && !cohorts.length) throw forbidden('This apprentice is in none of your cohorts')
+  return { apprentice, cohorts }
+}
+
+/** Cohort ids a user manages: those an instructor teaches; every cohort for an admin (undefined). */
+export async function managedCohortIds(ds: DataSource, user: UserRow): Promise<string[] | undefined> {
+  if (user.role === 'admin') return undefined
+  if (user.role !== 'instructor') return []
+  return (await ds.getRepository(CohortEntity).findBy({ ownerId: user.id })).map((c) => c.id)
 }
 
 /** Cohort ids a user may read: enrolled (apprentice), owned (instructor), all (admin → undefined). */

@@ -2,7 +2,9 @@
 import { Router } from 'express'
 import {
   assignmentListQuerySchema,
+  assignmentMemberParamsSchema,
   createAssignmentRequestSchema,
+  exceptionRequestSchema,
   updateAssignmentRequestSchema,
 } from '@shared/api/assignments'
 import { idParamsSchema } from '@shared/api/common'
@@ -17,6 +19,7 @@ import {
   listAssignments,
   updateAssignment,
 } from './assignments.service'
+import { clearException, listAssignmentApprentices, setExceptions } from './exceptions.service'
 
 export function assignmentsRouter(ctx: AppContext): Router {
   const router = Router()
@@ -63,6 +66,38 @@ export function assignmentsRouter(ctx: AppContext): Router {
     validate({ params: idParamsSchema }),
     async (req, res) => {
       res.json(await assignmentStats(ctx, currentUser(req), req.params.id))
+    },
+  )
+
+  // The cohort's apprentices under their own terms, and exceptions for some of them.
+  router.get(
+    '/assignments/:id/apprentices',
+    auth,
+    staff,
+    validate({ params: idParamsSchema }),
+    async (req, res) => {
+      res.json({ items: await listAssignmentApprentices(ctx, currentUser(req), req.params.id) })
+    },
+  )
+
+  router.post(
+    '/assignments/:id/exceptions',
+    auth,
+    staff,
+    validate({ params: idParamsSchema, body: exceptionRequestSchema }),
+    async (req, res) => {
+      res.json({ items: await setExceptions(ctx, currentUser(req), req.params.id, req.body) })
+    },
+  )
+
+  router.delete(
+    '/assignments/:id/exceptions/:userId',
+    auth,
+    staff,
+    validate({ params: assignmentMemberParamsSchema }),
+    async (req, res) => {
+      await clearException(ctx, currentUser(req), req.params.id, req.params.userId)
+      res.status(204).end()
     },
   )
 

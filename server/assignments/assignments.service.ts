@@ -1,17 +1,18 @@
 // Assignments: set in a cohort by its instructor (publishing mails every member), seen by its apprentices
 // with their own standing; statistics for staff.
 import { randomUUID } from 'node:crypto'
-import { In } from 'typeorm'
+import { In, type DataSource, type EntityManager } from 'typeorm'
 import type {
   Assignment,
   AssignmentStats,
-  CreateAssignmentRequest,
+  CreateAssignment,
   UpdateAssignmentRequest,
 } from '@shared/api/assignments'
 import { assignmentFor, cohortFor, readableCohortIds } from '../access/access.service'
 import { appLink, type AppContext } from '../context'
 import {
   AssignmentEntity,
+  AssignmentRecipientEntity,
   AttemptEntity,
   CohortEntity,
   EnrollmentEntity,
@@ -20,12 +21,15 @@ import {
   type AssignmentRow,
   type UserRow,
 } from '../entities'
-import { NOT_STARTED, standingsByAssignmentAndUser } from '../gradebook/standings'
-import { HttpError, conflict } from '../http-error'
+import { centreTimeZone } from '../centre/centre.service'
+import { standingsFor, pairKey } from '../gradebook/standings'
+import { HttpError, conflict, forbidden } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
 import { queueMail } from '../infrastructure/mail/mail-job'
 import { assignmentPublishedMail } from '../infrastructure/mail/templates'
+import { passRulesOf, UNKNOWN_RULE } from '../scenarios/pass-rules'
 import { presentAssignment, presentAssignmentStats } from './assignment.presenter'
+import { refreshLateFlags } from './late-flags'
 
 /** Assignments as the viewer sees them: cohort names, scenario keys, and an apprentice's own standing. */
 async function presentAssignments(
@@ -43,18 +47,12 @@ async function presentAssignments(
     select: { id: true, key: true, version: true },
   })
   const mine =
-    viewer.role === 'apprentice'
-      ? await standingsByAssignmentAndUser(
-          ds,
-          rows.map((r) => r.id),
-          viewer.id,
-        )
-      : undefined
+    viewer.role === 'apprentice' ? await standingsFor(ds, rows, [viewer.id], nowIso(), viewer.id) : undefined
   return rows.map((row) =>
     presentAssignment(row, {
       cohortName: cohorts.find((c) => c.id === row.cohortId)?.name ?? '',
       scenario: scenarios.find((s) => s.id === row.scenarioId)!,
-      mine: mine ? (mine.get(`${row.id}:${viewer.id}`) ?? NOT_STARTED) : undefined,
+      mine: mine?.get(pairKey(row.id, viewer.id)),
     }),
   )
 }
@@ -83,15 +81,77 @@ export async function listAssignments(
     where: ids ? { cohortId: In(ids) } : {},
     order: { dueAt: 'ASC' },
   })
-  return presentAssignments(ctx, rows, user)
+  const presented = await presentAssignments(ctx, rows, user)
+  // An apprentice sees only the work set for them.
+  return user.role === 'apprentice'
+    ? presented.filter((a) => a.myProgress?.status !== 'notAssigned')
+    : presented
 }
 
-/** Publishing tells every active member of the cohort by mail. */
+/** The apprentices named, all of them members of the cohort (else a field error names who is not). */
+function checkAudience(members: string[], apprenticeIds: string[]): string[] {
+  const outsiders = apprenticeIds.filter((id) => !members.includes(id))
+  if (outsiders.length) {
+    throw new HttpError(400, 'validation_failed', 'Set work only for members of the cohort', {
+      fields: { apprenticeIds: [`${outsiders.length} of those named are not members of this cohort`] },
+    })
+  }
+  return [...new Set(apprenticeIds)]
+}
+
+/** Replaces who a selected-audience assignment is for (none kept for a whole-cohort one). */
+async function setRecipients(manager: EntityManager, assignment: AssignmentRow, userIds: string[]) {
+  const repo = manager.getRepository(AssignmentRecipientEntity)
+  await repo.delete({ assignmentId: assignment.id })
+  if (assignment.audience !== 'selected' || !userIds.length) return
+  const now = nowIso()
+  await repo.insert(
+    userIds.map((userId) => ({ id: randomUUID(), assignmentId: assignment.id, userId, createdAt: now })),
+  )
+}
+
+/** Mails each active apprentice named that the work is set for them. */
+async function tellApprentices(
+  ctx: AppContext,
+  manager: EntityManager,
+  row: AssignmentRow,
+  cohortName: string,
+  userIds: string[],
+) {
+  const people = userIds.length
+    ? await manager.getRepository(UserEntity).findBy({ id: In(userIds), active: true })
+    : []
+  const timeZone = await centreTimeZone(manager)
+  for (const person of people) {
+    await queueMail(
+      manager,
+      assignmentPublishedMail({
+        to: person.email,
+        name: person.name,
+        title: row.title,
+        cohortName,
+        dueAt: row.dueAt,
+        timeZone,
+        url: appLink(ctx, `/assignments/${row.id}`),
+      }),
+    )
+  }
+}
+
+/** Who an assignment is set for now: its recipients, or every member of the cohort. */
+async function audienceOf(ds: DataSource, row: AssignmentRow, members: string[]): Promise<string[]> {
+  if (row.audience !== 'selected') return members
+  return (await ds.getRepository(AssignmentRecipientEntity).findBy({ assignmentId: row.id })).map(
+    (r) => r.userId,
+  )
+}
+
+/** Publishing tells every active apprentice it is set for by mail. */
 export async function createAssignment(
   ctx: AppContext,
   user: UserRow,
   cohortId: string,
-  body: CreateAssignmentRequest,
+  body: CreateAssignment,
 ): Promise<Assignment> {
   const ds = ctx.dataSource
   const cohort = await cohortFor(ds, user, cohortId, 'manage')
@@ -115,26 +175,19 @@ export async function createAssignment(
     scorePolicy: body.scorePolicy,
     createdById: user.id,
     createdAt: nowIso(),
+    latePolicy: body.latePolicy,
+    latePenalty: body.latePolicy === 'acceptLate' ? body.latePenalty : 0,
+    audience: body.apprenticeIds ? 'selected' : 'cohort',
   }
+  const members = (await ds.getRepository(EnrollmentEntity).findBy({ cohortId: cohort.id })).map(
+    (m) => m.userId,
+  )
+  const audience = body.apprenticeIds ? checkAudience(members, body.apprenticeIds) : members
   await ds.transaction(async (manager) => {
     await manager.getRepository(AssignmentEntity).insert(row)
-    const members = await manager.getRepository(EnrollmentEntity).findBy({ cohortId: cohort.id })
-    const people = members.length
-      ? await manager.getRepository(UserEntity).findBy({ id: In(members.map((m) => m.userId)), active: true })
-      : []
-    for (const person of people) {
-      await queueMail(
-        manager,
-        assignmentPublishedMail({
-          to: person.email,
-          name: person.name,
-          title: row.title,
-          cohortName: cohort.name,
-          dueAt: row.dueAt,
-          url: appLink(ctx, `/assignments/${row.id}`),
-        }),
-      )
-    }
+    if (body.apprenticeIds) await setRecipients(manager, row, audience)
+    // Mail is queued with the change: a failed insert sends nothing.
+    await tellApprentices(ctx, manager, row, cohort.name, audience)
   })
   return presentOne(ctx, row, user)
 }
@@ -145,7 +198,9 @@ export async function getAssignment(
   assignmentId: string,
 ): Promise<Assignment> {
   const { assignment } = await assignmentFor(ctx.dataSource, user, assignmentId, 'read')
-  return presentOne(ctx, assignment, user)
+  const presented = await presentOne(ctx, assignment, user)
+  if (presented.myProgress?.status === 'notAssigned') throw forbidden('This assignment is not set for you')
+  return presented
 }
 
 export async function updateAssignment(
@@ -154,7 +209,7 @@ export async function updateAssignment(
   assignmentId: string,
   changes: UpdateAssignmentRequest,
 ): Promise<Assignment> {
-  const { assignment } = await assignmentFor(ctx.dataSource, user, assignmentId, 'manage')
+  const { assignment, cohort } = await assignmentFor(ctx.dataSource, user, assignmentId, 'manage')
   const next: AssignmentRow = {
     ...assignment,
     title: changes.title || assignment.title,
@@ -163,14 +218,38 @@ export async function updateAssignment(
     attemptLimit: changes.attemptLimit === undefined ? assignment.attemptLimit : changes.attemptLimit,
     hintsAllowed: changes.hintsAllowed ?? Boolean(assignment.hintsAllowed),
     scorePolicy: changes.scorePolicy ?? assignment.scorePolicy,
+    latePolicy: changes.latePolicy ?? assignment.latePolicy,
+    latePenalty: changes.latePenalty ?? assignment.latePenalty,
+    audience:
+      changes.apprenticeIds === undefined
+        ? assignment.audience
+        : changes.apprenticeIds === null
+          ? 'cohort'
+          : 'selected',
   }
+  if (next.latePolicy === 'closeAtDue') next.latePenalty = 0
   if (next.dueAt <= next.opensAt) {
     throw new HttpError(400, 'validation_failed', 'The due date must be after the opening date', {
       fields: { dueAt: ['Must be after the opening date'] },
     })
   }
   const { id: _id, ...fields } = next
-  await ctx.dataSource.getRepository(AssignmentEntity).update({ id: assignment.id }, fields)
+  const members = (await ctx.dataSource.getRepository(EnrollmentEntity).findBy({ cohortId: cohort.id })).map(
+    (m) => m.userId,
+  )
+  const before = await audienceOf(ctx.dataSource, assignment, members)
+  const audience = changes.apprenticeIds ? checkAudience(members, changes.apprenticeIds) : members
+  await ctx.dataSource.transaction(async (manager) => {
+    await manager.getRepository(AssignmentEntity).update({ id: assignment.id }, fields)
+    if (changes.apprenticeIds !== undefined) await setRecipients(manager, next, audience)
+    // A moved due date decides again which attempts were late.
+    if (next.dueAt !== assignment.dueAt) await refreshLateFlags(manager, next)
+    // Those it is newly set for hear of it as the first ones did.
+    if (changes.apprenticeIds !== undefined) {
+      const added = audience.filter((id) => !before.includes(id))
+      await tellApprentices(ctx, manager, next, cohort.name, added)
+    }
+  })
   return presentOne(ctx, next, user)
 }
 
@@ -195,7 +274,12 @@ export async function assignmentStats(
   const ds = ctx.dataSource
   const { assignment } = await assignmentFor(ds, user, assignmentId, 'manage')
   const members = await ds.getRepository(EnrollmentEntity).findBy({ cohortId: assignment.cohortId })
-  const byMember = await standingsByAssignmentAndUser(ds, [assignment.id])
-  const standings = members.map((m) => byMember.get(`${assignment.id}:${m.userId}`) ?? NOT_STARTED)
-  return presentAssignmentStats(assignment.id, standings)
+  const userIds = members.map((m) => m.userId)
+  const byMember = await standingsFor(ds, [assignment], userIds, nowIso())
+  const rule = (await passRulesOf(ds, [assignment.scenarioId])).get(assignment.scenarioId) ?? UNKNOWN_RULE
+  return presentAssignmentStats(
+    assignment.id,
+    userIds.map((id) => byMember.get(pairKey(assignment.id, id))!),
+    rule,
+  )
 }

@@ -34,7 +34,9 @@ export const presentAttemptSummary = (
           overridden: row.score !== row.autoScore || Boolean(row.passed) !== Boolean(row.autoPassed),
           evidence: row.evidence ? JSON.parse(row.evidence) : null,
           gradedAt: row.gradedAt ?? row.submittedAt ?? row.updatedAt,
+          overrideReason: row.overriddenAt ? row.overrideReason : null,
         },
+  reviewedAt: row.reviewedAt,
 })
 
 export const presentAttemptDetail = (

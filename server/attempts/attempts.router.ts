@@ -4,13 +4,15 @@ import {
   attemptListQuerySchema,
   feedbackRequestSchema,
   gradeOverrideRequestSchema,
+  reviewRequestSchema,
 } from '@shared/api/attempts'
 import { idParamsSchema } from '@shared/api/common'
 import type { AppContext } from '../context'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { keepRawJsonBody } from '../middleware/raw-body'
 import { asMiddleware, validate } from '../middleware/validate'
-import { addFeedback, getAttemptDetail, listAttempts, overrideGrade } from './attempts.service'
+import { addFeedback, getAttemptDetail, listAttempts, markReviewed, overrideGrade } from './attempts.service'
+import { attemptNeighbours } from './neighbours'
 import { submitAttempt } from './submission.service'
 
 export function attemptsRouter(ctx: AppContext): Router {
@@ -39,6 +41,19 @@ export function attemptsRouter(ctx: AppContext): Router {
     validate({ params: idParamsSchema, body: feedbackRequestSchema }),
     async (req, res) => {
       res.status(201).json(await addFeedback(ctx, currentUser(req), req.params.id, req.body.body))
+    },
+  )
+
+  router.get('/:id/neighbours', staff, validate({ params: idParamsSchema }), async (req, res) => {
+    res.json(await attemptNeighbours(ctx, currentUser(req), req.params.id))
+  })
+
+  router.post(
+    '/:id/review',
+    staff,
+    validate({ params: idParamsSchema, body: reviewRequestSchema }),
+    async (req, res) => {
+      res.json(await markReviewed(ctx, currentUser(req), req.params.id, req.body.reviewed))
     },
   )
 

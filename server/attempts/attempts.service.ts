@@ -60,6 +60,10 @@ export const ATTEMPT_SUMMARY_SELECT = {
   passed: true,
   evidence: true,
   gradedAt: true,
+  reviewedAt: true,
+  reviewedById: true,
+  overriddenAt: true,
+  overrideReason: true,
 } satisfies Record<keyof AttemptSummaryRow, true>
 
 /** Summaries with their apprentices' names and scenario keys, read in two queries. */
@@ -208,9 +212,34 @@ export async function addFeedback(
   }
   await ctx.dataSource.transaction(async (manager) => {
     await manager.getRepository(FeedbackEntity).insert(row)
+    // Feedback is a review; the apprentice's own activity time stays as it was.
+    if (!attempt.reviewedAt) {
+      await manager
+        .getRepository(AttemptEntity)
+        .update({ id: attempt.id }, { reviewedAt: row.createdAt, reviewedById: user.id })
+    }
     await notifyOwner(ctx, manager, attempt, 'feedback')
   })
   return (await presentFeedbackRows(ctx, [row]))[0]!
+}
+
+/** Marks a submitted attempt reviewed (or awaiting review again); the needs-attention list follows it. */
+export async function markReviewed(
+  ctx: AppContext,
+  user: UserRow,
+  attemptId: string,
+  reviewed: boolean,
+): Promise<AttemptSummary> {
+  const ds = ctx.dataSource
+  const attempt = await attemptFor(ds, user, attemptId, 'manage')
+  if (attempt.status !== 'submitted') throw conflict('conflict', 'Only a submitted attempt can be reviewed')
+  await ds
+    .getRepository(AttemptEntity)
+    .update(
+      { id: attempt.id },
+      reviewed ? { reviewedAt: nowIso(), reviewedById: user.id } : { reviewedAt: null, reviewedById: null },
+    )
+  return presentOne(ctx, await ds.getRepository(AttemptEntity).findOneByOrFail({ id: attempt.id }))
 }
 
 /** An instructor's grade replaces the grader's as the one that counts; the change is audited with its reason. */
@@ -227,7 +256,18 @@ export async function overrideGrade(
   }
   const now = nowIso()
   await ds.transaction(async (manager) => {
-    await manager.getRepository(AttemptEntity).update({ id: attempt.id }, { score, passed, updatedAt: now })
+    // Not updatedAt: that is the apprentice's last activity, and the instructor's change is not theirs.
+    await manager.getRepository(AttemptEntity).update(
+      { id: attempt.id },
+      {
+        score,
+        passed,
+        overriddenAt: now,
+        overrideReason: reason,
+        reviewedAt: attempt.reviewedAt ?? now,
+        reviewedById: attempt.reviewedById ?? user.id,
+      },
+    )
     await manager.getRepository(AuditEntryEntity).insert({
       id: randomUUID(),
       actorId: user.id,

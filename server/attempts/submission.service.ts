@@ -2,7 +2,10 @@
 // store once (idempotent by id).
 import { randomUUID } from 'node:crypto'
 import type { AttemptSummary } from '@shared/api/attempts'
+import { checkSubmission, personalTerms } from '@shared/progress'
+import { formatInZone } from '@shared/time/zone'
 import { isEnrolled } from '../access/access.service'
+import { centreTimeZone } from '../centre/centre.service'
 import { appLink, type AppContext } from '../context'
 import {
   AssignmentEntity,
@@ -23,6 +26,7 @@ import type { SubmissionHeader } from '../infrastructure/grading/grading-worker'
 import { queueMail } from '../infrastructure/mail/mail-job'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
 import { queueScorePost } from '../lti/score-post-job'
+import { apprenticeFacts, assignmentTerms } from '../gradebook/standings'
 import { presentOne } from './attempts.service'
 
 interface Target {
@@ -55,21 +59,46 @@ async function resolveTarget(ctx: AppContext, user: UserRow, body: SubmissionHea
   return { scenario, assignment: null }
 }
 
-function checkRules(assignment: AssignmentRow, hintRevealed: boolean, usedAttempts: number, now: string) {
-  if (now < assignment.opensAt) {
-    throw conflict('assignment_not_open', `This assignment opens at ${assignment.opensAt}`)
-  }
-  if (assignment.attemptLimit !== null && usedAttempts >= assignment.attemptLimit) {
-    throw conflict(
-      'attempt_limit_reached',
-      `All ${assignment.attemptLimit} attempt(s) allowed have been used`,
-    )
+/**
+ * The apprentice's own terms decide (shared/progress): their due date, allowance and the late policy.
+ * Returns whether the work is late.
+ */
+async function checkRules(
+  ctx: AppContext,
+  user: UserRow,
+  assignment: AssignmentRow,
+  hintRevealed: boolean,
+  usedAttempts: number,
+  now: string,
+): Promise<boolean> {
+  const facts = await apprenticeFacts(ctx.dataSource, [assignment], user.id)
+  const terms = personalTerms(assignmentTerms(assignment), facts.facts(assignment, user.id))
+  const check = checkSubmission(terms, now, usedAttempts)
+  if (!check.ok) {
+    const timeZone = await centreTimeZone(ctx.dataSource)
+    switch (check.refusal) {
+      case 'notAssigned':
+        throw new HttpError(403, 'forbidden', check.message)
+      case 'notOpen':
+        throw conflict(
+          'assignment_not_open',
+          `This assignment opens on ${formatInZone(terms.opensAt, timeZone, 'dateTimeZone')}`,
+        )
+      case 'closed':
+        throw conflict(
+          'assignment_closed',
+          `This assignment closed on ${formatInZone(terms.dueAt, timeZone, 'dateTimeZone')}; ask your instructor for an extension`,
+        )
+      case 'noAttemptsLeft':
+        throw conflict('attempt_limit_reached', check.message)
+    }
   }
   if (!assignment.hintsAllowed && hintRevealed) {
     throw new HttpError(400, 'hints_not_allowed', 'Hints are not allowed on this assignment', {
       fields: { events: ['Contains a revealed hint'] },
     })
   }
+  return check.late
 }
 
 class LostRace extends Error {}
@@ -115,9 +144,10 @@ async function storeSubmission(
   }
   const { scenario, assignment } = await resolveTarget(ctx, user, body)
   const now = nowIso()
+  let late = false
   if (assignment) {
     const used = await attempts.countBy({ assignmentId: assignment.id, userId: user.id, status: 'submitted' })
-    checkRules(assignment, submission.hintRevealed, used, now)
+    late = await checkRules(ctx, user, assignment, submission.hintRevealed, used, now)
   }
   const submitting = body.status === 'submitted'
   const grade = submitting ? await ctx.grading.grade(scenario, eventsJson) : null
@@ -129,7 +159,7 @@ async function storeSubmission(
     status: body.status,
     events: eventsJson,
     eventCount: submission.eventCount,
-    late: Boolean(assignment && submitting && now > assignment.dueAt),
+    late: submitting && late,
     startedAt: existing?.startedAt ?? now,
     updatedAt: now,
     submittedAt: submitting ? now : null,
@@ -139,6 +169,10 @@ async function storeSubmission(
     passed: grade?.passed ?? null,
     evidence: grade?.evidenceJson ?? null,
     gradedAt: grade ? now : null,
+    reviewedAt: existing?.reviewedAt ?? null,
+    reviewedById: existing?.reviewedById ?? null,
+    overriddenAt: null,
+    overrideReason: null,
   }
   try {
     await ds.transaction(async (manager) => {

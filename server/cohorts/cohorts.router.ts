@@ -4,7 +4,9 @@ import { idParamsSchema } from '@shared/api/common'
 import {
   cohortListQuerySchema,
   cohortMemberParamsSchema,
+  cohortMessageRequestSchema,
   createCohortRequestSchema,
+  removeMembersRequestSchema,
   updateCohortRequestSchema,
 } from '@shared/api/cohorts'
 import { cohortInvitationParamsSchema, inviteRequestSchema } from '@shared/api/invitations'
@@ -27,6 +29,7 @@ import {
   removeMember,
   updateCohort,
 } from './cohorts.service'
+import { messageMembers, removeMembers } from './bulk.service'
 
 export function cohortsRouter(ctx: AppContext): Router {
   const router = Router()
@@ -66,6 +69,25 @@ export function cohortsRouter(ctx: AppContext): Router {
     async (req, res) => {
       await removeMember(ctx, currentUser(req), req.params.id, req.params.userId)
       res.status(204).end()
+    },
+  )
+
+  // Several members at once: a message by e-mail, or removal (POST: DELETE carries no body reliably).
+  router.post(
+    '/:id/messages',
+    staff,
+    validate({ params: idParamsSchema, body: cohortMessageRequestSchema }),
+    async (req, res) => {
+      res.json(await messageMembers(ctx, currentUser(req), req.params.id, req.body))
+    },
+  )
+
+  router.post(
+    '/:id/members/remove',
+    staff,
+    validate({ params: idParamsSchema, body: removeMembersRequestSchema }),
+    async (req, res) => {
+      res.json(await removeMembers(ctx, currentUser(req), req.params.id, req.body.userIds))
     },
   )
 

@@ -2,6 +2,8 @@
 import type { Role } from '@shared/api/auth'
 
 export const DEMO_CENTRE = 'Kestrel Vale Electrical Training Centre'
+/** The demo centre's clock: dates on screen, in mail and in files are shown in it. */
+export const DEMO_TIME_ZONE = 'Europe/London'
 export const DEMO_DOMAIN = 'kestrelvale.example'
 /** One shared demo password that meets the policy (12+ characters). */
 export const DEMO_PASSWORD = 'slipway-demo-bench'

@@ -82,6 +82,10 @@ export async function seedSampleAttempts(
       passed: grade?.passed ?? null,
       evidence: grade ? JSON.stringify(grade.evidence) : null,
       gradedAt: grade ? at.toISOString() : null,
+      reviewedAt: null,
+      reviewedById: null,
+      overriddenAt: null,
+      overrideReason: null,
     })
   }
   await ds.transaction(async (manager) => {
@@ -111,13 +115,27 @@ export async function seedSampleAttempts(
         body: 'Good start. Before touching any terminal: lock the disconnect and prove every pair dead, DC bus included.',
         createdAt: failed.updatedAt,
       })
+      await manager
+        .getRepository(AttemptEntity)
+        .update({ id: failed.id }, { reviewedAt: failed.updatedAt, reviewedById: instructor.id })
     }
     const reviewed = rows.find(
       (r) => r.status === 'submitted' && r.passed && r.score !== null && r.score < 100,
     )
     if (instructor && reviewed) {
       const next = { score: Math.min(100, reviewed.score! + 5), passed: true }
-      await manager.getRepository(AttemptEntity).update({ id: reviewed.id }, next)
+      const reason = 'Explained the hint correctly at the bench; marks restored.'
+      const overriddenAt = new Date(Date.parse(reviewed.updatedAt) + HOUR).toISOString()
+      await manager.getRepository(AttemptEntity).update(
+        { id: reviewed.id },
+        {
+          ...next,
+          overriddenAt,
+          overrideReason: reason,
+          reviewedAt: overriddenAt,
+          reviewedById: instructor.id,
+        },
+      )
       await manager.getRepository(AuditEntryEntity).insert({
         id: randomUUID(),
         actorId: instructor.id,
@@ -126,8 +144,8 @@ export async function seedSampleAttempts(
         entityId: reviewed.id,
         fromValue: JSON.stringify({ score: reviewed.score, passed: reviewed.passed }),
         toValue: JSON.stringify(next),
-        reason: 'Explained the hint correctly at the bench; marks restored.',
-        createdAt: new Date(Date.parse(reviewed.updatedAt) + HOUR).toISOString(),
+        reason,
+        createdAt: overriddenAt,
       })
     }
   })

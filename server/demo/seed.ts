@@ -3,8 +3,10 @@
 import { randomUUID } from 'node:crypto'
 import type { DataSource } from 'typeorm'
 import type { Logger } from '../infrastructure/logging'
+import { CENTRE_ID } from '../centre/centre.service'
 import {
   AssignmentEntity,
+  CentreSettingsEntity,
   CohortEntity,
   EnrollmentEntity,
   ScenarioEntity,
@@ -14,7 +16,7 @@ import {
   type UserRow,
 } from '../entities'
 import { DAY, nowIso } from '../infrastructure/clock'
-import { DEMO_ACCOUNTS, DEMO_COHORTS } from './demo-accounts'
+import { DEMO_ACCOUNTS, DEMO_CENTRE, DEMO_COHORTS, DEMO_TIME_ZONE } from './demo-accounts'
 import type { PasswordHasher } from '../infrastructure/security/passwords'
 import { seedSampleAttempts } from './seed-attempts'
 
@@ -22,10 +24,13 @@ import { seedSampleAttempts } from './seed-attempts'
 const DEMO_ASSIGNMENTS: { cohort: number; key: string; opensInDays: number; dueInDays: number }[] = [
   { cohort: 0, key: 'safe-isolation', opensInDays: -21, dueInDays: -7 },
   { cohort: 0, key: 'two-wire-run-stop', opensInDays: -14, dueInDays: 7 },
-  { cohort: 0, key: 'raise-lower-commissioning', opensInDays: -3, dueInDays: 14 },
+  // Due tomorrow: the instructor's needs-attention page has work closing soon to show.
+  { cohort: 0, key: 'raise-lower-commissioning', opensInDays: -3, dueInDays: 1 },
   { cohort: 1, key: 'safe-isolation', opensInDays: -7, dueInDays: 7 },
   { cohort: 1, key: 'three-wire-start-stop', opensInDays: -2, dueInDays: 21 },
 ]
+
+const ENROLLED_DAYS_AGO = 30
 
 export async function isDatabaseEmpty(dataSource: DataSource): Promise<boolean> {
   return (await dataSource.getRepository(UserEntity).count()) === 0
@@ -68,6 +73,12 @@ export async function seedDemo(
   const assignments: AssignmentRow[] = []
   await dataSource.transaction(async (manager) => {
     await manager.getRepository(UserEntity).insert(users)
+    await manager.getRepository(CentreSettingsEntity).insert({
+      id: CENTRE_ID,
+      name: DEMO_CENTRE,
+      timeZone: DEMO_TIME_ZONE,
+      updatedAt: now,
+    })
     // Not repository.insert: for a column with a database default (gradebookRevision) TypeORM re-reads the
     // rows of a multi-row insert on SQLite and merges them back by position, unordered — which swapped the
     // cohorts' ids in `cohorts` and enrolled apprentices in the wrong cohort. updateEntity(false) skips it.
@@ -85,7 +96,8 @@ export async function seedDemo(
               id: randomUUID(),
               cohortId: cohorts[account.cohort]!.id,
               userId: users[index]!.id,
-              createdAt: now,
+              // Enrolled at the start of term, before any demo work fell due.
+              createdAt: new Date(Date.now() - ENROLLED_DAYS_AGO * DAY).toISOString(),
             },
           ]
         : [],
@@ -109,6 +121,9 @@ export async function seedDemo(
         scorePolicy: 'best',
         createdById: cohort.ownerId,
         createdAt: now,
+        latePolicy: 'acceptLate',
+        latePenalty: 10,
+        audience: 'cohort',
       })
     }
     if (assignments.length) await manager.getRepository(AssignmentEntity).insert(assignments)

@@ -1,5 +1,6 @@
 import { EntitySchema, type EntitySchemaOptions } from 'typeorm'
 import type { ScorePolicy } from '@shared/api/assignments'
+import type { LatePolicy } from '@shared/progress'
 import { bool, timestamp, uuidColumn, uuidPrimary, varchar, belongsTo } from './columns'
 
 export interface AssignmentRow {
@@ -15,6 +16,12 @@ export interface AssignmentRow {
   scorePolicy: ScorePolicy
   createdById: string
   createdAt: string
+  /** Null on assignments set before late policies existed: they accept late work without penalty. */
+  latePolicy: LatePolicy | null
+  /** Points off a late attempt's score (null: none). */
+  latePenalty: number | null
+  /** `selected`: only the apprentices in assignment_recipients; null or `cohort`: every member. */
+  audience: 'cohort' | 'selected' | null
 }
 
 export const AssignmentEntity = new EntitySchema<AssignmentRow>({
@@ -32,6 +39,9 @@ export const AssignmentEntity = new EntitySchema<AssignmentRow>({
     scorePolicy: { type: 'varchar', length: 8, default: 'best' },
     createdById: uuidColumn,
     createdAt: timestamp,
+    latePolicy: varchar(16, true),
+    latePenalty: { type: 'integer', nullable: true },
+    audience: varchar(16, true),
   },
   relations: {
     cohort: belongsTo('Cohort', 'cohortId', 'CASCADE'),

@@ -37,6 +37,12 @@ export interface AttemptRow {
   /** JSON text of the grader's per-objective evidence. */
   evidence: string | null
   gradedAt: string | null
+  /** When an instructor marked it reviewed (or left feedback, or changed the grade). */
+  reviewedAt: string | null
+  reviewedById: string | null
+  /** The latest grade override: when, and the reason given (the full history is in audit_entries). */
+  overriddenAt: string | null
+  overrideReason: string | null
 }
 
 export const AttemptEntity = new EntitySchema<AttemptRow>({
@@ -60,14 +66,28 @@ export const AttemptEntity = new EntitySchema<AttemptRow>({
     passed: nullableBool,
     evidence: nullableText,
     gradedAt: nullableTimestamp,
+    reviewedAt: nullableTimestamp,
+    reviewedById: nullableUuid,
+    overriddenAt: nullableTimestamp,
+    overrideReason: nullableText,
   },
   indices: [
     { name: 'idx_attempts_user', columns: ['userId'] },
     { name: 'idx_attempts_assignment', columns: ['assignmentId'] },
-    // Covers the gradebook's summary query (migration 1764800000000); keep the column order in step.
+    // Covers the gradebook's summary query (migrations 1764800000000, 1765000000000); keep the column order in step.
     {
       name: 'idx_attempts_gradebook',
-      columns: ['assignmentId', 'userId', 'status', 'score', 'passed', 'updatedAt', 'submittedAt', 'id'],
+      columns: [
+        'assignmentId',
+        'userId',
+        'status',
+        'score',
+        'passed',
+        'updatedAt',
+        'submittedAt',
+        'late',
+        'id',
+      ],
     },
   ],
   relations: {

@@ -14,6 +14,8 @@ export interface CohortRow {
    * rows up in a multi-row insert: insert several cohorts with the query builder's updateEntity(false).
    */
   gradebookRevision?: number
+  /** JSON array of the scenario keys open for free practice; null: every scenario. */
+  practiceKeys?: string | null
 }
 
 export const CohortEntity = new EntitySchema<CohortRow>({
@@ -27,6 +29,7 @@ export const CohortEntity = new EntitySchema<CohortRow>({
     archived: bool,
     createdAt: timestamp,
     gradebookRevision: { type: 'integer', default: 0, insert: false, update: false },
+    practiceKeys: { type: 'text', nullable: true },
   },
   relations: {
     owner: belongsTo('User', 'ownerId', 'RESTRICT'),

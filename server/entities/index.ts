@@ -1,8 +1,12 @@
 // Every entity, listed explicitly for the DataSource.
 import { AssignmentEntity } from './assignment'
+import { AssignmentExceptionEntity } from './assignment-exception'
+import { AssignmentRecipientEntity } from './assignment-recipient'
 import { AttemptEntity } from './attempt'
 import { AuditEntryEntity } from './audit-entry'
+import { CentreSettingsEntity } from './centre-settings'
 import { CohortEntity } from './cohort'
+import { CohortInstructorEntity } from './cohort-instructor'
 import { EnrollmentEntity } from './enrollment'
 import { FeedbackEntity } from './feedback'
 import { InvitationEntity } from './invitation'
@@ -18,9 +22,13 @@ import { UploadEntity } from './upload'
 import { UserEntity } from './user'
 
 export * from './assignment'
+export * from './assignment-exception'
+export * from './assignment-recipient'
 export * from './attempt'
 export * from './audit-entry'
+export * from './centre-settings'
 export * from './cohort'
+export * from './cohort-instructor'
 export * from './enrollment'
 export * from './feedback'
 export * from './invitation'
@@ -53,4 +61,8 @@ export const entities = [
   JobEntity,
   ...ltiEntities,
   OutcomeSignOffEntity,
+  CentreSettingsEntity,
+  AssignmentExceptionEntity,
+  AssignmentRecipientEntity,
+  CohortInstructorEntity,
 ]

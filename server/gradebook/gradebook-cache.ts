@@ -3,12 +3,15 @@
 // again and again. Each cohort's entry is tagged with the cohort's gradebookRevision, which database
 // triggers bump on every change a gradebook shows (migration 1764900000000), and the revision is read with
 // the cohort row on every request — so a cached gradebook is never served after a change, whichever
-// instance made it. Entries are dropped least-recently-used first.
+// instance made it. Statuses depend on the clock too (work turns missed when a due date passes), so an
+// entry also expires at the next personal due date it was built before. Entries are dropped
+// least-recently-used first.
 import { createHash } from 'node:crypto'
 import { LRUCache } from 'lru-cache'
 import type { DataSource } from 'typeorm'
 import type { GradebookRow } from '@shared/api/gradebook'
 import type { CohortRow } from '../entities'
+import { nowMs } from '../infrastructure/clock'
 import { presentGradebookPage } from './gradebook.presenter'
 import { loadGradebook, viewGradebook, type CohortGradebook, type GradebookFilter } from './gradebook.service'
 
@@ -31,6 +34,9 @@ export interface GradebookPageBody {
 
 interface Entry {
   revision: number
+  /** The statuses hold from builtAt until validUntil (ms since the epoch), when a due date passes. */
+  builtAt: number
+  validUntil: number
   /** Shared by concurrent first requests, so a burst builds the gradebook once. */
   gradebook: Promise<CohortGradebook>
   views: LRUCache<string, GradebookRow[]>
@@ -64,14 +70,22 @@ export function createGradebookCache(ds: DataSource, options: GradebookCacheOpti
     const revision = cohort.gradebookRevision ?? 0
     const cached = entries.get(cohort.id)
     // A different revision (higher, or lower after a restore from backup) means the data moved on.
-    if (cached && cached.revision === revision) return cached
+    const now = nowMs()
+    if (cached && cached.revision === revision && now >= cached.builtAt && now < cached.validUntil)
+      return cached
     loads++
     const entry: Entry = {
       revision,
-      gradebook: loadGradebook(ds, cohort),
+      builtAt: now,
+      validUntil: Infinity,
+      gradebook: loadGradebook(ds, cohort, new Date(now).toISOString()),
       views: new LRUCache({ max: options.maxViewsPerCohort ?? 16 }),
       pages: new LRUCache({ max: options.maxPagesPerCohort ?? 64 }),
     }
+    entry.gradebook.then(
+      (built) => (entry.validUntil = built.validUntil),
+      () => {},
+    )
     // A failed load must not stay cached: the next request tries again.
     entry.gradebook.catch(() => {
       if (entries.get(cohort.id) === entry) entries.delete(cohort.id)

@@ -2,26 +2,34 @@
 // filtered and sorted (viewGradebook, pure); gradebook-cache.ts keeps both between requests. Instructors
 // read it a page at a time (gradebookPage) or whole as CSV (gradebookCsvFile).
 import type { DataSource } from 'typeorm'
-import { In } from 'typeorm'
-import type { GradebookCellStatus, GradebookRow } from '@shared/api/gradebook'
+import { In, IsNull, Not } from 'typeorm'
+import type {
+  GradebookAssignment,
+  GradebookCell,
+  GradebookCellStatus,
+  GradebookRow,
+} from '@shared/api/gradebook'
+import { WORK_STATUS_LABELS, personalTerms, summarise } from '@shared/progress'
 import {
   AssignmentEntity,
+  AttemptEntity,
   EnrollmentEntity,
   UserEntity,
-  type AssignmentRow,
   type CohortRow,
   type UserRow,
 } from '../entities'
 import { cohortFor } from '../access/access.service'
+import { centreTimeZone } from '../centre/centre.service'
 import type { AppContext } from '../context'
+import { passRulesOf, UNKNOWN_RULE } from '../scenarios/pass-rules'
 import { nowIso } from '../infrastructure/clock'
 import type { GradebookPageBody, GradebookPageQuery } from './gradebook-cache'
 import { gradebookCsv, gradebookFileName } from './gradebook.presenter'
-import { NOT_STARTED, standingsByAssignmentAndUser } from './standings'
+import { NO_TALLY, apprenticeFacts, assignmentTerms, attemptTallies, pairKey, standingOf } from './standings'
 import { shownEmail } from '@shared/api/users'
 
 export interface GradebookFilter {
-  sort: 'name' | 'email' | 'lastActivity' | 'average'
+  sort: string
   order: 'asc' | 'desc'
   q?: string
   status?: GradebookCellStatus
@@ -29,13 +37,34 @@ export interface GradebookFilter {
 }
 
 export interface CohortGradebook {
-  assignments: AssignmentRow[]
+  assignments: GradebookAssignment[]
   /** One row per enrolled apprentice, in no particular order. */
   rows: GradebookRow[]
+  /**
+   * Statuses were computed at load time and hold until the next personal due date passes (ms since the
+   * epoch; Infinity when none is ahead): then work turns missed, so the cache must build it again.
+   */
+  validUntil: number
 }
 
-export async function loadGradebook(ds: DataSource, cohort: CohortRow): Promise<CohortGradebook> {
-  const assignments = await ds
+/** The reason of the latest override per pair (overrides are few: read apart from the covering index). */
+async function overrideReasons(ds: DataSource, assignmentIds: string[]) {
+  const rows = assignmentIds.length
+    ? await ds.getRepository(AttemptEntity).find({
+        where: { assignmentId: In(assignmentIds), overriddenAt: Not(IsNull()) },
+        select: { assignmentId: true, userId: true, overrideReason: true, overriddenAt: true },
+        order: { overriddenAt: 'ASC' },
+      })
+    : []
+  return new Map(rows.map((r) => [pairKey(r.assignmentId!, r.userId), r.overrideReason ?? '']))
+}
+
+export async function loadGradebook(
+  ds: DataSource,
+  cohort: CohortRow,
+  now: string = nowIso(),
+): Promise<CohortGradebook> {
+  const assignmentRows = await ds
     .getRepository(AssignmentEntity)
     .find({ where: { cohortId: cohort.id }, order: { dueAt: 'ASC' } })
   const enrollments = await ds
@@ -48,40 +77,98 @@ export async function loadGradebook(ds: DataSource, cohort: CohortRow): Promise<
         select: { id: true, name: true, email: true },
       })
     : []
-  const standings = await standingsByAssignmentAndUser(
+  const ids = assignmentRows.map((a) => a.id)
+  const tallies = await attemptTallies(ds, ids)
+  const facts = await apprenticeFacts(ds, assignmentRows)
+  const rules = await passRulesOf(
     ds,
-    assignments.map((a) => a.id),
+    assignmentRows.map((a) => a.scenarioId),
   )
+  const overrides = await overrideReasons(ds, ids)
+  const nowMs = Date.parse(now)
+  let validUntil = Infinity
+
+  const assignments: GradebookAssignment[] = assignmentRows.map((a) => {
+    const terms = assignmentTerms(a)
+    const rule = rules.get(a.scenarioId) ?? UNKNOWN_RULE
+    return {
+      id: a.id,
+      title: a.title,
+      opensAt: a.opensAt,
+      dueAt: a.dueAt,
+      passMark: rule.passMark,
+      requiredObjectives: rule.requiredObjectives,
+      latePolicy: terms.latePolicy,
+      latePenalty: terms.latePenalty,
+      targeted: a.audience === 'selected',
+    }
+  })
+
   const rows: GradebookRow[] = users.map((user) => {
-    const cells = assignments.map((assignment) => {
-      const standing = standings.get(`${assignment.id}:${user.id}`) ?? NOT_STARTED
-      return {
+    const standings = assignmentRows.map((assignment, index) => {
+      const key = pairKey(assignment.id, user.id)
+      const terms = personalTerms(assignmentTerms(assignment), facts.facts(assignment, user.id))
+      if (terms.dueAt) {
+        const due = Date.parse(terms.dueAt)
+        if (due > nowMs && due < validUntil) validUntil = due
+      }
+      const standing = standingOf(terms, tallies.get(key) ?? NO_TALLY, now)
+      const passMark = assignments[index]!.passMark
+      const overrideReason = overrides.get(key) ?? null
+      const cell: GradebookCell = {
+        status: standing.status,
         bestScore: standing.bestScore,
         attempts: standing.attempts,
         lastActivity: standing.lastActivity,
-        status: standing.status,
+        dueAt: terms.dueAt,
+        extended: terms.extended,
+        requiredMissed:
+          !standing.passed &&
+          overrideReason === null &&
+          passMark !== null &&
+          standing.bestRaw !== null &&
+          standing.bestRaw >= passMark,
+        overrideReason,
       }
+      return { standing, cell }
     })
-    const scored = cells.filter((c) => c.bestScore !== null).map((c) => c.bestScore!)
-    const lastActivity = cells.reduce<string | null>(
-      (latest, c) => (c.lastActivity && (!latest || c.lastActivity > latest) ? c.lastActivity : latest),
+    const summary = summarise(
+      standings.map(({ standing: s }) => ({ status: s.status, score: s.bestScore, counts: s.counts })),
+    )
+    const lastActivity = standings.reduce<string | null>(
+      (latest, { cell }) =>
+        cell.lastActivity && (!latest || cell.lastActivity > latest) ? cell.lastActivity : latest,
       null,
     )
     return {
       userId: user.id,
       name: user.name,
       email: shownEmail(user.email),
-      average: scored.length ? scored.reduce((a, b) => a + b, 0) / scored.length : null,
+      average: summary.average,
+      completion: { passed: summary.passed, assigned: summary.assigned },
       lastActivity,
-      cells,
+      cells: standings.map((s) => s.cell),
     }
   })
-  return { assignments, rows }
+  return { assignments, rows, validUntil }
 }
 
 // One collator for every comparison: the same order as String.prototype.localeCompare, without building
 // the locale data on each call.
 const collator = new Intl.Collator()
+
+type SortKey = (row: GradebookRow) => string | number | null
+
+function sortKeyOf(gradebook: CohortGradebook, sort: string): SortKey {
+  if (sort === 'average') return (row) => row.average
+  if (sort === 'lastActivity') return (row) => row.lastActivity
+  if (sort === 'email') return (row) => row.email
+  if (sort === 'completion')
+    return (row) => (row.completion.assigned ? row.completion.passed / row.completion.assigned : null)
+  const column = gradebook.assignments.findIndex((a) => a.id === sort)
+  if (column >= 0) return (row) => row.cells[column]?.bestScore ?? null
+  return (row) => row.name
+}
 
 /** The rows that pass the filter, sorted; the gradebook is not changed. */
 export function viewGradebook(gradebook: CohortGradebook, filter: GradebookFilter): GradebookRow[] {
@@ -102,12 +189,7 @@ export function viewGradebook(gradebook: CohortGradebook, filter: GradebookFilte
     )
   }
   const direction = filter.order === 'desc' ? -1 : 1
-  const key = (row: GradebookRow): string | number | null =>
-    filter.sort === 'average'
-      ? row.average
-      : filter.sort === 'lastActivity'
-        ? row.lastActivity
-        : row[filter.sort]
+  const key = sortKeyOf(gradebook, filter.sort)
   view.sort((a, b) => {
     const ka = key(a)
     const kb = key(b)
@@ -119,7 +201,7 @@ export function viewGradebook(gradebook: CohortGradebook, filter: GradebookFilte
   return view
 }
 
-/** One page as JSON bytes with its entity tag, for the cohort's instructor or an admin. */
+/** One page as JSON bytes with its entity tag, for the cohort's instructors or an admin. */
 export async function gradebookPage(
   ctx: AppContext,
   user: UserRow,
@@ -130,7 +212,7 @@ export async function gradebookPage(
   return ctx.gradebooks.page(cohort, query)
 }
 
-/** The whole filtered, sorted gradebook as a CSV file. */
+/** The gradebook as a CSV file: every apprentice, or the filtered view (named in the file name). */
 export async function gradebookCsvFile(
   ctx: AppContext,
   user: UserRow,
@@ -139,5 +221,24 @@ export async function gradebookCsvFile(
 ): Promise<{ fileName: string; csv: string }> {
   const cohort = await cohortFor(ctx.dataSource, user, cohortId, 'manage')
   const view = await ctx.gradebooks.view(cohort, filter)
-  return { fileName: gradebookFileName(cohort.name, nowIso().slice(0, 10)), csv: gradebookCsv(view) }
+  const timeZone = await centreTimeZone(ctx.dataSource)
+  return {
+    fileName: gradebookFileName(cohort.name, nowIso(), timeZone, describeFilter(view.assignments, filter)),
+    csv: gradebookCsv(view, timeZone),
+  }
+}
+
+/** The filter in words for the file name; empty when every apprentice is in the file. */
+export function describeFilter(
+  assignments: GradebookAssignment[],
+  filter: Pick<GradebookFilter, 'q' | 'status' | 'assignmentId'>,
+): string[] {
+  const words: string[] = []
+  if (filter.status) {
+    words.push(WORK_STATUS_LABELS[filter.status])
+    const assignment = assignments.find((a) => a.id === filter.assignmentId)
+    if (assignment) words.push('in', assignment.title)
+  }
+  if (filter.q) words.push('matching', filter.q)
+  return words
 }

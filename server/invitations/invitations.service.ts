@@ -25,6 +25,7 @@ import {
 } from '../entities'
 import { HttpError, conflict, notFound } from '../http-error'
 import { DAY, isoIn, nowIso } from '../infrastructure/clock'
+import { centreTimeZone } from '../centre/centre.service'
 import { queueMail } from '../infrastructure/mail/mail-job'
 import { invitationMail } from '../infrastructure/mail/templates'
 import { hashToken, newOpaqueToken } from '../infrastructure/security/tokens'
@@ -93,6 +94,8 @@ async function invite(ctx: AppContext, manager: EntityManager, input: InviteInpu
       role: input.role,
       url: appLink(ctx, `/invitation?token=${encodeURIComponent(token)}`),
       expiresAt: row.expiresAt,
+      // The expiry date in the mail is on the centre's clock.
+      timeZone: await centreTimeZone(manager),
     }),
   )
   return { outcome: 'invited', email: input.email, invitation: presentInvitation(row) }

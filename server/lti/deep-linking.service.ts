@@ -81,6 +81,9 @@ export async function answerDeepLink(
     attemptLimit: choice.attemptLimit,
     hintsAllowed: choice.hintsAllowed,
     scorePolicy: choice.scorePolicy,
+    // The course's own gradebook keeps its late rules; Slipway accepts late work without a penalty.
+    latePolicy: 'acceptLate',
+    latePenalty: 0,
   })
   const contentItem = {
     type: 'ltiResourceLink',

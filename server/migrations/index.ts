@@ -6,6 +6,7 @@ import { GradebookRevision1764900000000 } from './1764900000000-gradebook-revisi
 import { JobQueue1765000000000 } from './1765000000000-job-queue'
 import { Lti1765100000000 } from './1765100000000-lti'
 import { OutcomeSignOffs1765200000000 } from './1765200000000-outcome-sign-offs'
+import { InstructorWeek1765300000000 } from './1765300000000-instructor-week'
 
 export const migrations = [
   InitialSchema1764600000000,
@@ -15,4 +16,5 @@ export const migrations = [
   JobQueue1765000000000,
   Lti1765100000000,
   OutcomeSignOffs1765200000000,
+  InstructorWeek1765300000000,
 ]

@@ -42,16 +42,19 @@ import {
 import { labelsOfApprentice, loadTrainingData, type TrainingScope } from './trainingData'
 import { trainingRecordPdf } from './trainingRecord'
 import type { CommissioningRecordView, RecordCentre } from './types'
+import { presentCentreSettings } from '../centre/centre.presenter'
+import { readCentreSettings } from '../centre/centre.service'
 
 export interface RecordFile {
   fileName: string
   bytes: Buffer
 }
 
-const centreOf = (ctx: AppContext): RecordCentre => ({
-  name: ctx.config.centre.name,
-  timeZone: ctx.config.centre.timeZone,
-})
+/** The centre as its admin set it (Centre settings): its name heads the records, its clock dates them. */
+async function centreOf(ctx: AppContext): Promise<RecordCentre> {
+  const { name, timeZone } = presentCentreSettings(await readCentreSettings(ctx.dataSource))
+  return { name, timeZone }
+}
 
 const notReady = (message: string) => conflict('conflict', message)
 
@@ -94,7 +97,7 @@ async function commissioningRecordView(
   const nameOf = (id: string | null) => people.find((p) => p.id === id)?.name ?? 'An instructor'
   const label = (await labelsOfApprentice(ds, apprentice.id)).get(attempt.id) ?? 'Attempt'
   const view = buildCommissioningView({
-    centre: centreOf(ctx),
+    centre: await centreOf(ctx),
     scenario,
     events: JSON.parse(attempt.events) as AttemptEvent[],
     grade: grade.data,
@@ -196,7 +199,7 @@ export async function trainingRecordSummary(
 
 async function trainingRecordBytes(ctx: AppContext, apprentice: UserRow, scope: TrainingScope) {
   const data = await loadTrainingData(ctx.dataSource, apprentice, scope)
-  return trainingRecordPdf(trainingRecordView(data, centreOf(ctx), nowIso()))
+  return trainingRecordPdf(trainingRecordView(data, await centreOf(ctx), nowIso()))
 }
 
 export async function trainingRecordFile(

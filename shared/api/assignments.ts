@@ -1,10 +1,12 @@
 // Assignments: one scenario version set for a cohort with a window, an attempt limit and a hint rule.
 import { z } from 'zod'
+import { LATE_POLICIES, WORK_STATUSES } from '../progress/standing'
 import { idSchema, isoDateTimeSchema } from './common'
 
 /** Which score counts when an assignment sends grades to a learning platform: the best, or the latest. */
 export const scorePolicySchema = z.enum(['best', 'latest'])
 export type ScorePolicy = z.infer<typeof scorePolicySchema>
+export const latePolicyFieldSchema = z.enum(LATE_POLICIES)
 
 const assignmentFields = {
   title: z.string().trim().max(160).optional(),
@@ -13,15 +15,29 @@ const assignmentFields = {
   attemptLimit: z.number().int().min(1).max(100).nullable(),
   hintsAllowed: z.boolean(),
   scorePolicy: scorePolicySchema.default('best'),
+  /** Close at the due date, or accept late work with a penalty (points off a late attempt's score). */
+  latePolicy: latePolicyFieldSchema.default('acceptLate'),
+  latePenalty: z.number().int().min(0).max(100).default(0),
 }
 
 export const createAssignmentRequestSchema = z
-  .object({ scenarioId: idSchema, ...assignmentFields })
+  .object({
+    scenarioId: idSchema,
+    ...assignmentFields,
+    /** Set for these members only (absent or null: the whole cohort). */
+    apprenticeIds: z
+      .array(idSchema)
+      .min(1, { error: 'Choose at least one apprentice' })
+      .max(2000)
+      .nullable()
+      .optional(),
+  })
   .refine((value) => Date.parse(value.dueAt) > Date.parse(value.opensAt), {
     error: 'The due date must be after the opening date',
     path: ['dueAt'],
   })
-export type CreateAssignmentRequest = z.infer<typeof createAssignmentRequestSchema>
+export type CreateAssignmentRequest = z.input<typeof createAssignmentRequestSchema>
+export type CreateAssignment = z.output<typeof createAssignmentRequestSchema>
 
 export const updateAssignmentRequestSchema = z
   .object({
@@ -31,18 +47,35 @@ export const updateAssignmentRequestSchema = z
     attemptLimit: assignmentFields.attemptLimit.optional(),
     hintsAllowed: assignmentFields.hintsAllowed.optional(),
     scorePolicy: scorePolicySchema.optional(),
+    latePolicy: latePolicyFieldSchema.optional(),
+    latePenalty: z.number().int().min(0).max(100).optional(),
+    /** Who it is set for: members by id, or null for the whole cohort. */
+    apprenticeIds: z
+      .array(idSchema)
+      .min(1, { error: 'Choose at least one apprentice' })
+      .max(2000)
+      .nullable()
+      .optional(),
   })
   .refine((value) => Object.values(value).some((field) => field !== undefined), {
     error: 'Give at least one field to change',
   })
 export type UpdateAssignmentRequest = z.infer<typeof updateAssignmentRequestSchema>
 
-/** The apprentice's own standing on it (only in apprentice views). */
+/** The apprentice's own standing on it (only in apprentice views), under their own terms. */
 export const myProgressSchema = z.object({
   attemptsUsed: z.number().int().nonnegative(),
+  /** The score that counts (late penalty applied). */
   bestScore: z.number().nullable(),
   passed: z.boolean(),
   inProgressAttemptId: idSchema.nullable(),
+  status: z.enum(WORK_STATUSES),
+  /** Their own due date (an extension, or none when it passed before they enrolled). */
+  dueAt: isoDateTimeSchema.nullable(),
+  /** Their own attempt allowance (the assignment's plus any extra attempts). */
+  attemptLimit: z.number().int().nullable(),
+  excused: z.boolean(),
+  extended: z.boolean(),
 })
 export type MyProgress = z.infer<typeof myProgressSchema>
 
@@ -59,6 +92,10 @@ export const assignmentSchema = z.object({
   attemptLimit: z.number().int().nullable(),
   hintsAllowed: z.boolean(),
   scorePolicy: scorePolicySchema,
+  latePolicy: latePolicyFieldSchema,
+  latePenalty: z.number().int(),
+  /** Set for selected apprentices only (the assignment page lists who). */
+  targeted: z.boolean(),
   createdAt: isoDateTimeSchema,
   myProgress: myProgressSchema.nullable(),
 })
@@ -76,6 +113,59 @@ export const assignmentStatsSchema = z.object({
   mean: z.number().nullable(), // of each apprentice's best score
   median: z.number().nullable(),
   passRate: z.number().min(0).max(1).nullable(), // passed / attempted
-  histogram: z.array(z.object({ from: z.number(), to: z.number(), count: z.number().int().nonnegative() })),
+  /** Best scores per bin, passes and the rest apart (count = passed + not passed). */
+  histogram: z.array(
+    z.object({
+      from: z.number(),
+      to: z.number(),
+      count: z.number().int().nonnegative(),
+      passed: z.number().int().nonnegative(),
+    }),
+  ),
+  /** The pass mark as a score out of 100, and how many objectives must be met whatever the score. */
+  passMark: z.number().nullable(),
+  requiredObjectives: z.number().int().nonnegative(),
 })
 export type AssignmentStats = z.infer<typeof assignmentStatsSchema>
+
+/** An apprentice on one assignment: their own terms and where they stand (the assignment page). */
+export const assignmentApprenticeSchema = z.object({
+  userId: idSchema,
+  name: z.string(),
+  email: z.string(),
+  /** False when the assignment is set for selected apprentices and not for this one. */
+  assigned: z.boolean(),
+  status: z.enum(WORK_STATUSES),
+  score: z.number().nullable(),
+  attempts: z.number().int().nonnegative(),
+  /** Their own due date; null when it passed before they enrolled. */
+  dueAt: isoDateTimeSchema.nullable(),
+  extended: z.boolean(),
+  attemptLimit: z.number().int().nullable(),
+  extraAttempts: z.number().int().nonnegative(),
+  excused: z.boolean(),
+  /** Why the instructor made an exception (empty when none). */
+  reason: z.string(),
+})
+export type AssignmentApprentice = z.infer<typeof assignmentApprenticeSchema>
+export const assignmentApprenticeListSchema = z.object({ items: z.array(assignmentApprenticeSchema) })
+
+/**
+ * One exception for each apprentice named: their own due date (null: the assignment's), extra attempts,
+ * excused. Fields left out keep what each already has.
+ */
+export const exceptionRequestSchema = z
+  .object({
+    userIds: z.array(idSchema).min(1, { error: 'Choose at least one apprentice' }).max(2000),
+    dueAt: isoDateTimeSchema.nullable().optional(),
+    extraAttempts: z.number().int().min(0).max(50).optional(),
+    excused: z.boolean().optional(),
+    /** Kept with the exception and shown beside it. */
+    reason: z.string().trim().min(1, { error: 'Say why (it is kept with the exception)' }).max(500),
+  })
+  .refine((v) => v.dueAt !== undefined || v.extraAttempts !== undefined || v.excused !== undefined, {
+    error: 'Give a due date, extra attempts or an excusal',
+  })
+export type ExceptionRequest = z.infer<typeof exceptionRequestSchema>
+
+export const assignmentMemberParamsSchema = z.object({ id: idSchema, userId: idSchema })

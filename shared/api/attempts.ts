@@ -38,6 +38,8 @@ export const attemptGradeSchema = z.object({
   /** The grader's full result (objectives with evidence, safety violations, hints); null if none was kept. */
   evidence: gradeResultSchema.nullable(),
   gradedAt: isoDateTimeSchema,
+  /** The instructor's reason for the latest change of grade (null when the grader's stands). */
+  overrideReason: z.string().nullable(),
 })
 export type AttemptGrade = z.infer<typeof attemptGradeSchema>
 
@@ -56,6 +58,8 @@ export const attemptSummarySchema = z.object({
   updatedAt: isoDateTimeSchema,
   submittedAt: isoDateTimeSchema.nullable(),
   grade: attemptGradeSchema.nullable(),
+  /** When an instructor reviewed it (marked it, left feedback or changed the grade); null: awaiting review. */
+  reviewedAt: isoDateTimeSchema.nullable(),
 })
 export type AttemptSummary = z.infer<typeof attemptSummarySchema>
 
@@ -101,6 +105,9 @@ export const feedbackRequestSchema = z.object({
   body: z.string().trim().min(1, { error: 'Write some feedback' }).max(5000),
 })
 export type FeedbackRequest = z.infer<typeof feedbackRequestSchema>
+
+export const reviewRequestSchema = z.object({ reviewed: z.boolean() })
+export type ReviewRequest = z.infer<typeof reviewRequestSchema>
 
 export const gradeOverrideRequestSchema = z.object({
   score: z.number().min(0).max(100),

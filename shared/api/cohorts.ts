@@ -58,3 +58,18 @@ export const cohortMemberListSchema = z.object({ items: z.array(cohortMemberSche
 export type CohortMemberList = z.infer<typeof cohortMemberListSchema>
 
 export const cohortMemberParamsSchema = z.object({ id: idSchema, userId: idSchema })
+
+/** A message from the cohort's instructor to some of its members, by e-mail. */
+export const cohortMessageRequestSchema = z.object({
+  userIds: z.array(idSchema).min(1, { error: 'Choose at least one apprentice' }).max(2000),
+  subject: z.string().trim().min(1, { error: 'Write a subject' }).max(160),
+  body: z.string().trim().min(1, { error: 'Write a message' }).max(5000),
+})
+export type CohortMessageRequest = z.infer<typeof cohortMessageRequestSchema>
+export const cohortMessageResultSchema = z.object({ sent: z.number().int().nonnegative() })
+
+/** Removes several members at once (their accounts and past attempts stay). */
+export const removeMembersRequestSchema = z.object({
+  userIds: z.array(idSchema).min(1, { error: 'Choose at least one apprentice' }).max(2000),
+})
+export const removeMembersResultSchema = z.object({ removed: z.number().int().nonnegative() })

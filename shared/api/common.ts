@@ -64,6 +64,7 @@ export const errorCodes = [
   'attempt_conflict',
   'attempt_limit_reached',
   'assignment_not_open',
+  'assignment_closed',
   'cohort_archived',
   'scenario_retired',
   'scenario_invalid',

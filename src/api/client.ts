@@ -56,7 +56,12 @@ function cleanQuery(query?: Query) {
   )
 }
 
-async function send<T>(path: string, opts: RequestOptions, responseType?: 'blob'): Promise<T> {
+async function send<T>(
+  path: string,
+  opts: RequestOptions,
+  responseType?: 'blob',
+  onHeaders?: (headers: Headers) => void,
+): Promise<T> {
   // ofetch types responseType per call; one loosely typed call site keeps the wrapper simple.
   const fetchAny = base as unknown as (p: string, o: Record<string, unknown>) => Promise<T>
   const call = () =>
@@ -66,6 +71,9 @@ async function send<T>(path: string, opts: RequestOptions, responseType?: 'blob'
       query: cleanQuery(opts.query),
       signal: opts.signal,
       ...(responseType ? { responseType } : {}),
+      ...(onHeaders
+        ? { onResponse: ({ response }: { response: Response }) => onHeaders(response.headers) }
+        : {}),
     })
   try {
     return await call()
@@ -117,13 +125,27 @@ export async function requestBlob(path: string, opts: RequestOptions = {}) {
   return send<Blob>(path, opts, 'blob')
 }
 
-/** Downloads a file the server produces (CSV export, backup) through the authenticated client. */
-export async function downloadFile(path: string, fallbackName: string, opts: RequestOptions = {}) {
-  const blob = await requestBlob(path, opts)
+/** The file name a Content-Disposition header gives (`attachment; filename="…"`), if any. */
+export function fileNameOf(disposition: string | null): string | null {
+  return disposition?.match(/filename="([^"]+)"/)?.[1] ?? null
+}
+
+/**
+ * Downloads a file the server produces (CSV export, backup) through the authenticated client, under the
+ * name the server gives it, else `fallbackName`.
+ */
+export async function downloadFile(path: string, fallbackName: string | null, opts: RequestOptions = {}) {
+  let served: string | null = null
+  const blob = await send<Blob>(
+    path,
+    opts,
+    'blob',
+    (h) => (served = fileNameOf(h.get('content-disposition'))),
+  )
   const url = URL.createObjectURL(blob)
   const a = document.createElement('a')
   a.href = url
-  a.download = fallbackName
+  a.download = served ?? fallbackName ?? 'download'
   document.body.appendChild(a)
   a.click()
   a.remove()

@@ -22,6 +22,8 @@ export const endpoints = {
     one: (id: string) => `/cohorts/${enc(id)}`,
     members: (id: string) => `/cohorts/${enc(id)}/members`,
     member: (id: string, userId: string) => `/cohorts/${enc(id)}/members/${enc(userId)}`,
+    removeMembers: (id: string) => `/cohorts/${enc(id)}/members/remove`,
+    messages: (id: string) => `/cohorts/${enc(id)}/messages`,
     invitations: (id: string) => `/cohorts/${enc(id)}/invitations`,
     roster: (id: string) => `/cohorts/${enc(id)}/invitations/roster`,
     assignments: (id: string) => `/cohorts/${enc(id)}/assignments`,
@@ -43,6 +45,9 @@ export const endpoints = {
     list: '/assignments',
     one: (id: string) => `/assignments/${enc(id)}`,
     stats: (id: string) => `/assignments/${enc(id)}/stats`,
+    apprentices: (id: string) => `/assignments/${enc(id)}/apprentices`,
+    exceptions: (id: string) => `/assignments/${enc(id)}/exceptions`,
+    exception: (id: string, userId: string) => `/assignments/${enc(id)}/exceptions/${enc(userId)}`,
   },
   attempts: {
     list: '/attempts',
@@ -50,6 +55,13 @@ export const endpoints = {
     one: (id: string) => `/attempts/${enc(id)}`,
     feedback: (id: string) => `/attempts/${enc(id)}/feedback`,
     override: (id: string) => `/attempts/${enc(id)}/grade-override`,
+    review: (id: string) => `/attempts/${enc(id)}/review`,
+    neighbours: (id: string) => `/attempts/${enc(id)}/neighbours`,
+  },
+  centre: '/centre',
+  attention: '/attention',
+  apprentices: {
+    one: (id: string) => `/apprentices/${enc(id)}`,
   },
   records: {
     commissioning: (attemptId: string) => `/attempts/${enc(attemptId)}/commissioning-record`,

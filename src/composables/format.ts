@@ -1,17 +1,24 @@
-// Display formats used across screens, so dates and scores read the same everywhere.
-const dateTime = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' })
-const dateOnly = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' })
+// Display formats used across screens, so dates and scores read the same everywhere. Dates are shown
+// on the centre's clock (its time zone, an admin setting) once it is known, as in mail and CSV files.
+import { ref } from 'vue'
+import { formatInZone, isoToWallTime, wallTimeToIso } from '@shared/time/zone'
+
+const browserZone = Intl.DateTimeFormat().resolvedOptions().timeZone
+// A ref, so dates already on screen are drawn again when the centre's zone arrives.
+const zone = ref(browserZone)
+
+/** The centre's time zone, set when its settings load; until then the browser's own. */
+export function setDisplayTimeZone(timeZone: string | null) {
+  zone.value = timeZone ?? browserZone
+}
+export const displayTimeZone = () => zone.value
 
 export function formatDateTime(iso: string | null | undefined): string {
-  if (!iso) return '—'
-  const d = new Date(iso)
-  return Number.isNaN(d.getTime()) ? '—' : dateTime.format(d)
+  return formatInZone(iso, zone.value, 'dateTime')
 }
 
 export function formatDate(iso: string | null | undefined): string {
-  if (!iso) return '—'
-  const d = new Date(iso)
-  return Number.isNaN(d.getTime()) ? '—' : dateOnly.format(d)
+  return formatInZone(iso, zone.value, 'date')
 }
 
 export function formatScore(score: number | null | undefined): string {
@@ -27,16 +34,14 @@ export function formatSimTime(ms: number): string {
   return `${minutes}:${seconds}`
 }
 
-/** An ISO timestamp as the value of an <input type="datetime-local"> (local time, minutes). */
+/** An ISO timestamp as the value of an <input type="datetime-local">: the centre's clock, minutes. */
 export function toLocalInput(iso: string): string {
-  const d = new Date(iso)
-  const pad = (n: number) => String(n).padStart(2, '0')
-  return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}T${pad(d.getHours())}:${pad(d.getMinutes())}`
+  return Number.isNaN(Date.parse(iso)) ? '' : isoToWallTime(iso, zone.value)
 }
 
+/** A datetime-local value, read on the centre's clock, as an ISO instant ('' when not a time). */
 export function fromLocalInput(value: string): string {
-  const d = new Date(value)
-  return Number.isNaN(d.getTime()) ? '' : d.toISOString()
+  return wallTimeToIso(value, zone.value)
 }
 
 /** The first sentences of a story, cut at a word boundary. */

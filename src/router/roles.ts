@@ -21,6 +21,6 @@ export const STAFF: Role[] = ['instructor', 'admin']
 /** The landing page for each role. */
 export function homeFor(role: Role): string {
   if (role === 'admin') return '/admin/users'
-  if (role === 'instructor') return '/teach/cohorts'
+  if (role === 'instructor') return '/teach'
   return '/learn'
 }

@@ -106,6 +106,12 @@ export const routes: RouteRecordRaw[] = [
 
   // Instructor (admins may open these too)
   {
+    path: '/teach',
+    name: 'needs-attention',
+    component: () => import('@/views/NeedsAttentionView.vue'),
+    meta: { roles: STAFF, title: 'Needs attention' },
+  },
+  {
     path: '/teach/cohorts',
     name: 'cohorts',
     component: () => import('@/views/CohortsView.vue'),
@@ -122,6 +128,18 @@ export const routes: RouteRecordRaw[] = [
     name: 'assign-scenario',
     component: () => import('@/views/AssignScenarioView.vue'),
     meta: { roles: STAFF, title: 'Assign a scenario' },
+  },
+  {
+    path: '/teach/assignments/:id',
+    name: 'assignment',
+    component: () => import('@/views/AssignmentView.vue'),
+    meta: { roles: STAFF, title: 'Assignment' },
+  },
+  {
+    path: '/teach/apprentices/:id',
+    name: 'apprentice',
+    component: () => import('@/views/ApprenticeView.vue'),
+    meta: { roles: STAFF, title: 'Apprentice' },
   },
   {
     path: '/teach/gradebook',
@@ -172,6 +190,12 @@ export const routes: RouteRecordRaw[] = [
     name: 'admin-outbox',
     component: () => import('@/views/AdminOutboxView.vue'),
     meta: { roles: ['admin'], title: 'Mail outbox' },
+  },
+  {
+    path: '/admin/centre',
+    name: 'admin-centre',
+    component: () => import('@/views/AdminCentreView.vue'),
+    meta: { roles: ['admin'], title: 'Centre settings' },
   },
   {
     path: '/admin/backup',

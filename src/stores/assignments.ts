@@ -2,11 +2,13 @@
 import { ref } from 'vue'
 import { defineStore } from 'pinia'
 import {
+  assignmentApprenticeListSchema,
   assignmentListSchema,
   assignmentSchema,
   assignmentStatsSchema,
   type Assignment,
   type CreateAssignmentRequest,
+  type ExceptionRequest,
   type UpdateAssignmentRequest,
 } from '@shared/api'
 import { request, requestVoid } from '@/api/client'
@@ -55,5 +57,37 @@ export const useAssignmentsStore = defineStore('assignments', () => {
     return request(endpoints.assignments.stats(id), assignmentStatsSchema)
   }
 
-  return { items, loading, error, load, list, get, create, update, remove, stats }
+  /** The cohort's apprentices under their own terms on one assignment. */
+  async function apprentices(id: string) {
+    return (await request(endpoints.assignments.apprentices(id), assignmentApprenticeListSchema)).items
+  }
+
+  async function setExceptions(id: string, body: ExceptionRequest) {
+    return (
+      await request(endpoints.assignments.exceptions(id), assignmentApprenticeListSchema, {
+        method: 'POST',
+        body,
+      })
+    ).items
+  }
+
+  async function clearException(id: string, userId: string) {
+    await requestVoid(endpoints.assignments.exception(id, userId), { method: 'DELETE' })
+  }
+
+  return {
+    items,
+    loading,
+    error,
+    load,
+    list,
+    get,
+    create,
+    update,
+    remove,
+    stats,
+    apprentices,
+    setExceptions,
+    clearException,
+  }
 })

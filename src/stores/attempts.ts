@@ -40,5 +40,12 @@ export const useAttemptsStore = defineStore('attempts', () => {
     return request(endpoints.attempts.override(id), z.unknown(), { method: 'POST', body })
   }
 
-  return { page, get, submit, addFeedback, overrideGrade }
+  async function markReviewed(id: string, reviewed: boolean) {
+    return request(endpoints.attempts.review(id), attemptSummarySchema, {
+      method: 'POST',
+      body: { reviewed },
+    })
+  }
+
+  return { page, get, submit, addFeedback, overrideGrade, markReviewed }
 })

@@ -4,11 +4,14 @@ import { defineStore } from 'pinia'
 import {
   cohortListSchema,
   cohortMemberListSchema,
+  cohortMessageResultSchema,
   cohortSchema,
   invitationListSchema,
   inviteOutcomeSchema,
+  removeMembersResultSchema,
   rosterImportResultSchema,
   type Cohort,
+  type CohortMessageRequest,
   type CreateCohortRequest,
   type InviteRequest,
   type UpdateCohortRequest,
@@ -61,6 +64,19 @@ export const useCohortsStore = defineStore('cohorts', () => {
     await requestVoid(endpoints.cohorts.member(id, userId), { method: 'DELETE' })
   }
 
+  /** Removes several members at once; how many left. */
+  async function removeMembers(id: string, userIds: string[]) {
+    return request(endpoints.cohorts.removeMembers(id), removeMembersResultSchema, {
+      method: 'POST',
+      body: { userIds },
+    })
+  }
+
+  /** E-mails a message to the members chosen; how many were sent. */
+  async function message(id: string, body: CohortMessageRequest) {
+    return request(endpoints.cohorts.messages(id), cohortMessageResultSchema, { method: 'POST', body })
+  }
+
   async function invitations(id: string) {
     return (await request(endpoints.cohorts.invitations(id), invitationListSchema)).items
   }
@@ -90,5 +106,7 @@ export const useCohortsStore = defineStore('cohorts', () => {
     invitations,
     invite,
     uploadRoster,
+    removeMembers,
+    message,
   }
 })

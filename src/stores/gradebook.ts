@@ -27,11 +27,12 @@ export const useGradebookStore = defineStore('gradebook', () => {
     }
   }
 
-  /** The export follows the current filter and sort, without paging. */
-  async function exportCsv(cohortId: string, query: GradebookQuery, fileName: string) {
+  /** The export in the query's sort and filter (none: every apprentice), without paging; the server names the file. */
+  async function exportCsv(cohortId: string, query: GradebookQuery) {
     const { page: _page, pageSize: _size, ...rest } = query
-    return downloadFile(endpoints.cohorts.gradebookCsv(cohortId), fileName, {
-      query: rest as Record<string, string | number>,
+    const defined = Object.fromEntries(Object.entries(rest).filter(([, v]) => v !== undefined))
+    return downloadFile(endpoints.cohorts.gradebookCsv(cohortId), null, {
+      query: defined as Record<string, string | number>,
     })
   }
 

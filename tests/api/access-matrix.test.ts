@@ -159,6 +159,20 @@ const ROUTES: Route[] = [
     path: (w) => `/api/cohorts/${w.cohortA.id}/invitations/00000000-0000-4000-8000-000000000000`,
     expect: ownCohortStaff(404),
   },
+  // several members at once
+  {
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/messages`,
+    body: (w) => ({ userIds: [w.apprenticeA2.user.id], subject: 'Matrix', body: 'Bring your meter.' }),
+    expect: ownCohortStaff(200),
+  },
+  {
+    // Nobody real is named, so nobody leaves: access is checked before the names.
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/members/remove`,
+    body: () => ({ userIds: ['00000000-0000-4000-8000-000000000000'] }),
+    expect: ownCohortStaff(400),
+  },
   // gradebook
   { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/gradebook`, expect: ownCohortStaff(200) },
   { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/gradebook.csv`, expect: ownCohortStaff(200) },
@@ -226,6 +240,23 @@ const ROUTES: Route[] = [
   },
   { method: 'delete', path: (w) => `/api/assignments/${w.assignmentA.id}`, expect: ownCohortStaff(409) },
   { method: 'get', path: (w) => `/api/assignments/${w.assignmentA.id}/stats`, expect: ownCohortStaff(200) },
+  {
+    method: 'get',
+    path: (w) => `/api/assignments/${w.assignmentA.id}/apprentices`,
+    expect: ownCohortStaff(200),
+  },
+  {
+    // An exception that changes nothing: allowed, and leaves no row behind.
+    method: 'post',
+    path: (w) => `/api/assignments/${w.assignmentA.id}/exceptions`,
+    body: (w) => ({ userIds: [w.apprenticeA2.user.id], extraAttempts: 0, reason: 'Matrix exception' }),
+    expect: ownCohortStaff(200),
+  },
+  {
+    method: 'delete',
+    path: (w) => `/api/assignments/${w.assignmentA.id}/exceptions/${w.apprenticeA2.user.id}`,
+    expect: ownCohortStaff(404),
+  },
   // attempts
   {
     method: 'post',
@@ -295,6 +326,32 @@ const ROUTES: Route[] = [
     method: 'get',
     path: (w) => `/api/cohorts/${w.cohortA.id}/training-records.zip`,
     expect: ownCohortStaff(200),
+  },
+  {
+    method: 'post',
+    path: (w) => `/api/attempts/${w.attemptA1.id}/review`,
+    body: () => ({ reviewed: true }),
+    expect: ownCohortStaff(200),
+  },
+  // the instructor's week
+  { method: 'get', path: () => '/api/attention', expect: staffOnly(200) },
+  {
+    method: 'get',
+    path: (w) => `/api/apprentices/${w.apprenticeA1.user.id}`,
+    expect: ownCohortStaff(200),
+  },
+  {
+    method: 'get',
+    path: (w) => `/api/attempts/${w.attemptA1.id}/neighbours`,
+    expect: ownCohortStaff(200),
+  },
+  // centre settings
+  { method: 'get', path: () => '/api/centre', expect: signedIn(200) },
+  {
+    method: 'patch',
+    path: () => '/api/centre',
+    body: () => ({ timeZone: 'Europe/London' }),
+    expect: adminOnly(200),
   },
   // admin
   { method: 'get', path: () => '/api/admin/users', expect: adminOnly(200) },

@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { attemptDetailSchema, attemptSummarySchema } from '../../shared/api'
 import { grade } from '../../shared/scenario/grade'
 import { scenarioSchema } from '../../shared/scenario/schema'
-import { AttemptEntity, AuditEntryEntity } from '../../server/entities'
+import { AttemptEntity, AuditEntryEntity, EnrollmentEntity } from '../../server/entities'
 import { bearer, createTestApi, type TestApi } from '../support/api-harness'
 import { buildWorld, createAssignment, EMPTY_LOG, submit, type World } from '../support/world'
 import { readFileSync } from 'node:fs'
@@ -172,6 +172,13 @@ describe('attempts', () => {
   })
 
   it('marks a submission after the due date as late', async () => {
+    // Enrolled before the due date (work due before an apprentice enrolled is never late for them).
+    await api.dataSource.getRepository(EnrollmentEntity).update(
+      { cohortId: w.cohortA.id, userId: w.apprenticeA1.user.id },
+      {
+        createdAt: new Date(Date.now() - 10 * 86_400_000).toISOString(),
+      },
+    )
     const overdue = await createAssignment(api, w.instructorA, w.cohortA, w.scenario.id, {
       opensAt: new Date(Date.now() - 3 * 86_400_000).toISOString(),
       dueAt: new Date(Date.now() - 86_400_000).toISOString(),
@@ -198,7 +205,7 @@ describe('attempts', () => {
     expect(response.status).toBe(403)
   })
 
-  it('accepts free practice on a scenario version, visible to its owner but not to instructors', async () => {
+  it('accepts free practice on a scenario version, visible to its owner and their cohort’s instructor only', async () => {
     const response = await submit(api, w.apprenticeB1, { scenarioId: w.scenario.id })
     expect(response.status).toBe(201)
     expect(response.body.assignmentId).toBeNull()
@@ -208,6 +215,10 @@ describe('attempts', () => {
     ).toBe(200)
     expect(
       (await supertest(api.app).get(`/api/attempts/${response.body.id}`).set(bearer(w.instructorB.token)))
+        .status,
+    ).toBe(200)
+    expect(
+      (await supertest(api.app).get(`/api/attempts/${response.body.id}`).set(bearer(w.instructorA.token)))
         .status,
     ).toBe(403)
   })

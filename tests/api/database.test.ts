@@ -43,6 +43,7 @@ describe('database', () => {
       'passed',
       'updatedAt',
       'submittedAt',
+      'late',
       'id',
     ])
   })
@@ -54,7 +55,10 @@ describe('database', () => {
       `EXPLAIN QUERY PLAN SELECT assignmentId, userId,
          SUM(CASE WHEN status = 'submitted' AND score IS NOT NULL THEN 1 ELSE 0 END),
          MAX(CASE WHEN status = 'submitted' AND score IS NOT NULL THEN score END),
-         MAX(CASE WHEN status = 'submitted' AND score IS NOT NULL AND passed THEN 1 ELSE 0 END),
+         MAX(CASE WHEN status = 'submitted' AND score IS NOT NULL AND NOT late THEN score END),
+         MAX(CASE WHEN status = 'submitted' AND score IS NOT NULL AND late THEN score END),
+         MAX(CASE WHEN status = 'submitted' AND score IS NOT NULL AND passed AND NOT late THEN 1 ELSE 0 END),
+         MAX(CASE WHEN status = 'submitted' AND score IS NOT NULL AND passed AND late THEN 1 ELSE 0 END),
          MAX(updatedAt), MIN(CASE WHEN status = 'inProgress' THEN id END)
        FROM attempts WHERE assignmentId IN ('a1', 'a2') GROUP BY assignmentId, userId`,
     )

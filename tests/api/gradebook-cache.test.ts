@@ -6,6 +6,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { gradebookSchema, type Gradebook } from '../../shared/api'
 import { createApp } from '../../server/app'
 import { CohortEntity } from '../../server/entities'
+import { setClock } from '../../server/infrastructure/clock'
 import { loadGradebook, viewGradebook } from '../../server/gradebook/gradebook.service'
 import { bearer, createTestApi, TEST_JWT_SECRET, type TestApi } from '../support/api-harness'
 import { buildWorld, createAssignment, expectStatus, submit, type World } from '../support/world'
@@ -35,10 +36,7 @@ describe('gradebook cache', () => {
   /** What the route would answer with nothing cached: straight from the database. */
   async function fresh() {
     const built = await loadGradebook(api.dataSource, await cohortRow())
-    return {
-      assignments: built.assignments.map((a) => ({ id: a.id, title: a.title, dueAt: a.dueAt })),
-      rows: viewGradebook(built, { sort: 'name', order: 'asc' }),
-    }
+    return { assignments: built.assignments, rows: viewGradebook(built, { sort: 'name', order: 'asc' }) }
   }
 
   async function attemptQueriesDuring(work: () => Promise<unknown>): Promise<number> {
@@ -186,6 +184,57 @@ describe('gradebook cache', () => {
       ),
     )
     expect(book.rows.map((r) => r.userId)).not.toContain(newcomer.user.id)
+  })
+
+  it('shows a changed late policy and an attempt marked reviewed', async () => {
+    let book = await afterWrite(() =>
+      expectStatus(
+        supertest(api.app)
+          .patch(`/api/assignments/${world.assignmentA.id}`)
+          .set(bearer(world.instructorA.token))
+          .send({ latePolicy: 'acceptLate', latePenalty: 15 }),
+        200,
+      ),
+    )
+    expect(book.assignments[0]).toMatchObject({ latePolicy: 'acceptLate', latePenalty: 15 })
+    book = await afterWrite(() =>
+      expectStatus(
+        supertest(api.app)
+          .post(`/api/attempts/${world.attemptA1.id}/review`)
+          .set(bearer(world.instructorA.token))
+          .send({ reviewed: true }),
+        200,
+      ),
+    )
+  })
+
+  it('turns work missed when its due date passes, though nothing was written (the cache follows the clock)', async () => {
+    const soon = await createAssignment(api, world.instructorA, world.cohortA, world.scenario.id, {
+      title: 'Due within the hour',
+      dueAt: new Date(Date.now() + 3_600_000).toISOString(),
+    })
+    const column = async () => {
+      const book = await served()
+      const index = book.assignments.findIndex((a) => a.id === soon.id)
+      return book.rows.find((r) => r.userId === world.apprenticeA2.user.id)!.cells[index]!.status
+    }
+    expect(await column()).toBe('notStarted')
+    // Still before the due date: answered from memory.
+    expect(await attemptQueriesDuring(column)).toBe(0)
+    const revision = (await cohortRow()).gradebookRevision
+    setClock(() => Date.now() + 2 * 3_600_000)
+    try {
+      expect(await column()).toBe('missed')
+      expect((await cohortRow()).gradebookRevision).toBe(revision)
+      await expectCurrent()
+    } finally {
+      setClock(null)
+    }
+    expect(await column()).toBe('notStarted')
+    await expectStatus(
+      supertest(api.app).delete(`/api/assignments/${soon.id}`).set(bearer(world.instructorA.token)),
+      204,
+    )
   })
 
   it('never serves one instance’s cached gradebook after another instance wrote to the database', async () => {

@@ -111,12 +111,16 @@ describe('gradebook', () => {
       /^attachment; filename="gradebook-Gradebook-cohort-\d{4}-\d{2}-\d{2}\.csv"$/,
     )
     const records: string[][] = parse(response.text.replace(/^\uFEFF/, ''))
-    expect(records[0]!.slice(0, 4)).toEqual(['Name', 'E-mail', 'Average', 'Last activity'])
+    expect(records[0]!.slice(0, 4)).toEqual(['Name', 'E-mail', 'Passed', 'Set'])
+    expect(records[0]![4]).toMatch(/^Average \(.*missed work counts 0/)
+    expect(records[0]![6]).toMatch(/^First job: status \(due .*pass mark \d+/)
     expect(records).toHaveLength(6)
     const formula = records.find((r) => r[0]!.includes('HYPERLINK'))!
     expect(formula[0]).toBe(`'=HYPERLINK("http://evil.test","click")`)
     const carys = records.find((r) => r[0] === 'Carys Abernethy')!
-    expect(carys.slice(4, 7)).toEqual(['90.0', '2', 'passed'])
+    // Passed 1 of 2 set; average over graded work only (nothing is past due yet).
+    expect(carys.slice(2, 5)).toEqual(['1', '2', '90.0'])
+    expect(carys.slice(6, 9)).toEqual(['Passed', '90.0', '2'])
   })
 
   it('gives per-assignment statistics of best scores that agree with mathjs', async () => {

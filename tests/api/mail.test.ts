@@ -29,7 +29,7 @@ describe('mail', () => {
     expect(mail.map((m) => m.toAddress).sort()).toEqual([first.email, second.email].sort())
     const message = mail.find((m) => m.toAddress === first.email)!
     expect(message.text).toContain('Hello Marit Colquhoun')
-    expect(message.text).toContain('due by 2031-03-04 15:30 UTC')
+    expect(message.text).toContain('due by 4 Mar 2031, 15:30 UTC') // the centre's clock: UTC until set
     expect(message.text).toContain(`http://slipway.test/assignments/${assignment.id}`)
     expect(message.text).toMatch(/lock out.*prove absence of voltage/s)
     expect(message.html).toContain(`href="http://slipway.test/assignments/${assignment.id}"`)

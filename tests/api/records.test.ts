@@ -13,7 +13,6 @@ import {
   type AttemptSummary,
 } from '../../shared/api'
 import { drawSchematic, wiringOfState } from '../../shared/schematic'
-import { ConfigError, loadConfig } from '../../server/config'
 import { AuditEntryEntity, OutcomeSignOffEntity } from '../../server/entities'
 import { bearer, createTestApi, type TestApi } from '../support/api-harness'
 import { attemptFixtures, endState, scenarioById } from '../support/shipped-attempts'
@@ -38,10 +37,16 @@ describe('records', () => {
     supertest(api.app).get(path).set(bearer(token)).buffer(true).parse(binary)
 
   beforeAll(async () => {
-    api = await createTestApi({
-      config: { centre: { name: 'Kestrel Vale Training Centre', timeZone: 'UTC' } },
-    })
+    api = await createTestApi()
     w = await buildWorld(api)
+    // The records are headed with the centre's name from its settings.
+    await expectStatus(
+      supertest(api.app)
+        .patch('/api/centre')
+        .set(bearer(w.admin.token))
+        .send({ name: 'Kestrel Vale Training Centre', timeZone: 'UTC' }),
+      200,
+    )
     passed = attemptSummarySchema.parse(
       (
         await expectStatus(
@@ -132,6 +137,29 @@ describe('records', () => {
       const drawing = drawSchematic(wiringOfState(endState(scenario, reference.events)))
       expect(record.wires.map((x) => x.number)).toEqual(drawing.layout.wires.map((x) => x.number))
       expect(JSON.stringify(record)).not.toMatch(/"(drive|motor)\.[a-zA-Z]+"/)
+    })
+
+    it("heads the record with the centre's name and dates it on the centre's clock (Centre settings)", async () => {
+      await expectStatus(
+        supertest(api.app)
+          .patch('/api/centre')
+          .set(bearer(w.admin.token))
+          .send({ timeZone: 'Pacific/Auckland' }),
+        200,
+      )
+      try {
+        const res = await expectStatus(
+          supertest(api.app)
+            .get(`/api/attempts/${passed.id}/commissioning-record`)
+            .set(bearer(w.instructorA.token)),
+          200,
+        )
+        const record = commissioningRecordSchema.parse(res.body)
+        expect(record.centre.name).toBe('Kestrel Vale Training Centre')
+        expect(record.centre.timeZone).toBe('Pacific/Auckland')
+      } finally {
+        await supertest(api.app).patch('/api/centre').set(bearer(w.admin.token)).send({ timeZone: 'UTC' })
+      }
     })
 
     it('refuses an attempt still in progress with a clear reason, not a server error', async () => {
@@ -305,15 +333,5 @@ describe('records', () => {
       expect(res.status).toBe(409)
       expect(res.body.error.message).toMatch(/no apprentices yet/)
     })
-  })
-})
-
-describe('the centre on the records (configuration)', () => {
-  it('takes its name and an IANA time zone, and refuses a zone that does not exist', () => {
-    const config = loadConfig({ CENTRE_NAME: 'Kestrel Vale', CENTRE_TIME_ZONE: 'Pacific/Auckland' })
-    expect(config.centre).toEqual({ name: 'Kestrel Vale', timeZone: 'Pacific/Auckland' })
-    expect(loadConfig({}).centre.timeZone).toBe('UTC')
-    expect(() => loadConfig({ CENTRE_TIME_ZONE: 'Mars/Olympus_Mons' })).toThrow(ConfigError)
-    expect(() => loadConfig({ CENTRE_TIME_ZONE: 'Mars/Olympus_Mons' })).toThrow(/CENTRE_TIME_ZONE/)
   })
 })

@@ -12,7 +12,7 @@ describe('the gradebook', () => {
   let errors: string[]
 
   const firstNames = (page: BrowserSession['page']) =>
-    page.locator('[data-testid="gradebook-table"] tbody tr td:first-child').allTextContents()
+    page.locator('[data-testid="gradebook-table"] tbody tr td:first-child .apprentice-link').allTextContents()
 
   beforeAll(async () => {
     app = await startApp()
@@ -27,7 +27,7 @@ describe('the gradebook', () => {
   it('lists the cohort’s apprentices sorted by name', async () => {
     const { page } = browser
     await signIn(page, app.url, demo('instructor'))
-    await page.getByRole('link', { name: 'Gradebook' }).click()
+    await page.getByRole('link', { name: 'Gradebook' }).first().click()
     await page.locator('[data-testid="gradebook-table"] tbody tr').first().waitFor()
     await settled(page)
     const names = await firstNames(page)
@@ -75,6 +75,8 @@ describe('the gradebook', () => {
     const { page } = browser
     const download = page.waitForEvent('download')
     await page.getByRole('button', { name: 'Export CSV' }).click()
+    // The export asks whether the file holds every apprentice or only the rows shown.
+    await page.getByText('Every apprentice', { exact: true }).click()
     const file = await download
     expect(file.suggestedFilename()).toMatch(/^gradebook-.*\.csv$/)
     const path = await file.path()

@@ -27,6 +27,8 @@ describe('inviting an apprentice by e-mail', () => {
   it('lets the instructor invite from the cohort page', async () => {
     const { page } = browser
     await signIn(page, app.url, demo('instructor'))
+    // The instructor's home is what needs attention; the cohorts are one link away.
+    await page.goto(`${app.url}/teach/cohorts`)
     await page
       .getByRole('link', { name: /Open cohort/ })
       .first()

@@ -101,7 +101,7 @@ describe('every main screen', () => {
     await page.waitForURL((url) => /^\/teach\/cohorts\/[^/]+$/.test(url.pathname))
     await page.getByRole('tab', { name: /Assignments/ }).click()
     await page.getByRole('button', { name: /Change Speed potentiometer/ }).click()
-    await page.getByRole('dialog').getByLabel('Due').waitFor()
+    await page.getByRole('dialog').getByLabel('Due', { exact: true }).waitFor()
     await settled(page)
     await screenshot(page, 'client-edit-assignment')
     await page.getByRole('dialog').getByRole('button', { name: 'Cancel' }).click()

@@ -95,7 +95,8 @@ describe('signing in', () => {
   it('lands each staff role on its own start page', async () => {
     const { page } = browser
     await signIn(page, app.url, demo('instructor'))
-    expect(new URL(page.url()).pathname).toBe('/teach/cohorts')
+    // An instructor's home is what needs attention.
+    expect(new URL(page.url()).pathname).toBe('/teach')
     await signOut(page)
     await signIn(page, app.url, demo('admin'))
     expect(new URL(page.url()).pathname).toBe('/admin/users')

@@ -1,4 +1,5 @@
 // The messages Slipway sends, each as plain text and HTML built from the same words.
+import { formatInZone } from '@shared/time/zone'
 import type { OutgoingMail } from './mail-job'
 
 const escapeHtml = (value: string) =>
@@ -42,6 +43,8 @@ export function invitationMail(input: {
   role: string
   url: string
   expiresAt: string
+  /** The centre's time zone (dates in mail are on its clock). */
+  timeZone: string
 }): OutgoingMail {
   const where = input.cohortName ? `the cohort “${input.cohortName}”` : `Slipway as an ${input.role}`
   return render({
@@ -52,7 +55,7 @@ export function invitationMail(input: {
     greeting: `Hello ${input.name},`,
     paragraphs: [
       `${input.invitedBy} has invited you to join ${where}.`,
-      `Open the link below to choose your password. The link works once and expires on ${input.expiresAt.slice(0, 10)}.`,
+      `Open the link below to choose your password. The link works once and expires on ${formatInZone(input.expiresAt, input.timeZone, 'dateTimeZone')}.`,
     ],
     action: { label: 'Accept the invitation', url: input.url },
   })
@@ -82,6 +85,7 @@ export function assignmentPublishedMail(input: {
   title: string
   cohortName: string
   dueAt: string
+  timeZone: string
   url: string
 }): OutgoingMail {
   return render({
@@ -89,7 +93,7 @@ export function assignmentPublishedMail(input: {
     subject: `New assignment: ${input.title}`,
     greeting: `Hello ${input.name},`,
     paragraphs: [
-      `A new exercise, “${input.title}”, has been set for ${input.cohortName}. It is due by ${input.dueAt.replace('T', ' ').slice(0, 16)} UTC.`,
+      `A new exercise, “${input.title}”, has been set for ${input.cohortName}. It is due by ${formatInZone(input.dueAt, input.timeZone, 'dateTimeZone')}.`,
       'Before any work on a real drive: isolate, lock out and tag out, wait for the DC bus to discharge and prove absence of voltage.',
     ],
     action: { label: 'Open the assignment', url: input.url },
@@ -122,5 +126,29 @@ export function attemptReviewedMail(input: {
     greeting: `Hello ${input.name},`,
     paragraphs: [detail],
     action: { label: 'See your attempt', url: input.url },
+  })
+}
+
+export function cohortMessageMail(input: {
+  to: string
+  name: string
+  cohortName: string
+  instructorName: string
+  subject: string
+  body: string
+  url: string
+}): OutgoingMail {
+  return render({
+    to: input.to,
+    subject: `${input.cohortName}: ${input.subject}`,
+    greeting: `Hello ${input.name},`,
+    paragraphs: [
+      ...input.body
+        .split(/\n\s*\n/)
+        .map((p) => p.trim())
+        .filter(Boolean),
+      `— ${input.instructorName}, your instructor for ${input.cohortName}`,
+    ],
+    action: { label: 'Open Slipway', url: input.url },
   })
 }

@@ -1,6 +1,7 @@
 // The navigation entries per role, shared by the drawer and tests.
 import {
   mdiAccountGroupOutline,
+  mdiBellAlertOutline,
   mdiBookOpenPageVariantOutline,
   mdiClipboardTextOutline,
   mdiDatabaseArrowDownOutline,
@@ -11,6 +12,7 @@ import {
   mdiTableLarge,
   mdiAccountKeyOutline,
   mdiSchoolOutline,
+  mdiOfficeBuildingCogOutline,
 } from '@mdi/js'
 import type { Role } from '@shared/api'
 
@@ -31,6 +33,7 @@ export function navFor(role: Role): NavItem[] {
     ]
   }
   const teaching: NavItem[] = [
+    { title: 'Needs attention', to: '/teach', icon: mdiBellAlertOutline },
     { title: 'Cohorts', to: '/teach/cohorts', icon: mdiAccountGroupOutline },
     { title: 'Gradebook', to: '/teach/gradebook', icon: mdiTableLarge },
     { title: 'Scenario library', to: '/scenarios', icon: mdiBookOpenPageVariantOutline },
@@ -40,6 +43,7 @@ export function navFor(role: Role): NavItem[] {
   return [
     { title: 'Users and roles', to: '/admin/users', icon: mdiAccountKeyOutline },
     { title: 'Mail outbox', to: '/admin/outbox', icon: mdiEmailOutline },
+    { title: 'Centre settings', to: '/admin/centre', icon: mdiOfficeBuildingCogOutline },
     { title: 'Backup', to: '/admin/backup', icon: mdiDatabaseArrowDownOutline },
     { title: 'Learning platforms', to: '/admin/learning-platforms', icon: mdiSchoolOutline },
     ...teaching,

@@ -1,5 +1,6 @@
 // The assign-a-scenario form's values and their check against the shared request schema.
-import { createAssignmentRequestSchema, type CreateAssignmentRequest, type ScorePolicy } from '@shared/api'
+import { createAssignmentRequestSchema, type CreateAssignment, type ScorePolicy } from '@shared/api'
+import type { LatePolicy } from '@shared/progress'
 import { fromLocalInput, toLocalInput } from '@/composables/format'
 import { issuesByField } from '@/composables/validation'
 
@@ -13,25 +14,29 @@ export interface AssignmentFormValues {
   hintsAllowed: boolean
   /** Which score a learning platform's gradebook receives. */
   scorePolicy: ScorePolicy
+  latePolicy: LatePolicy
+  latePenalty: number | string
 }
 
 export function defaultAssignmentForm(now = new Date()): AssignmentFormValues {
-  const due = new Date(now.getTime() + 7 * 24 * 3600 * 1000)
-  due.setHours(17, 0, 0, 0)
+  // A week today at five in the afternoon, on the centre's clock.
+  const inAWeek = toLocalInput(new Date(now.getTime() + 7 * 24 * 3600 * 1000).toISOString())
   return {
     scenarioId: null,
     title: '',
     opensAt: toLocalInput(now.toISOString()),
-    dueAt: toLocalInput(due.toISOString()),
+    dueAt: `${inAWeek.slice(0, 10)}T17:00`,
     limitAttempts: true,
     attemptLimit: 3,
     hintsAllowed: true,
     scorePolicy: 'best',
+    latePolicy: 'acceptLate',
+    latePenalty: 10,
   }
 }
 
 export type AssignmentFormResult =
-  { ok: true; body: CreateAssignmentRequest } | { ok: false; errors: Record<string, string> }
+  { ok: true; body: CreateAssignment } | { ok: false; errors: Record<string, string> }
 
 export function checkAssignmentForm(v: AssignmentFormValues): AssignmentFormResult {
   const candidate = {
@@ -42,6 +47,8 @@ export function checkAssignmentForm(v: AssignmentFormValues): AssignmentFormResu
     attemptLimit: v.limitAttempts ? Number(v.attemptLimit) : null,
     hintsAllowed: v.hintsAllowed,
     scorePolicy: v.scorePolicy,
+    latePolicy: v.latePolicy,
+    latePenalty: v.latePolicy === 'acceptLate' ? Number(v.latePenalty) : 0,
   }
   const parsed = createAssignmentRequestSchema.safeParse(candidate)
   if (parsed.success) return { ok: true, body: parsed.data }

@@ -1,8 +1,10 @@
 // Maps the data table's options (page, sort) and the filters to the server's gradebook query.
-import type { GradebookCellStatus, GradebookQuery } from '@shared/api'
+import { GRADEBOOK_SORTS, type GradebookCellStatus, type GradebookQuery } from '@shared/api'
+import { WORK_STATUS_LABELS } from '@shared/progress'
 
-export const SORTABLE = ['name', 'email', 'lastActivity', 'average'] as const
-type SortKey = (typeof SORTABLE)[number]
+type SortKey = (typeof GRADEBOOK_SORTS)[number]
+/** Header keys of assignment columns: `a:<assignment id>`; sorting one sorts by its scores. */
+export const ASSIGNMENT_KEY_PREFIX = 'a:'
 
 export interface TableOptions {
   page: number
@@ -18,7 +20,9 @@ export interface GradebookFilters {
 
 export function toGradebookQuery(options: TableOptions, filters: GradebookFilters): GradebookQuery {
   const first = options.sortBy[0]
-  const sort = first && (SORTABLE as readonly string[]).includes(first.key) ? (first.key as SortKey) : 'name'
+  let sort: string = 'name'
+  if (first && (GRADEBOOK_SORTS as readonly string[]).includes(first.key)) sort = first.key as SortKey
+  else if (first?.key.startsWith(ASSIGNMENT_KEY_PREFIX)) sort = first.key.slice(ASSIGNMENT_KEY_PREFIX.length)
   const order = first?.order === 'desc' ? 'desc' : 'asc'
   const query: GradebookQuery = {
     page: options.page,
@@ -34,9 +38,4 @@ export function toGradebookQuery(options: TableOptions, filters: GradebookFilter
   return query
 }
 
-export const STATUS_LABELS: Record<GradebookCellStatus, string> = {
-  notStarted: 'Not started',
-  inProgress: 'In progress',
-  passed: 'Passed',
-  failed: 'Not passed',
-}
+export const STATUS_LABELS: Record<GradebookCellStatus, string> = WORK_STATUS_LABELS

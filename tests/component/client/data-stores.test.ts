@@ -9,7 +9,17 @@ import { ids, stubFetch } from './helpers'
 const gradebookReply = (name: string) => ({
   cohortId: ids.cohort,
   assignments: [],
-  rows: [{ userId: ids.user, name, email: 'x@bench.example', average: null, lastActivity: null, cells: [] }],
+  rows: [
+    {
+      userId: ids.user,
+      name,
+      email: 'x@bench.example',
+      average: null,
+      completion: { passed: 0, assigned: 0 },
+      lastActivity: null,
+      cells: [],
+    },
+  ],
   total: 1,
   page: 1,
   pageSize: 10,
@@ -70,6 +80,9 @@ describe('the data stores', () => {
       attemptLimit: 3,
       hintsAllowed: true,
       scorePolicy: 'best' as const,
+      latePolicy: 'acceptLate',
+      latePenalty: 0,
+      targeted: false,
       createdAt: '2026-12-01T09:00:00.000Z',
       myProgress: null,
     }

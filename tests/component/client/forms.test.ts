@@ -1,6 +1,7 @@
 // The form checks built on the shared schemas: the messages a user sees before anything is sent.
 import { describe, expect, it } from 'vitest'
 import { checkAssignmentForm, defaultAssignmentForm } from '@/components/assignments/assignmentForm'
+import { checkExceptionForm, exceptionText } from '@/components/assignments/exceptionForm'
 import { checkOverride } from '@/components/attempts/overrideForm'
 import { toGradebookQuery } from '@/components/gradebook/gradebookQuery'
 import { ids } from './helpers'
@@ -92,5 +93,46 @@ describe('the gradebook query', () => {
       { q: '', status: null, assignmentId: null },
     )
     expect(query.pageSize).toBe(100)
+  })
+})
+
+describe('the exception form', () => {
+  const form = {
+    ownDueDate: true,
+    dueAt: '2026-12-15T17:00',
+    extraAttempts: 1,
+    excused: false,
+    reason: 'Bench 3 was out of service',
+  }
+
+  it('sends every field, so all the apprentices chosen end up with the same terms', () => {
+    const result = checkExceptionForm([ids.user], form)
+    expect(result.ok).toBe(true)
+    if (result.ok) {
+      expect(result.body).toMatchObject({ userIds: [ids.user], extraAttempts: 1, excused: false })
+      expect(Date.parse(result.body.dueAt!)).not.toBeNaN()
+    }
+    const back = checkExceptionForm([ids.user], { ...form, ownDueDate: false })
+    expect(back.ok && back.body.dueAt).toBeNull()
+  })
+
+  it('asks for a reason, a due date when one is wanted, and a sensible number of attempts', () => {
+    expect(checkExceptionForm([ids.user], { ...form, reason: '  ' })).toEqual({
+      ok: false,
+      errors: { reason: 'Say why (it is kept with the exception)' },
+    })
+    expect(checkExceptionForm([ids.user], { ...form, dueAt: '' })).toEqual({
+      ok: false,
+      errors: { dueAt: 'Choose their due date' },
+    })
+    const many = checkExceptionForm([ids.user], { ...form, extraAttempts: 'lots' })
+    expect(many.ok || many.errors.extraAttempts).toBe('A whole number from 0 to 50')
+  })
+
+  it('describes an exception in words', () => {
+    expect(exceptionText({ extended: false, dueAt: null, extraAttempts: 0, excused: false })).toBe('')
+    expect(exceptionText({ extended: false, dueAt: null, extraAttempts: 2, excused: true })).toBe(
+      'Excused · 2 extra attempts',
+    )
   })
 })

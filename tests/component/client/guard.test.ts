@@ -44,13 +44,13 @@ describe('the route guard', () => {
   })
 
   it('sends a signed-in user away from the sign-in page to their own start page', () => {
-    expect(decide(to('/sign-in', { public: true, guestOnly: true }), instructor)).toBe('/teach/cohorts')
+    expect(decide(to('/sign-in', { public: true, guestOnly: true }), instructor)).toBe('/teach')
   })
 
   it('opens each role at its own start page', () => {
     expect(decide(to('/'), apprentice)).toBe(homeFor('apprentice'))
     expect(homeFor('apprentice')).toBe('/learn')
-    expect(homeFor('instructor')).toBe('/teach/cohorts')
+    expect(homeFor('instructor')).toBe('/teach')
     expect(homeFor('admin')).toBe('/admin/users')
   })
 
