@@ -127,7 +127,11 @@ export async function ensureServerBuild(): Promise<void> {
 export async function bundleFromSource(entry: string): Promise<string> {
   const { build } = await import('esbuild')
   const name = entry.replace(/^.*\//, '').replace(/\.ts$/, '')
-  const result = await build({ ...esbuildOptions({ [name]: entry }), sourcemap: 'inline', outdir: SERVER_OUT })
+  const result = await build({
+    ...esbuildOptions({ [name]: entry }),
+    sourcemap: 'inline',
+    outdir: SERVER_OUT,
+  })
   const code = result.outputFiles!.find((f) => f.path.endsWith('.js'))!
   const hash = createHash('sha256').update(code.contents).digest('hex').slice(0, 16)
   // Under node_modules, so the bundle's package imports resolve from the project's node_modules.
@@ -136,13 +140,14 @@ export async function bundleFromSource(entry: string): Promise<string> {
   return path
 }
 
-
 async function main(args: string[]) {
   const ifStale = args.includes('--if-stale')
   const targets = args.filter((a) => !a.startsWith('--'))
   const wants = (target: string) => targets.length === 0 || targets.includes(target)
   if (wants('client') && (!ifStale || clientIsStale())) {
-    console.error(existsSync(CLIENT_INDEX) ? 'Building the client (sources changed)…' : 'Building the client…')
+    console.error(
+      existsSync(CLIENT_INDEX) ? 'Building the client (sources changed)…' : 'Building the client…',
+    )
     buildClient()
   }
   if (wants('server') && (!ifStale || serverIsStale())) await buildServer()

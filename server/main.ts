@@ -75,11 +75,15 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
   async function stop(signal: string) {
     if (stopping) return
     stopping = true
-    log.info({ signal, inFlight: lifecycle.inFlight }, 'draining: new requests get 503 until those in flight finish')
+    log.info(
+      { signal, inFlight: lifecycle.inFlight },
+      'draining: new requests get 503 until those in flight finish',
+    )
     const force = setTimeout(() => process.exit(1), config.shutdownTimeoutMs + 10_000).unref()
     // In-flight submissions finish (graded, stored, acknowledged); /api/ready says 503 meanwhile.
     const drained = await lifecycle.drain(config.shutdownTimeoutMs)
-    if (!drained) log.warn({ inFlight: lifecycle.inFlight }, 'shutdown timeout: closing with requests in flight')
+    if (!drained)
+      log.warn({ inFlight: lifecycle.inFlight }, 'shutdown timeout: closing with requests in flight')
     // A moment more of 503s: a client just acknowledged that sends again learns to wait (Retry-After)
     // instead of finding its new connection cut by the listener closing.
     await new Promise((resolve) => setTimeout(resolve, 250))

@@ -20,7 +20,9 @@ import { nowIso } from '../infrastructure/clock'
 import { refreshLateFlags } from './late-flags'
 
 async function memberIds(ctx: AppContext, assignment: AssignmentRow): Promise<string[]> {
-  const members = await ctx.dataSource.getRepository(EnrollmentEntity).findBy({ cohortId: assignment.cohortId })
+  const members = await ctx.dataSource
+    .getRepository(EnrollmentEntity)
+    .findBy({ cohortId: assignment.cohortId })
   return members.map((m) => m.userId)
 }
 
@@ -133,7 +135,9 @@ export async function clearException(
   const ds = ctx.dataSource
   const { assignment } = await assignmentFor(ds, user, assignmentId, 'manage')
   await ds.transaction(async (manager) => {
-    const result = await manager.getRepository(AssignmentExceptionEntity).delete({ assignmentId: assignment.id, userId })
+    const result = await manager
+      .getRepository(AssignmentExceptionEntity)
+      .delete({ assignmentId: assignment.id, userId })
     if (!result.affected) throw notFound('Exception')
     await refreshLateFlags(manager, assignment, userId)
   })

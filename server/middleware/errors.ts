@@ -18,7 +18,12 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
     if (res.headersSent) return
     const requestId = req.requestId
     res.status(status).json({
-      error: { code, message, ...(details === undefined ? {} : { details }), ...(requestId ? { requestId } : {}) },
+      error: {
+        code,
+        message,
+        ...(details === undefined ? {} : { details }),
+        ...(requestId ? { requestId } : {}),
+      },
     })
   }
   if (err instanceof HttpError) {
@@ -35,8 +40,7 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   const bodyError = err as BodyParserError
   if (bodyError?.type === 'entity.too.large')
     return send(413, 'payload_too_large', 'The request body is too large')
-  if (bodyError?.type === 'entity.parse.failed')
-    return send(400, 'invalid_json', INVALID_JSON_MESSAGE)
+  if (bodyError?.type === 'entity.parse.failed') return send(400, 'invalid_json', INVALID_JSON_MESSAGE)
   if (typeof bodyError?.status === 'number' && bodyError.status >= 400 && bodyError.status < 500) {
     return send(bodyError.status, 'bad_request', 'The request could not be read')
   }

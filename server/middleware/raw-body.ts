@@ -11,7 +11,10 @@ declare module 'express-serve-static-core' {
 }
 
 export const keepRawJsonBody: RequestHandler = (req, _res, next) => {
-  const charset = /;\s*charset=([^;]+)/i.exec(req.headers['content-type'] ?? '')?.[1]?.trim().toLowerCase()
+  const charset = /;\s*charset=([^;]+)/i
+    .exec(req.headers['content-type'] ?? '')?.[1]
+    ?.trim()
+    .toLowerCase()
   if (charset && charset !== 'utf-8' && charset !== 'utf8') {
     throw new HttpError(415, 'bad_request', 'The request could not be read')
   }

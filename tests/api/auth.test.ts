@@ -46,7 +46,8 @@ describe('sign-in and sessions', () => {
     expect(wrong.status).toBe(401)
     expect(unknown.status).toBe(401)
     // Every error carries its own request id; the rest must not tell the two apart.
-    const withoutRequestId = ({ error: { requestId: _id, ...rest } }: { error: Record<string, unknown> }) => rest
+    const withoutRequestId = ({ error: { requestId: _id, ...rest } }: { error: Record<string, unknown> }) =>
+      rest
     expect(withoutRequestId(wrong.body)).toEqual(withoutRequestId(unknown.body))
   })
 

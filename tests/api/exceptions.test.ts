@@ -35,7 +35,9 @@ describe('exceptions for one apprentice', () => {
     cohort = await createCohort(api, instructor, 'Exceptional cohort', [ada, abel])
     await createCohort(api, otherInstructor, 'Other cohort', [outsider])
     // Both joined at the start of term, before this work fell due.
-    await api.dataSource.getRepository(EnrollmentEntity).update({ cohortId: cohort.id }, { createdAt: days(-30) })
+    await api.dataSource
+      .getRepository(EnrollmentEntity)
+      .update({ cohortId: cohort.id }, { createdAt: days(-30) })
     const scenarios = (await supertest(api.app).get('/api/scenarios').set(bearer(instructor.token))).body
     const scenarioId = scenarios.items.find((s: { key: string }) => s.key === 'two-wire-run-stop').id
     closed = (
@@ -68,7 +70,10 @@ describe('exceptions for one apprentice', () => {
     ).items
   const row = async (who: TestUser) => (await list()).find((r) => r.userId === who.user.id)!
   const except = (body: object) =>
-    supertest(api.app).post(`/api/assignments/${closed.id}/exceptions`).set(bearer(instructor.token)).send(body)
+    supertest(api.app)
+      .post(`/api/assignments/${closed.id}/exceptions`)
+      .set(bearer(instructor.token))
+      .send(body)
 
   it('lists the cohort by name under the assignment’s terms before any exception', async () => {
     const rows = await list()
@@ -104,7 +109,10 @@ describe('exceptions for one apprentice', () => {
     const spent = await expectStatus(submit(api, ada, { assignmentId: closed.id }), 409)
     expect(spent.body.error.code).toBe('attempt_limit_reached')
 
-    await expectStatus(except({ userIds: [ada.user.id], extraAttempts: 2, reason: 'A fault on the bench PC' }), 200)
+    await expectStatus(
+      except({ userIds: [ada.user.id], extraAttempts: 2, reason: 'A fault on the bench PC' }),
+      200,
+    )
     // The due date she had is kept: fields left out keep what each already has.
     expect(await row(ada)).toMatchObject({ attemptLimit: 3, extraAttempts: 2, extended: true })
     expect((await row(ada)).reason).toBe('A fault on the bench PC')
@@ -147,7 +155,10 @@ describe('exceptions for one apprentice', () => {
     expect(noReason.body.error.details.fields.reason[0]).toMatch(/Say why/)
     await expectStatus(except({ userIds: [ada.user.id], reason: REASON }), 400)
     await expectStatus(except({ userIds: [], excused: true, reason: REASON }), 400)
-    const early = await expectStatus(except({ userIds: [ada.user.id], dueAt: days(-20), reason: REASON }), 400)
+    const early = await expectStatus(
+      except({ userIds: [ada.user.id], dueAt: days(-20), reason: REASON }),
+      400,
+    )
     expect(early.body.error.details.fields.dueAt[0]).toMatch(/after the assignment opens/)
   })
 
@@ -163,9 +174,20 @@ describe('exceptions for one apprentice', () => {
 
   it('keeps no row for an exception that changes nothing', async () => {
     await expectStatus(
-      except({ userIds: [ada.user.id], dueAt: null, extraAttempts: 0, excused: false, reason: 'Back to normal' }),
+      except({
+        userIds: [ada.user.id],
+        dueAt: null,
+        extraAttempts: 0,
+        excused: false,
+        reason: 'Back to normal',
+      }),
       200,
     )
-    expect(await row(ada)).toMatchObject({ extended: false, extraAttempts: 0, reason: '', dueAt: closed.dueAt })
+    expect(await row(ada)).toMatchObject({
+      extended: false,
+      extraAttempts: 0,
+      reason: '',
+      dueAt: closed.dueAt,
+    })
   })
 })

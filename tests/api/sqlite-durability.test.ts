@@ -65,7 +65,10 @@ describe('durable commits on SQLite', () => {
   })
 
   it('reports a transaction only once its commit is synced, letting the next transaction in meanwhile', async () => {
-    const scratch = await openDatabase({ databasePath: join(dir, 'held.sqlite') }, { backgroundCheckpoints: false })
+    const scratch = await openDatabase(
+      { databasePath: join(dir, 'held.sqlite') },
+      { backgroundCheckpoints: false },
+    )
     const sync = heldSync()
     // A second wrapper over the first: its sync is the one held here.
     serializeSqliteTransactions(scratch, sync.durable)
@@ -90,7 +93,10 @@ describe('durable commits on SQLite', () => {
   })
 
   it('syncs a write made outside a transaction before it returns, and never a read', async () => {
-    const scratch = await openDatabase({ databasePath: join(dir, 'plain.sqlite') }, { backgroundCheckpoints: false })
+    const scratch = await openDatabase(
+      { databasePath: join(dir, 'plain.sqlite') },
+      { backgroundCheckpoints: false },
+    )
     const sync = heldSync()
     serializeSqliteTransactions(scratch, sync.durable)
     try {

@@ -15,8 +15,21 @@ import { pathToFileURL } from 'node:url'
 import autocannon from 'autocannon'
 import type { AttemptEvent } from '../../shared/model/events'
 import { bundleFromSource } from '../../scripts/build'
-import { BENCH_PASSWORD, bulkSeed, fixtureLog, ISSUE_SHAPE, paddedLog, type BulkSeedResult } from './bulk-seed'
-import { freePort, launch, startBareExpress, startSlipway, type ServerProcess } from '../support/server-process'
+import {
+  BENCH_PASSWORD,
+  bulkSeed,
+  fixtureLog,
+  ISSUE_SHAPE,
+  paddedLog,
+  type BulkSeedResult,
+} from './bulk-seed'
+import {
+  freePort,
+  launch,
+  startBareExpress,
+  startSlipway,
+  type ServerProcess,
+} from '../support/server-process'
 import { formatTable, type BenchRow } from './table'
 
 export interface LoadFigures {
@@ -41,7 +54,13 @@ async function load(
   connections: number,
   request: autocannon.Request,
 ): Promise<LoadFigures> {
-  const result = await autocannon({ url, connections, duration: DURATION_S, timeout: 10, requests: [request] })
+  const result = await autocannon({
+    url,
+    connections,
+    duration: DURATION_S,
+    timeout: 10,
+    requests: [request],
+  })
   return {
     name,
     connections,
@@ -98,7 +117,8 @@ function largestValidLog(base: AttemptEvent[]): { events: AttemptEvent[]; json: 
   let high = 60_000
   while (low < high) {
     const mid = Math.ceil((low + high) / 2)
-    if (submissionBody(randomUUID(), JSON.stringify(paddedLog(base, mid))).length < BODY_LIMIT - 4096) low = mid
+    if (submissionBody(randomUUID(), JSON.stringify(paddedLog(base, mid))).length < BODY_LIMIT - 4096)
+      low = mid
     else high = mid - 1
   }
   const events = paddedLog(base, low)

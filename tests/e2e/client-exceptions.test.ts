@@ -23,7 +23,10 @@ describe('an extension for one apprentice', () => {
     const { page } = browser
     await signIn(page, app.url, demo('instructor'))
     await page.goto(`${app.url}/teach/cohorts`)
-    await page.getByRole('link', { name: /Open cohort/ }).first().click()
+    await page
+      .getByRole('link', { name: /Open cohort/ })
+      .first()
+      .click()
     await page.getByRole('tab', { name: /Assignments/ }).click()
     await page.locator('a[href^="/teach/assignments/"]').first().click()
     const missed = page.locator('[data-testid^="person-"]', { hasText: 'Missed' }).first()

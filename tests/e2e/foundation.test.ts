@@ -28,7 +28,10 @@ describe('the built app', () => {
   it('renders the sign-in page in the bundled Atkinson Hyperlegible font', async () => {
     const { page } = browser
     await page.goto(app.url)
-    await page.getByLabel(/e-mail/i).first().waitFor()
+    await page
+      .getByLabel(/e-mail/i)
+      .first()
+      .waitFor()
     const fontFamily = await page.evaluate(() => getComputedStyle(document.body).fontFamily)
     expect(fontFamily).toMatch(/Atkinson Hyperlegible/)
     // The face must come from our own server (no CDN), and must have actually loaded.
@@ -45,8 +48,14 @@ describe('the built app', () => {
     const apprentice = DEMO_ACCOUNTS.find((account) => account.role === 'apprentice')
     expect(apprentice).toBeDefined()
     await page.goto(app.url)
-    await page.getByLabel(/e-mail/i).first().fill(apprentice!.email)
-    await page.getByLabel(/password/i).first().fill(apprentice!.password)
+    await page
+      .getByLabel(/e-mail/i)
+      .first()
+      .fill(apprentice!.email)
+    await page
+      .getByLabel(/password/i)
+      .first()
+      .fill(apprentice!.password)
     await page.getByRole('button', { name: /sign in/i }).click()
     await page.waitForURL((url) => !url.pathname.includes('sign-in'))
     await expect(page.getByText(apprentice!.name.split(' ')[0]!).first().isVisible()).resolves.toBe(true)

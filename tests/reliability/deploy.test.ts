@@ -160,7 +160,14 @@ describe('deploying the build with production dependencies only', () => {
     for (const command of ['start', 'admin:create', 'db:reset']) {
       expect(pkg.scripts[command], command).toMatch(/^node scripts\/[\w-]+\.mjs\b/)
     }
-    for (const entry of ['start', 'index', 'grading-worker', 'sqlite-checkpointer', 'admin-create', 'db-reset']) {
+    for (const entry of [
+      'start',
+      'index',
+      'grading-worker',
+      'sqlite-checkpointer',
+      'admin-create',
+      'db-reset',
+    ]) {
       expect(existsSync(join(copy, 'dist/server', `${entry}.js`)), entry).toBe(true)
     }
     // Neither the start script nor admin:create tried to build: there are no build tools.

@@ -67,7 +67,11 @@ export async function launch({
   cwd = ROOT,
   nodeArgs = [],
 }: LaunchOptions): Promise<ServerProcess> {
-  const child = spawn(process.execPath, [...nodeArgs, script], { cwd, env, stdio: ['ignore', 'pipe', 'pipe'] })
+  const child = spawn(process.execPath, [...nodeArgs, script], {
+    cwd,
+    env,
+    stdio: ['ignore', 'pipe', 'pipe'],
+  })
   let log = ''
   const keep = (chunk: Buffer) => {
     log = (log + chunk.toString()).slice(-20_000)
@@ -143,7 +147,13 @@ export async function startServerProcess(
     ...env,
   }
   await ensureServerBuild()
-  return launch({ script: builtServerFile('index'), env: fullEnv, port, healthPath: '/api/health', timeoutMs })
+  return launch({
+    script: builtServerFile('index'),
+    env: fullEnv,
+    port,
+    healthPath: '/api/health',
+    timeoutMs,
+  })
 }
 
 /** The benchmark baseline: a bare Express 5 app answering `{}`, bundled and run the same way. */

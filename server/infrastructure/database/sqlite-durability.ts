@@ -77,7 +77,10 @@ export function createWalSync(
  * Starts the checkpointing thread for the database at `path`; the returned function stops it (after one
  * last checkpoint). Should the thread fail, the connection's own automatic checkpoint still bounds the log.
  */
-export async function startBackgroundCheckpoints(path: string, intervalMs = 250): Promise<() => Promise<void>> {
+export async function startBackgroundCheckpoints(
+  path: string,
+  intervalMs = 250,
+): Promise<() => Promise<void>> {
   const worker = new Worker(await workerFile('sqlite-checkpointer'), {
     workerData: { path, intervalMs },
     execArgv: [],

@@ -136,9 +136,7 @@ export function createGradingPool(options: GradingPoolOptions): GradingPool {
     async warm() {
       const threadsReady = await pool
       // One tiny task per thread: each answers only once it has loaded the grader.
-      await Promise.all(
-        Array.from({ length: threads }, () => threadsReady.run({ kind: 'read', body: null })),
-      )
+      await Promise.all(Array.from({ length: threads }, () => threadsReady.run({ kind: 'read', body: null })))
     },
     stats: () => ({
       threads,

@@ -73,7 +73,12 @@ export function readSubmission(body: Uint8Array | null): ReadReport {
   if (!json.ok) return { ok: false, code: 'invalid_json', message: INVALID_JSON_MESSAGE }
   const result = submitAttemptRequestSchema.safeParse(json.value)
   if (!result.success) {
-    return { ok: false, code: 'validation_failed', message: VALIDATION_MESSAGE, details: zodDetails(result.error) }
+    return {
+      ok: false,
+      code: 'validation_failed',
+      message: VALIDATION_MESSAGE,
+      details: zodDetails(result.error),
+    }
   }
   const { events, ...request } = result.data
   return {
@@ -87,8 +92,7 @@ export function readSubmission(body: Uint8Array | null): ReadReport {
 
 /** A grade as the attempt row stores it: the evidence already serialised, in the thread. */
 export type LogGradeReport =
-  | { ok: true; score: number; passed: boolean; evidenceJson: string }
-  | { ok: false; inputError: string }
+  { ok: true; score: number; passed: boolean; evidenceJson: string } | { ok: false; inputError: string }
 
 export function gradeLog(task: Omit<GradeTask, 'kind'>): LogGradeReport {
   const report = gradeReport(scenarioOf(task), JSON.parse(task.eventsJson) as AttemptEvent[])

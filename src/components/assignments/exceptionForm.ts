@@ -34,7 +34,9 @@ export function checkExceptionForm(userIds: string[], v: ExceptionFormValues): E
 }
 
 /** "Own due date 12 Dec 17:00 · 2 extra attempts · excused", or '' when they have none. */
-export function exceptionText(a: Pick<AssignmentApprentice, 'extended' | 'dueAt' | 'extraAttempts' | 'excused'>) {
+export function exceptionText(
+  a: Pick<AssignmentApprentice, 'extended' | 'dueAt' | 'extraAttempts' | 'excused'>,
+) {
   const parts: string[] = []
   if (a.excused) parts.push('Excused')
   if (a.extended && a.dueAt) parts.push(`Own due date ${formatDateTime(a.dueAt)}`)
@@ -47,7 +49,9 @@ export function exceptionSummary(body: ExceptionRequest, names: string[], assign
   const who =
     names.length <= 3 ? names.join(', ') : `${names.slice(0, 3).join(', ')} and ${names.length - 3} more`
   const terms = [
-    body.dueAt ? `due ${formatDateTime(body.dueAt)}` : `due with everyone else (${formatDateTime(assignmentDue)})`,
+    body.dueAt
+      ? `due ${formatDateTime(body.dueAt)}`
+      : `due with everyone else (${formatDateTime(assignmentDue)})`,
     `${body.extraAttempts ?? 0} extra attempt${body.extraAttempts === 1 ? '' : 's'}`,
     body.excused ? 'excused' : 'not excused',
   ]
