@@ -7,10 +7,10 @@
 // the gesture only when the page has settled and still shows exactly what it showed before, and
 // otherwise fails at once, saying what it expected and what the panel shows.
 import type { Page } from 'playwright-core'
-import { layoutPanel, SCENE_WIDTH, SCENE_HEIGHT } from '../../src/panel/layout'
-import { probeTip } from '../../src/panel/hitTest'
-import { pointOnCubic, wireCurve } from '../../src/panel/wireCurve'
-import type { KeypadKey, PanelDevice, PanelLayout, PointId, ProbeColour, Vec } from '../../src/panel/types'
+import { layoutPanel, SCENE_WIDTH, SCENE_HEIGHT } from '../../src/simulator/scene/layout'
+import { probeTip } from '../../src/simulator/scene/hitTest'
+import { pointOnCubic, wireCurve } from '../../src/simulator/scene/wireCurve'
+import type { KeypadKey, PanelDevice, PanelLayout, PointId, ProbeColour, Vec } from '../../src/simulator/scene/types'
 import { keypadWords, PanelObserver, probeWords, wireCountWords } from './panel-observe'
 
 /** How long a gesture's effect may take to show before the gesture counts as lost. */

@@ -2,7 +2,7 @@
 // keypad and disconnect as buttons, FASTER/SLOWER held with their letter keys, submit with Enter.
 import { describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
-import type { KeypadKey } from '../../src/panel/types'
+import type { KeypadKey } from '../../src/simulator/scene/types'
 import { screenshot } from './support'
 import { openPanel, panelTestBed } from './panel-fixtures'
 import type { PanelDriver } from './panel-driver'

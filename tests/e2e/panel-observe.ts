@@ -3,7 +3,7 @@
 // wiring list, and the attempt log the page saves after every action. Each canvas gesture of the
 // driver is checked against one of these, in words that go straight into a failure message.
 import type { Page } from 'playwright-core'
-import type { KeypadKey, PanelLayout, PointId, ProbeColour } from '../../src/panel/types'
+import type { KeypadKey, PanelLayout, PointId, ProbeColour } from '../../src/simulator/scene/types'
 
 /** The lifted probe's entry in the probe fields. */
 const PROBE_LIFTED = 'Lifted (on the meter)'

@@ -1,9 +1,9 @@
 // Pointer gestures on the panel, from hit-testing to the intents they produce.
 import { describe, expect, it } from 'vitest'
-import { hitTest, probeTip } from '@/panel/hitTest'
-import { IDLE, pointerCancel, pointerDown, pointerMove, pointerUp } from '@/panel/interaction'
-import { layoutPanel } from '@/panel/layout'
-import { pointOnCubic, wireCurve } from '@/panel/wireCurve'
+import { hitTest, probeTip } from '@/simulator/scene/hitTest'
+import { IDLE, pointerCancel, pointerDown, pointerMove, pointerUp } from '@/simulator/scene/interaction'
+import { layoutPanel } from '@/simulator/scene/layout'
+import { pointOnCubic, wireCurve } from '@/simulator/scene/wireCurve'
 
 const layout = layoutPanel([
   { id: 'run', kind: 'selector', label: 'Run', contact: 'NO' },

@@ -1,9 +1,9 @@
 // An XState actor around the pure model, for the panel (@xstate/vue): it records the log as it goes.
 import { assign, setup } from 'xstate'
-import type { AttemptEvent } from './events'
-import type { SimulationSetup } from './setup'
-import type { SimState } from './types'
-import { advance, applyEvent, createSimulation } from './simulation'
+import type { AttemptEvent } from '@shared/model/events'
+import type { SimulationSetup } from '@shared/model/setup'
+import type { SimState } from '@shared/model/types'
+import { advance, applyEvent, createSimulation } from '@shared/model/simulation'
 
 export interface SimulationContext {
   setup: SimulationSetup

@@ -3,10 +3,11 @@
 import { shallowRef } from 'vue'
 import { useActorRef } from '@xstate/vue'
 import { attemptEventSchema, type AttemptEvent } from '@shared/model/events'
-import { readCircuit, readDrive, simulationMachine } from '@shared/model'
+import { readCircuit, readDrive } from '@shared/model'
+import { simulationMachine } from '../machines/simulationMachine'
 import type { SimulationSetup } from '@shared/model/setup'
 import type { CircuitReading, DriveReading, SimState } from '@shared/model/types'
-import { createSimClock } from '@/panel/simClock'
+import { createSimClock } from '@/simulator/scene/simClock'
 
 type DistributiveOmit<T, K extends PropertyKey> = T extends unknown ? Omit<T, K> : never
 export type PanelAction = DistributiveOmit<AttemptEvent, 't'>

@@ -2,13 +2,13 @@
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import { flushPromises, mount } from '@vue/test-utils'
 import { createVuetify } from 'vuetify'
-import { layoutPanel } from '@/panel/layout'
-import { emptyView } from '@/panel/view'
+import { layoutPanel } from '@/simulator/scene/layout'
+import { emptyView } from '@/simulator/scene/view'
 import { pixiState, resetPixiState } from './pixiMock'
 
 vi.mock('pixi.js', () => import('./pixiMock'))
 
-const { default: PanelStage } = await import('@/components/panel/PanelStage.vue')
+const { default: PanelStage } = await import('@/simulator/components/PanelStage.vue')
 
 const layout = layoutPanel([
   { id: 'run', kind: 'selector', label: 'Run', contact: 'NO' },

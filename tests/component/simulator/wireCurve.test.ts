@@ -1,6 +1,6 @@
 // Wire curves: they start and end on the terminals and hang below the strip, away from the labels.
 import { describe, expect, it } from 'vitest'
-import { distanceToCubic, pointOnCubic, sampleCubic, wireCurve } from '@/panel/wireCurve'
+import { distanceToCubic, pointOnCubic, sampleCubic, wireCurve } from '@/simulator/scene/wireCurve'
 
 describe('a wire curve', () => {
   const a = { x: 100, y: 400 }

@@ -4,9 +4,9 @@ import { onBeforeUnmount, onMounted, ref, markRaw, type Ref } from 'vue'
 import { Application, UPDATE_PRIORITY, type Ticker } from 'pixi.js'
 // The app's Content-Security-Policy forbids eval; this makes Pixi build its shaders without it.
 import 'pixi.js/unsafe-eval'
-import { PanelScene } from '@/panel/scene'
-import type { PanelLayout, Vec } from '@/panel/types'
-import type { PanelView } from '@/panel/view'
+import { PanelScene } from '@/simulator/scene/scene'
+import type { PanelLayout, Vec } from '@/simulator/scene/types'
+import type { PanelView } from '@/simulator/scene/view'
 
 declare global {
   interface Window {

@@ -3,8 +3,8 @@ import { describe, expect, it } from 'vitest'
 import { effectScope } from 'vue'
 import type { AttemptSummary, SubmitAttemptRequest } from '@shared/api/attempts'
 import type { AttemptEvent } from '@shared/model/events'
-import { attemptStorageKey, useAttemptStorage } from '@/composables/useAttemptStorage'
-import { isRetryable, useAttemptSubmission } from '@/composables/useAttemptSubmission'
+import { attemptStorageKey, useAttemptStorage } from '@/simulator/composables/useAttemptStorage'
+import { isRetryable, useAttemptSubmission } from '@/simulator/composables/useAttemptSubmission'
 
 class MemoryStorage implements Storage {
   private data = new Map<string, string>()

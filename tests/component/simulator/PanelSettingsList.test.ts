@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest'
 import { mount } from '@vue/test-utils'
 import { createVuetify } from 'vuetify'
 import { DEFAULT_SETTINGS } from '@shared/model/settings'
-import PanelSettingsList from '@/components/panel/PanelSettingsList.vue'
+import PanelSettingsList from '@/simulator/components/PanelSettingsList.vue'
 
 function mountList(pending = {}) {
   return mount(PanelSettingsList, {

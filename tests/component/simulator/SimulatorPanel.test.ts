@@ -6,13 +6,13 @@ import { createPinia } from 'pinia'
 import { createVuetify } from 'vuetify'
 import scenarioFile from '../../../scenarios/raise-lower-commissioning.json'
 import { scenarioSchema } from '@shared/scenario/schema'
-import { attemptStorageKey } from '@/composables/useAttemptStorage'
+import { attemptStorageKey } from '@/simulator/composables/useAttemptStorage'
 import { pixiState, resetPixiState } from './pixiMock'
 
 vi.mock('pixi.js', () => import('./pixiMock'))
 vi.mock('pixi.js/unsafe-eval', () => ({}))
 
-const { default: SimulatorPanel } = await import('@/components/panel/SimulatorPanel.vue')
+const { default: SimulatorPanel } = await import('@/simulator/components/SimulatorPanel.vue')
 const scenario = scenarioSchema.parse(scenarioFile)
 const key = attemptStorageKey(scenario.id)
 

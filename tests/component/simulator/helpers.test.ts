@@ -1,9 +1,9 @@
 // Small panel helpers: the simulated clock, device hotkeys, wire labels and the energised-wiring rule.
 import { describe, expect, it } from 'vitest'
-import { createSimClock } from '@/panel/simClock'
-import { deviceHotkeys } from '@/panel/hotkeys'
-import { energisedReason } from '@/panel/safety'
-import { wireLabel, WIRE_COLOURS } from '@/panel/wireColours'
+import { createSimClock } from '@/simulator/scene/simClock'
+import { deviceHotkeys } from '@/simulator/scene/hotkeys'
+import { energisedReason } from '@/simulator/scene/safety'
+import { wireLabel, WIRE_COLOURS } from '@/simulator/scene/wireColours'
 import { WIRE_COLOURS as MODEL_COLOURS } from '@shared/model/setup'
 
 describe('the simulated clock', () => {

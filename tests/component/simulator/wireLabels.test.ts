@@ -1,10 +1,10 @@
 // Wire tags: each sits on its own wire, and tags of wires that bunch together do not cover each other.
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
-import { layoutPanel } from '@/panel/layout'
-import type { PanelDevice, Vec } from '@/panel/types'
-import { distanceToCubic, pointOnCubic, wireCurve, type Cubic } from '@/panel/wireCurve'
-import { placeWireLabels, preferredT, WIRE_LABEL_HEIGHT, WIRE_LABEL_WIDTH } from '@/panel/wireLabels'
+import { layoutPanel } from '@/simulator/scene/layout'
+import type { PanelDevice, Vec } from '@/simulator/scene/types'
+import { distanceToCubic, pointOnCubic, wireCurve, type Cubic } from '@/simulator/scene/wireCurve'
+import { placeWireLabels, preferredT, WIRE_LABEL_HEIGHT, WIRE_LABEL_WIDTH } from '@/simulator/scene/wireLabels'
 
 const devices: PanelDevice[] = [
   { id: 'runSwitch', kind: 'selector', label: 'Infeed run / stop', contact: 'NO' },

@@ -6,8 +6,8 @@ import {
   POINT_LABELS,
   controlPointsFor,
 } from '@shared/model/points'
-import { deviceTerminalLabels, layoutPanel } from '@/panel/layout'
-import type { PanelDevice } from '@/panel/types'
+import { deviceTerminalLabels, layoutPanel } from '@/simulator/scene/layout'
+import type { PanelDevice } from '@/simulator/scene/types'
 
 const devices: PanelDevice[] = [
   { id: 'runSwitch', kind: 'selector', label: 'Run / stop', contact: 'NO' },
