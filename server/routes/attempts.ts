@@ -49,11 +49,13 @@ export function attemptsRouter(ctx: AppContext): Router {
       page: number
       pageSize: number
       assignmentId?: string
+      scenarioId?: string
       userId?: string
       status?: AttemptStatus
     }
     const where: FindOptionsWhere<AttemptRow> = {
       ...(q.status ? { status: q.status } : {}),
+      ...(q.scenarioId ? { scenarioId: q.scenarioId } : {}),
       ...(q.userId ? { userId: q.userId } : {}),
     }
     if (q.assignmentId) {
@@ -70,13 +72,18 @@ export function attemptsRouter(ctx: AppContext): Router {
         : []
       where.assignmentId = In(assignments.map((a) => a.id))
     }
-    const [rows, total] = await ds.getRepository(AttemptEntity).findAndCount({
-      where,
-      select: ATTEMPT_SUMMARY_SELECT,
-      order: { updatedAt: 'DESC' },
-      skip: (q.page - 1) * q.pageSize,
-      take: q.pageSize,
-    })
+    // Counted apart: TypeORM 1.1's findAndCount with a `select` counts 0 once a page is full.
+    const repository = ds.getRepository(AttemptEntity)
+    const [rows, total] = await Promise.all([
+      repository.find({
+        where,
+        select: ATTEMPT_SUMMARY_SELECT,
+        order: { updatedAt: 'DESC' },
+        skip: (q.page - 1) * q.pageSize,
+        take: q.pageSize,
+      }),
+      repository.count({ where }),
+    ])
     res.json({ items: await presentAttempts(ctx, rows), total, page: q.page, pageSize: q.pageSize })
   })
 
@@ -87,8 +94,7 @@ export function attemptsRouter(ctx: AppContext): Router {
     return rows.map((row) => ({ ...row, authorName: authors.find((a) => a.id === row.authorId)?.name ?? '' }))
   }
 
-  router.get('/:id', validate({ params: idParamsSchema }), async (req, res) => {
-    const attempt = await attemptFor(ds, currentUser(req), String(req.params.id), 'read')
+  async function presentOverview(attempt: AttemptRow) {
     const [summary] = await presentAttempts(ctx, [attempt])
     const feedback = await ds
       .getRepository(FeedbackEntity)
@@ -97,12 +103,18 @@ export function attemptsRouter(ctx: AppContext): Router {
       where: { entityType: 'attempt', entityId: attempt.id },
       order: { createdAt: 'ASC' },
     })
-    res.json({
-      ...summary,
-      events: JSON.parse(attempt.events),
-      feedback: await presentFeedback(feedback),
-      audit: await presentAudit(ctx, audit),
-    })
+    return { ...summary, feedback: await presentFeedback(feedback), audit: await presentAudit(ctx, audit) }
+  }
+
+  router.get('/:id', validate({ params: idParamsSchema }), async (req, res) => {
+    const attempt = await attemptFor(ds, currentUser(req), String(req.params.id), 'read')
+    res.json({ ...(await presentOverview(attempt)), events: JSON.parse(attempt.events) })
+  })
+
+  // The same without the event log (which can run to megabytes): for result and review pages.
+  router.get('/:id/overview', validate({ params: idParamsSchema }), async (req, res) => {
+    const attempt = await attemptFor(ds, currentUser(req), String(req.params.id), 'read')
+    res.json(await presentOverview(attempt))
   })
 
   async function notifyOwner(

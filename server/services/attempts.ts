@@ -1,7 +1,13 @@
 // Attempt submission: validate the target and the rules, grade on the server, store once (idempotent by id).
 import { randomUUID } from 'node:crypto'
 import { In } from 'typeorm'
-import type { SubmitAttemptRequest, AttemptSummary, GradeAuditEntry } from '@shared/api/attempts'
+import {
+  ATTEMPT_DIVERGED,
+  isLogPrefix,
+  type SubmitAttemptRequest,
+  type AttemptSummary,
+  type GradeAuditEntry,
+} from '@shared/api/attempts'
 import type { AttemptEvent } from '@shared/model/events'
 import { appLink, type AppContext } from '../context'
 import {
@@ -55,7 +61,7 @@ export async function presentAttempts(ctx: AppContext, rows: AttemptSummaryRow[]
   })
   const scenarios = await ds.getRepository(ScenarioEntity).find({
     where: { id: In([...new Set(rows.map((r) => r.scenarioId))]) },
-    select: { id: true, key: true, version: true },
+    select: { id: true, key: true, version: true, title: true },
   })
   return rows.map((row) => {
     const scenario = scenarios.find((s) => s.id === row.scenarioId)!
@@ -67,6 +73,7 @@ export async function presentAttempts(ctx: AppContext, rows: AttemptSummaryRow[]
       scenarioId: row.scenarioId,
       scenarioKey: scenario.key,
       scenarioVersion: scenario.version,
+      scenarioTitle: scenario.title,
       status: row.status,
       eventCount: row.eventCount,
       late: Boolean(row.late),
@@ -177,6 +184,13 @@ export async function submitAttempt(
       : existing.assignmentId === null && existing.scenarioId === body.scenarioId
     if (!sameTarget)
       throw conflict('attempt_conflict', 'This attempt belongs to a different assignment or scenario')
+    // Saves only append: a log that drops what is stored was made from an older copy elsewhere.
+    if (!isLogPrefix(JSON.parse(existing.events) as AttemptEvent[], body.events)) {
+      throw conflict(
+        ATTEMPT_DIVERGED,
+        `This attempt was continued on another computer: the server holds ${existing.eventCount} actions that this copy does not match. Load the newer copy to go on.`,
+      )
+    }
   }
   const { scenario, assignment } = await resolveTarget(ctx, user, body)
   const now = nowIso()
@@ -213,9 +227,10 @@ export async function submitAttempt(
     await ds.transaction(async (manager) => {
       if (existing) {
         // Only a draft may change; if a racing request submitted it meanwhile, that one wins.
+        // …and only the draft that was checked above: a save that landed meanwhile wins this one.
         const changed = await manager
           .getRepository(AttemptEntity)
-          .update({ id: row.id, status: 'inProgress' }, row)
+          .update({ id: row.id, status: 'inProgress', updatedAt: existing.updatedAt }, row)
         if (!changed.affected) throw new LostRace()
       } else {
         await manager.getRepository(AttemptEntity).insert(row)
@@ -237,6 +252,16 @@ export async function submitAttempt(
   } catch (error) {
     // Two identical submissions racing: the loser returns the winner's stored result.
     const winner = await attempts.findOneBy({ id: body.id })
+    if (
+      error instanceof LostRace &&
+      winner?.status === 'inProgress' &&
+      !isLogPrefix(JSON.parse(winner.events), events)
+    ) {
+      throw conflict(
+        ATTEMPT_DIVERGED,
+        'This attempt was saved from another computer at the same moment. Load the newer copy to go on.',
+      )
+    }
     if (winner?.userId === user.id && (error instanceof LostRace || !existing))
       return { created: false, attempt: winner }
     throw error
