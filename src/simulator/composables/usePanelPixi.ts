@@ -1,12 +1,14 @@
-// The Pixi application's life on a canvas the component owns: created on mount, destroyed on
-// unmount (also when unmount comes before init has finished), with the scene scaled to fit.
-import { onBeforeUnmount, onMounted, ref, markRaw, type Ref } from 'vue'
+// The Pixi application's life on a canvas the component owns: created on mount, destroyed on unmount
+// (also when unmount comes before init has finished). The canvas fills its host; a camera (scale and
+// offset, see scene/camera.ts) places the scene in it, fitted until the user zooms or pans.
+import { onBeforeUnmount, onMounted, ref, markRaw, shallowRef, type Ref } from 'vue'
 import { Application, UPDATE_PRIORITY, type Ticker } from 'pixi.js'
 // The app's Content-Security-Policy forbids eval; this makes Pixi build its shaders without it.
 import 'pixi.js/unsafe-eval'
-import { PanelScene } from '@/simulator/scene/scene'
-import type { PanelLayout, Vec } from '@/simulator/scene/types'
-import type { PanelView } from '@/simulator/scene/view'
+import { PanelScene } from '../scene/scene'
+import { clampCamera, fitCamera, isFitted, toScene, type Camera, type Size } from '../scene/camera'
+import type { PanelLayout, Vec } from '../scene/types'
+import type { PanelView } from '../scene/view'
 
 declare global {
   interface Window {
@@ -14,6 +16,10 @@ declare global {
     __slipwayFrameTimes?: number[]
   }
 }
+
+/** Text textures are redrawn for the new zoom once zooming has paused this long. */
+const TEXT_SETTLE_MS = 150
+const MAX_TEXT_RESOLUTION = 6
 
 export function usePanelPixi(
   canvas: Ref<HTMLCanvasElement | null>,
@@ -23,19 +29,40 @@ export function usePanelPixi(
 ) {
   const ready = ref(false)
   const error = ref<string | null>(null)
+  const camera = shallowRef<Camera>({ scale: 1, x: 0, y: 0 })
+  const fitted = ref(true)
+  const view: Size = { width: layout.width, height: layout.height }
+  const sceneSize: Size = { width: layout.width, height: layout.height }
   let app: Application | null = null
+  let scene: PanelScene | null = null
   let disposed = false
   let observer: ResizeObserver | null = null
+  let textTimer: ReturnType<typeof setTimeout> | null = null
   const callbacks: { fn: (t: Ticker) => void; priority: number }[] = []
+  const density = () => window.devicePixelRatio || 1
 
-  function fit() {
+  function apply(next: Camera) {
+    camera.value = next
+    fitted.value = isFitted(next, view, sceneSize)
+    if (!app) return
+    app.stage.scale.set(next.scale)
+    app.stage.position.set(next.x, next.y)
+    app.render()
+    if (textTimer) clearTimeout(textTimer)
+    textTimer = setTimeout(() => {
+      textTimer = null
+      scene?.setTextResolution(Math.min(MAX_TEXT_RESOLUTION, density() * Math.max(1, next.scale)))
+      app?.render()
+    }, TEXT_SETTLE_MS)
+  }
+
+  function resize() {
     const el = host.value
     if (!app || !el) return
-    const width = Math.max(320, el.clientWidth)
-    const height = Math.round((width * layout.height) / layout.width)
-    app.renderer.resize(width, height)
-    app.stage.scale.set(width / layout.width)
-    app.render()
+    view.width = Math.max(1, el.clientWidth)
+    view.height = Math.max(1, el.clientHeight)
+    app.renderer.resize(view.width, view.height)
+    apply(fitted.value ? fitCamera(view, sceneSize) : clampCamera(camera.value, view, sceneSize))
   }
 
   onMounted(async () => {
@@ -45,13 +72,14 @@ export function usePanelPixi(
     try {
       await created.init({
         canvas: el,
-        width: layout.width,
-        height: layout.height,
+        width: Math.max(1, host.value?.clientWidth ?? layout.width),
+        height: Math.max(1, host.value?.clientHeight ?? layout.height),
         background: 0xe6eaee,
         antialias: true,
         preference: 'webgl',
+        // Drawn at the screen's own pixel density, so lines and text are sharp on high-density screens.
         autoDensity: true,
-        resolution: Math.min(2, window.devicePixelRatio || 1),
+        resolution: density(),
       })
     } catch (e) {
       if (!disposed) error.value = `The panel could not start its graphics: ${(e as Error).message}`
@@ -62,8 +90,9 @@ export function usePanelPixi(
       return
     }
     app = created
-    const scene = markRaw(new PanelScene(layout))
+    scene = markRaw(new PanelScene(layout))
     created.stage.addChild(scene.root)
+    const drawn = scene
 
     const perf = new URLSearchParams(window.location.search).has('perf')
     let frameStart = 0
@@ -84,8 +113,8 @@ export function usePanelPixi(
     let needsRender = true
     callbacks.push({
       fn: (ticker) => {
-        const changed = scene.update(frame(ticker.deltaMS))
-        const turned = scene.tick(ticker.deltaMS)
+        const changed = drawn.update(frame(ticker.deltaMS))
+        const turned = drawn.tick(ticker.deltaMS)
         if (changed || turned || needsRender) {
           needsRender = false
           created.render()
@@ -96,10 +125,10 @@ export function usePanelPixi(
     for (const c of callbacks) created.ticker.add(c.fn, undefined, c.priority)
 
     if (host.value && typeof ResizeObserver !== 'undefined') {
-      observer = new ResizeObserver(fit)
+      observer = new ResizeObserver(resize)
       observer.observe(host.value)
     }
-    fit()
+    resize()
     ready.value = true
   })
 
@@ -107,24 +136,37 @@ export function usePanelPixi(
     disposed = true
     observer?.disconnect()
     observer = null
+    if (textTimer) clearTimeout(textTimer)
     if (app) {
       for (const c of callbacks) app.ticker.remove(c.fn)
       app.destroy(true, { children: true, texture: true })
       app = null
+      scene = null
     }
     callbacks.length = 0
   })
 
-  /** Client (CSS pixel) coordinates to scene units. */
-  function toScene(clientX: number, clientY: number): Vec {
-    const el = canvas.value
-    if (!el) return { x: 0, y: 0 }
-    const r = el.getBoundingClientRect()
-    return {
-      x: ((clientX - r.left) / r.width) * layout.width,
-      y: ((clientY - r.top) / r.height) * layout.height,
-    }
+  /** A point on the canvas (CSS pixels from its top left). */
+  function toView(clientX: number, clientY: number): Vec {
+    const r = canvas.value?.getBoundingClientRect()
+    return r ? { x: clientX - r.left, y: clientY - r.top } : { x: 0, y: 0 }
   }
 
-  return { ready, error, toScene }
+  /** Client (CSS pixel) coordinates to scene units. */
+  function toScenePoint(clientX: number, clientY: number): Vec {
+    return toScene(camera.value, toView(clientX, clientY))
+  }
+
+  return {
+    ready,
+    error,
+    camera,
+    fitted,
+    view,
+    sceneSize,
+    toView,
+    toScene: toScenePoint,
+    setCamera: (next: Camera) => apply(clampCamera(next, view, sceneSize)),
+    fit: () => apply(fitCamera(view, sceneSize)),
+  }
 }

@@ -12,6 +12,7 @@ export interface PanelUiState {
   draftWire: { from: PointId; at: Vec; colour: string } | null
   probeDrag: { probe: ProbeColour; at: Vec } | null
   highlight: PointId | null
+  armed: PointId | null
   menu: KeypadMenu
 }
 
@@ -57,5 +58,6 @@ export function deriveView(
     probeDrag: ui.probeDrag,
     meterText: meterText(circuit.meter),
     highlight: ui.highlight,
+    armed: ui.armed,
   }
 }

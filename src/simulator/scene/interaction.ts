@@ -1,17 +1,29 @@
 // Pointer gestures on the scene, as a pure reducer: each pointer event gives the next gesture and
 // the intents (user actions) it produced. The Vue wrapper turns intents into model events.
+//
+// A wire is drawn either by dragging from one terminal to another, or by tapping one terminal and then
+// another (tap-tap: the first tap arms a wire from that terminal; a tap on the same terminal, on empty
+// panel or on anything else lets it go). Mouse, pen and touch work the same way.
 import type { Hit } from './hitTest'
 import type { KeypadKey, PanelLayout, PointId, ProbeColour, Vec } from './types'
 
 export type Gesture =
   | { kind: 'idle' }
+  /** Pointer held down on a terminal: a drag draws a wire, a release on the same terminal arms one. */
   | { kind: 'wiring'; from: PointId; at: Vec }
+  /** A wire waiting for its second terminal (tap-tap); the draft follows the pointer. */
+  | { kind: 'armed'; from: PointId; at: Vec }
   | { kind: 'holding'; device: string }
   | { kind: 'probe'; probe: ProbeColour; at: Vec }
   | { kind: 'turning'; device: string; startX: number; startPosition: number; position: number }
+  /** Dragging the empty panel moves the view (the stage does the moving, in screen pixels). */
+  | { kind: 'panning' }
 
 export type Intent =
   | { type: 'wire.add'; from: PointId; to: PointId }
+  | { type: 'wire.start'; from: PointId }
+  | { type: 'wire.cancel' }
+  | { type: 'wire.remove'; wire: string }
   | { type: 'wire.select'; wire: string | null }
   | { type: 'device.press'; device: string }
   | { type: 'device.release'; device: string }
@@ -37,15 +49,30 @@ export const IDLE: Gesture = { kind: 'idle' }
 /** Scene units of horizontal drag for a full turn of a potentiometer. */
 const TURN_SPAN = 160
 
-export function pointerDown(ctx: InteractionContext, hit: Hit | null, p: Vec): GestureResult {
-  if (!hit) return { gesture: IDLE, intents: [{ type: 'wire.select', wire: null }] }
+function isWireable(ctx: InteractionContext, point: PointId): boolean {
+  return !!ctx.layout.terminals[point]?.wireable
+}
+
+export function pointerDown(
+  ctx: InteractionContext,
+  gesture: Gesture,
+  hit: Hit | null,
+  p: Vec,
+): GestureResult {
+  if (gesture.kind === 'armed') {
+    if (hit?.kind === 'terminal' && hit.point !== gesture.from && isWireable(ctx, hit.point)) {
+      return { gesture: IDLE, intents: [{ type: 'wire.add', from: gesture.from, to: hit.point }] }
+    }
+    // Anywhere else lets the wire go; a tap on something else also does what it always does.
+    const rest = hit?.kind === 'terminal' ? { gesture: IDLE, intents: [] } : pointerDown(ctx, IDLE, hit, p)
+    return { gesture: rest.gesture, intents: [{ type: 'wire.cancel' }, ...rest.intents] }
+  }
+  if (!hit) return { gesture: { kind: 'panning' }, intents: [{ type: 'wire.select', wire: null }] }
   switch (hit.kind) {
-    case 'terminal': {
-      const spot = ctx.layout.terminals[hit.point]
-      return spot?.wireable
+    case 'terminal':
+      return isWireable(ctx, hit.point)
         ? { gesture: { kind: 'wiring', from: hit.point, at: p }, intents: [] }
         : { gesture: IDLE, intents: [] }
-    }
     case 'device': {
       const device = ctx.layout.devices.find((d) => d.id === hit.device)
       if (!device) return { gesture: IDLE, intents: [] }
@@ -79,6 +106,7 @@ export function pointerDown(ctx: InteractionContext, hit: Hit | null, p: Vec): G
 export function pointerMove(gesture: Gesture, p: Vec): GestureResult {
   switch (gesture.kind) {
     case 'wiring':
+    case 'armed':
     case 'probe':
       return { gesture: { ...gesture, at: p }, intents: [] }
     case 'turning': {
@@ -98,10 +126,19 @@ export function pointerMove(gesture: Gesture, p: Vec): GestureResult {
 export function pointerUp(ctx: InteractionContext, gesture: Gesture, hit: Hit | null): GestureResult {
   switch (gesture.kind) {
     case 'wiring': {
-      const target = hit?.kind === 'terminal' ? ctx.layout.terminals[hit.point] : undefined
-      const ok = target?.wireable && target.id !== gesture.from
-      return { gesture: IDLE, intents: ok ? [{ type: 'wire.add', from: gesture.from, to: target.id }] : [] }
+      const target = hit?.kind === 'terminal' ? hit.point : null
+      // Let go on the terminal it started from: a tap, which arms a wire from there.
+      if (target === gesture.from) {
+        return {
+          gesture: { kind: 'armed', from: gesture.from, at: gesture.at },
+          intents: [{ type: 'wire.start', from: gesture.from }],
+        }
+      }
+      const ok = target !== null && isWireable(ctx, target)
+      return { gesture: IDLE, intents: ok ? [{ type: 'wire.add', from: gesture.from, to: target }] : [] }
     }
+    case 'armed':
+      return { gesture, intents: [] }
     case 'holding':
       return { gesture: IDLE, intents: [{ type: 'device.release', device: gesture.device }] }
     case 'probe': {
@@ -114,10 +151,20 @@ export function pointerUp(ctx: InteractionContext, gesture: Gesture, hit: Hit | 
   }
 }
 
-/** The pointer left or was taken away: never leave a momentary button held. */
+/**
+ * The pointer left or was taken away: never leave a momentary button held. An armed wire stays armed
+ * (the pointer is released after every tap); Escape lets it go with `cancelArmed`.
+ */
 export function pointerCancel(gesture: Gesture): GestureResult {
   if (gesture.kind === 'holding') {
     return { gesture: IDLE, intents: [{ type: 'device.release', device: gesture.device }] }
   }
+  if (gesture.kind === 'armed') return { gesture, intents: [] }
   return { gesture: IDLE, intents: [] }
+}
+
+export function cancelArmed(gesture: Gesture): GestureResult {
+  return gesture.kind === 'armed'
+    ? { gesture: IDLE, intents: [{ type: 'wire.cancel' }] }
+    : { gesture, intents: [] }
 }

@@ -8,6 +8,9 @@ import {
   type SettingValue,
   type SettingValues,
 } from '@shared/model/settings'
+import { readDrive } from '@shared/model/readings'
+import type { AttemptEvent } from '@shared/model/events'
+import type { SimState } from '@shared/model/types'
 import type { KeypadKey } from './types'
 
 export type KeypadMenu =
@@ -17,6 +20,19 @@ export type KeypadMenu =
   | { screen: 'edit'; group: number; item: number; value: SettingValue }
 
 export const STATUS_SCREEN: KeypadMenu = { screen: 'status' }
+
+/** The keys' names in words (buttons beside the canvas, announcements, the replay's timeline). */
+export const KEY_NAMES: Record<KeypadKey, string> = {
+  run: 'Run',
+  stop: 'Stop',
+  reset: 'Reset',
+  up: 'Up',
+  down: 'Down',
+  left: 'Left',
+  right: 'Right',
+  enter: 'OK',
+  back: 'Back',
+}
 
 /** Settings that the keypad edits, with the value to show. */
 export interface KeypadValues {
@@ -182,4 +198,20 @@ export function locateSetting(key: SettingKey): { group: number; item: number } 
     if (item >= 0) return { group: g, item }
   }
   return null
+}
+
+/**
+ * The menu after one attempt event, given the model state just after it: a key press moves the menu
+ * while the display is lit (and may ask for setting events), and the drive powering up shows the
+ * status screen. The live panel and the replay both fold the log through this, so a replay shows the
+ * keypad as it was.
+ */
+export function menuAfterEvent(
+  menu: KeypadMenu,
+  event: AttemptEvent,
+  after: SimState,
+): { menu: KeypadMenu; output: KeypadOutput[] } {
+  if (event.type === 'power.on') return { menu: STATUS_SCREEN, output: [] }
+  if (event.type !== 'keypad.key' || !readDrive(after).displayOn) return { menu, output: [] }
+  return pressKey(menu, event.key, { active: after.settings.active, pending: after.settings.pending })
 }

@@ -7,6 +7,8 @@ export const SCENE_WIDTH = 1280
 export const SCENE_HEIGHT = 640
 export const STRIP_Y = 410
 export const TERMINAL_RADIUS = 8
+/** Scene units; the workspace fits the panel so that these read at 11 CSS px or more on a 1366×768 screen. */
+export const TERMINAL_LABEL_SIZE = 12
 
 /** Drive control terminals in strip order, labels from the model contract. */
 export const CONTROL_TERMINALS: readonly { id: PointId; label: string; what: string }[] = [

@@ -2,8 +2,9 @@
 import { Container, Graphics, Text, type TextStyleOptions } from 'pixi.js'
 import { probeTip } from './hitTest'
 import { PALETTE as C } from './palette'
-import { TERMINAL_RADIUS } from './layout'
-import type { PanelLayout, PointId, ProbeColour, Rect, Vec } from './types'
+import { TERMINAL_LABEL_SIZE, TERMINAL_RADIUS } from './layout'
+import { PROBE_BODY, probeLead } from './probeLeads'
+import type { PanelLayout, PointId, Rect } from './types'
 import type { PanelView, StatusLamp } from './view'
 import { wireColour } from './wireColours'
 import { wireCurve } from './wireCurve'
@@ -58,6 +59,7 @@ export class PanelScene {
   private changed = false
   private rpm = 0
   private keys: Record<string, string> = {}
+  private textResolution = 0
 
   constructor(private readonly layout: PanelLayout) {
     const base = new Graphics()
@@ -162,7 +164,9 @@ export class PanelScene {
     this.when('meter', view.meterText, () => {
       this.meterText.text = view.meterText
     })
-    this.when('highlight', view.highlight ?? '', () => this.drawHighlight(view.highlight))
+    this.when('highlight', `${view.highlight}|${view.armed}`, () =>
+      this.drawHighlight(view.highlight, view.armed),
+    )
     return this.changed
   }
 
@@ -351,7 +355,9 @@ export class PanelScene {
         .stroke({ width: 1.5, color: C.screwEdge })
       const labelY = t.group === 'power' ? t.y + 22 : t.y - 22
       const fill = t.group === 'power' ? C.enclosureText : C.stripText
-      this.root.addChild(text(t.label, { fontSize: 11, fill, fontWeight: 'bold' }, t.x, labelY))
+      this.root.addChild(
+        text(t.label, { fontSize: TERMINAL_LABEL_SIZE, fill, fontWeight: 'bold' }, t.x, labelY),
+      )
     }
   }
 
@@ -372,10 +378,23 @@ export class PanelScene {
     }
     // Tags are drawn over every wire, each slid along its own curve clear of the others.
     placeWireLabels(drawn).forEach((at, i) => {
-      g.roundRect(at.x - WIRE_LABEL_WIDTH / 2, at.y - WIRE_LABEL_HEIGHT / 2, WIRE_LABEL_WIDTH, WIRE_LABEL_HEIGHT, 3)
+      g.roundRect(
+        at.x - WIRE_LABEL_WIDTH / 2,
+        at.y - WIRE_LABEL_HEIGHT / 2,
+        WIRE_LABEL_WIDTH,
+        WIRE_LABEL_HEIGHT,
+        3,
+      )
         .fill(0xffffff)
         .stroke({ width: 1, color: 0x333333 })
-      labels.push(text(drawn[i].wire.label, { fontSize: 10, fill: 0x111111, fontWeight: 'bold' }, at.x, at.y))
+      const label = text(
+        drawn[i].wire.label,
+        { fontSize: 10, fill: 0x111111, fontWeight: 'bold' },
+        at.x,
+        at.y,
+      )
+      if (this.textResolution) label.resolution = this.textResolution
+      labels.push(label)
     })
     if (view.draftWire) {
       const a = this.layout.terminals[view.draftWire.from]
@@ -474,27 +493,41 @@ export class PanelScene {
     }
   }
 
-  private drawHighlight(point: PointId | null) {
+  private drawHighlight(point: PointId | null, armed: PointId | null) {
     const g = this.highlight.clear()
     const t = point ? this.layout.terminals[point] : undefined
     if (t) g.circle(t.x, t.y, TERMINAL_RADIUS + 5).stroke({ width: 3, color: C.highlight })
+    // The first terminal of a tap-tap wire, waiting for its second: a double ring.
+    const a = armed ? this.layout.terminals[armed] : undefined
+    if (a) {
+      g.circle(a.x, a.y, TERMINAL_RADIUS + 5).stroke({ width: 3, color: C.selected })
+      g.circle(a.x, a.y, TERMINAL_RADIUS + 10).stroke({ width: 2, color: C.selected, alpha: 0.6 })
+    }
+  }
+
+  /** Text is drawn into textures; zoomed in, they need more pixels to stay sharp. */
+  setTextResolution(resolution: number) {
+    const visit = (node: Container) => {
+      for (const child of node.children) {
+        if (child instanceof Text) child.resolution = resolution
+        else if (child instanceof Container) visit(child)
+      }
+    }
+    this.textResolution = resolution
+    visit(this.root)
   }
 
   private drawProbes(view: PanelView) {
     const g = this.probes.clear()
-    const meterTop: Record<ProbeColour, Vec> = {
-      red: { x: this.layout.meter.rect.x + 60, y: this.layout.meter.rect.y + this.layout.meter.rect.h },
-      black: { x: this.layout.meter.rect.x + 130, y: this.layout.meter.rect.y + this.layout.meter.rect.h },
-    }
     for (const probe of ['red', 'black'] as const) {
       const tip =
         view.probeDrag?.probe === probe ? view.probeDrag.at : probeTip(this.layout, probe, view.probes[probe])
       const colour = probe === 'red' ? C.probeRed : C.probeBlack
-      const from = meterTop[probe]
-      g.moveTo(from.x, from.y)
-        .bezierCurveTo(from.x, from.y + 30, tip.x, Math.max(tip.y, from.y) + 40, tip.x, tip.y - 22)
-        .stroke({ width: 2, color: colour, alpha: 0.8 })
-      g.roundRect(tip.x - 5, tip.y - 24, 10, 20, 3).fill(colour)
+      const [first, ...rest] = probeLead(this.layout, probe, tip)
+      g.moveTo(first.x, first.y)
+      for (const p of rest) g.lineTo(p.x, p.y)
+      g.stroke({ width: 2, color: colour, alpha: 0.8, join: 'round' })
+      g.roundRect(tip.x - 5, tip.y - PROBE_BODY, 10, PROBE_BODY - 4, 3).fill(colour)
       g.moveTo(tip.x, tip.y - 4)
         .lineTo(tip.x, tip.y)
         .stroke({ width: 2, color: 0x999999 })

@@ -34,6 +34,8 @@ export interface PanelView {
   meterText: string
   /** Terminal under the pointer or focused by keyboard, highlighted. */
   highlight: PointId | null
+  /** First terminal of a wire drawn tap by tap, waiting for the second. */
+  armed: PointId | null
 }
 
 export function emptyView(): PanelView {
@@ -53,5 +55,6 @@ export function emptyView(): PanelView {
     probeDrag: null,
     meterText: '---',
     highlight: null,
+    armed: null,
   }
 }

@@ -93,7 +93,10 @@ export function createAttemptStore(key: string, storage: Storage = window.localS
       const old = wholeLogSchema.safeParse(value)
       if (old.success) {
         header = null
-        return { copy: { attemptId: old.data.attemptId, events: old.data.events, savedAt: old.data.savedAt }, problem: null }
+        return {
+          copy: { attemptId: old.data.attemptId, events: old.data.events, savedAt: old.data.savedAt },
+          problem: null,
+        }
       }
       const h = headerSchema.safeParse(value)
       const events = h.success ? readChunks(h.data) : null
@@ -122,15 +125,17 @@ export function createAttemptStore(key: string, storage: Storage = window.localS
       let { count, chunks } = header
       if (count === events.length && chunks > 0) return
       if (chunks === 0) chunks = 1
+      let unwritten = false
       for (let i = count; i < events.length; i++) {
         if (tail.length === CHUNK_EVENTS) {
-          // The full chunk is already written; the next one starts empty.
-          write({ version: 2, attemptId, count, chunks, savedAt: new Date().toISOString() })
+          // A full chunk is written once, then the next one starts empty.
+          if (unwritten) write({ version: 2, attemptId, count, chunks, savedAt: new Date().toISOString() })
           tail = []
           chunks++
         }
         tail.push(events[i])
         count++
+        unwritten = true
       }
       write({ version: 2, attemptId, count, chunks, savedAt: new Date().toISOString() })
     },

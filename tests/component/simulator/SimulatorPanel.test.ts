@@ -1,24 +1,55 @@
-// The whole panel mounts on the real model (Pixi mocked), records actions from its keyboard
-// controls into the attempt saved locally, and leaves no listeners behind when unmounted.
+// The whole live panel mounts on the real model and machine (Pixi mocked, the network replaced):
+// it records actions from its keyboard controls into the attempt saved in this browser, resumes it
+// after a remount, and leaves no listeners or Pixi application behind when unmounted.
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import { flushPromises, mount } from '@vue/test-utils'
 import { createPinia } from 'pinia'
 import { createVuetify } from 'vuetify'
+import { fromCallback, fromPromise } from 'xstate'
 import scenarioFile from '../../../scenarios/raise-lower-commissioning.json'
 import { scenarioSchema } from '@shared/scenario/schema'
-import { attemptStorageKey } from '@/simulator/composables/useAttemptStorage'
+import { attemptStorageKey, createAttemptStore } from '@/simulator/storage/attemptStore'
 import { pixiState, resetPixiState } from './pixiMock'
 
 vi.mock('pixi.js', () => import('./pixiMock'))
 vi.mock('pixi.js/unsafe-eval', () => ({}))
 
-const { default: SimulatorPanel } = await import('@/simulator/components/SimulatorPanel.vue')
 const scenario = scenarioSchema.parse(scenarioFile)
-const key = attemptStorageKey(scenario.id)
+const key = attemptStorageKey('version-1')
+
+// The app's actors without the network: the scenario is at hand, the browser copy is real.
+vi.mock('@/simulator/services', () => ({
+  liveAttemptActors: () => ({
+    loadStart: fromPromise(async () => {
+      const store = createAttemptStore(key)
+      const local = store.load()
+      return {
+        scenario,
+        scenarioTitle: scenario.title,
+        scenarioVersionId: 'version-1',
+        assignment: null,
+        store,
+        browser: local.copy ? { source: 'browser', ...local.copy } : null,
+        server: null,
+        problem: local.problem,
+      }
+    }),
+    loadServerCopy: fromPromise(async () => Promise.reject(new Error('offline'))),
+    saveProgress: fromPromise(async () => Promise.reject(new Error('offline'))),
+    submitAttempt: fromPromise(async () => Promise.reject(new Error('offline'))),
+    liveGrading: fromCallback(() => () => {}),
+  }),
+  replayActors: () => ({}),
+}))
+
+const { default: SimulatorPanel } = await import('@/simulator/components/SimulatorPanel.vue')
 
 function mountPanel() {
   return mount(SimulatorPanel, {
-    props: { scenario, mode: 'practice' },
+    props: {
+      request: { kind: 'live', target: { mode: 'practice', scenarioKey: scenario.id } },
+      tourReady: false,
+    },
     global: { plugins: [createVuetify(), createPinia()] },
     attachTo: document.body,
   })
@@ -27,7 +58,11 @@ function mountPanel() {
 async function settle() {
   await new Promise((r) => setTimeout(r, 30))
   await flushPromises()
+  await new Promise((r) => setTimeout(r, 30))
+  await flushPromises()
 }
+
+const saved = () => createAttemptStore(key).load().copy
 
 describe('the simulator panel', () => {
   beforeEach(() => {
@@ -40,8 +75,7 @@ describe('the simulator panel', () => {
     const wrapper = mountPanel()
     await settle()
     await wrapper.get('[data-testid="control-lock"]').trigger('click')
-    const saved = JSON.parse(localStorage.getItem(key) ?? 'null')
-    expect(saved.events.map((e: { type: string }) => e.type)).toEqual(['lock.removed'])
+    expect(saved()?.events.map((e) => e.type)).toEqual(['lock.removed'])
     wrapper.unmount()
   })
 
@@ -49,13 +83,13 @@ describe('the simulator panel', () => {
     const first = mountPanel()
     await settle()
     await first.get('[data-testid="control-lock"]').trigger('click')
-    const id = JSON.parse(localStorage.getItem(key)!).attemptId
+    const id = saved()?.attemptId
     first.unmount()
     const second = mountPanel()
     await settle()
-    expect(second.text()).toContain('Resumed the attempt saved in this browser (1 actions)')
+    expect(document.body.textContent).toContain('Resumed the attempt saved in this browser (1 action)')
     expect(second.get('[data-testid="control-lock"]').text()).toContain('Apply my lock')
-    expect(JSON.parse(localStorage.getItem(key)!).attemptId).toBe(id)
+    expect(saved()?.attemptId).toBe(id)
     second.unmount()
   })
 
@@ -80,5 +114,5 @@ describe('the simulator panel', () => {
     expect(pixiState.callbacks.size).toBe(0)
     added.mockRestore()
     removed.mockRestore()
-  })
+  }, 30_000)
 })

@@ -1,7 +1,13 @@
 // The keypad menu: browse settings by group, edit within range, save with OK.
 import { describe, expect, it } from 'vitest'
 import { DEFAULT_SETTINGS, SETTING_GROUPS, settingDef } from '@shared/model/settings'
-import { locateSetting, menuLines, pressKey, STATUS_SCREEN, type KeypadMenu } from '@/simulator/scene/keypadMenu'
+import {
+  locateSetting,
+  menuLines,
+  pressKey,
+  STATUS_SCREEN,
+  type KeypadMenu,
+} from '@/simulator/scene/keypadMenu'
 import type { KeypadKey } from '@/simulator/scene/types'
 
 const values = { active: DEFAULT_SETTINGS, pending: {} }

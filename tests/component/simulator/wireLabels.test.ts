@@ -4,7 +4,12 @@ import { describe, expect, it } from 'vitest'
 import { layoutPanel } from '@/simulator/scene/layout'
 import type { PanelDevice, Vec } from '@/simulator/scene/types'
 import { distanceToCubic, pointOnCubic, wireCurve, type Cubic } from '@/simulator/scene/wireCurve'
-import { placeWireLabels, preferredT, WIRE_LABEL_HEIGHT, WIRE_LABEL_WIDTH } from '@/simulator/scene/wireLabels'
+import {
+  placeWireLabels,
+  preferredT,
+  WIRE_LABEL_HEIGHT,
+  WIRE_LABEL_WIDTH,
+} from '@/simulator/scene/wireLabels'
 
 const devices: PanelDevice[] = [
   { id: 'runSwitch', kind: 'selector', label: 'Infeed run / stop', contact: 'NO' },
