@@ -15,13 +15,13 @@ import {
 import { createCircuitCache } from '../scene/circuitCache'
 import { deriveView } from '../scene/deriveView'
 import { stateWord } from '../scene/driveDisplay'
-import { eventWords, wireName } from '../scene/eventWords'
+import { eventWords } from '../scene/eventWords'
 import { actionsFor, nextWireId } from '../scene/intentActions'
 import type { Intent } from '../scene/interaction'
 import { layoutPanel } from '../scene/layout'
 import { createSimClock } from '../scene/simClock'
 import { emptyView, type PanelView } from '../scene/view'
-import { DEFAULT_WIRE_COLOUR } from '../scene/wireColours'
+import { DEFAULT_WIRE_COLOUR, wireLabel } from '../scene/wireColours'
 import { liveAttemptActors } from '../services'
 import type { StageOverlay } from '../components/PanelStage.vue'
 import type { TrendPoint } from '../components/PanelTrendChart.vue'
@@ -139,7 +139,11 @@ export function useLiveAttempt(target: LiveTarget) {
     const title = (id: string) => layout.value?.terminals[id]?.title ?? 'a terminal'
     if (i.type === 'wire.select') {
       ui.selectedWire = i.wire
-      if (i.wire) announce(`Wire ${wireName(i.wire)} selected. Press Delete to remove it.`)
+      const index = sim.wires.findIndex((w) => w.id === i.wire)
+      if (index >= 0) {
+        const w = sim.wires[index]
+        announce(`Wire ${wireLabel(w.id, w.colour, index)} selected. Press Delete to remove it.`)
+      }
       return
     }
     if (i.type === 'wire.start') {

@@ -91,6 +91,7 @@ export type LiveAttemptEvent =
   | { type: 'TICK'; t: number }
   | { type: 'CHOOSE'; choice: number }
   | { type: 'SUBMIT' }
+  | { type: 'SAVE_NOW' }
   | { type: 'START_AGAIN' }
   | { type: 'CONFIRM' }
   | { type: 'CANCEL' }
@@ -241,7 +242,11 @@ export const liveAttemptMachine = setup({
       ...begin(context, [], context.newAttemptId(), false),
       notice: 'A new attempt has started.',
     })),
-    saveLocally: ({ context }) => context.start?.store.append(context.attemptId, context.log),
+    /** After (re)starting from a copy: the browser holds exactly that copy, whatever it held before. */
+    replaceLocalCopy: ({ context }) => {
+      context.start?.store.clear()
+      context.start?.store.append(context.attemptId, context.log)
+    },
     forgetLocalCopy: ({ context }) => context.start?.store.clear(),
     continueAsNewAttempt: assign(({ context }) => ({
       ...begin(context, context.log, context.newAttemptId(), false),
@@ -351,10 +356,10 @@ export const liveAttemptMachine = setup({
     deciding: {
       always: [
         { guard: 'mustAsk', target: 'choosing' },
-        { target: 'live', actions: ['beginFromDecision', 'saveLocally'] },
+        { target: 'live', actions: ['beginFromDecision', 'replaceLocalCopy'] },
       ],
     },
-    choosing: { on: { CHOOSE: { target: 'live', actions: ['beginFromChoice', 'saveLocally'] } } },
+    choosing: { on: { CHOOSE: { target: 'live', actions: ['beginFromChoice', 'replaceLocalCopy'] } } },
     live: {
       type: 'parallel',
       invoke: {
@@ -386,7 +391,7 @@ export const liveAttemptMachine = setup({
                 CONFIRM: {
                   target: '#liveAttempt.live',
                   reenter: true,
-                  actions: ['forgetLocalCopy', 'startAfresh', 'saveLocally'],
+                  actions: ['startAfresh', 'replaceLocalCopy'],
                 },
                 CANCEL: 'closed',
               },
@@ -403,6 +408,8 @@ export const liveAttemptMachine = setup({
                   { target: 'waiting', reenter: true },
                 ],
               },
+              // Before moving to another computer, say.
+              on: { SAVE_NOW: { guard: 'hasUnsavedEvents', target: 'saving' } },
             },
             saving: {
               invoke: {
@@ -460,19 +467,21 @@ export const liveAttemptMachine = setup({
     conflict: {
       on: {
         LOAD_SERVER_COPY: 'reloading',
-        KEEP_AS_NEW: { target: 'live', actions: ['continueAsNewAttempt', 'saveLocally'] },
+        KEEP_AS_NEW: { target: 'live', actions: ['continueAsNewAttempt', 'replaceLocalCopy'] },
       },
     },
     reloading: {
       invoke: {
         src: 'loadServerCopy',
         input: ({ context }) => ({ attemptId: context.attemptId }),
-        onDone: { target: 'live', actions: ['beginFromServerCopy', 'saveLocally'] },
+        onDone: { target: 'live', actions: ['beginFromServerCopy', 'replaceLocalCopy'] },
         onError: { target: 'conflict', actions: 'noteConflict' },
       },
     },
     submitted: {
-      on: { START_AGAIN: { guard: 'isPractice', target: 'live', actions: ['startAfresh', 'saveLocally'] } },
+      on: {
+        START_AGAIN: { guard: 'isPractice', target: 'live', actions: ['startAfresh', 'replaceLocalCopy'] },
+      },
     },
   },
 })

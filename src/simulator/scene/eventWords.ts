@@ -6,10 +6,10 @@ import { formatSettingValue, KEY_NAMES } from './keypadMenu'
 import type { PanelLayout, PointId } from './types'
 import { wireColour } from './wireColours'
 
-/** "W4" for the wire the model calls w4 (the panel's marker sleeve without the colour code). */
+/** "Wire W4" for the wire the model calls w4 (its marker sleeve without the colour code), else "A wire". */
 export function wireName(id: string): string {
   const digits = /(\d+)$/.exec(id)?.[1]
-  return digits ? `W${digits}` : 'a wire'
+  return digits ? `Wire W${digits}` : 'A wire'
 }
 
 export function eventWords(event: AttemptEvent, layout: PanelLayout): string {
@@ -18,9 +18,9 @@ export function eventWords(event: AttemptEvent, layout: PanelLayout): string {
   const device = (id: string) => layout.devices.find((d) => d.id === id)?.label ?? 'a device'
   switch (event.type) {
     case 'wire.added':
-      return `Wire ${wireName(event.id)} ${wireColour(event.colour).code} added from ${point(event.from)} to ${point(event.to)}`
+      return `${wireName(event.id)} ${wireColour(event.colour).code} added from ${point(event.from)} to ${point(event.to)}`
     case 'wire.removed':
-      return `Wire ${wireName(event.id)} removed`
+      return `${wireName(event.id)} removed`
     case 'device.pressed':
       return `${device(event.device)} pressed`
     case 'device.released':

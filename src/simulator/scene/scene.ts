@@ -35,8 +35,13 @@ function box(g: Graphics, r: Rect, fill: number, edge: number, radius = 8) {
   g.roundRect(r.x, r.y, r.w, r.h, radius).fill(fill).stroke({ width: 2, color: edge })
 }
 
+/** Above this texture resolution the still parts are drawn as vectors each frame instead of cached. */
+const MAX_CACHE_RESOLUTION = 2.5
+
 export class PanelScene {
   readonly root = new Container()
+  /** What never changes (enclosures, printing, terminals): drawn once into a texture and reused. */
+  private readonly staticLayer = new Container()
   private readonly wires = new Container()
   private readonly devices = new Graphics()
   private readonly disconnectHandle = new Container()
@@ -63,7 +68,8 @@ export class PanelScene {
 
   constructor(private readonly layout: PanelLayout) {
     const base = new Graphics()
-    this.root.addChild(base)
+    this.root.addChild(this.staticLayer)
+    this.staticLayer.addChild(base)
     this.drawBackplate(base)
     this.drawDrive(base)
     this.drawStation(base)
@@ -196,13 +202,15 @@ export class PanelScene {
     g.stroke({ width: 1, color: C.backplateLine, alpha: 0.6 })
     const w = this.layout.wireway
     g.roundRect(w.x, w.y, w.w, w.h, 6).stroke({ width: 1, color: C.stationEdge, alpha: 0.4 })
-    this.root.addChild(text('wireway', { fontSize: 11, fill: C.muted }, w.x + w.w - 30, w.y + w.h - 10))
+    this.staticLayer.addChild(
+      text('wireway', { fontSize: 11, fill: C.muted }, w.x + w.w - 30, w.y + w.h - 10),
+    )
   }
 
   private drawDrive(g: Graphics) {
     const { rect, display, keys, controlStrip, powerStrip } = this.layout.drive
     box(g, rect, C.enclosure, C.enclosureEdge, 12)
-    this.root.addChild(
+    this.staticLayer.addChild(
       text('VARIABLE-FREQUENCY DRIVE  ·  bench unit VF-2', { fontSize: 13, fill: C.enclosureText }, 480, 90),
     )
     g.roundRect(powerStrip.x, powerStrip.y, powerStrip.w, powerStrip.h, 4).fill(C.strip)
@@ -211,7 +219,7 @@ export class PanelScene {
     for (const k of keys) {
       const fill = k.key === 'run' ? 0x3f7d58 : k.key === 'stop' ? 0x9a3b3b : C.key
       box(g, k.rect, fill, C.enclosureEdge, 6)
-      this.root.addChild(
+      this.staticLayer.addChild(
         text(
           k.label,
           { fontSize: 13, fill: C.keyText, fontWeight: 'bold' },
@@ -227,9 +235,9 @@ export class PanelScene {
       style: { fontFamily: FONT, fontSize: 11, fill: C.cautionText, lineHeight: 15 },
     })
     caution.position.set(262, 274)
-    this.root.addChild(caution)
-    this.root.addChild(text('CHARGE', { fontSize: 10, fill: C.enclosureText }, 610, 250))
-    this.root.addChild(
+    this.staticLayer.addChild(caution)
+    this.staticLayer.addChild(text('CHARGE', { fontSize: 10, fill: C.enclosureText }, 610, 250))
+    this.staticLayer.addChild(
       text('STATUS', { fontSize: 10, fill: C.enclosureText }, this.layout.drive.statusLamp.x, 234),
     )
   }
@@ -237,7 +245,7 @@ export class PanelScene {
   private drawStation(g: Graphics) {
     const s = this.layout.station
     box(g, s, C.station, C.stationEdge, 10)
-    this.root.addChild(
+    this.staticLayer.addChild(
       text('CONTROL STATION', { fontSize: 13, fill: C.text, fontWeight: 'bold' }, s.x + s.w / 2, s.y + 16),
     )
     g.roundRect(s.x + 8, 372, s.w - 16, 56, 4).fill(C.strip)
@@ -246,14 +254,16 @@ export class PanelScene {
       g.circle(x, y, r + 8)
         .fill(0xb9c0c7)
         .stroke({ width: 2, color: C.stationEdge })
-      this.root.addChild(text(d.label, { fontSize: 12, fill: C.text, fontWeight: 'bold' }, x, y + r + 18))
+      this.staticLayer.addChild(
+        text(d.label, { fontSize: 12, fill: C.text, fontWeight: 'bold' }, x, y + r + 18),
+      )
       // The device's name over its terminal group on the strip.
       const first = this.layout.terminals[d.terminals[0]]
       const last = this.layout.terminals[d.terminals[d.terminals.length - 1]]
       g.moveTo(first.x - 6, 370)
         .lineTo(last.x + 6, 370)
         .stroke({ width: 1, color: C.text })
-      this.root.addChild(
+      this.staticLayer.addChild(
         text(shortName(d.label), { fontSize: 10, fill: C.text }, (first.x + last.x) / 2, 361),
       )
     }
@@ -263,7 +273,7 @@ export class PanelScene {
     const { rect, lock, handle } = this.layout.disconnect
     box(g, rect, 0xd0d5da, C.stationEdge, 10)
     g.circle(handle.x + handle.w / 2, handle.y + handle.h / 2, handle.w / 2).fill(0x2b2b2b)
-    this.root.addChild(
+    this.staticLayer.addChild(
       text(
         'SUPPLY DISCONNECT',
         { fontSize: 12, fill: C.text, fontWeight: 'bold' },
@@ -272,7 +282,7 @@ export class PanelScene {
       ),
     )
     g.roundRect(lock.x, lock.y, lock.w, lock.h, 4).stroke({ width: 2, color: C.muted })
-    this.root.addChild(
+    this.staticLayer.addChild(
       text('lock point', { fontSize: 10, fill: C.muted }, lock.x + lock.w / 2, lock.y + lock.h + 10),
     )
   }
@@ -280,7 +290,7 @@ export class PanelScene {
   private drawMotor(g: Graphics) {
     const { rect, shaft, shaftRadius, nameplate } = this.layout.motor
     box(g, rect, 0xdde2e6, C.stationEdge, 10)
-    this.root.addChild(
+    this.staticLayer.addChild(
       text(
         'MOTOR (drive end)',
         { fontSize: 12, fill: C.text, fontWeight: 'bold' },
@@ -291,7 +301,7 @@ export class PanelScene {
     g.circle(shaft.x, shaft.y, shaftRadius + 14).fill(C.motorDark)
     g.circle(shaft.x, shaft.y, shaftRadius).fill(C.motor)
     box(g, nameplate, C.nameplate, 0x8d8471, 4)
-    this.root.addChild(
+    this.staticLayer.addChild(
       text(
         'NAMEPLATE',
         { fontSize: 10, fill: C.muted, fontWeight: 'bold' },
@@ -321,7 +331,7 @@ export class PanelScene {
   private drawMeter(g: Graphics) {
     const { rect, display, holsters } = this.layout.meter
     box(g, rect, C.meterBody, 0x7a5a12, 14)
-    this.root.addChild(
+    this.staticLayer.addChild(
       text(
         'MULTIMETER  V DC',
         { fontSize: 12, fill: C.text, fontWeight: 'bold' },
@@ -330,7 +340,7 @@ export class PanelScene {
       ),
     )
     box(g, display, C.meterDisplay, 0x333333, 4)
-    this.root.addChild(
+    this.staticLayer.addChild(
       text(
         'Drag a probe onto any\nterminal; drop it here\nto lift it.',
         { fontSize: 11, fill: C.text, align: 'center' },
@@ -341,7 +351,7 @@ export class PanelScene {
     for (const probe of ['red', 'black'] as const) {
       const h = holsters[probe]
       g.circle(h.x, h.y + 18, 9).fill(probe === 'red' ? C.probeRed : C.probeBlack)
-      this.root.addChild(
+      this.staticLayer.addChild(
         text(probe === 'red' ? 'V+ (red)' : 'COM (black)', { fontSize: 10, fill: C.text }, h.x, h.y + 36),
       )
     }
@@ -355,7 +365,7 @@ export class PanelScene {
         .stroke({ width: 1.5, color: C.screwEdge })
       const labelY = t.group === 'power' ? t.y + 22 : t.y - 22
       const fill = t.group === 'power' ? C.enclosureText : C.stripText
-      this.root.addChild(
+      this.staticLayer.addChild(
         text(t.label, { fontSize: TERMINAL_LABEL_SIZE, fill, fontWeight: 'bold' }, t.x, labelY),
       )
     }
@@ -515,6 +525,13 @@ export class PanelScene {
     }
     this.textResolution = resolution
     visit(this.root)
+    // Redrawing the still parts every frame costs a software renderer most of its time.
+    if (resolution <= MAX_CACHE_RESOLUTION) {
+      this.staticLayer.cacheAsTexture({ resolution, antialias: true })
+      this.staticLayer.updateCacheTexture()
+    } else {
+      this.staticLayer.cacheAsTexture(false)
+    }
   }
 
   private drawProbes(view: PanelView) {

@@ -27,6 +27,7 @@ interface Setup {
   submit?: (body: SubmitAttemptRequest) => Promise<AttemptSummary>
   serverCopy?: AttemptCopy
   grading?: ReturnType<typeof liveGradingActor>
+  autosave?: number
 }
 
 function start(options: Setup = {}) {
@@ -59,7 +60,7 @@ function start(options: Setup = {}) {
       }),
       liveGrading: options.grading ?? quietGrading,
     },
-    delays: { autosave: 20, regrade: 60_000, retry: 1 },
+    delays: { autosave: options.autosave ?? 20, regrade: 60_000, retry: 1 },
   })
   const actor = createActor(machine, {
     input: { target: options.target ?? practice, newAttemptId: () => `new-${++ids}` },
@@ -273,18 +274,34 @@ describe('saving on the server, and two computers on one attempt', () => {
     expect(sent[0]).toMatchObject({ id: 'new-1', status: 'inProgress', scenarioId: 'version-1' })
   })
 
+  it('saves at once when asked (before moving to another computer)', async () => {
+    const { actor, sent } = start({
+      save: async (b) => summary({ id: b.id, eventCount: b.events.length }),
+      autosave: 60_000,
+    })
+    await waitFor(actor, (s) => s.matches('live'))
+    actor.send({ type: 'SAVE_NOW' })
+    expect(sent).toEqual([]) // nothing new to save
+    actor.send({ type: 'RECORD', action: { type: 'lock.removed' }, t: 100 })
+    actor.send({ type: 'SAVE_NOW' })
+    expect(sent).toHaveLength(1)
+  })
+
   it('offers the newer copy when the server holds actions this copy lacks, and loads it', async () => {
-    const { actor } = start({
+    const { actor, store } = start({
       save: async () => Promise.reject(failure(409, 'attempt_diverged')),
       serverCopy: copy('server', 'new-1', [unlock, powerOn]),
     })
     await waitFor(actor, (s) => s.matches('live'))
     actor.send({ type: 'RECORD', action: { type: 'lock.removed' }, t: 300 })
+    actor.send({ type: 'RECORD', action: { type: 'lock.applied' }, t: 400 })
     await waitFor(actor, (s) => s.matches('conflict'))
     actor.send({ type: 'LOAD_SERVER_COPY' })
     await waitFor(actor, (s) => s.matches('live'))
     expect(actor.getSnapshot().context.log).toEqual([unlock, powerOn])
     expect(actor.getSnapshot().context.serverSaved).toBe(2)
+    // The browser now keeps the newer copy, not a mix of both.
+    expect(store.load().copy?.events).toEqual([unlock, powerOn])
   })
 
   it('or keeps this copy as a new attempt', async () => {

@@ -28,7 +28,7 @@ export interface BrowserSession {
 }
 
 export async function launchBrowser(
-  options: { width?: number; height?: number; colorScheme?: 'light' | 'dark' } = {},
+  options: { width?: number; height?: number; colorScheme?: 'light' | 'dark'; hasTouch?: boolean } = {},
 ): Promise<BrowserSession> {
   const profile = mkdtempSync(join(tmpdir(), 'slipway-chromium-'))
   const context = await chromium.launchPersistentContext(profile, {
@@ -37,6 +37,7 @@ export async function launchBrowser(
     args: CHROMIUM_ARGS,
     viewport: { width: options.width ?? 1366, height: options.height ?? 900 },
     colorScheme: options.colorScheme ?? 'light',
+    hasTouch: options.hasTouch ?? false,
   })
   const page = context.pages()[0] ?? (await context.newPage())
   return {
