@@ -176,7 +176,13 @@ export function useLiveAttempt(target: LiveTarget) {
       const { log, sim, epoch } = actor.getSnapshot().context
       if (epoch !== oldEpoch) announced = length
       if (length <= announced || !layout.value) return
-      const words = log.slice(announced, length).map((e) => eventWords(e, layout.value!))
+      // Wire markers as the panel prints them now (a removed wire by its id).
+      const marker = (e: (typeof log)[number]) => {
+        if (e.type !== 'wire.added' || !sim) return undefined
+        const at = sim.wires.findIndex((w) => w.id === e.id)
+        return at >= 0 ? wireLabel(sim.wires[at].id, sim.wires[at].colour, at) : undefined
+      }
+      const words = log.slice(announced, length).map((e) => eventWords(e, layout.value!, marker(e)))
       announced = length
       const messages = sim?.messages.map((m) => m.text) ?? []
       announce([...words, ...messages].join('. '))

@@ -12,15 +12,19 @@ export function wireName(id: string): string {
   return digits ? `Wire W${digits}` : 'A wire'
 }
 
-export function eventWords(event: AttemptEvent, layout: PanelLayout): string {
+/**
+ * `wireMarker`: the marker the panel prints on the event's wire ("W3 BU", see wireLabel), when the caller
+ * knows where the wire stands among the others; otherwise it is read from the wire's id.
+ */
+export function eventWords(event: AttemptEvent, layout: PanelLayout, wireMarker?: string): string {
   const point = (id: PointId | null) =>
     id ? (layout.terminals[id]?.title ?? 'an unknown point') : 'the meter'
   const device = (id: string) => layout.devices.find((d) => d.id === id)?.label ?? 'a device'
   switch (event.type) {
     case 'wire.added':
-      return `${wireName(event.id)} ${wireColour(event.colour).code} added from ${point(event.from)} to ${point(event.to)}`
+      return `${wireMarker ? `Wire ${wireMarker}` : `${wireName(event.id)} ${wireColour(event.colour).code}`} added from ${point(event.from)} to ${point(event.to)}`
     case 'wire.removed':
-      return `${wireName(event.id)} removed`
+      return `${wireMarker ? `Wire ${wireMarker}` : wireName(event.id)} removed`
     case 'device.pressed':
       return `${device(event.device)} pressed`
     case 'device.released':

@@ -110,9 +110,11 @@ describe('the replay', () => {
 
   it('marks the timeline in plain words, in time order', () => {
     const data = prepareReplay({ attempt: attempt(mistakeLog), scenario })
-    const marks = replayMarks(data.events, data.graded, layoutPanel(scenario.start.devices))
+    const marks = replayMarks(data.events, data.timeline, data.graded, layoutPanel(scenario.start.devices))
     expect(marks.map((m) => m.t)).toEqual([...marks.map((m) => m.t)].sort((a, b) => a - b))
     expect(marks.some((m) => m.label === 'Meter probes on L1 and L2')).toBe(true)
+    // Wires named by the marker the panel printed on them, whatever the wire's id.
+    expect(marks.some((m) => m.label === 'Wire W3 BU added from Infeed run / stop 14 to DI1')).toBe(true)
     expect(marks.some((m) => m.kind === 'objective' && m.label.startsWith('Objective met: '))).toBe(true)
     for (const m of marks) expect(m.label).not.toMatch(/\b(wire|meter|device|setting)\.[a-z]+/i)
   })
