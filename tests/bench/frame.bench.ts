@@ -110,7 +110,6 @@ export async function measureFrames(): Promise<FrameFigures> {
     )
     await page.goto(`${server.url}/simulator/raise-lower-commissioning?perf`)
     await dismissSafetyNotice(page)
-    await skipTour(page)
     // Functions, not strings: the page's CSP (no 'unsafe-eval') refuses string evaluation, as it should.
     await page.waitForFunction(
       () => Array.isArray((globalThis as unknown as PageGlobals).__slipwayFrameTimes),
@@ -127,6 +126,7 @@ export async function measureFrames(): Promise<FrameFigures> {
       if (Date.now() > deadline) throw new Error(`the motor is not running: ${await label()}`)
       await new Promise((r) => setTimeout(r, 250))
     }
+    await skipTour(page)
     await page.evaluate(() => ((globalThis as unknown as PageGlobals).__slipwayFrameTimes = []))
     await page.waitForFunction(
       (frames) => ((globalThis as unknown as PageGlobals).__slipwayFrameTimes?.length ?? 0) >= frames,

@@ -71,7 +71,6 @@ export async function openSignedIn(
   page.on('pageerror', (e) => pageErrors.push(e.message))
   await page.goto(`${url}/simulator/${scenarioKey}${query}`)
   await dismissSafetyNotice(page)
-  await skipTour(page)
   const { start } = scenarioFile(scenarioKey)
   const panel = new PanelDriver(page, start.devices, start.wires)
   try {
@@ -79,6 +78,8 @@ export async function openSignedIn(
   } catch (e) {
     throw new Error(`${(e as Error).message}\npage errors: ${pageErrors.join('\n') || 'none'}`)
   }
+  // The tour opens with the panel, on the first run in this browser.
+  await skipTour(page)
   return { page, panel, pageErrors }
 }
 

@@ -54,9 +54,9 @@ describe('an attempt on two computers', () => {
       await expect(offer.textContent()).resolves.toMatch(/1 action, saved on the server/)
       await screenshot(page, 'panel-resume-02-phone-offer')
       await page.getByTestId('resume-choice-0').click()
-      await skipTour(page)
       const panel = new PanelDriver(page, scenarioFile(SCENARIO).start.devices)
       await panel.ready()
+      await skipTour(page)
       expect(await panel.state.isolation()).toBe('disconnect off')
       await expect(page.getByText(/made for a screen at least 768 px wide/).count()).resolves.toBe(1)
 

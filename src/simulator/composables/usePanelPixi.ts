@@ -20,6 +20,8 @@ declare global {
 /** Text textures are redrawn for the new zoom once zooming has paused this long. */
 const TEXT_SETTLE_MS = 150
 const MAX_TEXT_RESOLUTION = 6
+/** A draw slower than this (software rendering) spaces out redraws of the turning shaft. */
+const SLOW_DRAW_MS = 40
 
 export function usePanelPixi(
   canvas: Ref<HTMLCanvasElement | null>,
@@ -111,13 +113,25 @@ export function usePanelPixi(
     // Draw only frames that changed: an idle panel costs nothing (and SwiftShader stays responsive).
     created.ticker.remove(created.render, created)
     let needsRender = true
+    let lastDrawn = 0
+    let drawCost = 0
+    let measureNext = false
     callbacks.push({
       fn: (ticker) => {
+        // The frame after a draw took about what the draw cost (rasterising included).
+        if (measureNext) drawCost = ticker.deltaMS
+        measureNext = false
         const changed = drawn.update(frame(ticker.deltaMS))
         const turned = drawn.tick(ticker.deltaMS)
-        if (changed || turned || needsRender) {
+        // A software renderer may take a tenth of a second per frame: then the turning shaft alone is
+        // redrawn less often, so the page keeps answering; any other change is still drawn at once.
+        const now = performance.now()
+        const shaftDue = turned && now - lastDrawn >= (drawCost > SLOW_DRAW_MS ? drawCost * 3 : 0)
+        if (changed || shaftDue || needsRender) {
           needsRender = false
           created.render()
+          lastDrawn = now
+          measureNext = true
         }
       },
       priority: UPDATE_PRIORITY.NORMAL,
