@@ -41,8 +41,20 @@ const START_NEW: StartChoice = {
   asNewAttempt: true,
 }
 
-export function chooseStart(browser: AttemptCopy | null, server: AttemptCopy | null): StartDecision {
+/** `asked`: the attempt a "Resume" link named; its server copy is taken without asking again. */
+export function chooseStart(
+  browser: AttemptCopy | null,
+  server: AttemptCopy | null,
+  asked?: string,
+): StartDecision {
   if (!browser && !server) return { kind: 'fresh' }
+  if (!browser && server && server.attemptId === asked) {
+    return {
+      kind: 'resume',
+      copy: server,
+      notice: `Resumed the attempt saved on the server (${actions(server.events.length)}).`,
+    }
+  }
   if (browser && !server) {
     return {
       kind: 'resume',

@@ -212,13 +212,12 @@ export const liveAttemptMachine = setup({
     submittedElsewhere: ({ event }) => (event as { output?: AttemptSummary }).output?.status === 'submitted',
   },
   actions: {
-    acceptStart: assign(({ event }) => {
+    acceptStart: assign(({ context, event }) => {
       const start = (event as unknown as { output: LiveStart }).output
       return {
         start,
         setup: toSimulationSetup(start.scenario),
-        decision: chooseStart(start.browser, start.server),
-        problem: start.problem,
+        decision: chooseStart(start.browser, start.server, context.target.attemptId),
       }
     }),
     noteLoadError: assign(({ event }) => ({

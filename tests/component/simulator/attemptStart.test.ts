@@ -38,6 +38,12 @@ describe('where an attempt continues', () => {
     expect(d.kind === 'ask' && d.choices.map((c) => c.copy?.attemptId ?? 'new')).toEqual(['a', 'b', 'new'])
   })
 
+  it('resumes the server’s copy without asking when a Resume link named it', () => {
+    const s = copy('server', 's', [2, 4])
+    expect(chooseStart(null, s, 's')).toMatchObject({ kind: 'resume', copy: s })
+    expect(chooseStart(null, s, 'other').kind).toBe('ask')
+  })
+
   it('says how many actions each copy holds and where it was saved', () => {
     const d = chooseStart(null, copy('server', 's', [2, 4, 6]))
     expect(d.kind === 'ask' && d.choices[0].detail).toMatch(/^3 actions, saved on the server /)
