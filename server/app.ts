@@ -1,32 +1,34 @@
 // createApp(deps): the whole Express app (API, and the built client in production) without listening.
 import { existsSync } from 'node:fs'
 import { join } from 'node:path'
-import { fileURLToPath } from 'node:url'
 import cookieParser from 'cookie-parser'
 import express, { type Express } from 'express'
 import helmet from 'helmet'
-import { pino, type Logger } from 'pino'
-import { pinoHttp } from 'pino-http'
 import type { DataSource } from 'typeorm'
+import { adminRouter } from './admin/admin.router'
+import { assignmentsRouter } from './assignments/assignments.router'
+import { attemptsRouter } from './attempts/attempts.router'
+import { authRouter } from './auth/auth.router'
+import { cohortsRouter } from './cohorts/cohorts.router'
 import type { AppConfig } from './config'
 import type { AppContext } from './context'
+import { createGradebookCache } from './gradebook/gradebook-cache'
+import { gradebookRouter } from './gradebook/gradebook.router'
+import { healthRouter } from './health/health.router'
+import { createGradingPool, type GradingPool } from './infrastructure/grading/grading-pool'
+import { createLifecycle, type Lifecycle } from './infrastructure/http/lifecycle'
+import { requestContext } from './infrastructure/http/request-context'
+import { createLogger, requestLogger, type Logger } from './infrastructure/logging'
+import { createMetrics, type Metrics } from './infrastructure/metrics'
+import { CLIENT_DIR } from './infrastructure/paths'
+import type { Mailer } from './infrastructure/mail/mailer'
+import { DatabaseRateLimitStore } from './infrastructure/rate-limit-store'
+import { createPasswordHasher, type PasswordHasher } from './infrastructure/security/passwords'
+import { createAccessTokens } from './infrastructure/security/tokens'
+import { invitationsRouter } from './invitations/invitations.router'
 import { apiNotFound, errorHandler } from './middleware/errors'
 import { createLimiters } from './middleware/rate-limit'
-import { adminRouter } from './routes/admin'
-import { assignmentsRouter } from './routes/assignments'
-import { attemptsRouter } from './routes/attempts'
-import { authRouter } from './routes/auth'
-import { cohortsRouter } from './routes/cohorts'
-import { gradebookRouter } from './routes/gradebook'
-import { healthRouter } from './routes/health'
-import { invitationsRouter } from './routes/invitations'
-import { scenariosRouter, scenarioVersionsRouter } from './routes/scenarios'
-import { createGradebookCache } from './services/gradebook-cache'
-import { createGradingPool, type GradingPool } from './services/grading-pool'
-import type { Mailer } from './services/mailer'
-import { createPasswordHasher, type PasswordHasher } from './services/passwords'
-import { DatabaseRateLimitStore } from './services/rate-limit-store'
-import { createAccessTokens } from './services/tokens'
+import { scenariosRouter, scenarioVersionsRouter } from './scenarios/scenarios.router'
 
 export interface AppDeps {
   dataSource: DataSource
@@ -35,16 +37,28 @@ export interface AppDeps {
   jwtSecret: string
   log?: Logger
   passwords?: PasswordHasher
-  /** Grades submissions (default: a pool of config.gradingThreads threads, closed with the app's owner). */
+  /** Reads and grades submissions (default: a pool of config.gradingThreads threads; whoever passes one closes it). */
   grading?: GradingPool
+  metrics?: Metrics
+  lifecycle?: Lifecycle
   /** Where the built client lives (default dist/client). */
   clientDir?: string
 }
 
-export const DEFAULT_CLIENT_DIR = fileURLToPath(new URL('../dist/client', import.meta.url))
+export const DEFAULT_CLIENT_DIR = CLIENT_DIR
 
 export function createApp(deps: AppDeps): Express {
-  const log = deps.log ?? pino({ level: deps.config.logLevel })
+  const log = deps.log ?? createLogger(deps.config.logLevel)
+  const metrics = deps.metrics ?? createMetrics()
+  const grading =
+    deps.grading ??
+    createGradingPool({
+      threads: deps.config.gradingThreads,
+      queueLimit: deps.config.gradingQueueLimit,
+      onTask: metrics.gradingTask,
+    })
+  metrics.watchGradingPool(grading.stats)
+  const lifecycle = deps.lifecycle ?? createLifecycle()
   const ctx: AppContext = {
     dataSource: deps.dataSource,
     config: deps.config,
@@ -60,12 +74,15 @@ export function createApp(deps: AppDeps): Express {
         : undefined,
     ),
     gradebooks: createGradebookCache(deps.dataSource),
-    grading: deps.grading ?? createGradingPool({ threads: deps.config.gradingThreads }),
+    grading,
+    metrics,
+    lifecycle,
   }
   const app = express()
   app.disable('x-powered-by')
   // Behind a reverse proxy on another host, TRUST_PROXY names it so rate limits see the client's address.
   app.set('trust proxy', deps.config.trustProxy)
+  app.use(requestContext())
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -86,29 +103,18 @@ export function createApp(deps: AppDeps): Express {
       },
     }),
   )
-  app.use(
-    pinoHttp({
-      logger: log,
-      autoLogging: { ignore: (req) => req.url === '/api/health' },
-      // Method, path and status only: no headers, so no tokens or cookies in the log.
-      serializers: {
-        req: (req: { id: unknown; method: string; url: string }) => ({
-          id: req.id,
-          method: req.method,
-          url: req.url.split('?')[0],
-        }),
-        res: (res: { statusCode: number }) => ({ statusCode: res.statusCode }),
-      },
-    }),
-  )
+  app.use(requestLogger(log))
+  app.use(metrics.httpMiddleware)
+  app.use(lifecycle.middleware)
   // Only the session routes read the refresh cookie; no other request pays for parsing cookies.
   app.use('/api/auth', cookieParser())
-  // Attempt logs and scenario documents are large; everything else stays small.
-  app.use('/api/attempts', express.json({ limit: '2mb' }))
+  // Attempt logs and scenario documents are large; everything else stays small. A submitted attempt stays
+  // bytes here: a grading thread parses and validates it (attempts.router.ts).
+  app.post('/api/attempts', express.raw({ type: 'application/json', limit: '2mb' }))
   app.use('/api/scenarios', express.json({ limit: '1mb' }))
   app.use('/api', express.json({ limit: '100kb' }))
 
-  app.use('/api/health', healthRouter(ctx))
+  app.use('/api', healthRouter(ctx))
   app.use('/api/auth', authRouter(ctx))
   app.use('/api/invitations', invitationsRouter(ctx))
   app.use('/api/admin', adminRouter(ctx))

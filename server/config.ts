@@ -1,5 +1,6 @@
 // Environment validated at boot: one typed AppConfig, with clear messages for wrong values.
 import { resolve } from 'node:path'
+import { availableParallelism } from 'node:os'
 import { z } from 'zod'
 
 const port = z.coerce.number().int().min(0).max(65535)
@@ -46,11 +47,21 @@ const envSchema = z.object({
   SERVE_CLIENT: z.enum(['true', 'false']).optional(),
   HOST: optionalText,
   GRADING_THREADS: z.coerce
-    .number({ error: 'GRADING_THREADS must be a whole number of threads (0 grades on the event loop)' })
+    .number({ error: 'GRADING_THREADS must be a whole number of threads, at least 1' })
     .int()
-    .min(0)
+    .min(1, { error: 'GRADING_THREADS must be at least 1: attempts are always graded in worker threads' })
     .max(64)
     .optional(),
+  GRADING_QUEUE_LIMIT: z.coerce
+    .number({ error: 'GRADING_QUEUE_LIMIT must be a whole number of waiting tasks' })
+    .int()
+    .min(1)
+    .max(10_000)
+    .optional(),
+  METRICS_TOKEN: optionalText.refine((value) => value === undefined || value.length >= 16, {
+    error: 'METRICS_TOKEN must be at least 16 characters',
+  }),
+  SHUTDOWN_TIMEOUT_MS: z.coerce.number().int().min(0).max(600_000).optional(),
 })
 
 export interface RateLimitRule {
@@ -101,8 +112,14 @@ export interface AppConfig {
   /** Express `trust proxy`: which hops may set X-Forwarded-For (default loopback). */
   trustProxy: boolean | number | string
   passwordHashing: PasswordHashing
-  /** Worker threads that grade submitted attempts; 0 (the default) grades on the event loop. */
+  /** Worker threads that read and grade submitted attempts (default: cores − 1, at least 1). */
   gradingThreads: number
+  /** Grading tasks allowed to wait for a thread; beyond it submissions get 503 (default 16 per thread). */
+  gradingQueueLimit: number
+  /** With a token, /api/metrics answers `Authorization: Bearer <token>` from anywhere; without, loopback only. */
+  metricsToken?: string
+  /** How long SIGTERM waits for requests in flight before closing anyway. */
+  shutdownTimeoutMs: number
   version: string
 }
 
@@ -113,6 +130,9 @@ export const DEFAULT_RATE_LIMITS: RateLimits = {
 }
 
 export class ConfigError extends Error {}
+
+/** One grading thread per core, leaving one core to the event loop; at least one. */
+export const defaultGradingThreads = () => Math.max(1, availableParallelism() - 1)
 
 /** TRUST_PROXY as Express reads it: true/false, a hop count, or addresses and subnet names (comma separated). */
 function parseTrustProxy(value: string | undefined): boolean | number | string {
@@ -175,9 +195,10 @@ export function loadConfig(
     rateLimitStore: e.RATE_LIMIT_STORE ?? (postgresUrl ? 'database' : 'memory'),
     trustProxy: parseTrustProxy(e.TRUST_PROXY),
     passwordHashing: OWASP_ARGON2ID,
-    // Off by default: on Node 20, worker threads that load TypeScript through tsx's module hooks next to a
-    // main thread doing the same were seen to hang a restarted server (see README, Configuration).
-    gradingThreads: e.GRADING_THREADS ?? 0,
+    gradingThreads: e.GRADING_THREADS ?? defaultGradingThreads(),
+    gradingQueueLimit: e.GRADING_QUEUE_LIMIT ?? (e.GRADING_THREADS ?? defaultGradingThreads()) * 16,
+    metricsToken: e.METRICS_TOKEN,
+    shutdownTimeoutMs: e.SHUTDOWN_TIMEOUT_MS ?? 20_000,
     version: options.version ?? '0.0.0',
   }
 }

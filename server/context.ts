@@ -1,13 +1,15 @@
 // What every route needs, built once per app: database, settings, mail, hashing and tokens.
 import type { DataSource } from 'typeorm'
-import type { Logger } from 'pino'
+import type { Logger } from './infrastructure/logging'
 import type { AppConfig } from './config'
 import type { Limiters } from './middleware/rate-limit'
-import type { GradebookCache } from './services/gradebook-cache'
-import type { GradingPool } from './services/grading-pool'
-import type { Mailer } from './services/mailer'
-import type { PasswordHasher } from './services/passwords'
-import type { AccessTokens } from './services/tokens'
+import type { GradebookCache } from './gradebook/gradebook-cache'
+import type { GradingPool } from './infrastructure/grading/grading-pool'
+import type { Lifecycle } from './infrastructure/http/lifecycle'
+import type { Metrics } from './infrastructure/metrics'
+import type { Mailer } from './infrastructure/mail/mailer'
+import type { PasswordHasher } from './infrastructure/security/passwords'
+import type { AccessTokens } from './infrastructure/security/tokens'
 
 export interface AppContext {
   dataSource: DataSource
@@ -19,8 +21,12 @@ export interface AppContext {
   limits: Limiters
   /** Cohort gradebooks kept between requests, checked against the database's revision each time. */
   gradebooks: GradebookCache
-  /** Grades submitted attempts, inline or in worker threads (GRADING_THREADS). */
+  /** Reads and grades submitted attempts in worker threads (GRADING_THREADS). */
   grading: GradingPool
+  /** Prometheus metrics (/api/metrics). */
+  metrics: Metrics
+  /** Requests in flight, and whether the server is draining for a shutdown. */
+  lifecycle: Lifecycle
 }
 
 /** A link into the client, from the configured public base URL. */

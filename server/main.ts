@@ -1,23 +1,25 @@
-// Boots the server: config, database (migrate, shipped scenarios, demo seed if empty), mail, HTTP, shutdown.
+// Boots the server: config, database (migrate, shipped scenarios, demo seed if empty), mail, grading threads,
+// HTTP; on SIGTERM drains the requests in flight (new ones get 503) before it closes everything.
 import type { Server } from 'node:http'
 import { mkdirSync } from 'node:fs'
-import { fileURLToPath } from 'node:url'
-import { pino } from 'pino'
 import { createApp } from './app'
-import { ConfigError, loadConfig } from './config'
-import { dataSourceOptionsFor, openDatabase } from './data-source'
-import { UserEntity } from './entities'
-import { DEMO_ACCOUNTS, demoSignInTable } from './services/demo-accounts'
-import { createGradingPool } from './services/grading-pool'
-import { createMailer, type SmtpTarget } from './services/mailer'
-import { startOutboxSmtp, type OutboxSmtp } from './services/outbox-smtp'
-import { createPasswordHasher } from './services/passwords'
-import { importShippedScenarios } from './services/scenarios'
-import { loadOrCreateJwtSecret } from './services/secrets'
-import { isDatabaseEmpty, seedDemo } from './services/seed'
+import { ConfigError, loadConfig, type AppConfig } from './config'
+import { demoSignInTable } from './demo/demo-accounts'
+import { hasDemoAccounts, isDatabaseEmpty, seedDemo } from './demo/seed'
+import { dataSourceOptionsFor, openDatabase } from './infrastructure/database/data-source'
+import { createGradingPool } from './infrastructure/grading/grading-pool'
+import { createLifecycle } from './infrastructure/http/lifecycle'
+import { createMetrics } from './infrastructure/metrics'
+import { createLogger } from './infrastructure/logging'
+import { createMailer, type SmtpTarget } from './infrastructure/mail/mailer'
+import { startOutboxSmtp, type OutboxSmtp } from './infrastructure/mail/outbox-smtp'
+import { createPasswordHasher } from './infrastructure/security/passwords'
+import { SCENARIOS_DIR } from './infrastructure/paths'
+import { loadOrCreateJwtSecret } from './infrastructure/security/secrets'
+import { importShippedScenarios } from './scenarios/scenarios.service'
 import { APP_VERSION } from './version'
 
-export const SCENARIOS_DIR = fileURLToPath(new URL('../scenarios', import.meta.url))
+export { SCENARIOS_DIR }
 
 export interface StartOptions {
   mode?: 'api' | 'app'
@@ -25,7 +27,7 @@ export interface StartOptions {
 }
 
 export async function startServer({ mode = 'api', env = process.env }: StartOptions = {}) {
-  let config
+  let config: AppConfig
   try {
     config = loadConfig(env, { mode, version: APP_VERSION })
   } catch (error) {
@@ -35,7 +37,7 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
     }
     throw error
   }
-  const log = pino({ level: config.logLevel })
+  const log = createLogger(config.logLevel)
   mkdirSync(config.dataDir, { recursive: true })
   const jwtSecret = loadOrCreateJwtSecret(config.dataDir, config.jwtSecret)
   const passwords = createPasswordHasher(config.passwordHashing)
@@ -59,26 +61,41 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
     log.info({ port: outbox.port }, 'embedded SMTP outbox listening on loopback')
   }
   const mailer = createMailer({ target, from: config.mailFrom, log })
-  const grading = createGradingPool({ threads: config.gradingThreads })
-  const app = createApp({ dataSource, config, mailer, jwtSecret, log, passwords, grading })
+  const metrics = createMetrics()
+  metrics.watchQueues(() => [{ queue: 'mail', depth: mailer.stats().queued, failed: mailer.stats().failed }])
+  const grading = createGradingPool({
+    threads: config.gradingThreads,
+    queueLimit: config.gradingQueueLimit,
+    onTask: metrics.gradingTask,
+  })
+  // Listen only once the threads answer, so the first submissions do not wait for them to load.
+  await grading.warm()
+  const lifecycle = createLifecycle()
+  const app = createApp({ dataSource, config, mailer, jwtSecret, log, passwords, grading, metrics, lifecycle })
 
   const server: Server = await new Promise((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s))
     s.once('error', reject)
   })
-  const demoAdmin = await dataSource.getRepository(UserEntity).findOneBy({ email: DEMO_ACCOUNTS[0]!.email })
   const url = config.serveClient ? config.publicBaseUrl : `http://localhost:${config.port}`
   console.log(`\nSlipway ${APP_VERSION} listening on ${url}${config.serveClient ? '' : ' (API only)'}`)
-  if (demoAdmin) console.log(demoSignInTable() + '\n')
+  if (await hasDemoAccounts(dataSource)) console.log(demoSignInTable() + '\n')
 
   let stopping = false
   async function stop(signal: string) {
     if (stopping) return
     stopping = true
-    log.info({ signal }, 'shutting down')
-    const force = setTimeout(() => process.exit(1), 10_000).unref()
-    await new Promise<void>((resolve) => server.close(() => resolve()))
-    server.closeAllConnections?.()
+    log.info({ signal, inFlight: lifecycle.inFlight }, 'draining: new requests get 503 until those in flight finish')
+    const force = setTimeout(() => process.exit(1), config.shutdownTimeoutMs + 10_000).unref()
+    // In-flight submissions finish (graded, stored, acknowledged); /api/ready says 503 meanwhile.
+    const drained = await lifecycle.drain(config.shutdownTimeoutMs)
+    if (!drained) log.warn({ inFlight: lifecycle.inFlight }, 'shutdown timeout: closing with requests in flight')
+    // A moment more of 503s: a client just acknowledged that sends again learns to wait (Retry-After)
+    // instead of finding its new connection cut by the listener closing.
+    await new Promise((resolve) => setTimeout(resolve, 250))
+    const closed = new Promise<void>((resolve) => server.close(() => resolve()))
+    await Promise.race([closed, new Promise((resolve) => setTimeout(resolve, 2000))])
+    server.closeAllConnections()
     await Promise.race([mailer.idle(), new Promise((r) => setTimeout(r, 3000))])
     mailer.close()
     await grading.close()

@@ -1,10 +1,10 @@
 // authenticate (Bearer access token → req.auth, checked against the live user) and requireRole(...).
-import type { Request, RequestHandler } from 'express'
 import type { Role } from '@shared/api/auth'
 import type { AppContext } from '../context'
 import { UserEntity, type UserRow } from '../entities'
 import { HttpError } from '../http-error'
-import { findById } from '../services/lookups'
+import { findById } from '../infrastructure/database/lookups'
+import type { Middleware } from './validate'
 
 export interface AuthInfo {
   user: UserRow
@@ -16,7 +16,7 @@ declare module 'express-serve-static-core' {
   }
 }
 
-export function authenticate(ctx: AppContext): RequestHandler {
+export function authenticate(ctx: AppContext): Middleware {
   return async (req, _res, next) => {
     const header = req.headers.authorization
     if (!header?.startsWith('Bearer ')) {
@@ -33,7 +33,7 @@ export function authenticate(ctx: AppContext): RequestHandler {
   }
 }
 
-export function requireRole(...roles: Role[]): RequestHandler {
+export function requireRole(...roles: Role[]): Middleware {
   return (req, _res, next) => {
     const role = req.auth?.user.role
     if (!role) throw new HttpError(401, 'unauthenticated', 'Sign in first')
@@ -44,7 +44,7 @@ export function requireRole(...roles: Role[]): RequestHandler {
 }
 
 /** The signed-in user of a request that passed authenticate(). */
-export function currentUser(req: Request): UserRow {
+export function currentUser(req: { auth?: AuthInfo }): UserRow {
   if (!req.auth) throw new HttpError(401, 'unauthenticated', 'Sign in first')
   return req.auth.user
 }

@@ -1,20 +1,11 @@
 // Central error handling: every failure leaves as { error: { code, message, details } }, never a stack trace.
 import type { ErrorRequestHandler, RequestHandler } from 'express'
 import { MulterError } from 'multer'
-import { ZodError, z } from 'zod'
-import { HttpError } from '../http-error'
-
-export function zodDetails(error: ZodError) {
-  const fields: Record<string, string[]> = {}
-  for (const issue of error.issues) {
-    const key = issue.path.length ? issue.path.map(String).join('.') : '(root)'
-    ;(fields[key] ??= []).push(issue.message)
-  }
-  return { fields }
-}
+import { ZodError } from 'zod'
+import { HttpError, INVALID_JSON_MESSAGE, VALIDATION_MESSAGE, zodDetails } from '../http-error'
 
 export const apiNotFound: RequestHandler = (req) => {
-  throw new HttpError(404, 'route_not_found', `No API route ${req.method} ${req.path}`)
+  throw new HttpError(404, 'route_not_found', `No API route ${req.method} ${req.baseUrl}${req.path}`)
 }
 
 interface BodyParserError extends Error {
@@ -25,14 +16,17 @@ interface BodyParserError extends Error {
 export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   const send = (status: number, code: string, message: string, details?: unknown) => {
     if (res.headersSent) return
-    res.status(status).json({ error: { code, message, ...(details === undefined ? {} : { details }) } })
+    const requestId = req.requestId
+    res.status(status).json({
+      error: { code, message, ...(details === undefined ? {} : { details }), ...(requestId ? { requestId } : {}) },
+    })
   }
   if (err instanceof HttpError) {
     for (const [name, value] of Object.entries(err.headers ?? {})) res.setHeader(name, value)
     return send(err.status, err.code, err.message, err.details)
   }
   if (err instanceof ZodError) {
-    return send(400, 'validation_failed', 'Some fields are not valid', zodDetails(err))
+    return send(400, 'validation_failed', VALIDATION_MESSAGE, zodDetails(err))
   }
   if (err instanceof MulterError) {
     if (err.code === 'LIMIT_FILE_SIZE') return send(413, 'payload_too_large', 'The file is too large')
@@ -42,17 +36,10 @@ export const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
   if (bodyError?.type === 'entity.too.large')
     return send(413, 'payload_too_large', 'The request body is too large')
   if (bodyError?.type === 'entity.parse.failed')
-    return send(400, 'invalid_json', 'The request body is not valid JSON')
+    return send(400, 'invalid_json', INVALID_JSON_MESSAGE)
   if (typeof bodyError?.status === 'number' && bodyError.status >= 400 && bodyError.status < 500) {
     return send(bodyError.status, 'bad_request', 'The request could not be read')
   }
   req.log?.error({ err }, 'unhandled error')
   send(500, 'internal_error', 'Something went wrong on the server')
-}
-
-/** For routes that parse by hand (uploads): throw a 400 with the same details shape as validate(). */
-export function parseOrThrow<T extends z.ZodType>(schema: T, value: unknown): z.infer<T> {
-  const result = schema.safeParse(value)
-  if (!result.success) throw result.error
-  return result.data
 }

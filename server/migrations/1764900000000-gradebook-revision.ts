@@ -2,7 +2,7 @@
 // an attempt (insert, update, delete), an enrolment, an assignment, or an enrolled apprentice's name or
 // e-mail. Triggers rather than application code, so no write path (today's or a future one) can forget it,
 // and every instance behind a load balancer sees the same counter: each caches a cohort's gradebook and
-// serves it until the revision it reads with the cohort row moves on (services/gradebook-cache.ts).
+// serves it until the revision it reads with the cohort row moves on (gradebook/gradebook-cache.ts).
 // Plain SQL per driver: TypeORM's Table API has no triggers. ALTER TABLE … ADD COLUMN is the same on both.
 import type { MigrationInterface, QueryRunner } from 'typeorm'
 

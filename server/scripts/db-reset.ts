@@ -1,16 +1,16 @@
 // `npm run db:reset`: delete the database and recreate it with the demo seed.
 import { rmSync } from 'node:fs'
-import { pino } from 'pino'
 import { loadConfig } from '../config'
-import { openDatabase } from '../data-source'
+import { demoSignInTable } from '../demo/demo-accounts'
+import { seedDemo } from '../demo/seed'
+import { openDatabase } from '../infrastructure/database/data-source'
+import { createLogger } from '../infrastructure/logging'
+import { createPasswordHasher } from '../infrastructure/security/passwords'
 import { SCENARIOS_DIR } from '../main'
-import { demoSignInTable } from '../services/demo-accounts'
-import { createPasswordHasher } from '../services/passwords'
-import { importShippedScenarios } from '../services/scenarios'
-import { seedDemo } from '../services/seed'
+import { importShippedScenarios } from '../scenarios/scenarios.service'
 
 const config = loadConfig(process.env)
-const log = pino({ level: config.logLevel })
+const log = createLogger(config.logLevel)
 for (const suffix of ['', '-wal', '-shm', '-journal']) rmSync(config.databasePath + suffix, { force: true })
 const dataSource = await openDatabase({ databasePath: config.databasePath })
 await importShippedScenarios(dataSource, SCENARIOS_DIR)

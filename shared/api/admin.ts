@@ -24,3 +24,16 @@ export const healthResponseSchema = z.object({
   database: z.object({ ok: z.boolean(), driver: z.string() }),
 })
 export type HealthResponse = z.infer<typeof healthResponseSchema>
+
+/** GET /api/ready: whether this instance should be sent traffic (200) or not (503), and why. */
+export const readyResponseSchema = z.object({
+  ready: z.boolean(),
+  checks: z.object({
+    database: z.object({ ok: z.boolean() }),
+    migrations: z.object({ ok: z.boolean() }),
+    grading: z.object({ ok: z.boolean(), threads: z.number().int(), threadsUp: z.number().int() }),
+    /** False once SIGTERM has been received: the instance is finishing its requests before it stops. */
+    accepting: z.object({ ok: z.boolean() }),
+  }),
+})
+export type ReadyResponse = z.infer<typeof readyResponseSchema>

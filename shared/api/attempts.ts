@@ -2,6 +2,7 @@
 import { z } from 'zod'
 import { attemptEventSchema, attemptLogSchema } from '../model/events'
 import { idSchema, isoDateTimeSchema, pageOf, pageQuerySchema, type ErrorCode } from './common'
+import { gradeResultSchema } from './grading'
 
 /** The model's own event schemas (shared/model/events.ts): every event typed, times in order. */
 export const attemptEventLogSchema = attemptLogSchema
@@ -47,19 +48,14 @@ export function isLogPrefix(prefix: readonly object[], log: readonly object[]): 
   return true
 }
 
-/** Per-objective evidence as returned by the shared grader (its shape is owned by shared/scenario). */
-export const objectiveEvidenceSchema = z.looseObject({
-  id: z.string(),
-  passed: z.boolean(),
-})
-
 export const attemptGradeSchema = z.object({
   score: z.number().min(0).max(100), // the score that counts: the override if any, else the grader's
   passed: z.boolean(),
   autoScore: z.number().min(0).max(100),
   autoPassed: z.boolean(),
   overridden: z.boolean(),
-  evidence: z.unknown(),
+  /** The grader's full result (objectives with evidence, safety violations, hints); null if none was kept. */
+  evidence: gradeResultSchema.nullable(),
   gradedAt: isoDateTimeSchema,
 })
 export type AttemptGrade = z.infer<typeof attemptGradeSchema>

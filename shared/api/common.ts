@@ -71,17 +71,23 @@ export const errorCodes = [
   'hints_not_allowed',
   'roster_invalid',
   'rate_limited',
+  'server_busy',
+  'shutting_down',
   'internal_error',
 ] as const
 export const errorCodeSchema = z.enum(errorCodes)
 export type ErrorCode = z.infer<typeof errorCodeSchema>
 
-/** details: for validation errors, `fields` maps a dotted path to its messages. */
+/**
+ * details: for validation errors, `fields` maps a dotted path to its messages. requestId: the id of the
+ * request (also in the X-Request-Id header and in every server log line about it), for support.
+ */
 export const apiErrorSchema = z.object({
   error: z.object({
     code: z.string(),
     message: z.string(),
     details: z.unknown().optional(),
+    requestId: z.string().optional(),
   }),
 })
 export type ApiError = z.infer<typeof apiErrorSchema>

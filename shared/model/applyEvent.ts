@@ -7,7 +7,8 @@ import { sendDrive, type DrivePlain } from './driveTransitions'
 import { ModelInputError } from './errors'
 import type { AttemptEvent } from './events'
 import { driveConfig, sameConfig } from './functions'
-import { isDrivePowerPoint, isProverPoint } from './points'
+import { STRAIGHT_CABLE } from './motorCable'
+import { isDrivePowerPoint, isMotorPoint, isProverPoint, POINT_LABELS } from './points'
 import {
   crossCheckSettings,
   settingDef,
@@ -65,16 +66,24 @@ function deviceFor(
 }
 
 function isKnownPoint(state: SimState, point: string): boolean {
-  return pointsOf(state).index.has(point) || isDrivePowerPoint(point) || isProverPoint(point)
+  return (
+    pointsOf(state).index.has(point) ||
+    isDrivePowerPoint(point) ||
+    isMotorPoint(point) ||
+    isProverPoint(point)
+  )
 }
 
 /** Why a wire cannot end on this point, if it cannot. */
 function wireEndRefusal(state: SimState, point: string): EventMessage | undefined {
-  if (isDrivePowerPoint(point)) {
+  if (isDrivePowerPoint(point) || isMotorPoint(point)) {
     return {
       code: 'wireRefused',
       text: 'Power terminals are not wired on this panel; measure them with the meter.',
     }
+  }
+  if (isProverPoint(point)) {
+    return { code: 'wireRefused', text: 'The proving unit is for checking the meter; it cannot be wired.' }
   }
   if (!pointsOf(state).index.has(point)) {
     return { code: 'unknownPoint', text: `There is no terminal "${point}" on this panel.` }
@@ -254,9 +263,30 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
       if (unknown !== null) {
         return refuse(state, { code: 'unknownPoint', text: `There is no terminal "${unknown}" to probe.` })
       }
-      state.meter = { red: event.red, black: event.black }
+      state.meter = { red: event.red, black: event.black, mode: state.meter.mode }
       return state
     }
+    case 'meter.mode':
+      if (event.mode !== state.meter.mode) state.meter = { ...state.meter, mode: event.mode }
+      return state
+    case 'motor.conductorLanded': {
+      const { conductor, terminal } = event
+      const occupant = (['u', 'v', 'w'] as const).find(
+        (c) => c !== conductor && state.motor.cable[c] === terminal,
+      )
+      if (terminal !== null && occupant) {
+        return refuse(state, {
+          code: 'terminalOccupied',
+          text: `Motor terminal ${POINT_LABELS[`motor.${terminal}`]} already has the ${occupant.toUpperCase()} conductor on it: lift that one first.`,
+        })
+      }
+      if (state.motor.cable[conductor] === terminal) return state
+      state.motor = { ...state.motor, cable: { ...state.motor.cable, [conductor]: terminal } }
+      return state
+    }
+    case 'motor.cableReplaced':
+      state.motor = { ...state.motor, cable: STRAIGHT_CABLE, openConductors: [] }
+      return state
     case 'keypad.key':
       if (event.key === 'run' || event.key === 'stop' || event.key === 'reset')
         return pressKey(state, event.key)
@@ -276,7 +306,8 @@ function needsSettling(before: SimState, after: SimState): boolean {
     before.settings.active !== after.settings.active ||
     before.drive !== after.drive ||
     before.power !== after.power ||
-    before.bus !== after.bus
+    before.bus !== after.bus ||
+    before.motor !== after.motor
   )
 }
 
@@ -296,7 +327,7 @@ function applyEventWith(state: SimState, event: AttemptEvent, sink: BreakpointSi
   draft.t = event.t
   draft.messages = NO_MESSAGES
   const next = applyToState(draft, event)
-  // Events that touch nothing physical (meter probes, pending edits, navigation keys, hints) need no settling.
+  // Events that touch nothing physical (the meter, pending edits, navigation keys, hints) need no settling.
   if (!needsSettling(current, next)) return next
   return settle(next, event.t, current.drive.value, true)
 }

@@ -13,6 +13,7 @@ export function copyState(s: SimState): SimState {
     power: s.power,
     lineVolts: s.lineVolts,
     machine: s.machine,
+    motor: s.motor,
     settings: s.settings,
     meter: s.meter,
     inputs: s.inputs,

@@ -4,14 +4,24 @@ import { nominalBusVolts } from './bus'
 import { initialDrive, sendDrive } from './driveTransitions'
 import { ModelInputError } from './errors'
 import { driveConfig } from './functions'
+import { STRAIGHT_CABLE } from './motorCable'
+import { nameplateFromSettings, nameplateProblems } from './nameplate'
 import { crossCheckSettings, DEFAULT_SETTINGS, validateSetting, type SettingValues } from './settings'
 import { simulationSetupSchema, type SimulationSetup } from './setup'
 import { settle } from './settle'
 import type { DeviceState, SimState } from './types'
 
 export const DEFAULT_LINE_VOLTS = 400
-/** Default load: coast time constant 4 s; any decel ramp tolerated (ours, for the demo machine). */
-export const DEFAULT_MACHINE = { coastSeconds: 4, minDecelSeconds: 0 }
+/**
+ * Default load: coast time constant 4 s; any decel ramp tolerated; a constant-torque machine needing 70 %
+ * of the motor's rated torque (ours, for the demo machine).
+ */
+export const DEFAULT_MACHINE = {
+  coastSeconds: 4,
+  minDecelSeconds: 0,
+  loadKind: 'constantTorque',
+  loadFraction: 0.7,
+} as const satisfies SimState['machine']
 
 function fail(message: string): never {
   throw new ModelInputError(message)
@@ -39,6 +49,10 @@ function checkSetup(setup: SimulationSetup): SettingValues {
     }
   }
   if (setup.power.on && setup.power.locked) fail('The disconnect cannot be locked while it is on.')
+  if (setup.motor) {
+    const problem = nameplateProblems(setup.motor)[0]
+    if (problem) fail(`Motor nameplate ${setup.motor.serial}: ${problem.message}`)
+  }
   const active: Record<string, unknown> = { ...DEFAULT_SETTINGS }
   for (const [key, value] of Object.entries(setup.settings)) {
     const check = validateSetting(key, value)
@@ -84,8 +98,13 @@ export function createSimulation(setup: SimulationSetup): SimState {
     power: { ...valid.power },
     lineVolts,
     machine: { ...DEFAULT_MACHINE, ...valid.machine },
+    motor: {
+      nameplate: valid.motor ?? nameplateFromSettings(active),
+      cable: valid.motorCable ?? STRAIGHT_CABLE,
+      openConductors: valid.faults.flatMap((f) => (f.kind === 'motorConductorOpen' ? [f.conductor] : [])),
+    },
     settings: { active, pending: {} },
-    meter: { red: null, black: null },
+    meter: { red: null, black: null, mode: 'off' },
     inputs: [false, false, false, false, false, false],
     raiseLowerFirst: null,
     drive: sendDrive(initialDrive(), { type: 'CONFIGURE', config: driveConfig(active) }),

@@ -1,6 +1,7 @@
 // The drive's discrete behaviour as a pure XState 5 machine: power, control, faults and alarms.
 // The continuous part (bus volts, reference, speed) lives outside in closed form; the simulation
-// tells this machine when a piece ends (BUS_CHARGED, CONTROL_OFF, TREND, STANDSTILL, OVERVOLTAGE).
+// tells this machine when a piece ends (BUS_CHARGED, CONTROL_OFF, TREND, STANDSTILL, OVERVOLTAGE) and
+// when the output meets an open motor phase (PHASE_LOSS).
 //
 // Mapping onto the CiA 402 (IEC 61800-7-201) drive states, for readers who know that profile:
 //
@@ -31,6 +32,7 @@ export type DriveEvent =
   | { type: 'TREND'; trend: 'up' | 'down' | 'steady' }
   | { type: 'STANDSTILL' }
   | { type: 'OVERVOLTAGE' }
+  | { type: 'PHASE_LOSS' }
 
 type DriveMachineContext = DriveContext
 
@@ -159,6 +161,7 @@ export const driveMachine = setup({
     clearFaults: assign(({ context }) => ({ faults: [], keypadRun: false, interlock: context.signals.run })),
     notePowerLost: assign(({ context }) => ({ faults: withFault(context.faults, 'powerLost') })),
     noteOvervoltage: assign(({ context }) => ({ faults: withFault(context.faults, 'busOvervoltage') })),
+    notePhaseLoss: assign(({ context }) => ({ faults: withFault(context.faults, 'motorPhaseLost') })),
     armRestartInterlock: assign(({ context }) => ({ interlock: context.signals.run })),
     resetElectronics: assign(() => ({
       faults: [],
@@ -195,6 +198,8 @@ export const driveMachine = setup({
       { guard: ({ event }) => event.key === 'stop', actions: 'keypadStop' },
     ],
     OVERVOLTAGE: { guard: not('hasFaults'), actions: 'noteOvervoltage' },
+    // The output met an open motor phase; a reset is allowed, and the next start trips again if still open.
+    PHASE_LOSS: { guard: not('hasFaults'), actions: 'notePhaseLoss' },
   },
   states: {
     power: {

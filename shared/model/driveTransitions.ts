@@ -68,6 +68,8 @@ export function initialDrive(): DrivePlain {
 }
 
 const CONFIGURE_BASE = 81
+/** After the 24 CONFIGURE codes (81–104). */
+const PHASE_LOSS_CODE = 105
 /** A small integer per distinct event (the events carry only booleans and short enumerations). */
 function eventCode(event: DriveEvent): number {
   switch (event.type) {
@@ -102,6 +104,8 @@ function eventCode(event: DriveEvent): number {
       return 79
     case 'OVERVOLTAGE':
       return 80
+    case 'PHASE_LOSS':
+      return PHASE_LOSS_CODE
     case 'CONFIGURE': {
       const c = event.config
       const runMode = c.runMode === 'run' ? 0 : c.runMode === 'start' ? 1 : 2

@@ -1,5 +1,7 @@
 // Attempt events: the log an attempt is made of. Validated at the edge with these schemas.
 import { z } from 'zod'
+import { METER_MODES } from './meterModes'
+import { MOTOR_TERMINALS, OUTPUT_PHASES } from './points'
 import { CONTACT_TYPES, WIRE_COLOURS, pointIdSchema } from './setup'
 import { SETTING_KEYS } from './settings'
 
@@ -51,6 +53,16 @@ export const attemptEventSchema = z.discriminatedUnion('type', [
     red: pointIdSchema.nullable(),
     black: pointIdSchema.nullable(),
   }),
+  z.object({ t, type: z.literal('meter.mode'), mode: z.enum(METER_MODES) }),
+  /** Land one motor-cable conductor on a motor terminal, or lift it off (terminal null). Terminal work. */
+  z.object({
+    t,
+    type: z.literal('motor.conductorLanded'),
+    conductor: z.enum(OUTPUT_PHASES),
+    terminal: z.enum(MOTOR_TERMINALS).nullable(),
+  }),
+  /** A new motor cable, landed straight through (U1, V1, W1); clears a broken conductor. Terminal work. */
+  z.object({ t, type: z.literal('motor.cableReplaced') }),
   z.object({ t, type: z.literal('keypad.key'), key: z.enum(KEYPAD_KEYS) }),
   z.object({ t, type: z.literal('hint.revealed'), hintId: id }),
   z.object({ t, type: z.literal('attempt.ended') }),

@@ -1,4 +1,5 @@
-// Alarms (configuration conflicts that do not stop the drive) and fault texts, in plain words.
+// Alarms (configuration conflicts that do not stop the drive) and fault texts, in plain words, each with
+// our own short code for a small display: T-… for a trip (fault), W-… for a warning (alarm).
 import { DIGITAL_INPUT_NUMBERS } from './points'
 import { settingDef, type InputFunction, type SettingValues } from './settings'
 import { inputFunctions } from './functions'
@@ -39,6 +40,7 @@ function computeAlarms(settings: SettingValues, referenceOverloaded: boolean): N
   if ((has('raise') || has('lower')) && !raiseLowerSource) {
     alarms.push({
       code: 'raiseLowerNotSelected',
+      short: 'W-RLS',
       text: 'Raise/lower inputs are assigned, but the remote speed reference is not set to raise/lower.',
       check: 'Set "Remote speed reference" to "Raise / lower inputs" and save.',
     })
@@ -46,6 +48,7 @@ function computeAlarms(settings: SettingValues, referenceOverloaded: boolean): N
   if (has('raise') && !has('lower')) {
     alarms.push({
       code: 'raiseWithoutLower',
+      short: 'W-RNL',
       text: 'A raise input is assigned without a lower input.',
       check: 'Assign "Lower speed" to another input.',
     })
@@ -53,6 +56,7 @@ function computeAlarms(settings: SettingValues, referenceOverloaded: boolean): N
   if (has('lower') && !has('raise')) {
     alarms.push({
       code: 'lowerWithoutRaise',
+      short: 'W-LNR',
       text: 'A lower input is assigned without a raise input.',
       check: 'Assign "Raise speed" to another input.',
     })
@@ -60,6 +64,7 @@ function computeAlarms(settings: SettingValues, referenceOverloaded: boolean): N
   if (raiseLowerSource && !has('raise') && !has('lower')) {
     alarms.push({
       code: 'raiseLowerWithoutInputs',
+      short: 'W-RLN',
       text: 'The remote reference is raise/lower, but no input is assigned to raise or lower.',
       check: 'Assign "Raise speed" and "Lower speed" to two inputs.',
     })
@@ -72,6 +77,7 @@ function computeAlarms(settings: SettingValues, referenceOverloaded: boolean): N
     else
       alarms.push({
         code: 'duplicateFunction',
+        short: 'W-DUP',
         text: `DI${first} and DI${DIGITAL_INPUT_NUMBERS[i]} both have the function "${fnLabel(fn)}".`,
         check: 'Give each function to one input only.',
       })
@@ -79,6 +85,7 @@ function computeAlarms(settings: SettingValues, referenceOverloaded: boolean): N
   if (settings['control.source'] === 'terminals' && !has('run') && !has('start')) {
     alarms.push({
       code: 'noRunInput',
+      short: 'W-RUN',
       text: 'Run commands come from the terminals, but no input is assigned to run or start.',
       check: 'Assign "Run" or "Start" to an input, or choose keypad control.',
     })
@@ -86,6 +93,7 @@ function computeAlarms(settings: SettingValues, referenceOverloaded: boolean): N
   if (has('start') && !has('stop')) {
     alarms.push({
       code: 'startWithoutStop',
+      short: 'W-STP',
       text: 'A momentary start input is assigned without a stop input.',
       check: 'Assign "Stop" to the input wired to the normally closed stop button.',
     })
@@ -93,6 +101,7 @@ function computeAlarms(settings: SettingValues, referenceOverloaded: boolean): N
   if (has('reverse') && !settings['direction.reverseAllowed']) {
     alarms.push({
       code: 'reverseNotAllowed',
+      short: 'W-REV',
       text: 'A reverse input is assigned, but reverse is not allowed: it will be ignored.',
       check: 'Allow reverse, or remove the reverse function.',
     })
@@ -100,29 +109,40 @@ function computeAlarms(settings: SettingValues, referenceOverloaded: boolean): N
   if (referenceOverloaded) {
     alarms.push({
       code: 'referenceSupplyOverload',
+      short: 'W-10V',
       text: 'The +10 V reference is overloaded and has switched itself off.',
-      check: 'Look for a short between +10 and AC/0V, or a potentiometer of too low a resistance.',
+      check: 'Look for a short between +10 and AIC/0V, or a potentiometer of too low a resistance.',
     })
   }
   return alarms
 }
 
-const FAULT_TEXTS: Record<FaultCode, { text: string; check: string }> = {
+const FAULT_TEXTS: Record<FaultCode, { short: string; text: string; check: string }> = {
   externalFault: {
+    short: 'T-EXT',
     text: 'External fault: the external fault input is OFF (its normally closed circuit opened).',
     check: 'Find why the external circuit opened; when the input is ON again, reset.',
   },
   supplyOverload: {
+    short: 'T-24V',
     text: 'Control supply overloaded: the +24 V output is shorted or overloaded and has switched itself off.',
-    check: 'Look for a wire or contact joining +24 to 0V or DCM; remove the short, then reset.',
+    check: 'Look for a wire or contact joining +24 to 0V or DIC; remove the short, then reset.',
   },
   powerLost: {
+    short: 'T-LINE',
     text: 'Supply lost while running: the output switched off and the motor coasted.',
     check: 'Restore the supply, then reset.',
   },
   busOvervoltage: {
+    short: 'T-BUS',
     text: 'DC bus overvoltage while slowing down: the load fed energy back faster than the drive can absorb.',
     check: 'Lengthen the deceleration time (or stop by coasting), then reset.',
+  },
+  motorPhaseLost: {
+    short: 'T-MPH',
+    text: 'Motor phase lost: an output phase (U, V or W) carries no current, so the motor circuit is open.',
+    check:
+      'Isolate and prove dead, then check the motor cable end to end and its landing on U1, V1, W1; reset.',
   },
 }
 

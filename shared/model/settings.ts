@@ -29,7 +29,7 @@ const INPUT_FUNCTION_LABELS: Record<InputFunction, string> = {
 
 export const SETTING_GROUPS = [
   { id: 'motor', label: 'Motor nameplate' },
-  { id: 'control', label: 'Control place' },
+  { id: 'control', label: 'Command source' },
   { id: 'inputs', label: 'Digital inputs' },
   { id: 'reference', label: 'Speed reference' },
   { id: 'limits', label: 'Speed limits' },

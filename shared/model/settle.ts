@@ -16,6 +16,7 @@ import {
   trendOf,
   type SpeedPlan,
 } from './motion'
+import { phaseOpen } from './motorCable'
 import { alarmsFor } from './notices'
 import type { SettingValues } from './settings'
 import type { ControlState, DriveMachineValue, ReferencePiece, SimState, SpeedPiece } from './types'
@@ -137,7 +138,7 @@ export interface ActiveReference {
   slope: number
 }
 
-/** Where the reference comes from now, from the control place and the remote source. */
+/** Where the reference comes from now, from the command source and the remote source. */
 function referenceSource(state: SimState, levels: Levels): ActiveReference['source'] {
   const a = state.settings.active
   if (a['control.source'] === 'keypad') return 'keypad'
@@ -162,7 +163,7 @@ function referenceHz(state: SimState, source: ActiveReference['source'], emop: R
   }
 }
 
-/** The reference the drive follows now, from the control place and the remote source. */
+/** The reference the drive follows now, from the command source and the remote source. */
 export function activeReference(
   state: SimState,
   emop: ReferencePiece,
@@ -271,6 +272,9 @@ function applyMemories(before: DriveMachineValue, draft: SimState, now: number):
 function machineFollowsMotion(state: SimState): DriveEvent | null {
   const control = state.drive.value.control
   const speed = state.speed
+  // The output stage on with a motor phase open: the drive sees no current in it and trips at once.
+  if (isOutputOn(control) && state.drive.value.fault === 'clear' && phaseOpen(state.motor))
+    return { type: 'PHASE_LOSS' }
   if (isRunning(control)) {
     const trend = trendOf(speed)
     const wanted = trend === 'up' ? 'accelerating' : trend === 'down' ? 'decelerating' : 'atSpeed'

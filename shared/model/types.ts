@@ -1,14 +1,15 @@
 // Public state and reading types of the model. Everything is plain data: JSON-serialisable.
-import type { DigitalInputNumber, PointId } from './points'
+import type { MeterMode } from './meterModes'
+import type { DigitalInputNumber, OutputPhase, PointId } from './points'
 import type { InputFunction, SettingKey, SettingValue, SettingValues } from './settings'
-import type { ContactType, DeviceSpec, MachineLoad, WireSpec } from './setup'
+import type { ContactType, DeviceSpec, MachineLoad, MotorCable, MotorNameplate, WireSpec } from './setup'
 
 export type PowerState = 'off' | 'charging' | 'ready' | 'discharging'
 export type ControlState =
   'stopped' | 'accelerating' | 'atSpeed' | 'decelerating' | 'rampStopping' | 'coasting'
 export type Direction = 'forward' | 'reverse'
 
-export type FaultCode = 'externalFault' | 'supplyOverload' | 'powerLost' | 'busOvervoltage'
+export type FaultCode = 'externalFault' | 'supplyOverload' | 'powerLost' | 'busOvervoltage' | 'motorPhaseLost'
 export type AlarmCode =
   | 'raiseLowerNotSelected'
   | 'raiseWithoutLower'
@@ -22,7 +23,9 @@ export type AlarmCode =
 
 export interface Notice<C extends string = string> {
   code: C
-  /** Plain words for the apprentice. */
+  /** Our own short code, as a small display shows it (faults T-…, alarms W-…). */
+  short: string
+  /** Plain words for the apprentice: what is wrong. */
   text: string
   /** What to check (faults and alarms). */
   check?: string
@@ -43,6 +46,7 @@ export interface EventMessage {
     | 'unknownWire'
     | 'resetRefused'
     | 'keypadDark'
+    | 'terminalOccupied'
   text: string
   key?: SettingKey
 }
@@ -138,8 +142,11 @@ export interface SimState {
   power: { on: boolean; locked: boolean }
   lineVolts: number
   machine: Required<MachineLoad>
+  /** The motor and its cable (the nameplate never changes; the cable changes with motor events). */
+  motor: MotorState
   settings: { active: SettingValues; pending: Partial<Record<SettingKey, SettingValue>> }
-  meter: { red: PointId | null; black: PointId | null }
+  /** Probe positions and the selector position. */
+  meter: { red: PointId | null; black: PointId | null; mode: MeterMode }
   /** Latched ON/OFF of DI1..DI6 (index 0 = DI1): inputs in the transition band keep this. */
   inputs: boolean[]
   /** Raise/lower: which was pressed first while both are held ('firstWins'). */
@@ -172,14 +179,39 @@ export interface InputReading {
   on: boolean
 }
 
+export interface MotorState {
+  nameplate: MotorNameplate
+  cable: MotorCable
+  /** Conductors broken inside the cable (an injected fault until the cable is replaced). */
+  openConductors: OutputPhase[]
+}
+
+/**
+ * What the meter's window shows: nothing (off); a voltage (`volts`, null while a probe is lifted: the
+ * window reads zero); a resistance (`ohms`); over-range ("OL": open circuit, or above the range); or a
+ * voltage-present warning when resistance or continuity is selected across a voltage.
+ */
+export type MeterShows = 'blank' | 'volts' | 'ohms' | 'overRange' | 'voltagePresent'
+
 export interface MeterReading {
   red: PointId | null
   black: PointId | null
-  /** null when a probe is lifted. */
+  /** The selector position. */
+  mode: MeterMode
+  shows: MeterShows
+  /** The voltage shown on V AC or V DC (red − black; AC is a magnitude); null on other modes or with a probe lifted. */
   volts: number | null
-  mode: 'DC' | 'AC'
+  /** The resistance shown on resistance or continuity; null when over-range or on other modes. */
+  ohms: number | null
+  /** Continuity mode: the tone sounds (and the window's tone mark lights) below the threshold. */
+  tone: boolean
   /** The probes are on circuits with no connection between them (isolated from each other). */
   floating: boolean
+  /**
+   * Not shown by the meter (for the grader's safety record): resistance or continuity is selected with a
+   * probe on an energised circuit — a live control circuit, a live line or charged DC bus, the proving unit.
+   */
+  liveResistanceTest: boolean
 }
 
 export interface CircuitReading {
@@ -222,9 +254,20 @@ export interface DriveReading {
   targetHz: number
   /** Output frequency magnitude in Hz. */
   outputHz: number
-  /** Shaft speed in rpm (signed: negative in reverse). */
+  /** Shaft speed in rpm as the drive computes it from its motor settings (signed: negative in reverse). */
   speedRpm: number
   synchronousRpm: number
+  /** Output voltage, line to line RMS (fundamental): V/Hz up to base frequency, constant above; 0 when off. */
+  outputVolts: number
+  /** Output current, RMS per phase, from the motor's nameplate and the machine's load; 0 when off. */
+  outputAmps: number
+  /** Motor torque as a percentage of its rated torque (the load's need at this speed); 0 when off. */
+  torquePercent: number
+  /**
+   * The real shaft, as someone at the machine sees it turn (signed, + = the machine's forward): the drive's
+   * speed, reversed when the motor cable has a pair of phases swapped.
+   */
+  motorRpm: number
   alarms: Notice<AlarmCode>[]
   faults: Notice<FaultCode>[]
   tripped: boolean
@@ -267,3 +310,51 @@ export interface Timeline {
 }
 
 export type TimelineSample = DriveReading & { circuit: CircuitReading; segment: number }
+
+/** One line of the drive's I/O status screen. */
+export interface FrontPanelInput {
+  input: DigitalInputNumber
+  function: InputFunction
+  on: boolean
+}
+
+/** What the drive's display shows while it is lit (never while it is dark). */
+export interface FrontPanelStatus {
+  /** What the drive is doing: power-up and power-down, tripped, or its control state. */
+  state: 'startingUp' | 'poweringDown' | 'tripped' | ControlState
+  commandSource: 'keypad' | 'terminals'
+  direction: Direction
+  outputOn: boolean
+  outputHz: number
+  referenceHz: number
+  outputVolts: number
+  outputAmps: number
+  torquePercent: number
+  busVolts: number
+  /** The drive's own estimate from its motor settings. */
+  speedRpm: number
+  faults: Notice<FaultCode>[]
+  alarms: Notice<AlarmCode>[]
+  restartInterlock: boolean
+}
+
+/** The I/O status screen (our own design): input states, the relay, the analog input as the drive reads it. */
+export interface FrontPanelIo {
+  inputs: FrontPanelInput[]
+  relayClosed: boolean
+  analogVolts: number
+}
+
+/**
+ * Everything the drive's front panel shows — and nothing else. A screen built from this cannot show what a
+ * person at a real drive could not see: no display while the electronics are dark, and no input voltages
+ * or currents (those are for the meter).
+ */
+export interface FrontPanelReading {
+  /** Display and keypad lit: the control electronics are powered. */
+  lit: boolean
+  /** The charge lamp, fed from the DC bus itself: lit while the bus is above 60 V, dark display or not. */
+  chargeLamp: boolean
+  status: FrontPanelStatus | null
+  io: FrontPanelIo | null
+}

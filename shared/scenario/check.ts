@@ -8,7 +8,10 @@ import {
   INPUT_FUNCTIONS,
   isDriveControlPoint,
   isDrivePowerPoint,
+  isMotorPoint,
   isSettingKey,
+  nameplateProblems,
+  RESERVED_DEVICE_IDS,
   settingDef,
   validateSetting,
   type SettingValues,
@@ -51,7 +54,7 @@ function semanticProblems(scenario: Scenario): ScenarioProblem[] {
   const devices = new Map<string, ScenarioDevice>()
 
   scenario.start.devices.forEach((device, i) => {
-    if (device.id === 'drive' || device.id === 'meter')
+    if (RESERVED_DEVICE_IDS.includes(device.id))
       add(['start', 'devices', i, 'id'], `"${device.id}" is reserved`)
     if (devices.has(device.id)) add(['start', 'devices', i, 'id'], `device id "${device.id}" is used twice`)
     devices.set(device.id, device)
@@ -68,7 +71,7 @@ function semanticProblems(scenario: Scenario): ScenarioProblem[] {
     wireIds.add(wire.id)
     for (const end of ['from', 'to'] as const) {
       const point = wire[end]
-      if (isDrivePowerPoint(point))
+      if (isDrivePowerPoint(point) || isMotorPoint(point))
         add(['start', 'wires', i, end], `${point} is a power terminal and cannot be wired`)
       else if (!isPoint(point))
         add(['start', 'wires', i, end], `${point} is not a terminal of the drive or of a declared device`)
@@ -89,11 +92,16 @@ function semanticProblems(scenario: Scenario): ScenarioProblem[] {
     add(['start', 'settings', key], problem.message)
   }
 
+  if (scenario.start.motor) {
+    for (const problem of nameplateProblems(scenario.start.motor))
+      add(['start', 'motor', problem.field], problem.message)
+  }
+
   scenario.faults.forEach((fault, i) => {
     if (fault.kind === 'brokenWire') {
       if (!wireIds.has(fault.wireId))
         add(['faults', i, 'wireId'], `no starting wire has the id "${fault.wireId}"`)
-    } else if (fault.kind !== 'blownFuse') {
+    } else if (fault.kind !== 'blownFuse' && fault.kind !== 'motorConductorOpen') {
       const device = devices.get(fault.device)
       if (!device) add(['faults', i, 'device'], `no device has the id "${fault.device}"`)
       else if (device.kind === 'potentiometer')
@@ -262,7 +270,7 @@ function checkObjective(
       // (prover.pos / prover.neg, 110 V DC) stays live whatever the disconnect does.
       objective.pairs?.forEach((pair, j) =>
         pair.forEach((point, k) => {
-          if (!isDrivePowerPoint(point) && !isPoint(point))
+          if (!isDrivePowerPoint(point) && !isMotorPoint(point) && !isPoint(point))
             add(['pairs', j, k], `${point} is not a terminal the meter can reach`)
         }),
       )

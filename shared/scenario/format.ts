@@ -34,10 +34,6 @@ export function formatSeconds(ms: number): string {
   return `${formatNumber(ms / 1000, 1)} s`
 }
 
-export function formatValue(value: unknown): string {
-  return typeof value === 'string' ? `"${value}"` : String(value)
-}
-
 /** Joins notice texts (which end with a full stop) into one sentence without doubled stops. */
 export function joinTexts(texts: string[]): string {
   return texts.map((t) => t.replace(/\.+$/, '')).join('; ')

@@ -10,6 +10,8 @@ export {
   type GradeResult,
   type HintUse,
   type ObjectiveResult,
+  type SafetyViolation,
 } from './grade'
-export { type SafetyViolation } from './safety'
+export { createLiveGrader, type LiveGrader } from './liveGrader'
 export { formatTime } from './format'
+export * from './names'

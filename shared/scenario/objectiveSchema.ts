@@ -177,6 +177,31 @@ export const objectiveSchema = z.discriminatedUnion('kind', [
 export type Objective = z.infer<typeof objectiveSchema>
 export type ObjectiveKind = Objective['kind']
 export type ObjectiveOf<K extends ObjectiveKind> = Extract<Objective, { kind: K }>
+/** Every kind, in the order of the schema (the grade result's schema in shared/api enumerates them). */
+export const OBJECTIVE_KINDS = [
+  'settingEquals',
+  'settingInRange',
+  'wiringCondition',
+  'functionalCheck',
+  'speedHeld',
+  'stoppedBy',
+  'restartedWithRememberedReference',
+  'noWiringWhileEnergised',
+  'lockBeforeWiring',
+  'absenceOfVoltageProved',
+  'isolated',
+  'noFaultTrips',
+  'noAlarms',
+  'faultFoundAndCleared',
+  'finishedWithin',
+] as const satisfies readonly ObjectiveKind[]
+// A compile-time check that the list names every kind of the schema.
+export const OBJECTIVE_KINDS_COMPLETE: [Exclude<ObjectiveKind, (typeof OBJECTIVE_KINDS)[number]>] extends [
+  never,
+]
+  ? true
+  : never = true
+
 export type DeviceCondition = z.infer<typeof deviceConditionSchema>
 export type InputSelector = z.infer<typeof inputSelectorSchema>
 

@@ -1,166 +1,225 @@
-// Replays an attempt through the model and keeps the moments grading looks at: each event's time
-// (just before and just after it applies) and the model's breakpoints in between (a ramp reaching
-// its target, a trip, standstill …). Between two samples everything is closed form, so nothing is
-// sampled per millisecond.
+// The moments grading looks at, produced one event at a time: each event's time (just before and
+// just after it applies) and the model's breakpoints in between (a ramp reaching its target, a trip,
+// standstill …), up to the moment the attempt is judged at. Between two samples everything is closed form, so nothing is sampled per millisecond.
+// The live grader and the batch grade both read this one stream, so they judge the same moments.
 import {
   advance,
+  createSimulation,
   readCircuit,
   readDrive,
-  replay,
   sameDriveReading,
   type AttemptEvent,
+  type BreakpointKind,
   type CircuitReading,
   type DriveReading,
   type SimState,
   type SimulationSetup,
 } from '../model'
+import { applyEventCollecting } from '../model/simulation'
+import { advancePieces } from '../model/time'
 
 export type SampleAt = 'start' | 'before' | 'after' | 'breakpoint' | 'end'
+
+/** The lock and switch-off events applied so far (times), for the safe-practice rules. */
+export interface IsolationEvents {
+  /** Time of the last `lock.applied` applied so far. */
+  readonly lastLockT: number | undefined
+  /** Time of the last `power.off` applied so far. */
+  readonly lastOffT: number | undefined
+}
 
 export interface Sample {
   readonly t: number
   readonly at: SampleAt
   /** Index of the event this sample belongs to ('before'/'after'); -1 otherwise. */
   readonly eventIndex: number
+  /** The event this sample belongs to ('before'/'after'). */
+  readonly event: AttemptEvent | undefined
   /** How many events the state has had applied (events[0 … applied − 1]). */
   readonly applied: number
   readonly state: SimState
-  /** The drive reading of `state`. */
+  /** The drive reading of `state` (read on first use). */
   readonly drive: DriveReading
+  /** The circuit reading of `state` (solved on first use). */
+  readonly circuit: CircuitReading
+  /** Whether the +24 V control supply is on (shared with the sample before when the circuit is alike). */
+  readonly supplyOn: boolean
+  readonly isolation: IsolationEvents
 }
 
-export interface AttemptTrace {
-  setup: SimulationSetup
-  events: readonly AttemptEvent[]
-  samples: Sample[]
-  /** Time the attempt is judged at: the end marker, the last event, or a later `endAt`. */
-  end: number
-  /** The circuit reading of a sample (solved once, on demand). */
-  circuit(sample: Sample): CircuitReading
-  /** The exact model state at any time from 0 to `end`, from the nearest sample at or before it. */
-  stateAt(t: number): Sample
-  /** The sample just before events[eventIndex] applies. */
-  before(eventIndex: number): Sample
-}
+// Samples of one moment often share a state (an event at the same millisecond as the one before):
+// solve its circuit once.
+const circuits = new WeakMap<SimState, CircuitReading>()
 
 /**
- * A sample that reads the drive on first use: most evaluators look at a few moments, and a long log
+ * A sample that reads the drive on first use: most objectives look at a few moments, and a long log
  * has thousands. A sample whose state reads the same as the sample before it (a meter probe moved,
  * a setting edited but not saved) shares that sample's reading instead of making an equal one.
  */
-class TraceSample implements Sample {
+class StreamSample implements Sample {
   readonly t: number
   #drive: DriveReading | undefined
   /** The earlier sample whose reading this one shares (never itself sharing), if any. */
-  readonly #readsAs: TraceSample | undefined
+  readonly #readsAs: StreamSample | undefined
+  #supplyOn: boolean | undefined
+  /** The earlier sample whose circuit is configured as this one's (never itself sharing), if any. */
+  readonly #wiredAs: StreamSample | undefined
 
   constructor(
     readonly state: SimState,
     readonly at: SampleAt,
     readonly eventIndex: number,
+    readonly event: AttemptEvent | undefined,
     readonly applied: number,
-    previous?: TraceSample,
+    readonly isolation: IsolationEvents,
+    previous?: StreamSample,
   ) {
     this.t = state.t
     if (previous && sameDriveReading(previous.state, state)) this.#readsAs = previous.#readsAs ?? previous
+    if (previous && sameCircuitConfig(previous.state, state)) this.#wiredAs = previous.#wiredAs ?? previous
   }
 
   get drive(): DriveReading {
     return (this.#drive ??= this.#readsAs ? this.#readsAs.drive : readDrive(this.state))
   }
-}
 
-/**
- * The samples of an attempt, in time order, and the sample just before each event. Kept apart from
- * traceAttempt so that the replay's timeline is garbage once the samples are taken.
- */
-function sampleAttempt(
-  setup: SimulationSetup,
-  events: readonly AttemptEvent[],
-  end: number,
-): { samples: TraceSample[]; beforeEvent: TraceSample[] } {
-  // The model's own replay gives the state after each event and where its closed-form pieces end.
-  const timeline = replay(setup, events)
-  const breakpoints = timeline.breakpoints.map((b) => Math.ceil(b.t)).sort((a, b) => a - b)
-  let next = 0
-  const samples: TraceSample[] = []
-  const beforeEvent: TraceSample[] = []
-  let state = timeline.segments[0].state
-  const push = (at: SampleAt, eventIndex: number, applied: number) => {
-    const sample = new TraceSample(state, at, eventIndex, applied, samples[samples.length - 1])
-    samples.push(sample)
-    return sample
-  }
-  push('start', -1, 0)
-
-  let applied = 0
-  const advanceTo = (t: number) => {
-    while (next < breakpoints.length && breakpoints[next] <= t) {
-      const bt = breakpoints[next++]
-      if (bt > state.t && bt < t) {
-        state = advance(state, bt - state.t)
-        push('breakpoint', -1, applied)
-      }
-    }
-    if (t > state.t) state = advance(state, t - state.t)
-  }
-
-  events.forEach((event, index) => {
-    advanceTo(event.t)
-    beforeEvent.push(push('before', index, index))
-    state = timeline.segments[index + 1].state
-    applied = index + 1
-    push('after', index, applied)
-  })
-  advanceTo(end)
-  push('end', -1, applied)
-  return { samples, beforeEvent }
-}
-
-export function traceAttempt(
-  setup: SimulationSetup,
-  events: readonly AttemptEvent[],
-  endAt?: number,
-): AttemptTrace {
-  const lastEventT = events.length > 0 ? events[events.length - 1].t : 0
-  const end = Math.max(lastEventT, endAt ?? 0)
-  const { samples, beforeEvent } = sampleAttempt(setup, events, end)
-
-  const circuits = new WeakMap<SimState, CircuitReading>()
-  const circuit = (sample: Sample) => {
-    let reading = circuits.get(sample.state)
+  get circuit(): CircuitReading {
+    let reading = circuits.get(this.state)
     if (!reading) {
-      reading = readCircuit(sample.state)
-      circuits.set(sample.state, reading)
+      reading = readCircuit(this.state)
+      circuits.set(this.state, reading)
     }
     return reading
   }
 
-  const stateAt = (t: number): Sample => {
-    // The last sample at or before t (the first one when t is before them all).
-    const base = samples[Math.max(0, firstSampleFrom(samples, t, true) - 1)]
-    if (base.t === t) return base
-    return new TraceSample(advance(base.state, Math.round(t) - base.t), 'end', -1, base.applied)
+  get supplyOn(): boolean {
+    return (this.#supplyOn ??= this.#wiredAs ? this.#wiredAs.supplyOn : this.circuit.supplyOn)
   }
-
-  const before = (eventIndex: number): Sample => beforeEvent[eventIndex]
-
-  return { setup, events, samples, end, circuit, stateAt, before }
 }
 
 /**
- * Index of the first of some time-ordered samples at or after t (strictly after t with `afterT`), or
- * their length when there is none: windows of time are found by binary search, not by a scan.
+ * True when the circuit readings of both states are alike but for the meter: the circuit configured
+ * alike, the same input states and the same analog input (a meter probe moved, a setting edited).
  */
-export function firstSampleFrom(samples: readonly Sample[], t: number, afterT = false): number {
-  let lo = 0
-  let hi = samples.length
-  while (lo < hi) {
-    const mid = (lo + hi) >> 1
-    if (samples[mid].t < t || (afterT && samples[mid].t === t)) lo = mid + 1
-    else hi = mid
+export function sameCircuitButMeter(a: SimState, b: SimState): boolean {
+  return sameCircuitConfig(a, b) && a.inputs === b.inputs && a.circuit === b.circuit
+}
+
+/**
+ * True when the model configures the control circuit of both states alike (the parts its circuit
+ * configuration reads are the same objects or values), so its solution — the supply, the inputs'
+ * voltages — is the same. A meter probe moved, a setting edited but not saved, time passing.
+ */
+function sameCircuitConfig(a: SimState, b: SimState): boolean {
+  return (
+    a === b ||
+    (a.wires === b.wires &&
+      a.brokenWires === b.brokenWires &&
+      a.devices === b.devices &&
+      a.deviceOrder === b.deviceOrder &&
+      a.fuseBlown === b.fuseBlown &&
+      a.settings.active === b.settings.active &&
+      a.bus.controlOn === b.bus.controlOn &&
+      a.circuit.relayClosed === b.circuit.relayClosed)
+  )
+}
+
+type Breakpoint = { t: number; what: BreakpointKind }
+
+const NO_ISOLATION: IsolationEvents = { lastLockT: undefined, lastOffT: undefined }
+
+/**
+ * Turns an attempt into samples as its events arrive. Keeps only the state after the last event,
+ * so the cost of an event does not depend on how many came before it.
+ */
+export class AttemptSampler {
+  /** The first sample (the starting state). */
+  readonly start: Sample
+  #last: StreamSample
+  #state: SimState
+  #applied = 0
+  #isolation = NO_ISOLATION
+
+  constructor(setup: SimulationSetup) {
+    this.#state = createSimulation(setup)
+    this.#last = new StreamSample(this.#state, 'start', -1, undefined, 0, NO_ISOLATION)
+    this.start = this.#last
   }
-  return lo
+
+  /** Time of the state after the last event. */
+  get t(): number {
+    return this.#state.t
+  }
+
+  /** The samples an event adds, in time order: breakpoints since the event before, then before and after it. */
+  push(event: AttemptEvent): Sample[] {
+    const breakpoints: Breakpoint[] = []
+    const next = applyEventCollecting(this.#state, event, breakpoints)
+    const added: Sample[] = []
+    const state = this.#passBreakpoints(breakpoints, event.t, added)
+    added.push(this.#add(state, 'before', event))
+    this.#applied++
+    if (event.type === 'lock.applied') this.#isolation = { ...this.#isolation, lastLockT: event.t }
+    if (event.type === 'power.off') this.#isolation = { ...this.#isolation, lastOffT: event.t }
+    this.#state = next
+    added.push(this.#add(next, 'after', event))
+    return added
+  }
+
+  /**
+   * The moments from the last event to `t` (≥ it): the breakpoints passed on the way, then the moment
+   * the attempt is judged at. Not kept: a later event may come first.
+   */
+  end(t: number): Sample[] {
+    const breakpoints: Breakpoint[] = []
+    advancePieces(this.#state, t, breakpoints)
+    const samples: Sample[] = []
+    const last = this.#last
+    const state = this.#passBreakpoints(breakpoints, t, samples)
+    samples.push(this.#add(state, 'end', undefined))
+    this.#last = last
+    return samples
+  }
+
+  /**
+   * Adds a sample at each breakpoint strictly between the state after the last event and t; returns
+   * the state at t. Breakpoints at t itself belong to what happens at t.
+   */
+  #passBreakpoints(breakpoints: readonly Breakpoint[], t: number, samples: Sample[]): SimState {
+    let state = this.#state
+    const times = breakpoints.length > 1 ? ceilings(breakpoints).sort(byNumber) : ceilings(breakpoints)
+    for (const bt of times) {
+      if (bt <= state.t || bt >= t) continue
+      state = advance(state, bt - state.t)
+      samples.push(this.#add(state, 'breakpoint', undefined))
+    }
+    return t > state.t ? advance(state, t - state.t) : state
+  }
+
+  /** A sample after the events applied so far (`event`: the one it is just before or after). */
+  #add(state: SimState, at: SampleAt, event: AttemptEvent | undefined): StreamSample {
+    const applied = this.#applied
+    const eventIndex = event === undefined ? -1 : at === 'after' ? applied - 1 : applied
+    this.#last = new StreamSample(state, at, eventIndex, event, applied, this.#isolation, this.#last)
+    return this.#last
+  }
+}
+
+function ceilings(breakpoints: readonly Breakpoint[]): number[] {
+  const times: number[] = []
+  for (const b of breakpoints) times.push(Math.ceil(b.t))
+  return times
+}
+
+function byNumber(a: number, b: number): number {
+  return a - b
+}
+
+/** The exact state at time t (≥ base.t), from the last sample at or before it. */
+export function sampleAt(base: Sample, t: number): Sample {
+  if (base.t === t) return base
+  const state = advance(base.state, Math.round(t) - base.t)
+  return new StreamSample(state, 'end', -1, undefined, base.applied, base.isolation)
 }
 
 /** Drive output on and not stopping: the motor is being driven at its reference. */
@@ -171,12 +230,19 @@ export function isRunning(drive: DriveReading): boolean {
   )
 }
 
-/** Events that mean hands on terminals: wiring, fitting a contact block, changing a fuse. */
-export function isTerminalWork(event: AttemptEvent): boolean {
+/** Events that mean hands on terminals: wiring, fitting a contact block, changing a fuse, the motor cable. */
+export function isTerminalWork(event: AttemptEvent | undefined): boolean {
   return (
-    event.type === 'wire.added' ||
-    event.type === 'wire.removed' ||
-    event.type === 'device.contactFitted' ||
-    event.type === 'fuse.replaced'
+    event?.type === 'wire.added' ||
+    event?.type === 'wire.removed' ||
+    event?.type === 'device.contactFitted' ||
+    event?.type === 'fuse.replaced' ||
+    event?.type === 'motor.conductorLanded' ||
+    event?.type === 'motor.cableReplaced'
   )
+}
+
+/** The sample just before a terminal work event: what the apprentice's hands met. */
+export function isTerminalWorkMoment(sample: Sample): boolean {
+  return sample.at === 'before' && isTerminalWork(sample.event)
 }

@@ -1,6 +1,13 @@
 // The scenario file format: the zod schema every scenario file (shipped or uploaded) must satisfy.
 import { z } from 'zod'
-import { CONTACT_TYPES, WIRE_COLOURS } from '../model/setup'
+import { OUTPUT_PHASES } from '../model/points'
+import {
+  CONTACT_TYPES,
+  LOAD_KINDS,
+  motorNameplateSchema,
+  strictMotorCableSchema,
+  WIRE_COLOURS,
+} from '../model/setup'
 import { objectiveSchema } from './objectiveSchema'
 
 const slug = z
@@ -54,6 +61,7 @@ export const injectedFaultSchema = z.discriminatedUnion('kind', [
   z.strictObject({ kind: z.literal('contactWelded'), device: idSchema }),
   z.strictObject({ kind: z.literal('wrongContactType'), device: idSchema }),
   z.strictObject({ kind: z.literal('blownFuse') }),
+  z.strictObject({ kind: z.literal('motorConductorOpen'), conductor: z.enum(OUTPUT_PHASES) }),
 ])
 
 export const settingValueSchema = z.union([z.string(), z.number(), z.boolean()])
@@ -71,8 +79,16 @@ export const startingStateSchema = z.strictObject({
       name: z.string().min(1).optional(),
       coastSeconds: z.number().positive().optional(),
       minDecelSeconds: z.number().positive().optional(),
+      /** variableTorque (fan, centrifugal pump) or constantTorque (conveyor, feeder). */
+      loadKind: z.enum(LOAD_KINDS).optional(),
+      /** Torque the machine needs at rated speed, as a fraction of the motor's rated torque. */
+      loadFraction: z.number().min(0).max(1.5).optional(),
     })
     .optional(),
+  /** The motor's nameplate (the model's own schema; its figures are checked to agree by checkScenario). */
+  motor: z.strictObject(motorNameplateSchema.shape).optional(),
+  /** How the motor cable is landed at the start (default straight through). */
+  motorCable: strictMotorCableSchema.optional(),
 })
 
 export const hintSchema = z.strictObject({

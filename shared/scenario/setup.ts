@@ -7,6 +7,8 @@ export function toSimulationSetup(scenario: Scenario): SimulationSetup {
   const machine: SimulationSetup['machine'] = {}
   if (start.machine?.coastSeconds !== undefined) machine.coastSeconds = start.machine.coastSeconds
   if (start.machine?.minDecelSeconds !== undefined) machine.minDecelSeconds = start.machine.minDecelSeconds
+  if (start.machine?.loadKind !== undefined) machine.loadKind = start.machine.loadKind
+  if (start.machine?.loadFraction !== undefined) machine.loadFraction = start.machine.loadFraction
   const setup: SimulationSetup = {
     devices: start.devices.map((device) => ({ ...device })),
     wires: start.wires.map((wire) => ({ ...wire })),
@@ -17,5 +19,7 @@ export function toSimulationSetup(scenario: Scenario): SimulationSetup {
     machine,
   }
   if (start.lineVolts !== undefined) setup.lineVolts = start.lineVolts
+  if (start.motor !== undefined) setup.motor = { ...start.motor }
+  if (start.motorCable !== undefined) setup.motorCable = { ...start.motorCable }
   return setup
 }

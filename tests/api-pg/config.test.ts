@@ -2,7 +2,7 @@
 // rate-limit counters live, the reverse proxy in front. Pure configuration: runs on either database.
 import { describe, expect, it } from 'vitest'
 import { ConfigError, loadConfig } from '../../server/config'
-import { dataSourceOptionsFor } from '../../server/data-source'
+import { dataSourceOptionsFor } from '../../server/infrastructure/database/data-source'
 
 const SECRET = 'a-shared-secret-of-enough-length-0123456789'
 const PG_URL = 'postgres://slipway:pw@db.internal.example:5432/slipway'

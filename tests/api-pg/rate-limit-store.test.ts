@@ -6,8 +6,8 @@ import { join } from 'node:path'
 import type { Options } from 'express-rate-limit'
 import type { DataSource } from 'typeorm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { openDatabase, type DataSourceOptions } from '../../server/data-source'
-import { DatabaseRateLimitStore } from '../../server/services/rate-limit-store'
+import { openDatabase, type DataSourceOptions } from '../../server/infrastructure/database/data-source'
+import { DatabaseRateLimitStore } from '../../server/infrastructure/rate-limit-store'
 import { createTestDatabase, onPostgres, type TestDatabase } from '../support/test-database'
 
 const WINDOW_MS = 60_000

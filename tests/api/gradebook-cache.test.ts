@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { gradebookSchema, type Gradebook } from '../../shared/api'
 import { createApp } from '../../server/app'
 import { CohortEntity } from '../../server/entities'
-import { loadGradebook, viewGradebook } from '../../server/services/gradebook'
+import { loadGradebook, viewGradebook } from '../../server/gradebook/gradebook.service'
 import { bearer, createTestApi, TEST_JWT_SECRET, type TestApi } from '../support/api-harness'
 import { buildWorld, createAssignment, expectStatus, submit, type World } from '../support/world'
 

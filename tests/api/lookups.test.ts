@@ -8,7 +8,7 @@ import {
   ScenarioEntity,
   UserEntity,
 } from '../../server/entities'
-import { findById } from '../../server/services/lookups'
+import { findById } from '../../server/infrastructure/database/lookups'
 import { createTestApi, type TestApi } from '../support/api-harness'
 import { buildWorld, type World } from '../support/world'
 

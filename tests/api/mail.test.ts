@@ -4,7 +4,7 @@ import supertest from 'supertest'
 import { pino } from 'pino'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { MailMessageEntity } from '../../server/entities'
-import { createMailer } from '../../server/services/mailer'
+import { createMailer } from '../../server/infrastructure/mail/mailer'
 import { bearer, createTestApi, type TestApi } from '../support/api-harness'
 import { createAssignment, createCohort } from '../support/world'
 

@@ -8,8 +8,8 @@ import {
   EnrollmentEntity,
   UserEntity,
 } from '../../server/entities'
-import { DEMO_ACCOUNTS, DEMO_DOMAIN, demoSignInTable } from '../../server/services/demo-accounts'
-import { isDatabaseEmpty, seedDemo } from '../../server/services/seed'
+import { DEMO_ACCOUNTS, DEMO_DOMAIN, demoSignInTable } from '../../server/demo/demo-accounts'
+import { isDatabaseEmpty, seedDemo } from '../../server/demo/seed'
 import { bearer, createTestApi, type TestApi } from '../support/api-harness'
 
 describe('demo seed', () => {

@@ -1,8 +1,8 @@
-// The gradebook's statistics (server/services/stats.ts) against mathjs, over random score lists.
+// The gradebook's statistics (server/assignments/stats.ts) against mathjs, over random score lists.
 import fc from 'fast-check'
 import { mean as mathMean, median as mathMedian } from 'mathjs'
 import { describe, expect, it } from 'vitest'
-import { histogram, mean, median } from '../../server/services/stats'
+import { histogram, mean, median } from '../../server/assignments/stats'
 
 const scores = fc.array(fc.double({ min: 0, max: 100, noNaN: true }), { minLength: 1, maxLength: 60 })
 

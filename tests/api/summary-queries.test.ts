@@ -5,7 +5,7 @@
 import supertest from 'supertest'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { attemptPageSchema, gradebookSchema } from '../../shared/api'
-import { standingsByAssignmentAndUser } from '../../server/services/progress'
+import { standingsByAssignmentAndUser } from '../../server/gradebook/standings'
 import { bearer, createTestApi, type TestApi } from '../support/api-harness'
 import { buildWorld, createAssignment, createCohort, submit, type World } from '../support/world'
 

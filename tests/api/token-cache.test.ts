@@ -2,7 +2,7 @@
 // remembered token still expires on the second its `exp` names, and nothing about it is trusted for a
 // different token string.
 import { afterEach, describe, expect, it, vi } from 'vitest'
-import { createAccessTokens } from '../../server/services/tokens'
+import { createAccessTokens } from '../../server/infrastructure/security/tokens'
 import { TEST_JWT_SECRET } from '../support/api-harness'
 
 describe('access token verification cache', () => {

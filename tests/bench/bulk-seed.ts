@@ -7,12 +7,12 @@ import type { DataSource } from 'typeorm'
 import { attemptLogSchema, type AttemptEvent } from '../../shared/model/events'
 import type { Scenario } from '../../shared/scenario/schema'
 import { OWASP_ARGON2ID } from '../../server/config'
-import { openDatabase } from '../../server/data-source'
+import { openDatabase } from '../../server/infrastructure/database/data-source'
 import { ScenarioEntity } from '../../server/entities'
 import { SCENARIOS_DIR } from '../../server/main'
-import { gradeAttempt, type GradeOutcome } from '../../server/services/grading'
-import { createPasswordHasher } from '../../server/services/passwords'
-import { importShippedScenarios } from '../../server/services/scenarios'
+import { gradeAttempt, type GradeOutcome } from '../../server/infrastructure/grading/grading'
+import { createPasswordHasher } from '../../server/infrastructure/security/passwords'
+import { importShippedScenarios } from '../../server/scenarios/scenarios.service'
 
 export const FIXTURE_DIR = new URL('../fixtures/attempts/', import.meta.url).pathname
 export const BENCH_PASSWORD = 'load-test-bench-passphrase'
@@ -39,6 +39,8 @@ export interface BulkSeedResult {
   cohorts: string[]
   /** assignments[c] = the assignment ids of cohort c; the first of each uses `raise-lower-commissioning`. */
   assignments: string[][]
+  /** The scenario version id each assignment sets. */
+  assignmentScenarios: Record<string, string>
   counts: { users: number; cohorts: number; assignments: number; attempts: number }
   seedMs: number
 }
@@ -160,6 +162,7 @@ export async function bulkSeed(
       apprentices: [],
       cohorts: [],
       assignments: [],
+      assignmentScenarios: {},
       counts: { users: 0, cohorts: 0, assignments: 0, attempts: 0 },
       seedMs: 0,
     }
@@ -223,6 +226,7 @@ export async function bulkSeed(
             created,
           )
           assignmentScenario.set(id, scenario.id)
+          result.assignmentScenarios[id] = scenario.id
           ids.push(id)
         }
         result.assignments.push(ids)

@@ -38,6 +38,10 @@ export interface ModelBenchResult {
   durationRatio: number
   /** 10k-event replay time (median wall; target < 20 ms). */
   tenThousandMs: number
+  /** JSON.parse of the same 10k-event log's text, timed the same way in the same run (median wall). */
+  parseTenThousandMs: number
+  /** Size of that text in bytes. */
+  tenThousandBytes: number
   /**
    * Each target of issue 3, judged on the best timed runs: the least disturbed by other work on this
    * shared machine (the medians are printed beside).
@@ -261,6 +265,14 @@ export function runModelBenchmark(): ModelBenchResult {
     measure('10k events over 1 min', logs.k10minute, minute, 15),
   ]
   const [, k10, k100, k10minute] = rows
+  const text = JSON.stringify(logs.k10)
+  const parseTimes: number[] = []
+  for (let i = 0; i < 5; i++) JSON.parse(text)
+  for (let i = 0; i < 15; i++) {
+    const start = performance.now()
+    JSON.parse(text)
+    parseTimes.push(performance.now() - start)
+  }
   const bestEvents = k100.bestMs / k10.bestMs
   const bestDuration = k10.bestMs / k10minute.bestMs
   return {
@@ -269,6 +281,8 @@ export function runModelBenchmark(): ModelBenchResult {
     eventsRatio: k100.ms / k10.ms,
     durationRatio: k10.ms / k10minute.ms,
     tenThousandMs: k10.ms,
+    parseTenThousandMs: median(parseTimes),
+    tenThousandBytes: text.length,
     targets: [
       {
         name: '10k events over 10 h (best run)',
@@ -319,6 +333,9 @@ function printResult(result: ModelBenchResult): void {
     })),
   )
   console.log(`calibration (10k plain 24-field object copies kept): ${result.calibrationMs.toFixed(2)} ms`)
+  console.log(
+    `JSON.parse of the 10k log's text (${(result.tenThousandBytes / 1e6).toFixed(2)} MB): ${result.parseTenThousandMs.toFixed(2)} ms median; replay ×${(result.tenThousandMs / result.parseTenThousandMs).toFixed(2)}`,
+  )
   console.log(
     `medians: 10k events ${result.tenThousandMs.toFixed(2)} ms, 100k/10k ×${result.eventsRatio.toFixed(2)}, 10 h/1 min ×${result.durationRatio.toFixed(2)}`,
   )

@@ -1,10 +1,11 @@
-// `npm run bench`: every benchmark in one table. BENCH_ONLY=bundle,model,grade,api,frame picks some.
+// `npm run bench`: every benchmark in one table. BENCH_ONLY=bundle,model,grade,live-grade,api,frame picks some.
 // Needs the production build for bundle and frame (npm run build:client).
 import { cpus, loadavg } from 'node:os'
 import { runApiBench } from './api.bench'
 import { runBundleBench } from './bundle.bench'
 import { runFrameBench } from './frame.bench'
 import { runGradeBenchmark, type GradeBenchResult } from './grade.bench'
+import { runLiveGradeBenchmark, type LiveGradeBenchResult } from './live-grade.bench'
 import { runModelBenchmark, type ModelBenchResult } from './model.bench'
 import { formatTable, type BenchRow } from './table'
 
@@ -18,6 +19,15 @@ function modelRows(result: ModelBenchResult): BenchRow[] {
       unit: 'ms',
       ...(row.events === 10_000 && row.simulatedMs > 3600_000 ? { target: '< 20 ms', met: row.ms < 20 } : {}),
     })),
+    {
+      group,
+      name: 'replay of 10k events vs JSON.parse of its text',
+      value: result.tenThousandMs,
+      unit: 'ms',
+      baseline: { name: 'JSON.parse (median)', value: result.parseTenThousandMs },
+      target: '≤ 4× JSON.parse',
+      met: result.tenThousandMs <= 4 * result.parseTenThousandMs,
+    },
     {
       group,
       name: '100k vs 10k events',
@@ -66,10 +76,41 @@ function gradeRows(result: GradeBenchResult): BenchRow[] {
   ]
 }
 
+function liveGradeRows(result: LiveGradeBenchResult): BenchRow[] {
+  const group = 'live grade'
+  const at = (n: number) => `${n.toLocaleString('en')}-event log`
+  return [
+    {
+      group,
+      name: `one action (push + result) at a ${at(result.long.events)} (median)`,
+      value: result.long.medianUs,
+      unit: 'µs',
+      baseline: { name: `same at a ${at(result.short.events)}`, value: result.short.medianUs },
+      target: '≤ 1.5×',
+      met: result.ratio <= 1.5,
+    },
+    {
+      group,
+      name: `one action at a ${at(result.long.events)} (p90)`,
+      value: result.long.p90Us,
+      unit: 'µs',
+      baseline: { name: `same at a ${at(result.short.events)}`, value: result.short.p90Us },
+    },
+    {
+      group,
+      name: `whole-log grade() per action at a ${at(result.long.events)} (before: the panel's regrade)`,
+      value: result.regrade.longMs,
+      unit: 'ms',
+      baseline: { name: `same at a ${at(result.short.events)}`, value: result.regrade.shortMs },
+    },
+  ]
+}
+
 const BENCHES: Record<string, () => BenchRow[] | Promise<BenchRow[]>> = {
   bundle: runBundleBench,
   model: () => modelRows(runModelBenchmark()),
   grade: () => gradeRows(runGradeBenchmark()),
+  'live-grade': () => liveGradeRows(runLiveGradeBenchmark()),
   api: runApiBench,
   frame: runFrameBench,
 }

@@ -1,6 +1,6 @@
 // Steps the client's browser tests share: signing in as a demo user, waiting for a screen to settle.
 import type { Page } from 'playwright-core'
-import { DEMO_ACCOUNTS, type DemoAccount } from '../../server/services/demo-accounts'
+import { DEMO_ACCOUNTS, type DemoAccount } from '../../server/demo/demo-accounts'
 
 export function demo(role: DemoAccount['role'], index = 0): DemoAccount {
   const account = DEMO_ACCOUNTS.filter((a) => a.role === role)[index]

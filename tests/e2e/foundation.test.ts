@@ -1,7 +1,7 @@
 // The foundation's promise: the built app comes up on one port with demo data and a demo user can sign in.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { launchBrowser, screenshot, startApp, type BrowserSession, type RunningApp } from './support'
-import { DEMO_ACCOUNTS } from '../../server/services/demo-accounts'
+import { DEMO_ACCOUNTS } from '../../server/demo/demo-accounts'
 
 describe('the built app', () => {
   let app: RunningApp

@@ -24,7 +24,7 @@ describe('commissioning raise/lower on the panel by mouse', () => {
     await panel.probe('red', null)
     await panel.probe('black', null)
 
-    // Sink logic from the drive's own supply: +24 feeds the contacts, DCM to 0V. Wired tap by tap.
+    // Sink logic from the drive's own supply: +24 feeds the contacts, DIC to 0V. Wired tap by tap.
     await panel.wire('drive.p24', 'runSwitch.a', 'taps')
     await panel.wire('runSwitch.a', 'raiseButton.a', 'taps')
     await panel.wire('raiseButton.a', 'lowerButton.a', 'taps')
@@ -43,7 +43,7 @@ describe('commissioning raise/lower on the panel by mouse', () => {
 
     // Keypad: control from terminals, DI1 run, DI2 raise, DI3 lower, reference from raise/lower.
     await panel.key('enter') // settings groups
-    await panel.key('down') // control place
+    await panel.key('down') // command source
     await panel.key('enter') // "Run commands from"
     await panel.key('enter')
     await panel.key('down') // terminals

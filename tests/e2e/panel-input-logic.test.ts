@@ -1,5 +1,5 @@
 // A third troubleshooting job: no input ever turns ON. The inputs are set for source logic and the
-// common is not wired. Set sink logic from the settings list, wire DCM to 0V under lockout, then
+// common is not wired. Set sink logic from the settings list, wire DIC to 0V under lockout, then
 // run the feeder at 30 Hz with the raise button.
 import { describe, expect, it } from 'vitest'
 import { screenshot } from './support'

@@ -3,7 +3,7 @@
 import { randomUUID } from 'node:crypto'
 import pg from 'pg'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { DEMO_ACCOUNTS } from '../../server/services/demo-accounts'
+import { DEMO_ACCOUNTS } from '../../server/demo/demo-accounts'
 import { createPostgresTestDatabase, onPostgres, type TestDatabase } from '../support/test-database'
 import { startServerProcess, type ServerProcess } from '../support/server-process'
 

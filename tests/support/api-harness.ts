@@ -6,7 +6,7 @@ import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import type { Express } from 'express'
-import { pino } from 'pino'
+import { pino, type Logger } from 'pino'
 import supertest from 'supertest'
 import type { DataSource } from 'typeorm'
 import type { Role } from '../../shared/api/auth'
@@ -18,13 +18,16 @@ import {
   type PasswordHashing,
   type RateLimits,
 } from '../../server/config'
-import { dataSourceOptionsFor, openDatabase } from '../../server/data-source'
+import { dataSourceOptionsFor, openDatabase } from '../../server/infrastructure/database/data-source'
 import { MailMessageEntity, UserEntity, type MailMessageRow, type UserRow } from '../../server/entities'
 import { SCENARIOS_DIR } from '../../server/main'
-import { createMailer, type Mailer } from '../../server/services/mailer'
-import { startOutboxSmtp, type OutboxSmtp } from '../../server/services/outbox-smtp'
-import { createPasswordHasher, type PasswordHasher } from '../../server/services/passwords'
-import { importShippedScenarios } from '../../server/services/scenarios'
+import { createGradingPool, type GradingPool } from '../../server/infrastructure/grading/grading-pool'
+import { createLifecycle, type Lifecycle } from '../../server/infrastructure/http/lifecycle'
+import { createMetrics } from '../../server/infrastructure/metrics'
+import { createMailer, type Mailer } from '../../server/infrastructure/mail/mailer'
+import { startOutboxSmtp, type OutboxSmtp } from '../../server/infrastructure/mail/outbox-smtp'
+import { createPasswordHasher, type PasswordHasher } from '../../server/infrastructure/security/passwords'
+import { importShippedScenarios } from '../../server/scenarios/scenarios.service'
 import { createTestDatabase } from './test-database'
 
 /**
@@ -43,6 +46,10 @@ export interface TestApiOptions {
   config?: Partial<AppConfig>
   /** A built client to serve (with config.serveClient). */
   clientDir?: string
+  /** Default: one grading thread, closed with the app. */
+  grading?: GradingPool
+  /** Default: silent (TEST_LOG_LEVEL to see it). */
+  log?: Logger
 }
 
 export interface TestUser {
@@ -58,6 +65,9 @@ export interface TestApi {
   dataSource: DataSource
   config: AppConfig
   mailer: Mailer
+  grading: GradingPool
+  /** Requests in flight; drain() starts a shutdown's 503s. */
+  lifecycle: Lifecycle
   passwords: PasswordHasher
   outbox: OutboxSmtp
   dataDir: string
@@ -73,7 +83,7 @@ export { DEFAULT_RATE_LIMITS }
 
 export async function createTestApi(options: TestApiOptions = {}): Promise<TestApi> {
   const dataDir = mkdtempSync(join(tmpdir(), 'slipway-api-test-'))
-  const log = pino({ level: process.env.TEST_LOG_LEVEL ?? 'silent' })
+  const log = options.log ?? pino({ level: process.env.TEST_LOG_LEVEL ?? 'silent' })
   const database = await createTestDatabase(dataDir)
   const base = loadConfig({
     NODE_ENV: 'test',
@@ -99,6 +109,12 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     retryDelaysMs: [50, 100],
   })
   const passwords = createPasswordHasher(config.passwordHashing)
+  // Real grading threads (the worker bundled from source, plain JavaScript), as in production.
+  const metrics = createMetrics()
+  const grading =
+    options.grading ??
+    createGradingPool({ threads: 1, queueLimit: config.gradingQueueLimit, onTask: metrics.gradingTask })
+  const lifecycle = createLifecycle()
   const app = createApp({
     dataSource,
     config,
@@ -106,6 +122,9 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     jwtSecret: TEST_JWT_SECRET,
     log,
     passwords,
+    grading,
+    lifecycle,
+    metrics,
     clientDir: options.clientDir,
   })
   const http = supertest.agent(app)
@@ -148,6 +167,8 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     dataSource,
     config,
     mailer,
+    grading,
+    lifecycle,
     passwords,
     outbox,
     dataDir,
@@ -158,6 +179,7 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
       return dataSource.getRepository(MailMessageEntity).find({ order: { receivedAt: 'ASC' } })
     },
     async close() {
+      await grading.close()
       await mailer.idle()
       mailer.close()
       await outbox.close()

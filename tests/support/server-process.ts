@@ -1,14 +1,12 @@
-// Runs the real server (or the bare Express baseline) as a child process on a free loopback port and
-// stops it by its own PID. Shared by the browser tests, the benchmarks, the durability soak and the
-// two-instance test.
+// Runs the built server (or a benchmark baseline) as a child process on a free loopback port and stops it
+// by its own PID. Shared by the browser tests, the benchmarks, the soak tests and the two-instance test.
+// The server is what production runs: `node dist/server/<entry>.js`, rebuilt first when its sources changed.
 import { spawn, type ChildProcess } from 'node:child_process'
 import { createServer } from 'node:net'
 import { fileURLToPath } from 'node:url'
+import { builtServerFile, bundleFromSource, ensureServerBuild } from '../../scripts/build'
 
 export const ROOT = fileURLToPath(new URL('../..', import.meta.url))
-// tsx as a loader inside one node process (its CLI would run the script in a second process):
-// the PID is the server's own, so SIGTERM and SIGKILL reach it and no orphan is left behind.
-const TSX = ['--import', 'tsx']
 
 export interface ServerProcess {
   child: ChildProcess
@@ -47,19 +45,27 @@ async function waitUntilUp(url: string, child: ChildProcess, output: () => strin
 }
 
 interface LaunchOptions {
+  /** A JavaScript file run by plain node (no loader): the PID is the server's own. */
   script: string
   env: NodeJS.ProcessEnv
   port: number
   healthPath: string
   timeoutMs: number
+  cwd?: string
+  /** Flags for node itself, e.g. --cpu-prof when profiling a benchmark. */
+  nodeArgs?: string[]
 }
 
-async function launch({ script, env, port, healthPath, timeoutMs }: LaunchOptions): Promise<ServerProcess> {
-  const child = spawn(process.execPath, [...TSX, script], {
-    cwd: ROOT,
-    env: { TSX_TSCONFIG_PATH: 'tsconfig.node.json', ...env },
-    stdio: ['ignore', 'pipe', 'pipe'],
-  })
+export async function launch({
+  script,
+  env,
+  port,
+  healthPath,
+  timeoutMs,
+  cwd = ROOT,
+  nodeArgs = [],
+}: LaunchOptions): Promise<ServerProcess> {
+  const child = spawn(process.execPath, [...nodeArgs, script], { cwd, env, stdio: ['ignore', 'pipe', 'pipe'] })
   let log = ''
   const keep = (chunk: Buffer) => {
     log = (log + chunk.toString()).slice(-20_000)
@@ -88,7 +94,7 @@ async function launch({ script, env, port, healthPath, timeoutMs }: LaunchOption
 /** The production build (API + built client): NODE_ENV=production, its own DATA_DIR, loopback only. */
 export async function startSlipway(
   dataDir: string,
-  options: { port?: number; env?: NodeJS.ProcessEnv; timeoutMs?: number } = {},
+  options: { port?: number; env?: NodeJS.ProcessEnv; timeoutMs?: number; nodeArgs?: string[] } = {},
 ): Promise<ServerProcess> {
   const port = options.port ?? (await freePort())
   const env = {
@@ -101,8 +107,10 @@ export async function startSlipway(
     LOG_LEVEL: 'warn',
     ...options.env,
   }
+  await ensureServerBuild()
   return launch({
-    script: 'server/index.ts',
+    script: builtServerFile('start'),
+    nodeArgs: options.nodeArgs ?? (process.env.BENCH_NODE_ARGS?.split(' ').filter(Boolean) || []),
     env,
     port,
     healthPath: '/api/health',
@@ -127,14 +135,15 @@ export async function startServerProcess(
     API_PORT: String(port),
     ...env,
   }
-  return launch({ script: 'server/index.ts', env: fullEnv, port, healthPath: '/api/health', timeoutMs })
+  await ensureServerBuild()
+  return launch({ script: builtServerFile('index'), env: fullEnv, port, healthPath: '/api/health', timeoutMs })
 }
 
-/** The benchmark baseline: a bare Express 5 app answering `{}`, run the same way. */
+/** The benchmark baseline: a bare Express 5 app answering `{}`, bundled and run the same way. */
 export async function startBareExpress(): Promise<ServerProcess> {
   const port = await freePort()
   return launch({
-    script: 'tests/bench/bare-server.ts',
+    script: await bundleFromSource('tests/bench/bare-server.ts'),
     env: { ...process.env, PORT: String(port) },
     port,
     healthPath: '/',

@@ -12,6 +12,13 @@ export const REFERENCE_LIMIT_AMPS = 0.01
 /** Opto-coupled digital input: series resistance and LED forward drop (common practice). */
 export const INPUT_OHMS = 4700
 export const OPTO_DROP_VOLTS = 1
+/**
+ * What an ohmmeter reads from a digital input to its common: the input's resistance as it presents at
+ * 24 V, R = 24 V / I(24 V) with I = (24 − 1) V / 4.7 kΩ = 4.89 mA — inside IEC 61131-2 type 1's ON
+ * current band at 24 V (2–15 mA, so 1.6–12 kΩ). Read the same both ways round (the LED's polarity is
+ * not modelled in the ohms ranges).
+ */
+export const INPUT_OHMS_AT_24V = SUPPLY_VOLTS / ((SUPPLY_VOLTS - OPTO_DROP_VOLTS) / INPUT_OHMS)
 /** Analog voltage input resistance to analog common (common practice). */
 export const ANALOG_INPUT_OHMS = 20_000
 /** A closed contact or a relay contact: a few milliohms (from memory: contact resistance < 50 mΩ). */

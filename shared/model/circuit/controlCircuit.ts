@@ -69,9 +69,9 @@ export interface CircuitSolution {
 }
 
 /** Indices of the drive's own points (the order of DRIVE_CONTROL_POINTS). */
-const P = { p24: 0, zero: 1, dcom: 2, di1: 3, p10: 9, ai: 10, acom: 11, k1a: 12, k1b: 13 } as const
+export const P = { p24: 0, zero: 1, dcom: 2, di1: 3, p10: 9, ai: 10, acom: 11, k1a: 12, k1b: 13 } as const
 
-interface Nets {
+export interface Nets {
   netOfPoint: Int32Array
   count: number
   ground: number
@@ -79,7 +79,7 @@ interface Nets {
 
 const netMemo = new Map<string, Nets>()
 
-function groupNets(config: CircuitConfig): Nets {
+export function groupNets(config: CircuitConfig): Nets {
   const key = `${config.points.length}|${config.wiresKey}`
   const hit = netMemo.get(key)
   if (hit) return hit
@@ -112,8 +112,8 @@ type Element =
   /** One half of a potentiometer track; its resistance follows the wiper position. */
   | { kind: 'track'; pot: number; end: 'upper' | 'lower'; a: number; b: number }
 
-/** Sink: current flows from the input terminal into the drive to DCM. Source: from DCM to the input. */
-function inputTerminals(logic: 'sink' | 'source', i: number): [number, number] {
+/** Sink: current flows from the input terminal into the drive to DIC. Source: from DIC to the input. */
+export function inputTerminals(logic: 'sink' | 'source', i: number): [number, number] {
   return logic === 'sink' ? [P.di1 + i, P.dcom] : [P.dcom, P.di1 + i]
 }
 
@@ -136,7 +136,7 @@ function elementsOf(config: CircuitConfig, nets: Nets): Element[] {
   return elements
 }
 
-function trackOhms(pot: PotentiometerElement, end: 'upper' | 'lower'): number {
+export function trackOhms(pot: PotentiometerElement, end: 'upper' | 'lower'): number {
   return POT_END_OHMS + pot.ohms * (end === 'upper' ? 1 - pot.position : pot.position)
 }
 

@@ -6,7 +6,7 @@ import { absenceOfVoltageProved, isolated, lockBeforeWiring, noWiringWhileEnergi
 import { settingEquals, settingInRange } from './settings'
 import { speedHeld } from './speed'
 import { restartedWithRememberedReference, stoppedBy } from './stopping'
-import type { EvaluationContext, Evaluator, Verdict } from './types'
+import type { EvaluationContext, Evaluator, Folding } from './types'
 import { wiringCondition } from './wiring'
 
 const evaluators: { [K in ObjectiveKind]: Evaluator<K> } = {
@@ -27,9 +27,10 @@ const evaluators: { [K in ObjectiveKind]: Evaluator<K> } = {
   finishedWithin,
 }
 
-export function evaluate(objective: Objective, context: EvaluationContext): Verdict {
+/** The running judgement of one objective, to be stepped with every sample from the start. */
+export function startObjective(objective: Objective, context: EvaluationContext): Folding {
   const evaluator = evaluators[objective.kind] as Evaluator<typeof objective.kind>
   return evaluator(objective as never, context)
 }
 
-export type { EvaluationContext, Verdict } from './types'
+export type { EvaluationContext, Folding, Verdict } from './types'

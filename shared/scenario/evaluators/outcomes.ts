@@ -1,97 +1,119 @@
 // noFaultTrips, noAlarms, faultFoundAndCleared, finishedWithin.
-import type { FaultCode, Notice, SimState } from '../../model'
+import { faultPresent, type FaultCode, type Notice } from '../../model'
 import { formatTime, joinTexts, upperFirst } from '../format'
-import type { ScenarioFault } from '../schema'
-import type { Evaluator } from './types'
+import { faultName } from '../names'
+import type { Sample } from '../samples'
+import { fixed, folding, type Evaluator, type Verdict } from './types'
 
-export const noFaultTrips: Evaluator<'noFaultTrips'> = (_objective, { trace }) => {
-  const { samples } = trace
-  // A fault is fresh when the sample before did not have it (the lists hold one or two faults).
-  let previous: readonly Notice<FaultCode>[] = samples[0].drive.faults
-  for (const sample of samples) {
-    const { faults } = sample.drive
-    const fresh = faults.filter((f) => !previous.some((p) => p.code === f.code))
-    if (fresh.length > 0) {
-      return {
-        met: false,
-        evidence: `Tripped at ${formatTime(sample.t)}: ${joinTexts(fresh.map((f) => f.text))}.`,
-        at: sample.t,
+interface TripWatch {
+  /** The faults of the sample before (a fault is fresh when that sample did not have it). */
+  previous: readonly Notice<FaultCode>[] | undefined
+  tripped: Verdict | undefined
+}
+
+export const noFaultTrips: Evaluator<'noFaultTrips'> = () =>
+  folding<TripWatch>(
+    { previous: undefined, tripped: undefined },
+    (watch, sample) => {
+      const { faults } = sample.drive
+      if (watch.tripped || faults === watch.previous) return watch
+      const previous = watch.previous ?? faults
+      const fresh = faults.filter((f) => !previous.some((p) => p.code === f.code))
+      if (fresh.length > 0) {
+        return {
+          previous: faults,
+          tripped: {
+            met: false,
+            evidence: `Tripped at ${formatTime(sample.t)}: ${joinTexts(fresh.map((f) => f.text))}.`,
+            at: sample.t,
+          },
+        }
       }
-    }
-    previous = faults
-  }
-  return { met: true, evidence: 'The drive never tripped.' }
+      return { previous: faults, tripped: undefined }
+    },
+    (watch) => watch.tripped ?? { met: true, evidence: 'The drive never tripped.' },
+  )
+
+interface AlarmWatch {
+  /** The last moment the display was alive: a dark drive shows no alarm but has not cleared one. */
+  lit: Sample | undefined
+  lastAlarmed: Sample | undefined
 }
 
-export const noAlarms: Evaluator<'noAlarms'> = (_objective, { trace }) => {
-  // The last moment the display was alive: a dark drive shows no alarm but has not cleared one.
-  const lit = trace.samples.findLast((s) => s.drive.displayOn)
-  if (!lit) return { met: false, evidence: 'The drive was never powered, so its alarms were never seen.' }
-  if (lit.drive.alarms.length > 0) {
-    return {
-      met: false,
-      evidence: `At ${formatTime(lit.t)} the drive still showed: ${joinTexts(lit.drive.alarms.map((a) => a.text))}.`,
-      at: lit.t,
-    }
-  }
-  const lastAlarmed = trace.samples.findLast((s) => s.drive.alarms.length > 0)
-  const cleared = lastAlarmed ? ` (last alarm seen at ${formatTime(lastAlarmed.t)})` : ''
-  return { met: true, evidence: `No alarm shown at ${formatTime(lit.t)}${cleared}.`, at: lit.t }
-}
+export const noAlarms: Evaluator<'noAlarms'> = () =>
+  folding<AlarmWatch>(
+    { lit: undefined, lastAlarmed: undefined },
+    (watch, sample) => {
+      const { displayOn, alarms } = sample.drive
+      if (!displayOn && alarms.length === 0) return watch
+      // The same reading as the last lit sample (one moment): nothing a verdict reads changes.
+      if (
+        sample.drive === watch.lit?.drive &&
+        (alarms.length === 0 || sample.drive === watch.lastAlarmed?.drive)
+      ) {
+        return watch
+      }
+      return {
+        lit: displayOn ? sample : watch.lit,
+        lastAlarmed: alarms.length > 0 ? sample : watch.lastAlarmed,
+      }
+    },
+    ({ lit, lastAlarmed }) => {
+      if (!lit) return { met: false, evidence: 'The drive was never powered, so its alarms were never seen.' }
+      if (lit.drive.alarms.length > 0) {
+        return {
+          met: false,
+          evidence: `At ${formatTime(lit.t)} the drive still showed: ${joinTexts(lit.drive.alarms.map((a) => a.text))}.`,
+          at: lit.t,
+        }
+      }
+      const cleared = lastAlarmed ? ` (last alarm seen at ${formatTime(lastAlarmed.t)})` : ''
+      return { met: true, evidence: `No alarm shown at ${formatTime(lit.t)}${cleared}.`, at: lit.t }
+    },
+  )
 
-function faultPresent(fault: ScenarioFault, state: SimState): boolean {
-  switch (fault.kind) {
-    case 'brokenWire':
-      return state.brokenWires.includes(fault.wireId) && state.wires.some((w) => w.id === fault.wireId)
-    case 'blownFuse':
-      return state.fuseBlown
-    default: {
-      const device = state.devices[fault.device]
-      return !device || device.fault !== 'none' || device.contact !== device.spec.contact
-    }
-  }
-}
-
-function faultName(fault: ScenarioFault, state: SimState): string {
-  switch (fault.kind) {
-    case 'brokenWire':
-      return `the broken wire ${fault.wireId}`
-    case 'blownFuse':
-      return 'the blown control fuse'
-    case 'contactFailedOpen':
-      return `the failed-open contact on ${state.devices[fault.device]?.spec.label ?? fault.device}`
-    case 'contactWelded':
-      return `the welded contact on ${state.devices[fault.device]?.spec.label ?? fault.device}`
-    case 'wrongContactType':
-      return `the wrong contact block on ${state.devices[fault.device]?.spec.label ?? fault.device}`
-  }
-}
-
-export const faultFoundAndCleared: Evaluator<'faultFoundAndCleared'> = (objective, { scenario, trace }) => {
+export const faultFoundAndCleared: Evaluator<'faultFoundAndCleared'> = (objective, { scenario, start }) => {
   const fault = scenario.faults[objective.fault]
-  const { samples } = trace
-  if (!fault) return { met: false, evidence: `The scenario has no injected fault number ${objective.fault}.` }
-  const name = faultName(fault, samples[0].state)
-  const last = samples[samples.length - 1]
-  if (faultPresent(fault, last.state)) {
-    return { met: false, evidence: `At the end (${formatTime(last.t)}) ${name} was still there.`, at: last.t }
-  }
-  let clearedAt = last.t
-  for (let i = samples.length - 1; i >= 0 && !faultPresent(fault, samples[i].state); i--)
-    clearedAt = samples[i].t
-  return {
-    met: true,
-    evidence: `${upperFirst(name)} was put right at ${formatTime(clearedAt)}.`,
-    at: clearedAt,
-  }
+  if (!fault)
+    return fixed({
+      met: false,
+      evidence: 'The objective names an injected fault the scenario does not have.',
+    })
+  const name = faultName(fault, start.state)
+  // When the fault was last put right: the start of the run of samples without it that lasts to now.
+  return folding<{ clearedAt: number | undefined }>(
+    { clearedAt: undefined },
+    (watch, sample) => {
+      if (faultPresent(sample.state, fault))
+        return watch.clearedAt === undefined ? watch : { clearedAt: undefined }
+      return watch.clearedAt === undefined ? { clearedAt: sample.t } : watch
+    },
+    ({ clearedAt }, end) => {
+      if (clearedAt === undefined) {
+        return {
+          met: false,
+          evidence: `At the end (${formatTime(end.t)}) ${name} was still there.`,
+          at: end.t,
+        }
+      }
+      return {
+        met: true,
+        evidence: `${upperFirst(name)} was put right at ${formatTime(clearedAt)}.`,
+        at: clearedAt,
+      }
+    },
+  )
 }
 
-export const finishedWithin: Evaluator<'finishedWithin'> = (objective, { trace }) => {
+export const finishedWithin: Evaluator<'finishedWithin'> = (objective) => {
   const limit = objective.minutes * 60_000
-  const met = trace.end <= limit
-  return {
-    met,
-    evidence: `Finished at ${formatTime(trace.end)}; the limit was ${formatTime(limit)}.`,
-    at: trace.end,
-  }
+  return folding(
+    null,
+    (watch) => watch,
+    (_watch, end) => ({
+      met: end.t <= limit,
+      evidence: `Finished at ${formatTime(end.t)}; the limit was ${formatTime(limit)}.`,
+      at: end.t,
+    }),
+  )
 }

@@ -1,67 +1,65 @@
 // settingEquals / settingInRange: judged on the active (saved) value at the end of the attempt.
-import { isSettingKey, settingDef, type SettingKey } from '../../model'
-import { formatTime, formatValue } from '../format'
-import type { AttemptTrace } from '../samples'
-import type { Evaluator, Verdict } from './types'
+import { isSettingKey } from '../../model'
+import { formatTime } from '../format'
+import { settingName, settingValueName } from '../names'
+import type { Sample } from '../samples'
+import { fixed, folding, type Folding } from './types'
+import type { Evaluator } from './types'
 
-function valueLabel(key: SettingKey, value: unknown): string {
-  const def = settingDef(key)
-  if (def.kind === 'choice') {
-    const option = def.options.find((o) => o.value === value)
-    if (option) return `${formatValue(value)} (${option.label})`
-  }
-  if (def.kind === 'number') return `${value} ${def.unit}`.trim()
-  return formatValue(value)
+interface Watch {
+  /** The active value at the last sample. */
+  value: unknown
+  /** When the active value last changed (undefined: it has been so from the start). */
+  since: number | undefined
 }
 
-/** When the active value last became what it is at the end (undefined: it was so from the start). */
-function activeSince(trace: AttemptTrace, key: SettingKey): number | undefined {
-  const { samples } = trace
-  const final = samples[samples.length - 1].state.settings.active[key]
-  for (let i = samples.length - 1; i > 0; i--) {
-    if (samples[i - 1].state.settings.active[key] !== final) return samples[i].t
+function judge(start: Sample, key: string, wanted: string, accepts: (value: unknown) => boolean): Folding {
+  if (!isSettingKey(key)) {
+    return fixed({ met: false, evidence: 'The objective names a setting the drive does not have.' })
   }
-  return undefined
+  const label = settingName(key)
+  const initial: Watch = { value: start.state.settings.active[key], since: undefined }
+  return folding(
+    initial,
+    (watch, sample) => {
+      const value = sample.state.settings.active[key]
+      return value === watch.value ? watch : { value, since: sample.t }
+    },
+    ({ since }, end) => {
+      const active = end.state.settings.active[key]
+      if (accepts(active)) {
+        const when = since === undefined ? 'from the start' : `since ${formatTime(since)}`
+        return {
+          met: true,
+          evidence: `The setting ${label} is ${settingValueName(key, active)}, active ${when}.`,
+          at: since,
+        }
+      }
+      const pending = end.state.settings.pending[key]
+      const unsaved =
+        pending !== undefined && accepts(pending)
+          ? ` A change to ${settingValueName(key, pending)} was never saved.`
+          : ''
+      return {
+        met: false,
+        evidence: `The setting ${label} is ${settingValueName(key, active)} at the end (${formatTime(end.t)}); wanted ${wanted}.${unsaved}`,
+      }
+    },
+  )
 }
 
-function judge(
-  trace: AttemptTrace,
-  key: string,
-  wanted: string,
-  accepts: (value: unknown) => boolean,
-): Verdict {
-  if (!isSettingKey(key)) return { met: false, evidence: `"${key}" is not a drive setting.` }
-  const final = trace.samples[trace.samples.length - 1].state
-  const active = final.settings.active[key]
-  const label = settingDef(key).label
-  if (accepts(active)) {
-    const since = activeSince(trace, key)
-    const when = since === undefined ? 'from the start' : `since ${formatTime(since)}`
-    return { met: true, evidence: `${label} is ${valueLabel(key, active)}, active ${when}.`, at: since }
-  }
-  const pending = final.settings.pending[key]
-  const unsaved =
-    pending !== undefined && accepts(pending)
-      ? ` A change to ${valueLabel(key, pending)} was never saved.`
-      : ''
-  return {
-    met: false,
-    evidence: `${label} is ${valueLabel(key, active)} at the end (${formatTime(final.t)}); wanted ${wanted}.${unsaved}`,
-  }
-}
-
-export const settingEquals: Evaluator<'settingEquals'> = (objective, { trace }) =>
+export const settingEquals: Evaluator<'settingEquals'> = (objective, { start }) =>
   judge(
-    trace,
+    start,
     objective.key,
-    isSettingKey(objective.key) ? valueLabel(objective.key, objective.value) : formatValue(objective.value),
+    settingValueName(objective.key, objective.value),
     (value) => value === objective.value,
   )
 
-export const settingInRange: Evaluator<'settingInRange'> = (objective, { trace }) =>
+export const settingInRange: Evaluator<'settingInRange'> = (objective, { start }) =>
   judge(
-    trace,
+    start,
     objective.key,
-    `${objective.min} to ${objective.max}`,
+    `${objective.min} to ${settingValueName(objective.key, objective.max)}`,
     (value) => typeof value === 'number' && value >= objective.min && value <= objective.max,
   )

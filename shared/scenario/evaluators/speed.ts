@@ -2,11 +2,16 @@
 // Between samples the speed is linear (ramps and tracking are piecewise linear and every ramp end is a
 // model breakpoint), so the time inside the band is found exactly by interpolation.
 import { formatHz, formatRpm, formatSeconds, formatTime } from '../format'
-import type { Evaluator } from './types'
+import { folding, type Evaluator } from './types'
 
 interface Point {
   t: number
   v: number
+}
+
+interface Stretch {
+  from: number
+  to: number
 }
 
 /** When the line through `a` with this slope reaches v. */
@@ -27,51 +32,73 @@ export function insideBand(a: Point, b: Point, lo: number, hi: number): [number,
   return from <= to ? [from, to] : null
 }
 
-/** Longest continuous stretch within [lo, hi] of a piecewise-linear series. */
-export function longestInBand(points: Point[], lo: number, hi: number): { from: number; to: number } | null {
-  let best: { from: number; to: number } | null = null
-  let current: { from: number; to: number } | null = null
-  for (let i = 1; i < points.length; i++) {
-    const piece = insideBand(points[i - 1], points[i], lo, hi)
-    if (!piece) {
-      current = null
-      continue
-    }
-    if (current && Math.abs(current.to - piece[0]) < 1e-9) current.to = piece[1]
-    else current = { from: piece[0], to: piece[1] }
-    if (!best || current.to - current.from > best.to - best.from) best = { ...current }
-  }
-  return best
+/** The band followed point by point: the stretch inside it now, and the longest so far. */
+interface BandWatch {
+  last: Point | undefined
+  current: Stretch | null
+  best: Stretch | null
 }
 
-export const speedHeld: Evaluator<'speedHeld'> = (objective, { trace }) => {
+const NO_BAND: BandWatch = { last: undefined, current: null, best: null }
+
+function stepBand(watch: BandWatch, point: Point, lo: number, hi: number): BandWatch {
+  if (!watch.last) return { ...watch, last: point }
+  const piece = insideBand(watch.last, point, lo, hi)
+  if (!piece) return { last: point, current: null, best: watch.best }
+  const { current, best } = watch
+  const now =
+    current && Math.abs(current.to - piece[0]) < 1e-9
+      ? { from: current.from, to: piece[1] }
+      : { from: piece[0], to: piece[1] }
+  const longer = !best || now.to - now.from > best.to - best.from
+  return { last: point, current: now, best: longer ? now : best }
+}
+
+/** Longest continuous stretch within [lo, hi] of a piecewise-linear series. */
+export function longestInBand(points: Point[], lo: number, hi: number): Stretch | null {
+  return points.reduce((watch, point) => stepBand(watch, point, lo, hi), NO_BAND).best
+}
+
+interface SpeedWatch {
+  band: BandWatch
+  /** The first of the highest speeds seen. */
+  top: Point | undefined
+}
+
+export const speedHeld: Evaluator<'speedHeld'> = (objective) => {
   const rpm = objective.unit === 'rpm'
-  const value = (s: (typeof trace.samples)[number]) => (rpm ? Math.abs(s.drive.speedRpm) : s.drive.outputHz)
   const format = rpm ? formatRpm : formatHz
-  const points = trace.samples.map((s) => ({ t: s.t, v: value(s) }))
   const lo = objective.target - objective.tolerance
   const hi = objective.target + objective.tolerance
   const band = `${format(lo)} to ${format(hi)}`
   const needMs = objective.holdSeconds * 1000
-  const best = longestInBand(points, lo, hi)
-  if (best && best.to - best.from >= needMs - 1e-6) {
-    return {
-      met: true,
-      evidence: `Held within ${band} from ${formatTime(best.from)} to ${formatTime(best.to)} (${formatSeconds(best.to - best.from)}; ${objective.holdSeconds} s needed).`,
-      at: best.from,
-    }
-  }
-  if (best) {
-    return {
-      met: false,
-      evidence: `The longest time within ${band} was ${formatSeconds(best.to - best.from)}, from ${formatTime(best.from)}; ${objective.holdSeconds} s needed.`,
-      at: best.from,
-    }
-  }
-  const top = points.reduce((m, p) => (p.v > m.v ? p : m), points[0])
-  return {
-    met: false,
-    evidence: `The motor never came within ${band}; its highest speed was ${format(top.v)} at ${formatTime(top.t)}.`,
-    at: top.t,
-  }
+  return folding<SpeedWatch>(
+    { band: NO_BAND, top: undefined },
+    (watch, sample) => {
+      const point = { t: sample.t, v: rpm ? Math.abs(sample.drive.speedRpm) : sample.drive.outputHz }
+      const top = !watch.top || point.v > watch.top.v ? point : watch.top
+      return { band: stepBand(watch.band, point, lo, hi), top }
+    },
+    ({ band: { best }, top }) => {
+      if (best && best.to - best.from >= needMs - 1e-6) {
+        return {
+          met: true,
+          evidence: `Held within ${band} from ${formatTime(best.from)} to ${formatTime(best.to)} (${formatSeconds(best.to - best.from)}; ${objective.holdSeconds} s needed).`,
+          at: best.from,
+        }
+      }
+      if (best) {
+        return {
+          met: false,
+          evidence: `The longest time within ${band} was ${formatSeconds(best.to - best.from)}, from ${formatTime(best.from)}; ${objective.holdSeconds} s needed.`,
+          at: best.from,
+        }
+      }
+      return {
+        met: false,
+        evidence: `The motor never came within ${band}; its highest speed was ${format(top!.v)} at ${formatTime(top!.t)}.`,
+        at: top!.t,
+      }
+    },
+  )
 }

@@ -1,26 +1,35 @@
-// Reads the grader's stored result (shared/scenario GradeResult) for display. The grader (shared/scenario) owns the shape; this reader
-// is tolerant so an older stored result still shows what it can instead of failing the page.
+// The grader's stored result (shared/api gradeResultSchema, parsed with the attempt) as the attempt
+// pages show it. Grades stored before hints kept their text show the hint's number instead.
+import type { GradeResult } from '@shared/api'
+import { formatTime } from '@shared/scenario/format'
+import { objectiveKindLabel } from '@shared/scenario/kindLabels'
 
 export interface ObjectiveLine {
   id: string
   title: string
+  /** What kind of check it is, in words ("Input wiring"). */
+  kind: string
   passed: boolean
-  points: number | null
-  possible: number | null
+  points: number
+  possible: number
   detail: string
   atMs: number | null
   required: boolean
 }
 
 export interface ViolationLine {
-  atMs: number | null
+  atMs: number
+  /** Simulated time as the evidence writes it ("03:42.0"). */
+  at: string
   text: string
 }
 
 export interface HintLine {
   id: string
-  cost: number | null
-  atMs: number | null
+  label: string
+  cost: number
+  atMs: number
+  at: string
 }
 
 export interface EvidenceView {
@@ -30,57 +39,30 @@ export interface EvidenceView {
   summary: string
 }
 
-type Loose = Record<string, unknown>
-const asObj = (v: unknown): Loose => (v && typeof v === 'object' ? (v as Loose) : {})
-const num = (v: unknown): number | null => (typeof v === 'number' && Number.isFinite(v) ? v : null)
-const str = (...vs: unknown[]): string => {
-  for (const v of vs) if (typeof v === 'string' && v) return v
-  return ''
-}
-const list = (v: unknown): unknown[] => (Array.isArray(v) ? v : [])
+const EMPTY: EvidenceView = { objectives: [], violations: [], hints: [], summary: '' }
 
-function objectiveLine(raw: unknown, index: number): ObjectiveLine {
-  const o = asObj(raw)
-  const ev = asObj(o.evidence)
+export function readEvidence(evidence: GradeResult | null): EvidenceView {
+  if (!evidence) return EMPTY
   return {
-    id: str(o.id, o.objectiveId) || `objective-${index + 1}`,
-    title: str(o.title, o.label, o.name, o.id) || `Objective ${index + 1}`,
-    passed: o.passed === true || o.met === true,
-    points: num(o.points) ?? num(o.earned) ?? num(o.pointsEarned),
-    possible: num(o.possible) ?? num(o.weight) ?? num(o.pointsPossible) ?? num(o.max),
-    detail: str(
-      o.detail,
-      o.message,
-      o.summary,
-      ev.summary,
-      ev.text,
-      ev.message,
-      typeof o.evidence === 'string' ? o.evidence : '',
-    ),
-    atMs: num(o.at) ?? num(o.t) ?? num(o.atMs) ?? num(ev.t) ?? num(ev.atMs),
-    required: o.required === true,
+    objectives: evidence.objectives.map((o) => ({
+      id: o.id,
+      title: o.title,
+      kind: objectiveKindLabel(o.kind),
+      passed: o.met,
+      points: o.pointsEarned,
+      possible: o.pointsPossible,
+      detail: o.evidence,
+      atMs: o.at ?? null,
+      required: o.required,
+    })),
+    violations: evidence.safetyViolations.map((v) => ({ atMs: v.t, at: formatTime(v.t), text: v.text })),
+    hints: evidence.hintsUsed.map((h, i) => ({
+      id: h.id,
+      label: h.text ?? `Hint ${i + 1}`,
+      cost: h.cost,
+      atMs: h.t,
+      at: formatTime(h.t),
+    })),
+    summary: evidence.summary,
   }
-}
-
-export function readEvidence(evidence: unknown): EvidenceView {
-  const e = asObj(evidence)
-  const objectives = list(e.objectives ?? e.results ?? (Array.isArray(evidence) ? evidence : [])).map(
-    objectiveLine,
-  )
-  const violations = list(e.safetyViolations ?? e.violations).map((raw) => {
-    const v = asObj(raw)
-    return {
-      atMs: num(v.t) ?? num(v.atMs),
-      text: str(v.message, v.text, v.description, v.kind, typeof raw === 'string' ? raw : ''),
-    }
-  })
-  const hints = list(e.hintsUsed ?? e.hints).map((raw) => {
-    const h = asObj(raw)
-    return {
-      id: str(h.id, h.hintId, typeof raw === 'string' ? raw : ''),
-      cost: num(h.cost),
-      atMs: num(h.t) ?? num(h.atMs),
-    }
-  })
-  return { objectives, violations, hints, summary: str(e.summary) }
 }

@@ -1,6 +1,6 @@
 // Builds what the scene draws from the model's state and readings plus the panel's own UI state.
 import type { CircuitReading, DriveReading, SimState } from '@shared/model/types'
-import type { SettingValues } from '@shared/model/settings'
+import type { MotorNameplate } from '@shared/model/setup'
 import { meterText, statusLamp, statusLines } from './driveDisplay'
 import { menuLines, type KeypadMenu } from './keypadMenu'
 import type { PointId, ProbeColour, Vec } from './types'
@@ -16,14 +16,15 @@ export interface PanelUiState {
   menu: KeypadMenu
 }
 
-export function nameplateLines(s: SettingValues): string[] {
-  // An invented bench motor; the electrical values follow the drive's motor settings.
+export function nameplateLines(np: MotorNameplate): string[] {
+  // The scenario's own motor (invented), as its rating plate prints it.
+  const connection = np.connection === 'delta' ? 'Δ' : 'Y'
   return [
-    'SLIPWAY BENCH MOTOR  3~',
-    `${s['motor.ratedVoltage']} V   ${s['motor.ratedCurrent']} A`,
-    `${s['motor.ratedFrequency']} Hz   ${s['motor.ratedSpeed']} rpm`,
-    `${s['motor.poles']} poles   duty S1`,
-    'serial SW-0417-B',
+    `3~ MOTOR  ${np.ratedPower} ${np.powerUnit}  ${np.duty}`,
+    `${np.ratedVolts} V ${connection}  ${np.fullLoadAmps} A`,
+    `${np.ratedHz} Hz  ${np.ratedRpm} rpm`,
+    `cos φ ${np.powerFactor}  eff ${np.efficiencyPercent} %`,
+    `serial ${np.serial}`,
   ]
 }
 
@@ -52,8 +53,8 @@ export function deriveView(
     display,
     lamp: statusLamp(drive),
     inputsOn: circuit.inputs.filter((i) => i.on).map((i) => i.point),
-    rpm: drive.speedRpm,
-    nameplate: nameplateLines(sim.settings.active),
+    rpm: drive.motorRpm,
+    nameplate: nameplateLines(sim.motor.nameplate),
     probes: { red: sim.meter.red, black: sim.meter.black },
     probeDrag: ui.probeDrag,
     meterText: meterText(circuit.meter),

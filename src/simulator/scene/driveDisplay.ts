@@ -50,8 +50,29 @@ export function statusLamp(d: DriveReading): StatusLamp {
   return 'ready'
 }
 
+/** The meter's window: a value with its unit, OL (over-range), a voltage warning, or blank when off. */
 export function meterText(m: MeterReading): string {
-  if (m.volts === null) return '---'
-  const v = Math.abs(m.volts) >= 100 ? m.volts.toFixed(0) : m.volts.toFixed(2)
-  return `${v} V${m.mode === 'AC' ? '~' : ''}`
+  switch (m.shows) {
+    case 'blank':
+      return ''
+    case 'overRange':
+      return 'OL'
+    case 'voltagePresent':
+      return 'VOLTAGE!'
+    case 'ohms': {
+      const ohms = m.ohms ?? 0
+      const value =
+        ohms >= 1e6
+          ? `${(ohms / 1e6).toFixed(2)} MΩ`
+          : ohms >= 1000
+            ? `${(ohms / 1000).toFixed(2)} kΩ`
+            : `${ohms.toFixed(1)} Ω`
+      return m.tone ? `${value} ♪` : value
+    }
+    case 'volts': {
+      const volts = m.volts ?? 0
+      const v = Math.abs(volts) >= 100 ? volts.toFixed(0) : volts.toFixed(2)
+      return `${v} V${m.mode === 'acVolts' ? '~' : ''}`
+    }
+  }
 }

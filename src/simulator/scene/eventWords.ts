@@ -1,6 +1,8 @@
 // Each attempt event in plain words, naming things as the panel shows them ("Wire W4 BU added from +24
 // to Faster 13", "Meter probes on DI1 and DCM"): the replay's timeline and the live announcements.
 import type { AttemptEvent } from '@shared/model/events'
+import { METER_MODE_LABELS } from '@shared/model/meterModes'
+import { conductorName } from '@shared/scenario/names'
 import { settingDef, type SettingValue } from '@shared/model/settings'
 import { formatSettingValue, KEY_NAMES } from './keypadMenu'
 import type { PanelLayout, PointId } from './types'
@@ -55,6 +57,14 @@ export function eventWords(event: AttemptEvent, layout: PanelLayout, wireMarker?
       if (!event.red && !event.black) return 'Meter probes lifted'
       if (event.red && event.black) return `Meter probes on ${point(event.red)} and ${point(event.black)}`
       return `Red probe on ${point(event.red)}, black probe on ${point(event.black)}`
+    case 'meter.mode':
+      return `Meter turned to ${METER_MODE_LABELS[event.mode]}`
+    case 'motor.conductorLanded':
+      return event.terminal
+        ? `Motor-cable conductor ${conductorName(event.conductor)} landed on ${point(`motor.${event.terminal}`)}`
+        : `Motor-cable conductor ${conductorName(event.conductor)} lifted`
+    case 'motor.cableReplaced':
+      return 'Motor cable replaced'
     case 'keypad.key':
       return `Keypad ${KEY_NAMES[event.key]} pressed`
     case 'hint.revealed':

@@ -1,5 +1,6 @@
 // What each pointer or keyboard intent records in the attempt: the model events to send, given the
 // model state now. Pure, so the mapping is tested without a panel.
+import { voltageRangeFor } from '@shared/model'
 import type { AttemptEvent } from '@shared/model/events'
 import type { SimState } from '@shared/model/types'
 import type { Intent } from './interaction'
@@ -58,7 +59,14 @@ export function actionsFor(intent: Intent, sim: SimState, colour: string): Panel
       return [{ type: sim.power.locked ? 'lock.removed' : 'lock.applied' }]
     case 'probe.place': {
       const probes = { red: sim.meter.red, black: sim.meter.black, [intent.probe]: intent.point }
-      return [{ type: 'meter.probes', red: probes.red, black: probes.black }]
+      const placed: PanelAction[] = [{ type: 'meter.probes', red: probes.red, black: probes.black }]
+      // Interim, until the panel has the meter's range selector: turn it to the voltage range that
+      // shows what the probed pair could carry (V AC on line and output terminals, V DC elsewhere).
+      if (probes.red && probes.black) {
+        const range = voltageRangeFor(probes.red, probes.black)
+        if (sim.meter.mode !== range) placed.push({ type: 'meter.mode', mode: range })
+      }
+      return placed
     }
   }
 }

@@ -1,6 +1,7 @@
 // Where everything sits on the panel, in scene units (the canvas scales this to fit).
 // All wireable terminals share one horizontal line so wires can leave downward into the wireway
 // and never cover a terminal's label, which is printed above its screw.
+import { deviceTerminalLabels as terminalLabels } from '@shared/schematic/markings'
 import type { DeviceSpot, KeySpot, PanelDevice, PanelLayout, PointId, TerminalSpot } from './types'
 
 export const SCENE_WIDTH = 1280
@@ -14,7 +15,7 @@ export const TERMINAL_LABEL_SIZE = 12
 export const CONTROL_TERMINALS: readonly { id: PointId; label: string; what: string }[] = [
   { id: 'drive.p24', label: '+24', what: '+24 V control supply' },
   { id: 'drive.0v', label: '0V', what: '0 V control supply' },
-  { id: 'drive.dcom', label: 'DCM', what: 'digital-input common' },
+  { id: 'drive.dcom', label: 'DIC', what: 'digital-input common' },
   { id: 'drive.di1', label: 'DI1', what: 'digital input 1' },
   { id: 'drive.di2', label: 'DI2', what: 'digital input 2' },
   { id: 'drive.di3', label: 'DI3', what: 'digital input 3' },
@@ -23,7 +24,7 @@ export const CONTROL_TERMINALS: readonly { id: PointId; label: string; what: str
   { id: 'drive.di6', label: 'DI6', what: 'digital input 6' },
   { id: 'drive.p10', label: '+10', what: '+10 V reference supply' },
   { id: 'drive.ai', label: 'AI', what: 'analog input' },
-  { id: 'drive.acom', label: 'AC', what: 'analog common' },
+  { id: 'drive.acom', label: 'AIC', what: 'analog-input common' },
   { id: 'drive.k1a', label: 'K1A', what: 'relay contact side A' },
   { id: 'drive.k1b', label: 'K1B', what: 'relay contact side B' },
 ]
@@ -35,6 +36,9 @@ export const POWER_TERMINALS: readonly { id: PointId; label: string; what: strin
   { id: 'drive.dcp', label: 'DC+', what: 'DC bus positive' },
   { id: 'drive.dcn', label: 'DC−', what: 'DC bus negative' },
   { id: 'drive.pe', label: 'PE', what: 'protective earth' },
+  { id: 'drive.u', label: 'U', what: 'output to motor, phase U' },
+  { id: 'drive.v', label: 'V', what: 'output to motor, phase V' },
+  { id: 'drive.w', label: 'W', what: 'output to motor, phase W' },
 ]
 
 const KEYPAD: readonly { key: KeySpot['key']; label: string; col: number; row: number }[] = [
@@ -51,11 +55,11 @@ const KEYPAD: readonly { key: KeySpot['key']; label: string; col: number; row: n
 
 /**
  * Terminal marking of a field device. Contact blocks follow the IEC 60947-5-1 numbering
- * (NO 13–14, NC 11–12) as printed on the block, i.e. as declared by the scenario.
+ * (NO 13–14, NC 11–12) as printed on the block, i.e. as declared by the scenario. The schematic and
+ * the grader mark terminals by the same rule (shared/schematic/markings.ts).
  */
 export function deviceTerminalLabels(device: PanelDevice): Record<string, string> {
-  if (device.kind === 'potentiometer') return { hi: 'H', wiper: 'W', lo: 'L' }
-  return device.contact === 'NC' ? { a: '11', b: '12' } : { a: '13', b: '14' }
+  return terminalLabels(device.kind, device.contact)
 }
 
 function deviceTerminalNames(device: PanelDevice): string[] {
@@ -84,7 +88,7 @@ export function layoutPanel(devices: readonly PanelDevice[]): PanelLayout {
       label: t.label,
       name: `Drive power terminal ${t.label} (${t.what})`,
       title: t.label,
-      x: 270 + i * 40,
+      x: 262 + i * 36,
       y: 52,
       group: 'power',
       wireable: false,
@@ -111,7 +115,7 @@ export function layoutPanel(devices: readonly PanelDevice[]): PanelLayout {
       keys,
       statusLamp: { x: 505, y: 248 },
       controlStrip: { x: 240, y: 372, w: 448, h: 56 },
-      powerStrip: { x: 250, y: 34, w: 240, h: 40 },
+      powerStrip: { x: 244, y: 34, w: 324, h: 40 },
     },
     disconnect: {
       rect: { x: 20, y: 20, w: 190, h: 260 },

@@ -31,8 +31,10 @@ export const PALETTE = {
   lockout: 0xd84315,
   probeRed: 0xd32f2f,
   probeBlack: 0x1a1a1a,
-  meterBody: 0xf5b82e,
-  meterDisplay: 0xdfe8d4,
+  // The meter: a sage-teal body with a warm cream window (our own; no instrument maker's colours).
+  meterBody: 0x8cc7bd,
+  meterEdge: 0x2f5d57,
+  meterDisplay: 0xf3ead2,
   motor: 0x6f7f8c,
   motorDark: 0x46535e,
   nameplate: 0xe9e3d2,

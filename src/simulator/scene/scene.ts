@@ -211,7 +211,12 @@ export class PanelScene {
     const { rect, display, keys, controlStrip, powerStrip } = this.layout.drive
     box(g, rect, C.enclosure, C.enclosureEdge, 12)
     this.staticLayer.addChild(
-      text('VARIABLE-FREQUENCY DRIVE  ·  bench unit VF-2', { fontSize: 13, fill: C.enclosureText }, 480, 90),
+      text(
+        'VARIABLE-FREQUENCY DRIVE  ·  Slipway bench unit',
+        { fontSize: 13, fill: C.enclosureText },
+        480,
+        90,
+      ),
     )
     g.roundRect(powerStrip.x, powerStrip.y, powerStrip.w, powerStrip.h, 4).fill(C.strip)
     g.roundRect(controlStrip.x, controlStrip.y, controlStrip.w, controlStrip.h, 4).fill(C.strip)
@@ -330,10 +335,10 @@ export class PanelScene {
 
   private drawMeter(g: Graphics) {
     const { rect, display, holsters } = this.layout.meter
-    box(g, rect, C.meterBody, 0x7a5a12, 14)
+    box(g, rect, C.meterBody, C.meterEdge, 14)
     this.staticLayer.addChild(
       text(
-        'MULTIMETER  V DC',
+        'MULTIMETER',
         { fontSize: 12, fill: C.text, fontWeight: 'bold' },
         rect.x + rect.w / 2,
         rect.y + 16,

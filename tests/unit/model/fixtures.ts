@@ -11,7 +11,7 @@ import {
 
 export const wire = (id: string, from: string, to: string): WireSpec => ({ id, from, to, colour: 'blue' })
 
-/** Sink wiring: DCM to 0V, each contact switches +24 V into its input. */
+/** Sink wiring: DIC to 0V, each contact switches +24 V into its input. */
 export function raiseLowerSetup(overrides: Partial<SimulationSetup> = {}): SimulationSetup {
   return {
     devices: [

@@ -64,7 +64,7 @@ describe('sink wiring (common to 0 V, the contact switches +24 V into the input)
 })
 
 describe('wiring for the wrong logic', () => {
-  // Source-style wiring: DCM to +24 V, the contact switches the input to 0 V.
+  // Source-style wiring: DIC to +24 V, the contact switches the input to 0 V.
   const sourceWired = (logic: 'sink' | 'source') =>
     raiseLowerSetup({
       devices: [{ id: 'pb', kind: 'pushbutton', label: 'Test', contact: 'NO' }],
@@ -128,10 +128,13 @@ describe('hysteresis on a slowly changing input voltage', () => {
 
 describe('the meter on the control circuit', () => {
   it('reads the supply across an open contact (less the input LED drop the meter current flows through)', () => {
-    const s = run(start(), [{ t: 10, type: 'meter.probes', red: 'raisePb.a', black: 'raisePb.b' }])
+    const s = run(start(), [
+      { t: 0, type: 'meter.mode', mode: 'dcVolts' },
+      { t: 10, type: 'meter.probes', red: 'raisePb.a', black: 'raisePb.b' },
+    ])
     const meter = readCircuit(s).meter
     const supply = readCircuit(s).supplyVolts
-    expect(meter.mode).toBe('DC')
+    expect(meter.mode).toBe('dcVolts')
     // 10 MΩ meter in series with the opto input: about 2 µA, so the far side sits near the LED's 1 V.
     expect(meter.volts!).toBeGreaterThan(supply - 1.1)
     expect(meter.volts!).toBeLessThan(supply)
@@ -139,6 +142,7 @@ describe('the meter on the control circuit', () => {
 
   it('reads about 0 V across a closed contact', () => {
     const s = run(start(), [
+      { t: 0, type: 'meter.mode', mode: 'dcVolts' },
       { t: 10, type: 'device.pressed', device: 'raisePb' },
       { t: 20, type: 'meter.probes', red: 'raisePb.a', black: 'raisePb.b' },
     ])
@@ -147,6 +151,7 @@ describe('the meter on the control circuit', () => {
 
   it('reads about 0 V on a wire that goes nowhere', () => {
     const s = run(start(), [
+      { t: 0, type: 'meter.mode', mode: 'dcVolts' },
       { t: 10, type: 'wire.added', id: 'loose', from: 'drive.di6', to: 'runSel.a', colour: 'blue' },
       { t: 20, type: 'wire.removed', id: 'r1' },
       { t: 30, type: 'meter.probes', red: 'drive.di6', black: 'drive.0v' },
@@ -155,7 +160,10 @@ describe('the meter on the control circuit', () => {
   })
 
   it('shows no reading with a probe lifted', () => {
-    const s = run(start(), [{ t: 10, type: 'meter.probes', red: 'drive.p24', black: null }])
+    const s = run(start(), [
+      { t: 0, type: 'meter.mode', mode: 'dcVolts' },
+      { t: 10, type: 'meter.probes', red: 'drive.p24', black: null },
+    ])
     expect(readCircuit(s).meter.volts).toBeNull()
   })
 })

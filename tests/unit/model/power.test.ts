@@ -1,14 +1,12 @@
-// The DC bus and the supply disconnect: charging, the stored charge after switching off, and what
-// the meter reads on the power terminals (proving absence of voltage).
+// The DC bus and the supply disconnect: charging, the stored charge after switching off, lockout.
+// What the meter reads on the power terminals is in meter.test.ts.
 import { evaluate } from 'mathjs'
 import { describe, expect, it } from 'vitest'
-import { advance, readCircuit, readDrive, type SimState } from '../../../shared/model/index'
+import { advance, readDrive, type SimState } from '../../../shared/model/index'
 import { raiseLowerSetup, run, start } from './fixtures'
 
 const off = () => start(raiseLowerSetup({ power: { on: false, locked: false } }))
 const bus = (s: SimState) => readDrive(s).busVolts
-const meter = (s: SimState, red: string, black: string) =>
-  readCircuit(run(s, [{ t: s.t, type: 'meter.probes', red, black }])).meter
 
 describe('DC bus', () => {
   it('charges to the six-pulse average 3·√2/π × 400 V ≈ 540 V (rectifier textbook formula)', () => {
@@ -46,53 +44,6 @@ describe('DC bus', () => {
     const r1 = bus(advance(dark, 20_000)) / bus(dark)
     const r2 = bus(advance(dark, 40_000)) / bus(advance(dark, 20_000))
     expect(r1).toBeCloseTo(r2, 6) // readings are rounded to the microvolt
-  })
-})
-
-describe('the meter on the power terminals', () => {
-  it('reads the line voltage (AC) between two line terminals with the disconnect on', () => {
-    const m = meter(start(), 'drive.l1', 'drive.l2')
-    expect(m.mode).toBe('AC')
-    expect(m.volts!).toBeCloseTo(400, 6)
-  })
-
-  it('reads line-to-earth 400/√3 ≈ 231 V from a line terminal to PE', () => {
-    expect(meter(start(), 'drive.l3', 'drive.pe').volts!).toBeCloseTo(400 / Math.sqrt(3), 4)
-  })
-
-  it('reads the bus (DC) between DC+ and DC−', () => {
-    const m = meter(start(), 'drive.dcp', 'drive.dcn')
-    expect(m.mode).toBe('DC')
-    expect(m.volts!).toBeCloseTo(bus(start()), 4)
-  })
-
-  it('reads 0 V on the line terminals once the disconnect is off, while the bus is still charged', () => {
-    const s = advance(run(start(), [{ t: 0, type: 'power.off' }]), 10_000)
-    expect(meter(s, 'drive.l1', 'drive.l2').volts).toBe(0)
-    expect(meter(s, 'drive.dcp', 'drive.dcn').volts!).toBeGreaterThan(200)
-  })
-
-  it('reads about 0 V on the bus after the discharge time', () => {
-    const s = advance(run(start(), [{ t: 0, type: 'power.off' }]), 30 * 60_000)
-    expect(meter(s, 'drive.dcp', 'drive.dcn').volts!).toBeLessThan(1)
-  })
-
-  it('reads nothing between the isolated control circuit and a power terminal', () => {
-    const m = meter(start(), 'drive.p24', 'drive.l1')
-    expect(m.floating).toBe(true)
-    expect(m.volts).toBe(0)
-  })
-})
-
-describe('the meter proving unit (live–dead–live, NFPA 70E 120.5(7))', () => {
-  it('is live with the drive isolated and discharged, so the meter can be proved after the dead test', () => {
-    const dead = advance(run(start(), [{ t: 0, type: 'power.off' }]), 30 * 60_000)
-    expect(meter(dead, 'drive.dcp', 'drive.dcn').volts!).toBeLessThan(1)
-    expect(meter(dead, 'prover.pos', 'prover.neg').volts).toBe(110)
-  })
-
-  it('reads nothing between the proving unit and the drive', () => {
-    expect(meter(start(), 'prover.pos', 'drive.l1').floating).toBe(true)
   })
 })
 

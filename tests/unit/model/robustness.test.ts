@@ -45,6 +45,17 @@ const points = [
   'pot.wiper',
 ]
 const point = fc.constantFrom(...points)
+const meterPoint = fc.constantFrom(
+  ...points,
+  'drive.l1',
+  'drive.pe',
+  'drive.dcp',
+  'drive.u',
+  'drive.w',
+  'motor.v1',
+  'prover.pos',
+  'prover.ac',
+)
 
 const eventArb: fc.Arbitrary<Omit<AttemptEvent, 't'>> = fc.oneof(
   fc.record({
@@ -96,7 +107,17 @@ const eventArb: fc.Arbitrary<Omit<AttemptEvent, 't'>> = fc.oneof(
   fc.record({ type: fc.constant('settings.saved') }),
   fc.record({ type: fc.constantFrom('power.on', 'power.off', 'fuse.replaced') }),
   fc.record({ type: fc.constant('keypad.key'), key: fc.constantFrom('run', 'stop', 'reset', 'up') }),
-  fc.record({ type: fc.constant('meter.probes'), red: point, black: point }),
+  fc.record({ type: fc.constant('meter.probes'), red: meterPoint, black: meterPoint }),
+  fc.record({
+    type: fc.constant('meter.mode'),
+    mode: fc.constantFrom('off', 'acVolts', 'dcVolts', 'resistance', 'continuity'),
+  }),
+  fc.record({
+    type: fc.constant('motor.conductorLanded'),
+    conductor: fc.constantFrom('u', 'v', 'w'),
+    terminal: fc.constantFrom('u1', 'v1', 'w1', null),
+  }),
+  fc.record({ type: fc.constant('motor.cableReplaced') }),
 ) as fc.Arbitrary<Omit<AttemptEvent, 't'>>
 
 const logArb = fc
@@ -117,9 +138,16 @@ describe('random attempts', () => {
           expect(drive.outputHz).toBeLessThanOrEqual(max + 1e-6)
           expect(drive.busVolts).toBeGreaterThanOrEqual(0)
           expect(drive.busVolts).toBeLessThan(541)
+          expect(drive.outputVolts).toBeLessThanOrEqual(segment.state.lineVolts + 1e-9)
+          expect(drive.outputAmps).toBeGreaterThanOrEqual(0)
+          if (drive.outputAmps > 0) expect(drive.outputOn).toBe(true)
           const circuit = readCircuit(segment.state)
           expect(Math.abs(circuit.supplyVolts)).toBeLessThanOrEqual(24 + 1e-9)
           for (const input of circuit.inputs) expect(input.milliamps).toBeLessThan(5.2)
+          const meter = circuit.meter
+          if (meter.ohms !== null) expect(meter.ohms).toBeGreaterThanOrEqual(0)
+          if (meter.volts !== null) expect(Math.abs(meter.volts)).toBeLessThan(541)
+          if (meter.tone) expect(meter.mode).toBe('continuity')
         }
       }),
       { numRuns: 150 },

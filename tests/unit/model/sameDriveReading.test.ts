@@ -41,7 +41,9 @@ function withUnreadPartsChanged(state: SimState): SimState {
     fuseBlown: !state.fuseBlown,
     settings: { active: state.settings.active, pending: { 'speed.max': 12 } },
     meter:
-      state.meter.red === 'drive.l1' ? { red: null, black: null } : { red: 'drive.l1', black: 'drive.l2' },
+      state.meter.red === 'drive.l1'
+        ? { red: null, black: null, mode: 'off' }
+        : { red: 'drive.l1', black: 'drive.l2', mode: 'acVolts' },
     raiseLowerFirst: state.raiseLowerFirst === 'raise' ? 'lower' : 'raise',
   }
 }

@@ -232,3 +232,40 @@ describe('checkScenario rejects bad files', () => {
     ).toBe(true)
   })
 })
+
+describe('checkScenario on the motor, its cable and the bench points', () => {
+  it('reports a nameplate whose figures disagree, at the field that disagrees', () => {
+    const problems = problemsOf(
+      variant((s) => {
+        s.start.motor = { ...s.start.motor!, ratedVolts: 400 } // 400 V at 60 Hz: an unusual pairing
+      }),
+    )
+    expect(problems.map((p) => p.path)).toContain('$.start.motor.ratedVolts')
+    const amps = problemsOf(variant((s) => (s.start.motor = { ...s.start.motor!, fullLoadAmps: 12 })))
+    expect(amps.map((p) => p.path)).toEqual(['$.start.motor.fullLoadAmps'])
+    expect(amps[0].message).toMatch(/rated output is 3\.73 kW/)
+  })
+
+  it('refuses a cable with two conductors on one motor terminal', () => {
+    const problems = problemsOf(variant((s) => (s.start.motorCable = { u: 'u1', v: 'u1', w: 'w1' })))
+    expect(problems[0].message).toMatch(/two conductors cannot land on one motor terminal/)
+  })
+
+  it('accepts a broken motor conductor as an injected fault', () => {
+    expect(problemsOf(variant((s) => (s.faults = [{ kind: 'motorConductorOpen', conductor: 'v' }])))).toEqual(
+      [],
+    )
+  })
+
+  it('keeps the bench names motor and prover for the bench itself', () => {
+    const problems = problemsOf(variant((s) => (s.start.devices[0].id = 'motor')))
+    expect(problems.some((p) => p.path === '$.start.devices[0].id' && /reserved/.test(p.message))).toBe(true)
+  })
+
+  it('refuses a starting wire on a motor terminal (meter only)', () => {
+    const problems = problemsOf(
+      variant((s) => s.start.wires.push({ id: 'wBad', from: 'motor.u1', to: 'drive.p24', colour: 'blue' })),
+    )
+    expect(problems.map((p) => p.message)).toContain('motor.u1 is a power terminal and cannot be wired')
+  })
+})

@@ -84,7 +84,7 @@ describe('grade', () => {
     const [live] = result.safetyViolations
     expect(live.t).toBe(b.events.find((e) => e.type === 'wire.added')!.t)
     expect(live.text).toMatch(
-      /^Wire wExtra added \(\+24 to DI4\) at 00:0\d\.\d while the DC bus was at \d{3} V\.$/,
+      /^Wire W8 added from \+24 to DI4 at 00:0\d\.\d while the DC bus was at \d{3} V\.$/,
     )
   })
 

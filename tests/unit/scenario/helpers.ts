@@ -9,9 +9,18 @@ import {
   type ObjectiveResult,
   type Scenario,
 } from '@shared/scenario'
+import type { AttemptFixture } from '../../support/shipped-attempts'
 import { LogBuilder } from './builders/logBuilder'
 
+/** The stored attempt logs (tests/fixtures/attempts), in file-name order. */
+export { attemptFixtures } from '../../support/shipped-attempts'
+
 const scenariosDir = resolve(import.meta.dirname, '../../../scenarios')
+
+/** The scenario ids that have stored attempt logs. */
+export function fixtureScenarioIds(fixtures: readonly AttemptFixture[]): string[] {
+  return [...new Set(fixtures.map((f) => f.scenario))]
+}
 
 export function shippedScenario(id: string): Scenario {
   const result = checkScenario(JSON.parse(readFileSync(resolve(scenariosDir, `${id}.json`), 'utf8')))

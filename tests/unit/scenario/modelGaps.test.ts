@@ -7,6 +7,7 @@ import {
   ModelInputError,
   PROVER_VOLTS,
   readCircuit,
+  type MeterMode,
   type SimState,
 } from '@shared/model'
 import { toSimulationSetup } from '@shared/scenario'
@@ -24,15 +25,17 @@ const liveDeadLive = benchScenario([
   },
 ])
 
-function probed(state: SimState, red: string, black: string, t = 10): SimState {
-  return applyEvent(state, { t, type: 'meter.probes', red, black })
+function probed(state: SimState, red: string, black: string, t = 10, mode: MeterMode = 'dcVolts'): SimState {
+  const ranged = applyEvent(state, { t, type: 'meter.mode', mode })
+  return applyEvent(ranged, { t, type: 'meter.probes', red, black })
 }
 
 describe('re-proving the meter after the dead test (NFPA 70E 120.5(7) live–dead–live)', () => {
   it('is met when the meter is proved on the proving unit before and after the dead test', () => {
     const result = judge(liveDeadLive, (b) => isolateAndProve(ready(b), { liveDeadLive: true }))
     expect(result.met).toBe(true)
-    expect(result.evidence).toMatch(/meter re-proved on 110 V/)
+    // Checked on the proving unit's AC output (230 V) and then its DC output (110 V).
+    expect(result.evidence).toMatch(/meter re-proved on (230|110) V/)
   })
 
   it('is missed when the meter is proved only before the dead test', () => {
@@ -47,6 +50,31 @@ describe('re-proving the meter after the dead test (NFPA 70E 120.5(7) live–dea
     const dead = probed(off, 'prover.pos', 'prover.neg', 600_000)
     expect(readCircuit(dead).meter.volts).toBe(PROVER_VOLTS)
     expect(PROVER_VOLTS).toBe(110)
+  })
+})
+
+describe('a dead test on the wrong range', () => {
+  const deadTest = benchScenario([{ id: 'dead', kind: 'absenceOfVoltageProved', title: 'Dead', weight: 1 }])
+
+  it('proves nothing: V DC across a line pair reads about 0 V even when it is live', () => {
+    const result = judge(deadTest, (b) => {
+      ready(b).powerOff().wait(1000).lock().wait(1000)
+      b.waitUntil((d) => d.busVolts < 15, 'the bus discharging', 1000)
+      for (const [red, black] of [
+        ['drive.l1', 'drive.l2'],
+        ['drive.l2', 'drive.l3'],
+        ['drive.l1', 'drive.l3'],
+      ])
+        b.measure(red, black, 'dcVolts').wait(2000)
+      b.measure('drive.dcp', 'drive.dcn', 'dcVolts').wait(2000)
+    })
+    expect(result.met).toBe(false)
+    expect(result.evidence).toMatch(/L1–L2 was not proved .*never measured/)
+  })
+
+  it('is met with the same readings taken on V AC for the line pairs', () => {
+    const result = judge(deadTest, (b) => isolateAndProve(ready(b)))
+    expect(result.met).toBe(true)
   })
 })
 

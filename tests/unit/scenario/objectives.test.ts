@@ -14,7 +14,9 @@ describe('settingEquals', () => {
   it('is met once the value is saved', () => {
     const result = judge(scenario, (b) => ready(b).set('stop.mode', 'coast').wait(500).save().wait(1000))
     expect(result.met).toBe(true)
-    expect(result.evidence).toMatch(/Stop method is "coast" .*active since 00:0\d\.\d/)
+    expect(result.evidence).toMatch(
+      /^The setting "Stop method" is "Output off at once, motor coasts", active since 00:0\d\.\d/,
+    )
   })
 
   it('is missed when the change was never saved, and says so', () => {
@@ -36,7 +38,7 @@ describe('settingInRange', () => {
   it('is missed by a saved value outside it', () => {
     const result = judge(scenario, (b) => ready(b).configure({ 'ramp.decelSeconds': 45 }))
     expect(result.met).toBe(false)
-    expect(result.evidence).toMatch(/45 s at the end .*wanted 20 to 40/)
+    expect(result.evidence).toMatch(/45 s at the end .*wanted 20 to 40 s\./)
   })
 })
 
@@ -51,7 +53,7 @@ describe('wiringCondition', () => {
   it('is met when holding the button turns the input assigned to raise ON', () => {
     const result = judge(benchScenario([raiseOn]), (b) => ready(b).hold('raiseButton', 1000))
     expect(result.met).toBe(true)
-    expect(result.evidence).toMatch(/with Raise held, DI2 \(raise\) was ON at 2\d(\.\d)? V/)
+    expect(result.evidence).toMatch(/with Raise held, DI2, assigned to Raise speed, was ON at 2\d(\.\d)? V/)
   })
 
   it('judges electrically: the raise button on another input, assigned to raise there, also passes', () => {
@@ -62,7 +64,7 @@ describe('wiringCondition', () => {
     })
     const result = judge(scenario, (b) => ready(b).hold('raiseButton', 1000))
     expect(result.met).toBe(true)
-    expect(result.evidence).toMatch(/DI5 \(raise\) was ON/)
+    expect(result.evidence).toMatch(/DI5, assigned to Raise speed, was ON/)
   })
 
   it('is missed when the digital-input common is not wired (no return path)', () => {
@@ -71,7 +73,7 @@ describe('wiringCondition', () => {
     })
     const result = judge(scenario, (b) => ready(b).hold('raiseButton', 1000))
     expect(result.met).toBe(false)
-    expect(result.evidence).toMatch(/DI2 \(raise\) was OFF/)
+    expect(result.evidence).toMatch(/DI2, assigned to Raise speed, was OFF/)
   })
 
   it('is missed when the condition was never tried with the control supply on', () => {
@@ -250,7 +252,7 @@ describe('noWiringWhileEnergised', () => {
     const result = judge(scenario, (b) => ready(b).wire('wExtra', 'drive.p24', 'drive.di4'))
     expect(result.met).toBe(false)
     expect(result.evidence).toMatch(
-      /^Wire wExtra added \(\+24 to DI4\) at 00:0\d\.\d while the supply disconnect was on\.$/,
+      /^Wire W8 added from \+24 to DI4 at 00:0\d\.\d while the supply disconnect was on\.$/,
     )
   })
 
@@ -273,7 +275,7 @@ describe('lockBeforeWiring', () => {
   it('is missed by a change with the disconnect off but unlocked', () => {
     const result = judge(scenario, (b) => isolateAndProve(ready(b), { lock: false }).unwire('wLowerOut'))
     expect(result.met).toBe(false)
-    expect(result.evidence).toMatch(/^Wire wLowerOut removed at .* with no lock on the disconnect\.$/)
+    expect(result.evidence).toMatch(/^Wire W7 removed at .* with no lock on the disconnect\.$/)
   })
 })
 
@@ -365,13 +367,13 @@ describe('faultFoundAndCleared', () => {
       isolateAndProve(ready(b)).fitContact('lowerButton', 'NO').wait(1000),
     )
     expect(result.met).toBe(true)
-    expect(result.evidence).toMatch(/^The welded contact on Lower was put right at/)
+    expect(result.evidence).toMatch(/^The welded contact 13–14 on Lower was put right at/)
   })
 
   it('is missed while the fault is still there', () => {
     const result = judge(scenario, (b) => isolateAndProve(ready(b)).wait(1000))
     expect(result.met).toBe(false)
-    expect(result.evidence).toMatch(/the welded contact on Lower was still there/)
+    expect(result.evidence).toMatch(/the welded contact 13–14 on Lower was still there/)
   })
 
   it('is missed when the replacement block is the wrong type again', () => {

@@ -1,40 +1,30 @@
-// The attempt trace the evaluators read: drive readings made on first use (and shared between the
-// samples of one moment), time windows found by binary search, terminal work and dead tests found
-// once per trace, the lock each moment falls under. Each must give exactly what the plain definition gives: a scan of every sample.
-import { readdirSync, readFileSync } from 'node:fs'
-import { resolve } from 'node:path'
-import fc from 'fast-check'
+// The sample stream the objectives read, one event at a time: drive readings made on first use (and
+// shared between the samples of one moment), the supply state shared while the circuit is configured
+// alike, the lock each moment falls under, and the dead-test readings kept since each isolation start.
+// Each must give exactly what the plain definition gives: the model's own replay, or a scan of every
+// sample so far.
 import { describe, expect, it } from 'vitest'
-import { readDrive, type AttemptEvent, type PointId } from '@shared/model'
+import {
+  readCircuit,
+  readDrive,
+  replay,
+  voltageRangeFor,
+  type AttemptEvent,
+  type MeterMode,
+  type PointId,
+} from '@shared/model'
 import { toSimulationSetup } from '@shared/scenario'
-import {
-  DEFAULT_DEAD_PAIRS,
-  deadTests,
-  isolationStart,
-  lockInForce,
-  meterProved,
-  PROVING_VOLTS,
-  terminalWork,
-} from '@shared/scenario/safety'
-import {
-  firstSampleFrom,
-  isTerminalWork,
-  traceAttempt,
-  type AttemptTrace,
-  type Sample,
-} from '@shared/scenario/samples'
-import type { AttemptFixture } from './builders/buildFixtures'
-import { shippedScenario } from './helpers'
+import { DEFAULT_DEAD_PAIRS, DeadTestWatcher, PROVING_VOLTS, type ProbePair } from '@shared/scenario/proofs'
+import { isolationStart, lockInForce } from '@shared/scenario/safety'
+import { AttemptSampler, type Sample } from '@shared/scenario/samples'
+import { attemptFixtures, shippedScenario } from './helpers'
 
-const attemptsDir = resolve(import.meta.dirname, '../../fixtures/attempts')
-const fixtures: AttemptFixture[] = readdirSync(attemptsDir)
-  .filter((f) => f.endsWith('.json'))
-  .sort()
-  .map((f) => JSON.parse(readFileSync(resolve(attemptsDir, f), 'utf8')) as AttemptFixture)
+const fixtures = attemptFixtures()
 
 const PROBE_POINTS: (PointId | null)[] = ['drive.p24', 'drive.0v', 'drive.l1', 'drive.l2', 'drive.dcp', null]
+const RANGES: MeterMode[] = ['acVolts', 'dcVolts', 'resistance']
 
-/** The log with meter probe moves between its events, as a long attempt has them. */
+/** The log with meter probe moves between its events, as a long attempt has them, and the range turned now and then. */
 function withProbeMoves(events: AttemptEvent[], perGap: number): AttemptEvent[] {
   const out: AttemptEvent[] = []
   events.forEach((event, i) => {
@@ -45,127 +35,167 @@ function withProbeMoves(events: AttemptEvent[], perGap: number): AttemptEvent[] 
       const t = event.t + Math.floor(((next.t - event.t) * k) / (perGap + 1))
       const red = PROBE_POINTS[(i + k) % PROBE_POINTS.length]
       const black = PROBE_POINTS[(i + 2 * k + 1) % PROBE_POINTS.length]
+      if (k === 1 && i % 3 === 0) out.push({ t, type: 'meter.mode', mode: RANGES[i % RANGES.length]! })
       out.push({ t, type: 'meter.probes', red, black })
     }
   })
   return out
 }
 
-const traces: [string, AttemptTrace][] = fixtures.flatMap((fixture) => {
+interface Streamed {
+  events: AttemptEvent[]
+  samples: Sample[]
+  setup: ReturnType<typeof toSimulationSetup>
+}
+
+function stream(setup: Streamed['setup'], events: AttemptEvent[]): Streamed {
+  const sampler = new AttemptSampler(setup)
+  const samples = [sampler.start]
+  for (const event of events) samples.push(...sampler.push(event))
+  return { events, samples, setup }
+}
+
+const streams: [string, Streamed][] = fixtures.flatMap((fixture) => {
   const setup = toSimulationSetup(shippedScenario(fixture.scenario))
   const name = `${fixture.scenario}--${fixture.name}`
   return [
-    [name, traceAttempt(setup, fixture.events)],
-    [`${name} with probe moves`, traceAttempt(setup, withProbeMoves(fixture.events, 3))],
+    [name, stream(setup, fixture.events)],
+    [`${name} with probe moves`, stream(setup, withProbeMoves(fixture.events, 3))],
   ]
 })
 
-function onPair(sample: Sample, pair: readonly [string, string]): boolean {
+function onPair(sample: Sample, pair: ProbePair): boolean {
   const { red, black } = sample.state.meter
   return (red === pair[0] && black === pair[1]) || (red === pair[1] && black === pair[0])
 }
 
-describe('attempt trace', () => {
-  it.each(traces)('%s: every sample reads the drive as readDrive reads its state', (_name, trace) => {
-    for (const sample of trace.samples) expect(sample.drive).toEqual(readDrive(sample.state))
+describe('attempt sample stream', () => {
+  it.each(streams)(
+    '%s: each event has one sample just before and one just after it, as replay has it',
+    (_n, s) => {
+      const timeline = replay(s.setup, s.events)
+      const befores = s.samples.filter((x) => x.at === 'before')
+      const afters = s.samples.filter((x) => x.at === 'after')
+      expect(befores.map((x) => x.eventIndex)).toEqual(s.events.map((_, i) => i))
+      expect(afters.map((x) => x.eventIndex)).toEqual(s.events.map((_, i) => i))
+      s.events.forEach((event, i) => {
+        expect(befores[i]!.t).toBe(event.t)
+        expect(befores[i]!.event).toBe(event)
+        expect(befores[i]!.applied).toBe(i)
+        expect(afters[i]!.state).toEqual(timeline.segments[i + 1]!.state)
+        expect(afters[i]!.applied).toBe(i + 1)
+      })
+    },
+  )
+
+  it.each(streams)('%s: samples are in time order, breakpoints strictly between events', (_n, s) => {
+    const breakpoints = replay(s.setup, s.events).breakpoints.map((b) => Math.ceil(b.t))
+    for (let i = 1; i < s.samples.length; i++)
+      expect(s.samples[i]!.t).toBeGreaterThanOrEqual(s.samples[i - 1]!.t)
+    for (const [i, sample] of s.samples.entries()) {
+      if (sample.at !== 'breakpoint') continue
+      expect(breakpoints).toContain(sample.t)
+      expect(sample.t).toBeGreaterThan(s.samples[i - 1]!.t)
+      expect(s.samples[i + 1]!.t).toBeGreaterThan(sample.t)
+    }
   })
 
-  it.each(traces)('%s: a reading is shared only between samples of one moment', (_name, trace) => {
-    const { samples } = trace
-    for (let i = 1; i < samples.length; i++) {
-      if (samples[i].drive === samples[i - 1].drive) expect(samples[i].t).toBe(samples[i - 1].t)
+  it.each(streams)(
+    '%s: every sample reads the drive and the supply as the model reads its state',
+    (_n, s) => {
+      for (const sample of s.samples) {
+        expect(sample.drive).toEqual(readDrive(sample.state))
+        expect(sample.supplyOn).toBe(readCircuit(sample.state).supplyOn)
+      }
+    },
+  )
+
+  it.each(streams)('%s: a reading is shared only between samples of one moment', (_n, s) => {
+    for (let i = 1; i < s.samples.length; i++) {
+      if (s.samples[i]!.drive === s.samples[i - 1]!.drive) expect(s.samples[i]!.t).toBe(s.samples[i - 1]!.t)
     }
   })
 
   it('shares the reading of a meter probe move with the moment before it when nothing else changed', () => {
-    const [, trace] = traces.find(([name]) => name.endsWith('with probe moves'))!
-    const changedParts = (before: Sample, after: Sample) =>
-      (Object.keys(after.state) as (keyof Sample['state'])[]).filter(
+    const [, s] = streams.find(([name]) => name.endsWith('with probe moves'))!
+    const probeMoves = s.samples.flatMap((after, i) => {
+      if (after.at !== 'after' || after.event?.type !== 'meter.probes') return []
+      const before = s.samples[i - 1]!
+      const changed = (Object.keys(after.state) as (keyof Sample['state'])[]).filter(
         (k) => after.state[k] !== before.state[k],
       )
-    // (A message left by the event before is cleared by the move: that changes the reading.)
-    const probeMoves = trace.samples.filter((after) => {
-      if (after.at !== 'after' || trace.events[after.eventIndex].type !== 'meter.probes') return false
-      const before = trace.before(after.eventIndex)
-      return (
-        before.state.messages.length === 0 &&
-        changedParts(before, after).every((k) => k === 'meter' || k === 'messages')
-      )
+      // (A message left by the event before is cleared by the move: that changes the reading.)
+      const alike =
+        before.state.messages.length === 0 && changed.every((k) => k === 'meter' || k === 'messages')
+      return alike ? [[before, after] as const] : []
     })
     expect(probeMoves.length).toBeGreaterThan(10)
-    for (const after of probeMoves) expect(after.drive).toBe(trace.before(after.eventIndex).drive)
+    for (const [before, after] of probeMoves) expect(after.drive).toBe(before.drive)
   })
 
-  it('finds the first sample at or after a time, or after it, as a scan does', () => {
-    const times = fc
-      .array(fc.integer({ min: 0, max: 50 }), { maxLength: 40 })
-      .map((ts) => ts.sort((a, b) => a - b))
-    fc.assert(
-      fc.property(times, fc.integer({ min: -5, max: 60 }), (ts, t) => {
-        const samples = ts.map((time) => ({ t: time }) as Sample)
-        const scan = (keep: (s: Sample) => boolean) => {
-          const i = samples.findIndex(keep)
-          return i === -1 ? samples.length : i
+  it.each(streams)('%s: the lock in force and the isolation start agree with a scan back', (_n, s) => {
+    const lastBefore = (applied: number, type: string) =>
+      s.events.slice(0, applied).findLast((e) => e.type === type)?.t
+    for (const sample of s.samples) {
+      const lockT = sample.state.power.locked ? (lastBefore(sample.applied, 'lock.applied') ?? 0) : undefined
+      expect(lockInForce(sample)).toBe(lockT)
+      expect(isolationStart(sample)).toBe(lockT ?? lastBefore(sample.applied, 'power.off') ?? 0)
+    }
+  })
+
+  it.each(streams)(
+    '%s: dead-test readings and meter proofs agree with a scan of every sample so far',
+    (_n, s) => {
+      // Both orders of a pair, a pair named twice, and a pair nobody measures.
+      const pairs: ProbePair[] = [
+        ...DEFAULT_DEAD_PAIRS,
+        ['drive.l2', 'drive.l1'],
+        ['drive.l1', 'drive.l2'],
+        ['drive.p24', 'drive.0v'],
+        ['drive.pe', 'drive.l3'],
+      ]
+      const watcher = new DeadTestWatcher(pairs, true)
+      let watch = watcher.empty
+      const volts = (sample: Sample) => readCircuit(sample.state).meter.volts
+      const isProof = (sample: Sample) => {
+        const v = volts(sample)
+        return v !== null && Math.abs(v) >= PROVING_VOLTS
+      }
+      const every = Math.max(1, Math.floor(s.samples.length / 40))
+      s.samples.forEach((sample, n) => {
+        watch = watcher.step(watch, sample)
+        if (n % every !== 0 && !(sample.at === 'before' && sample.event?.type.startsWith('wire'))) return
+        const seen = s.samples.slice(0, n + 1)
+        const firstProof = seen.find(isProof)
+        expect(watch.firstProof).toEqual(
+          firstProof && { t: firstProof.t, volts: Math.abs(volts(firstProof)!) },
+        )
+        for (const from of new Set([
+          0,
+          isolationStart(sample),
+          sample.isolation.lastLockT ?? 0,
+          sample.isolation.lastOffT ?? 0,
+        ])) {
+          const window = seen.filter((x) => x.t >= from)
+          const lowest = pairs.map((pair) => {
+            let low: { volts: number; t: number } | undefined
+            for (const x of window) {
+              // A dead test counts only on the range that shows what the pair could carry.
+              const onRange = x.state.meter.mode === voltageRangeFor(pair[0], pair[1])
+              const v = onRange && onPair(x, pair) ? volts(x) : null
+              if (v !== null && (!low || Math.abs(v) < low.volts)) low = { volts: Math.abs(v), t: x.t }
+            }
+            return low
+          })
+          const since = watcher.since(watch, from)
+          expect(since.lowest).toEqual(lowest)
+          const lastDead = Math.max(...lowest.map((l) => l?.t ?? -1))
+          if (lastDead >= 0) {
+            const proof = window.find((x) => x.t >= lastDead && isProof(x))
+            expect(since.proofAfterDead).toEqual(proof && { t: proof.t, volts: Math.abs(volts(proof)!) })
+          }
         }
-        expect(firstSampleFrom(samples, t)).toBe(scan((s) => s.t >= t))
-        expect(firstSampleFrom(samples, t, true)).toBe(scan((s) => s.t > t))
-      }),
-    )
-  })
-
-  it.each(traces)(
-    '%s: terminal work is each wiring, contact or fuse event with the sample before it',
-    (_name, trace) => {
-      const scanned = trace.samples
-        .filter((s) => s.at === 'before' && isTerminalWork(trace.events[s.eventIndex]))
-        .map((s) => ({ t: s.t, eventIndex: s.eventIndex, event: trace.events[s.eventIndex], before: s }))
-      expect(terminalWork(trace)).toEqual(scanned)
-      expect(terminalWork(trace).every((w, i) => w.before === scanned[i].before)).toBe(true)
+      })
     },
   )
-
-  it.each(traces)('%s: the lock in force and the isolation start agree with a scan back', (_name, trace) => {
-    const lastBefore = (applied: number, type: string) =>
-      trace.events.slice(0, applied).findLast((e) => e.type === type)?.t
-    for (const sample of trace.samples) {
-      const lockT = sample.state.power.locked ? (lastBefore(sample.applied, 'lock.applied') ?? 0) : undefined
-      expect(lockInForce(trace, sample)).toBe(lockT)
-      expect(isolationStart(trace, sample)).toBe(lockT ?? lastBefore(sample.applied, 'power.off') ?? 0)
-    }
-  })
-
-  it.each(traces)('%s: dead tests and meter proofs agree with a scan of every sample', (_name, trace) => {
-    const { samples } = trace
-    const times = [...new Set(samples.map((s) => s.t))]
-    // Both orders of a pair, a pair named twice, and a pair nobody measures.
-    const pairs: (readonly [string, string])[] = [
-      ...DEFAULT_DEAD_PAIRS,
-      ['drive.l2', 'drive.l1'],
-      ['drive.l1', 'drive.l2'],
-      ['drive.p24', 'drive.0v'],
-      ['drive.pe', 'drive.l3'],
-    ]
-    for (let i = 0; i < times.length; i += Math.max(1, Math.floor(times.length / 12))) {
-      for (const to of [times[i], times[Math.min(times.length - 1, i + 5)], trace.end]) {
-        const from = times[i]
-        const expected = pairs.map((pair) => {
-          let lowest: { volts: number; t: number } | undefined
-          for (const s of samples) {
-            if (s.t < from || s.t > to || !onPair(s, pair)) continue
-            const volts = trace.circuit(s).meter.volts
-            if (volts !== null && (!lowest || Math.abs(volts) < lowest.volts))
-              lowest = { volts: Math.abs(volts), t: s.t }
-          }
-          return { pair, lowest, proved: lowest !== undefined && lowest.volts < 50 }
-        })
-        expect(deadTests(trace, from, to, pairs, 50)).toEqual(expected)
-        const proof = samples.find((s) => {
-          const volts = s.t >= from && s.t <= to ? trace.circuit(s).meter.volts : null
-          return volts !== null && Math.abs(volts) >= PROVING_VOLTS
-        })
-        const volts = proof && Math.abs(trace.circuit(proof).meter.volts!)
-        expect(meterProved(trace, from, to)).toEqual(proof && { t: proof.t, volts })
-      }
-    }
-  })
 })

@@ -3,6 +3,7 @@
 import { frequencyForRpm } from '@shared/model'
 import type { LogBuilder } from './logBuilder'
 import {
+  checkMeterOnProver,
   isolateAndProve,
   restorePower,
   running,
@@ -26,7 +27,7 @@ const safeIsolation: AttemptScript[] = [
     scenario: 'safe-isolation',
     name: 'reference',
     description:
-      'Live–dead–live: meter proved on the proving unit, switched off, locked, waited for the bus, proved every pair dead, meter proved on the proving unit again.',
+      'Live–dead–live: switched off, locked, watched the bus discharge, checked the meter on the proving unit (V AC and V DC), proved every phase to phase, phase to earth and the bus dead, checked the meter on the proving unit again.',
     misses: [],
     build: (b) => {
       b.wait(3000)
@@ -53,14 +54,12 @@ const safeIsolation: AttemptScript[] = [
       'Measured the DC bus seconds after switching off (still ~500 V), moved on to the lines and never re-measured it.',
     misses: ['proved-dead'],
     build: (b) => {
-      b.wait(3000).probe('prover.pos', 'prover.neg').wait(2000).powerOff().wait(1000).lock().wait(1000)
-      b.probe('drive.dcp', 'drive.dcn').wait(3000)
-      b.probe('drive.l1', 'drive.l2').wait(2000).probe('drive.l2', 'drive.l3').wait(2000)
-      b.probe('drive.l1', 'drive.l3')
-        .wait(2000)
-        .probe('prover.pos', 'prover.neg')
-        .wait(2000)
-        .probe(null, null)
+      b.wait(3000)
+      checkMeterOnProver(b).powerOff().wait(1000).lock().wait(1000)
+      b.measure('drive.dcp', 'drive.dcn', 'dcVolts').wait(3000)
+      b.measure('drive.l1', 'drive.l2', 'acVolts').wait(2000).probe('drive.l2', 'drive.l3').wait(2000)
+      b.probe('drive.l1', 'drive.l3').wait(2000)
+      checkMeterOnProver(b).probe(null, null)
       b.waitUntil((d) => d.busVolts < 40, 'the bus discharging', 1000).wait(5000)
     },
   },
@@ -92,7 +91,7 @@ const twoWireRunStop: AttemptScript[] = [
     scenario: 'two-wire-run-stop',
     name: 'reference',
     description:
-      'Proved dead, wired DCM to 0V and the selector from +24 to DI1, assigned run, terminal control, ran and stopped.',
+      'Proved dead, wired DIC to 0V and the selector from +24 to DI1, assigned run, terminal control, ran and stopped.',
     misses: [],
     build: (b) => twoWire(b, true),
   },
@@ -237,7 +236,8 @@ function replaceContact(b: LogBuilder, options: { lock: boolean }): void {
   b.waitUntil((d) => d.power === 'ready', 'the drive becoming ready').wait(2000)
   b.switchTo('runSwitch', 1).wait(8000) // the reference creeps up on its own
   b.switchTo('runSwitch', 0).waitUntil(standstill, 'the ramp stop').wait(2000)
-  b.probe('raiseButton.a', 'raiseButton.b').wait(3000).probe(null, null).wait(1000) // ~0 V: closed at rest
+  // ~0 V on V DC: closed at rest
+  b.measure('raiseButton.a', 'raiseButton.b', 'dcVolts').wait(3000).probe(null, null).wait(1000)
   isolateAndProve(b, { lock: options.lock })
   b.fitContact('raiseButton', 'NO').wait(5000)
   restorePower(b)
@@ -284,7 +284,7 @@ const inputsNeverOn: AttemptScript[] = [
     scenario: 'inputs-never-on',
     name: 'reference',
     description:
-      'Set the input logic to sink, isolated and proved dead, added the missing DCM-0V common, ran at 30 Hz.',
+      'Set the input logic to sink, isolated and proved dead, added the missing DIC-0V common, ran at 30 Hz.',
     misses: [],
     build: (b) => fixInputs(b, {}),
   },
@@ -369,7 +369,7 @@ const potentiometerReference: AttemptScript[] = [
     scenario: 'potentiometer-reference',
     name: 'reference',
     description:
-      'Proved dead, wired the pot across +10/AC with the wiper to AI, checked both ends of the knob, ran at 45 Hz.',
+      'Proved dead, wired the pot across +10/AIC with the wiper to AI, checked both ends of the knob, ran at 45 Hz.',
     misses: [],
     build: (b) => potentiometer(b, { wireLow: true }),
   },
@@ -377,7 +377,7 @@ const potentiometerReference: AttemptScript[] = [
     scenario: 'potentiometer-reference',
     name: 'mistake-low-end-not-wired',
     description:
-      'Left the potentiometer low end off AC: the knob still sets a speed but never gets below about two thirds.',
+      'Left the potentiometer low end off AIC: the knob still sets a speed but never gets below about two thirds.',
     misses: ['pot-zero'],
     build: (b) => potentiometer(b, { wireLow: false }),
   },
@@ -427,14 +427,15 @@ const fanRampOrCoast: AttemptScript[] = [
 function repairControlCircuit(b: LogBuilder, options: { lockSecondTime: boolean }): void {
   b.waitUntil((d) => d.power === 'ready', 'the drive becoming ready').wait(2000)
   b.switchTo('runSwitch', 1).wait(2000) // nothing happens
-  b.probe('drive.p24', 'drive.0v').wait(3000).probe(null, null).wait(1000) // 0 V: no control supply
+  // 0 V on V DC with the display lit: no control supply
+  b.measure('drive.p24', 'drive.0v', 'dcVolts').wait(3000).probe(null, null).wait(1000)
   b.switchTo('runSwitch', 0).wait(1000)
   isolateAndProve(b)
   b.record({ type: 'fuse.replaced' }).wait(5000)
   restorePower(b)
   b.switchTo('runSwitch', 1).wait(2000) // still nothing: DI1 stays OFF
   // Across the run wire: an open conductor should read the supply (see modelGaps.test.ts).
-  b.probe('runSwitch.b', 'drive.di1').wait(3000).probe(null, null).wait(1000)
+  b.measure('runSwitch.b', 'drive.di1', 'dcVolts').wait(3000).probe(null, null).wait(1000)
   b.switchTo('runSwitch', 0).wait(1000)
   isolateAndProve(b, { lock: options.lockSecondTime })
   b.unwire('wRunOut').wait(4000).wire('wRunOutNew', 'runSwitch.b', 'drive.di1').wait(4000)

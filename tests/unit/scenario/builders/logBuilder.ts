@@ -10,6 +10,7 @@ import {
   type CircuitReading,
   type DriveReading,
   type KeypadKey,
+  type MeterMode,
   type SettingKey,
   type SettingValue,
   type SimState,
@@ -142,6 +143,16 @@ export class LogBuilder {
 
   probe(red: string | null, black: string | null): this {
     return this.record({ type: 'meter.probes', red, black })
+  }
+
+  meterMode(mode: MeterMode): this {
+    return this.record({ type: 'meter.mode', mode })
+  }
+
+  /** Turn the selector to a range (if it is not there already), then place the probes. */
+  measure(red: string, black: string, mode: MeterMode): this {
+    if (this.state.meter.mode !== mode) this.meterMode(mode)
+    return this.probe(red, black)
   }
 
   key(key: KeypadKey): this {

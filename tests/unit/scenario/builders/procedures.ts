@@ -1,19 +1,25 @@
 // Steps shared by many attempt scripts: isolation and proving dead, restoring power, standard wiring.
 import type { LogBuilder } from './logBuilder'
 
-export const LINE_AND_BUS_PAIRS: [string, string][] = [
+/** Every phase to phase, then every phase to earth (V AC), then the DC bus (V DC). */
+export const LINE_PAIRS: [string, string][] = [
   ['drive.l1', 'drive.l2'],
   ['drive.l2', 'drive.l3'],
   ['drive.l1', 'drive.l3'],
-  ['drive.dcp', 'drive.dcn'],
 ]
+export const LINE_EARTH_PAIRS: [string, string][] = [
+  ['drive.l1', 'drive.pe'],
+  ['drive.l2', 'drive.pe'],
+  ['drive.l3', 'drive.pe'],
+]
+export const BUS_PAIR: [string, string] = ['drive.dcp', 'drive.dcn']
 
 export interface IsolationOptions {
   /** Prove the meter on the live supply first (NFPA 70E 120.5(7) live-dead-live, first half). */
   proveMeter?: boolean
   /**
-   * Live–dead–live on the bench's proving unit (NFPA 70E 120.5(7)): prove the meter on it before
-   * switching off and again after the dead test.
+   * Live–dead–live on the bench's proving unit (NFPA 70E 120.5(7); OSHA 1910.147(d)(6)): check the meter
+   * on both ranges the test uses just before the dead test and again just after it.
    */
   liveDeadLive?: boolean
   /** Apply a lock after switching off (the typical mistake is to skip it). */
@@ -22,21 +28,33 @@ export interface IsolationOptions {
   proveDead?: boolean
 }
 
-/** Switch off, lock, wait for the DC bus to fall below 40 V with the probes on it, test each pair. */
+/** Check the meter on the proving unit: its AC output on V AC, its DC output on V DC. */
+export function checkMeterOnProver(b: LogBuilder): LogBuilder {
+  b.measure('prover.ac', 'prover.neg', 'acVolts').wait(2000)
+  return b.measure('prover.pos', 'prover.neg', 'dcVolts').wait(2000)
+}
+
+/**
+ * Switch off, lock, watch the DC bus fall below 15 V (about five minutes, the wait drive warning labels
+ * commonly state), then the dead test in order: (proving unit) → every phase to phase and phase to earth →
+ * DC+ to DC− → (proving unit again).
+ */
 export function isolateAndProve(b: LogBuilder, options: IsolationOptions = {}): LogBuilder {
   const { proveMeter = false, liveDeadLive = false, lock = true, proveDead = true } = options
-  if (liveDeadLive) b.probe('prover.pos', 'prover.neg').wait(2000)
   if (b.drive.lineOn) {
-    if (proveMeter) b.probe('drive.l1', 'drive.l2').wait(2000)
+    if (proveMeter) b.measure('drive.l1', 'drive.l2', 'acVolts').wait(2000)
     b.powerOff().wait(1000)
   }
   if (lock && !b.drive.locked) b.lock().wait(1000)
-  if (proveDead) b.probe('drive.dcp', 'drive.dcn').wait(1000)
-  b.waitUntil((d) => d.busVolts < 40, 'the DC bus discharging below 40 V', 1000)
+  if (proveDead) b.measure(...BUS_PAIR, 'dcVolts').wait(1000)
+  b.waitUntil((d) => d.busVolts < 15, 'the DC bus discharging below 15 V', 1000)
   if (proveDead) {
-    for (const [red, black] of LINE_AND_BUS_PAIRS.slice(0, 3)) b.probe(red, black).wait(2000)
+    if (liveDeadLive) checkMeterOnProver(b)
+    for (const [red, black] of [...LINE_PAIRS, ...LINE_EARTH_PAIRS])
+      b.measure(red, black, 'acVolts').wait(2000)
+    b.measure(...BUS_PAIR, 'dcVolts').wait(2000)
+    if (liveDeadLive) checkMeterOnProver(b)
   }
-  if (liveDeadLive) b.probe('prover.pos', 'prover.neg').wait(2000)
   return b.probe(null, null).wait(1000)
 }
 
@@ -49,7 +67,7 @@ export function restorePower(b: LogBuilder): LogBuilder {
     .wait(1000)
 }
 
-/** Sink logic: DCM to 0 V; +24 V looped through the run selector to the raise and lower buttons. */
+/** Sink logic: DIC to 0 V; +24 V looped through the run selector to the raise and lower buttons. */
 export function wireRaiseLower(b: LogBuilder, options: { common?: boolean } = {}): LogBuilder {
   if (options.common !== false) b.wire('wCom', 'drive.dcom', 'drive.0v').wait(3000)
   return b

@@ -1,0 +1,120 @@
+// The demo seed: an invented training centre with an admin, two instructors, two cohorts, a dozen
+// apprentices, assignments of the shipped scenarios, and sample attempts graded by the real grader.
+import { randomUUID } from 'node:crypto'
+import type { DataSource } from 'typeorm'
+import type { Logger } from '../infrastructure/logging'
+import {
+  AssignmentEntity,
+  CohortEntity,
+  EnrollmentEntity,
+  ScenarioEntity,
+  UserEntity,
+  type AssignmentRow,
+  type CohortRow,
+  type UserRow,
+} from '../entities'
+import { DAY, nowIso } from '../infrastructure/clock'
+import { DEMO_ACCOUNTS, DEMO_COHORTS } from './demo-accounts'
+import type { PasswordHasher } from '../infrastructure/security/passwords'
+import { seedSampleAttempts } from './seed-attempts'
+
+/** Which shipped scenarios each demo cohort is set, by scenario id, with due dates in days from now. */
+const DEMO_ASSIGNMENTS: { cohort: number; key: string; opensInDays: number; dueInDays: number }[] = [
+  { cohort: 0, key: 'safe-isolation', opensInDays: -21, dueInDays: -7 },
+  { cohort: 0, key: 'two-wire-run-stop', opensInDays: -14, dueInDays: 7 },
+  { cohort: 0, key: 'raise-lower-commissioning', opensInDays: -3, dueInDays: 14 },
+  { cohort: 1, key: 'safe-isolation', opensInDays: -7, dueInDays: 7 },
+  { cohort: 1, key: 'three-wire-start-stop', opensInDays: -2, dueInDays: 21 },
+]
+
+export async function isDatabaseEmpty(dataSource: DataSource): Promise<boolean> {
+  return (await dataSource.getRepository(UserEntity).count()) === 0
+}
+
+/** Whether the demo admin exists (then the start-up banner lists the demo sign-ins). */
+export async function hasDemoAccounts(dataSource: DataSource): Promise<boolean> {
+  return (await dataSource.getRepository(UserEntity).countBy({ email: DEMO_ACCOUNTS[0]!.email })) > 0
+}
+
+export async function seedDemo(
+  dataSource: DataSource,
+  passwords: PasswordHasher,
+  log: Logger,
+): Promise<void> {
+  const now = nowIso()
+  const users: UserRow[] = []
+  for (const account of DEMO_ACCOUNTS) {
+    users.push({
+      id: randomUUID(),
+      email: account.email,
+      name: account.name,
+      role: account.role,
+      passwordHash: await passwords.hash(account.password),
+      active: true,
+      tokenVersion: 0,
+      createdAt: now,
+      updatedAt: now,
+      lastSignInAt: null,
+    })
+  }
+  const cohorts: CohortRow[] = DEMO_COHORTS.map((c, index) => ({
+    id: randomUUID(),
+    name: c.name,
+    description: c.description,
+    ownerId: users[DEMO_ACCOUNTS.findIndex((a) => a.role === 'instructor' && a.cohort === index)]!.id,
+    archived: false,
+    createdAt: now,
+  }))
+  const assignments: AssignmentRow[] = []
+  await dataSource.transaction(async (manager) => {
+    await manager.getRepository(UserEntity).insert(users)
+    // Not repository.insert: for a column with a database default (gradebookRevision) TypeORM re-reads the
+    // rows of a multi-row insert on SQLite and merges them back by position, unordered — which swapped the
+    // cohorts' ids in `cohorts` and enrolled apprentices in the wrong cohort. updateEntity(false) skips it.
+    await manager
+      .createQueryBuilder()
+      .insert()
+      .into(CohortEntity)
+      .values(cohorts)
+      .updateEntity(false)
+      .execute()
+    const enrollments = DEMO_ACCOUNTS.flatMap((account, index) =>
+      account.role === 'apprentice' && account.cohort !== undefined
+        ? [
+            {
+              id: randomUUID(),
+              cohortId: cohorts[account.cohort]!.id,
+              userId: users[index]!.id,
+              createdAt: now,
+            },
+          ]
+        : [],
+    )
+    await manager.getRepository(EnrollmentEntity).insert(enrollments)
+    for (const plan of DEMO_ASSIGNMENTS) {
+      const scenario = await manager
+        .getRepository(ScenarioEntity)
+        .findOne({ where: { key: plan.key }, order: { version: 'DESC' } })
+      if (!scenario) continue
+      const cohort = cohorts[plan.cohort]!
+      assignments.push({
+        id: randomUUID(),
+        cohortId: cohort.id,
+        scenarioId: scenario.id,
+        title: scenario.title,
+        opensAt: new Date(Date.now() + plan.opensInDays * DAY).toISOString(),
+        dueAt: new Date(Date.now() + plan.dueInDays * DAY).toISOString(),
+        attemptLimit: 3,
+        hintsAllowed: plan.key !== 'safe-isolation',
+        createdById: cohort.ownerId,
+        createdAt: now,
+      })
+    }
+    if (assignments.length) await manager.getRepository(AssignmentEntity).insert(assignments)
+  })
+  const attempts = await seedSampleAttempts(dataSource, users, cohorts, assignments)
+  log.info(
+    { users: users.length, cohorts: cohorts.length, assignments: assignments.length, attempts },
+    'demo data created',
+  )
+}

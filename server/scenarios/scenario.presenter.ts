@@ -1,0 +1,28 @@
+// A stored scenario version → the API's summary (lists) or detail (with its document).
+import type { ScenarioDetail, ScenarioSummary } from '@shared/api/scenarios'
+import type { ScenarioRow } from '../entities'
+
+export function presentScenario(row: ScenarioRow): ScenarioSummary {
+  const document = JSON.parse(row.document) as {
+    story?: string
+    difficulty?: string
+    estimatedMinutes?: number
+  }
+  return {
+    id: row.id,
+    key: row.key,
+    version: row.version,
+    title: row.title,
+    story: document.story ?? '',
+    difficulty: document.difficulty ?? 'introductory',
+    estimatedMinutes: document.estimatedMinutes ?? 0,
+    status: row.status,
+    createdById: row.createdById,
+    createdAt: row.createdAt,
+  }
+}
+
+export const presentScenarioDetail = (row: ScenarioRow): ScenarioDetail => ({
+  ...presentScenario(row),
+  document: JSON.parse(row.document),
+})
