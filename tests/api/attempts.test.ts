@@ -165,6 +165,20 @@ describe('attempts', () => {
       expect(await saved(id)).toEqual(there)
     })
 
+    it('compares a stored log written in another spelling event by event', async () => {
+      // Rows written before the grading thread serialised logs (or by hand) may order keys differently.
+      const id = randomUUID()
+      const save = (events: unknown[]) =>
+        submit(api, w.apprenticeA2, { id, assignmentId: w.assignmentA.id, status: 'inProgress', events })
+      await save(first)
+      const rows = api.dataSource.getRepository(AttemptEntity)
+      await rows.update({ id }, { events: '[ {"type": "lock.removed", "t": 500} ]' })
+      expect((await save(here)).status).toBe(200)
+      expect(await saved(id)).toEqual(here)
+      await rows.update({ id }, { events: '[{"type":"lock.applied","t":500}]' })
+      expect((await save([...here, { t: 950, type: 'power.off' }])).status).toBe(409)
+    })
+
     it('refuses a submission that drops saved actions, and grades nothing', async () => {
       const id = randomUUID()
       await submit(api, w.apprenticeA2, {

@@ -15,7 +15,7 @@ import type { PanelAction } from '../scene/intentActions'
 import { menuAfterEvent, STATUS_SCREEN, type KeypadMenu } from '../scene/keypadMenu'
 import type { AttemptStore } from '../storage/attemptStore'
 import { chooseStart, type AttemptCopy, type StartChoice, type StartDecision } from './attemptStart'
-import type { FromLiveGrading, LiveGradingInput, ToLiveGrading } from './liveGrading'
+import { warningText, type FromLiveGrading, type LiveGradingInput, type ToLiveGrading } from './liveGrading'
 import { isRetryable, retryDelayMs } from './retry'
 
 export type { PanelAction }
@@ -289,9 +289,13 @@ export const liveAttemptMachine = setup({
     keepGrade: assign(({ event }) => (event.type === 'grading.result' ? { grade: event.result } : {})),
     keepWarnings: assign(({ context, event }) => {
       if (event.type !== 'grading.violations') return {}
-      let id = context.warnings[0]?.id ?? 0
-      const fresh = event.violations.map((v) => ({ id: ++id, t: v.t, text: v.text })).reverse()
-      return { warnings: [...fresh, ...context.warnings].slice(0, KEEP_WARNINGS) }
+      // One warning per action, however many rules it broke (the grade lists each).
+      const warning = {
+        id: (context.warnings[0]?.id ?? 0) + 1,
+        t: event.violations[0]!.t,
+        text: warningText(event.violations),
+      }
+      return { warnings: [warning, ...context.warnings].slice(0, KEEP_WARNINGS) }
     }),
     markServerSaved: assign(({ event }) => ({
       serverSaved: (event as unknown as { output: AttemptSummary }).output.eventCount,

@@ -1,50 +1,23 @@
 // Live grading and live safety warnings: ONE implementation the live-attempt machine is given (its
-// `liveGrading` actor). Today it regrades the whole log with shared/scenario's `grade` and warns with
-// the client's wiring rule (scene/safety.ts); `todayLiveGrader` has the shape of shared/scenario's
-// `createLiveGrader(scenario, initial?)`, so moving to the incremental grader and the grader's own
-// safety rule is one line in `liveGradingActor` below.
+// `liveGrading` actor): shared/scenario's incremental grader. Each recorded event is pushed as it
+// happens; the violations a push returns are the grader's own safety rule, word for word what the
+// server's grade will list, so the panel and the grade cannot disagree about what was unsafe.
 import { fromCallback } from 'xstate'
-import { advance, applyEvent, createSimulation, readDrive } from '@shared/model'
 import type { AttemptEvent } from '@shared/model/events'
-import type { SimState } from '@shared/model/types'
-import { grade, type GradeResult } from '@shared/scenario/grade'
-import type { SafetyViolation } from '@shared/scenario/safety'
+import type { GradeResult, SafetyViolation } from '@shared/api/grading'
+import { createLiveGrader, type LiveGrader } from '@shared/scenario/liveGrader'
 import type { Scenario } from '@shared/scenario/schema'
-import { toSimulationSetup } from '@shared/scenario/setup'
-import { energisedReason, isWiringEvent, violationMessage } from '../scene/safety'
 
-export interface LiveGrader {
-  /** Folds one more event in; returns the safety violations that event committed. */
-  push(event: AttemptEvent): { violations: SafetyViolation[] }
-  /** The grade as if the attempt ended at `endAt` (simulated ms). */
-  result(endAt?: number): GradeResult
-  readonly eventCount: number
-}
-
+export type { LiveGrader }
 export type CreateLiveGrader = (scenario: Scenario, initial?: readonly AttemptEvent[]) => LiveGrader
 
-/** Today's grader behind the live interface: a full `grade` per result, the client's wiring rule per push. */
-export const todayLiveGrader: CreateLiveGrader = (scenario, initial = []) => {
-  const events: AttemptEvent[] = [...initial]
-  let sim: SimState = createSimulation(toSimulationSetup(scenario))
-  for (const e of initial) sim = applyEvent(sim, e)
-  return {
-    push(event) {
-      sim = advance(sim, Math.max(0, event.t - sim.t))
-      const reason = isWiringEvent(event) ? energisedReason(readDrive(sim)) : null
-      sim = applyEvent(sim, event)
-      events.push(event)
-      return {
-        violations: reason
-          ? [{ kind: 'workWhileEnergised', t: event.t, text: violationMessage(reason) }]
-          : [],
-      }
-    },
-    result: (endAt) => grade(scenario, events, endAt === undefined ? {} : { endAt }),
-    get eventCount() {
-      return events.length
-    },
-  }
+/** What to do instead, said after every live warning (the safe sequence the grader checks for). */
+export const SAFE_SEQUENCE =
+  'Isolate, lock out, wait for the DC bus to discharge and prove absence of voltage before touching terminals.'
+
+/** One action's violations as the one warning the panel shows: the grader's words, then the safe sequence. */
+export function warningText(violations: readonly SafetyViolation[]): string {
+  return `Safety violation: ${violations.map((v) => v.text).join(' ')} ${SAFE_SEQUENCE}`
 }
 
 /** What the machine sends the grading actor, and what the actor sends back. */
@@ -58,14 +31,19 @@ export type FromLiveGrading =
 /** Grades are asked for after every action and every few seconds; one grade per this many ms at most. */
 export const GRADE_COALESCE_MS = 400
 
-export function liveGradingActor(create: CreateLiveGrader = todayLiveGrader) {
+export function liveGradingActor(create: CreateLiveGrader = createLiveGrader) {
   return fromCallback<ToLiveGrading, LiveGradingInput, FromLiveGrading>(({ input, sendBack, receive }) => {
     const grader = create(input.scenario, input.events)
     let timer: ReturnType<typeof setTimeout> | null = null
     let endAt = 0
     receive((message) => {
       if (message.type === 'grading.push') {
-        const { violations } = grader.push(message.event)
+        let violations: SafetyViolation[]
+        try {
+          violations = grader.push(message.event).violations
+        } catch {
+          return // an event the grader cannot take (the machine validates first); the server grades on submission
+        }
         if (violations.length) sendBack({ type: 'grading.violations', violations })
         return
       }

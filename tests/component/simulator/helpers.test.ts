@@ -1,8 +1,8 @@
-// Small panel helpers: the simulated clock, device hotkeys, wire labels and the energised-wiring rule.
+// Small panel helpers: the simulated clock, device hotkeys and wire labels. (The live safety warning is
+// the grader's own rule: tests/component/simulator/liveAttemptMachine.test.ts.)
 import { describe, expect, it } from 'vitest'
 import { createSimClock } from '@/simulator/scene/simClock'
 import { deviceHotkeys } from '@/simulator/scene/hotkeys'
-import { energisedReason } from '@/simulator/scene/safety'
 import { wireLabel, WIRE_COLOURS } from '@/simulator/scene/wireColours'
 import { WIRE_COLOURS as MODEL_COLOURS } from '@shared/model/setup'
 
@@ -56,14 +56,5 @@ describe('wire colours and labels', () => {
     // IEC 60757 colour codes: BU blue, GNYE green-yellow.
     expect(wireLabel('w3', 'blue', 0)).toBe('W3 BU')
     expect(wireLabel('feed', 'greenYellow', 4)).toBe('W5 GNYE')
-  })
-})
-
-describe('wiring while energised', () => {
-  it('is flagged with the supply on, or with the DC bus above 50 V after switching off', () => {
-    // 50 V: NEC 460.6 discharge threshold quoted in REFERENCES.md.
-    expect(energisedReason({ lineOn: true, busVolts: 560, busHazard: true })).toMatch(/disconnect is ON/)
-    expect(energisedReason({ lineOn: false, busVolts: 180, busHazard: true })).toMatch(/180 V/)
-    expect(energisedReason({ lineOn: false, busVolts: 12, busHazard: false })).toBeNull()
   })
 })

@@ -5,10 +5,15 @@ import { describe, expect, it } from 'vitest'
 import { createActor, fromCallback, fromPromise, waitFor } from 'xstate'
 import type { AttemptSummary, SubmitAttemptRequest } from '@shared/api/attempts'
 import type { AttemptEvent } from '@shared/model/events'
-import { scenarioSchema } from '@shared/scenario/schema'
+import { grade } from '@shared/scenario/grade'
+import { scenarioSchema, type Scenario } from '@shared/scenario/schema'
 import scenarioFile from '../../../scenarios/raise-lower-commissioning.json'
+import alarmScenarioFile from '../../../scenarios/configuration-conflict-alarm.json'
+import reference from '../../fixtures/attempts/raise-lower-commissioning--reference.json'
+import rewiredLive from '../../fixtures/attempts/configuration-conflict-alarm--mistake-rewired-live.json'
 import type { AttemptCopy } from '@/simulator/machines/attemptStart'
-import { liveGradingActor, todayLiveGrader } from '@/simulator/machines/liveGrading'
+import type { PanelAction } from '@/simulator/scene/intentActions'
+import { GRADE_COALESCE_MS, liveGradingActor, SAFE_SEQUENCE, warningText } from '@/simulator/machines/liveGrading'
 import { liveAttemptMachine, type LiveStart, type LiveTarget } from '@/simulator/machines/liveAttemptMachine'
 import { isRetryable, retryDelayMs } from '@/simulator/machines/retry'
 import { createAttemptStore } from '@/simulator/storage/attemptStore'
@@ -28,6 +33,7 @@ interface Setup {
   serverCopy?: AttemptCopy
   grading?: ReturnType<typeof liveGradingActor>
   autosave?: number
+  scenario?: Scenario
 }
 
 function start(options: Setup = {}) {
@@ -36,8 +42,8 @@ function start(options: Setup = {}) {
   let ids = 0
   const sent: SubmitAttemptRequest[] = []
   const begin: LiveStart = {
-    scenario,
-    scenarioTitle: scenario.title,
+    scenario: options.scenario ?? scenario,
+    scenarioTitle: (options.scenario ?? scenario).title,
     scenarioVersionId: 'version-1',
     assignment: null,
     store,
@@ -183,24 +189,68 @@ describe('live grading and live safety warnings', () => {
     await waitFor(actor, (s) => s.matches('live'))
     actor.send({ type: 'RECORD', action: { type: 'lock.removed' }, t: 100 })
     expect(pushed).toEqual([{ t: 100, type: 'lock.removed' }])
-    expect(actor.getSnapshot().context.warnings.map((w) => w.text)).toEqual(['From the grader'])
+    expect(actor.getSnapshot().context.warnings.map((w) => w.text)).toEqual([
+      `Safety violation: From the grader ${SAFE_SEQUENCE}`,
+    ])
   })
 
-  it('today: a wire added with the supply on is a violation, and the grade follows the log', async () => {
-    const grader = todayLiveGrader(scenario, [unlock, powerOn])
-    const { violations } = grader.push({
-      t: 900,
-      type: 'wire.added',
-      id: 'w1',
-      from: 'drive.p24',
-      to: 'runSwitch.a',
-      colour: 'blue',
-    })
-    expect(violations).toHaveLength(1)
-    expect(violations[0].text).toMatch(/supply disconnect is ON/)
-    expect(grader.eventCount).toBe(3)
-    expect(grader.result(1000).objectives.length).toBe(scenario.objectives.length)
-    expect(grader.push({ t: 950, type: 'lock.applied' }).violations).toEqual([])
+  /** Records a log through the machine as the panel would, one action at a time, with the shared grader. */
+  async function recordThrough(events: readonly AttemptEvent[], on: Scenario = scenario) {
+    const { actor } = start({ grading: liveGradingActor(), scenario: on })
+    await waitFor(actor, (s) => s.matches('live'))
+    const warned: { t: number; text: string }[] = []
+    for (const { t, ...action } of events) {
+      const before = actor.getSnapshot().context.warnings[0]?.id
+      actor.send({ type: 'RECORD', action: action as PanelAction, t })
+      const newest = actor.getSnapshot().context.warnings[0]
+      if (newest && newest.id !== before) warned.push({ t: newest.t, text: newest.text })
+    }
+    return { actor, warned }
+  }
+
+  it('the shared grader: a correct attempt gets no warning, and the live ticks equal the grade', async () => {
+    const events = reference.events as AttemptEvent[]
+    const { actor, warned } = await recordThrough(events)
+    expect(warned).toEqual([])
+    const { log, sim } = actor.getSnapshot().context
+    expect(log).toEqual(events)
+    // The last grade asked for (coalesced) is the batch grade of the same log at the same moment.
+    await waitFor(actor, (s) => s.context.grade !== null, { timeout: GRADE_COALESCE_MS * 10 })
+    expect(actor.getSnapshot().context.grade).toEqual(grade(scenario, log, { endAt: sim!.t }))
+    expect(actor.getSnapshot().context.grade!.passed).toBe(true)
+  })
+
+  it('the shared grader: rewiring live warns at that action, in the words the grade lists', async () => {
+    const alarmScenario = scenarioSchema.parse(alarmScenarioFile)
+    const events = rewiredLive.events as AttemptEvent[]
+    const { warned } = await recordThrough(events, alarmScenario)
+    const graded = grade(alarmScenario, events).safetyViolations
+    expect(graded.length).toBeGreaterThan(0)
+    // One warning per action that broke the rule, holding every violation the grade lists for it.
+    const times = [...new Set(graded.map((v) => v.t))]
+    expect(warned).toEqual(times.map((t) => ({ t, text: warningText(graded.filter((v) => v.t === t)) })))
+    expect(warned.some((w) => /while the supply disconnect was on/.test(w.text))).toBe(true)
+  })
+
+  it('the shared grader: every kind of terminal work on an energised drive warns at once', async () => {
+    // Supply on and no lock: each piece of terminal work the grader counts must warn as it is done.
+    const works: PanelAction[] = [
+      { type: 'wire.added', id: 'w1', from: 'drive.p24', to: 'runSwitch.a', colour: 'blue' },
+      { type: 'wire.removed', id: 'w1' },
+      { type: 'device.contactFitted', device: 'runSwitch', contact: 'NO' },
+      { type: 'fuse.replaced' },
+      { type: 'motor.conductorLanded', conductor: 'u', terminal: null },
+      { type: 'motor.cableReplaced' },
+    ]
+    const events: AttemptEvent[] = [unlock, powerOn]
+    works.forEach((work, i) => events.push({ ...work, t: 1000 * (i + 1) } as AttemptEvent))
+    const { warned } = await recordThrough(events)
+    expect(warned.map((w) => w.t)).toEqual(works.map((_, i) => 1000 * (i + 1)))
+    for (const w of warned) {
+      expect(w.text).toMatch(/^Safety violation: .* while the supply disconnect was on\./)
+      expect(w.text).toMatch(/with no lock on the disconnect/)
+      expect(w.text.endsWith(SAFE_SEQUENCE)).toBe(true)
+    }
   })
 })
 
