@@ -81,7 +81,7 @@ describe('an attempt on two computers', () => {
       await laptop.page.getByTestId('load-newer-copy').click()
       await conflict.waitFor({ state: 'hidden' })
       await laptop.panel.waitFor((s) => s.includes('1 wires, disconnect off.'))
-      expect(await laptop.panel.state.wires()).toEqual(['DCM → 0V'])
+      expect(await laptop.panel.state.wires()).toEqual(['DIC → 0V'])
       await screenshot(laptop.page, 'panel-resume-05-laptop-newer-copy')
     } finally {
       await phone.close()

@@ -1,7 +1,8 @@
 // Each attempt event in plain words, naming things as the panel shows them ("Wire W4 BU added from +24
-// to Faster 13", "Meter probes on DI1 and DCM"): the replay's timeline and the live announcements.
+// to Faster 13", "Meter probes on DI1 and DIC"): the replay's timeline and the live announcements.
 import type { AttemptEvent } from '@shared/model/events'
 import { METER_MODE_LABELS } from '@shared/model/meterModes'
+import { POINT_LABELS } from '@shared/model/points'
 import { conductorName } from '@shared/scenario/names'
 import { settingDef, type SettingValue } from '@shared/model/settings'
 import { formatSettingValue, KEY_NAMES } from './keypadMenu'
@@ -61,7 +62,7 @@ export function eventWords(event: AttemptEvent, layout: PanelLayout, wireMarker?
       return `Meter turned to ${METER_MODE_LABELS[event.mode]}`
     case 'motor.conductorLanded':
       return event.terminal
-        ? `Motor-cable conductor ${conductorName(event.conductor)} landed on ${point(`motor.${event.terminal}`)}`
+        ? `Motor-cable conductor ${conductorName(event.conductor)} landed on motor terminal ${POINT_LABELS[`motor.${event.terminal}`]}`
         : `Motor-cable conductor ${conductorName(event.conductor)} lifted`
     case 'motor.cableReplaced':
       return 'Motor cable replaced'

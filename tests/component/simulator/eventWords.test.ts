@@ -18,7 +18,7 @@ describe('events in plain words', () => {
     ).toBe('Wire W4 BU added from Infeed run / stop 14 to DI1')
     expect(words({ t: 0, type: 'wire.removed', id: 'w4' })).toBe('Wire W4 removed')
     expect(words({ t: 0, type: 'meter.probes', red: 'drive.di1', black: 'drive.dcom' })).toBe(
-      'Meter probes on DI1 and DCM',
+      'Meter probes on DI1 and DIC',
     )
     expect(words({ t: 0, type: 'meter.probes', red: 'drive.l1', black: null })).toBe(
       'Red probe on L1, black probe on the meter',
@@ -28,6 +28,14 @@ describe('events in plain words', () => {
     )
     expect(words({ t: 0, type: 'keypad.key', key: 'enter' })).toBe('Keypad OK pressed')
     expect(words({ t: 0, type: 'device.pressed', device: 'raiseButton' })).toBe('Faster pressed')
+    expect(words({ t: 0, type: 'meter.mode', mode: 'acVolts' })).toBe('Meter turned to V AC')
+    expect(words({ t: 0, type: 'motor.conductorLanded', conductor: 'u', terminal: null })).toBe(
+      'Motor-cable conductor U lifted',
+    )
+    expect(words({ t: 0, type: 'motor.cableReplaced' })).toBe('Motor cable replaced')
+    expect(words({ t: 0, type: 'motor.conductorLanded', conductor: 'v', terminal: 'v1' })).toBe(
+      'Motor-cable conductor V landed on motor terminal V1',
+    )
   })
 
   it('shows no internal identifier for any event of a real attempt', () => {
