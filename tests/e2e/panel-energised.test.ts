@@ -1,4 +1,5 @@
-// Wiring while energised is allowed, but recorded and shown as a safety violation.
+// Wiring while energised is allowed, but recorded and shown as a safety violation: the grader's own
+// words (the same the grade lists), at once, over the corner of the panel.
 import { describe, expect, it } from 'vitest'
 import { screenshot } from './support'
 import { openPanel, panelTestBed } from './panel-fixtures'
@@ -14,7 +15,9 @@ describe('wiring on a live panel', () => {
     await panel.wire('drive.p24', 'runSwitch.a')
     const warning = page.getByTestId('safety-warning').first()
     await warning.waitFor({ timeout: 10_000 })
-    await expect(warning.textContent()).resolves.toMatch(/supply disconnect is ON/)
+    await expect(warning.textContent()).resolves.toMatch(
+      /Safety violation: Wire W1\b.* while the supply disconnect was on\..*with no lock/,
+    )
     // The warning lies over the panel's corner: the canvas has not moved.
     const before = await page.getByTestId('panel-canvas').boundingBox()
     await screenshot(page, 'panel-energised-01-supply-on')
@@ -23,7 +26,7 @@ describe('wiring on a live panel', () => {
     await panel.wire('runSwitch.b', 'drive.di1')
     await expect
       .poll(async () => page.getByTestId('safety-warning').first().textContent(), { timeout: 10_000 })
-      .toMatch(/DC bus is still at \d+ V/)
+      .toMatch(/Wire W2\b.* while the DC bus was at [\d.]+ V\./)
     expect(await page.getByTestId('panel-canvas').boundingBox()).toEqual(before)
     await screenshot(page, 'panel-energised-02-bus-charged')
 
