@@ -21,7 +21,6 @@ import { requestContext } from './infrastructure/http/request-context'
 import { createLogger, requestLogger, type Logger } from './infrastructure/logging'
 import { createMetrics, type Metrics } from './infrastructure/metrics'
 import { CLIENT_DIR } from './infrastructure/paths'
-import type { Mailer } from './infrastructure/mail/mailer'
 import { DatabaseRateLimitStore } from './infrastructure/rate-limit-store'
 import { createPasswordHasher, type PasswordHasher } from './infrastructure/security/passwords'
 import { createAccessTokens } from './infrastructure/security/tokens'
@@ -33,7 +32,6 @@ import { scenariosRouter, scenarioVersionsRouter } from './scenarios/scenarios.r
 export interface AppDeps {
   dataSource: DataSource
   config: AppConfig
-  mailer: Mailer
   jwtSecret: string
   log?: Logger
   passwords?: PasswordHasher
@@ -62,7 +60,6 @@ export function createApp(deps: AppDeps): Express {
   const ctx: AppContext = {
     dataSource: deps.dataSource,
     config: deps.config,
-    mailer: deps.mailer,
     passwords: deps.passwords ?? createPasswordHasher(deps.config.passwordHashing),
     tokens: createAccessTokens(deps.jwtSecret),
     log,

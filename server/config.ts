@@ -2,6 +2,8 @@
 import { resolve } from 'node:path'
 import { availableParallelism } from 'node:os'
 import { z } from 'zod'
+import { passwordSchema } from '@shared/api/auth'
+import { emailSchema, personNameSchema } from '@shared/api/common'
 
 const port = z.coerce.number().int().min(0).max(65535)
 const optionalText = z
@@ -46,6 +48,16 @@ const envSchema = z.object({
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).optional(),
   SERVE_CLIENT: z.enum(['true', 'false']).optional(),
   HOST: optionalText,
+  DEMO: z.enum(['true', 'false'], { error: 'DEMO must be true or false' }).optional(),
+  ADMIN_EMAIL: optionalText,
+  ADMIN_NAME: optionalText,
+  ADMIN_PASSWORD: z.string().optional(),
+  JOB_LEASE_SECONDS: z.coerce
+    .number({ error: 'JOB_LEASE_SECONDS must be a whole number of seconds' })
+    .int()
+    .min(3)
+    .max(3600)
+    .optional(),
   GRADING_THREADS: z.coerce
     .number({ error: 'GRADING_THREADS must be a whole number of threads, at least 1' })
     .int()
@@ -120,6 +132,12 @@ export interface AppConfig {
   metricsToken?: string
   /** How long SIGTERM waits for requests in flight before closing anyway. */
   shutdownTimeoutMs: number
+  /** Seed the invented demo centre into an empty database (DEMO=true; `npm start` and `npm run dev` set it). */
+  demo: boolean
+  /** The first admin, created at start when the database has none (ADMIN_EMAIL, ADMIN_NAME, ADMIN_PASSWORD). */
+  firstAdmin?: { email: string; name: string; password: string }
+  /** How long a claimed job is held before another instance may take it over (JOB_LEASE_SECONDS). */
+  jobLeaseMs: number
   version: string
 }
 
@@ -139,6 +157,29 @@ function parseTrustProxy(value: string | undefined): boolean | number | string {
   if (value === undefined) return 'loopback'
   if (value === 'true' || value === 'false') return value === 'true'
   return /^\d+$/.test(value) ? Number(value) : value
+}
+
+const firstAdminSchema = z.object({
+  ADMIN_EMAIL: emailSchema,
+  ADMIN_NAME: personNameSchema,
+  ADMIN_PASSWORD: passwordSchema,
+})
+
+/** All three ADMIN_ variables or none; each checked as the sign-up form checks it. */
+function readFirstAdmin(e: z.output<typeof envSchema>): AppConfig['firstAdmin'] {
+  const given = [e.ADMIN_EMAIL, e.ADMIN_NAME, e.ADMIN_PASSWORD].filter((v) => v !== undefined && v !== '')
+  if (given.length === 0) return undefined
+  const parsed = firstAdminSchema.safeParse(e)
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((issue) =>
+      issue.code === 'invalid_type'
+        ? `  ${issue.path.join('.')}: set ADMIN_EMAIL, ADMIN_NAME and ADMIN_PASSWORD together (or none of them)`
+        : `  ${issue.path.join('.')}: ${issue.message}`,
+    )
+    throw new ConfigError(`Invalid environment:\n${lines.join('\n')}`)
+  }
+  const { ADMIN_EMAIL: email, ADMIN_NAME: name, ADMIN_PASSWORD: password } = parsed.data
+  return { email, name, password }
 }
 
 /** `mode`: dev runs the API alone on API_PORT behind Vite; start/production serves everything on PORT. */
@@ -167,6 +208,7 @@ export function loadConfig(
         '(every instance must sign sessions with the same secret)',
     )
   }
+  const firstAdmin = readFirstAdmin(e)
   const database: DatabaseTarget = postgresUrl
     ? { driver: 'postgres', url: postgresUrl, poolMax: e.DATABASE_POOL_MAX ?? 10 }
     : { driver: 'sqlite', path: databasePath }
@@ -199,6 +241,10 @@ export function loadConfig(
     gradingQueueLimit: e.GRADING_QUEUE_LIMIT ?? (e.GRADING_THREADS ?? defaultGradingThreads()) * 16,
     metricsToken: e.METRICS_TOKEN,
     shutdownTimeoutMs: e.SHUTDOWN_TIMEOUT_MS ?? 20_000,
+    // Off unless asked for: a production start must never publish the demo accounts' known password.
+    demo: e.DEMO === 'true',
+    firstAdmin,
+    jobLeaseMs: (e.JOB_LEASE_SECONDS ?? 60) * 1000,
     version: options.version ?? '0.0.0',
   }
 }

@@ -1,4 +1,4 @@
-// What every route needs, built once per app: database, settings, mail, hashing and tokens.
+// What every route needs, built once per app: database, settings, hashing and tokens (mail is a queued job).
 import type { DataSource } from 'typeorm'
 import type { Logger } from './infrastructure/logging'
 import type { AppConfig } from './config'
@@ -7,14 +7,12 @@ import type { GradebookCache } from './gradebook/gradebook-cache'
 import type { GradingPool } from './infrastructure/grading/grading-pool'
 import type { Lifecycle } from './infrastructure/http/lifecycle'
 import type { Metrics } from './infrastructure/metrics'
-import type { Mailer } from './infrastructure/mail/mailer'
 import type { PasswordHasher } from './infrastructure/security/passwords'
 import type { AccessTokens } from './infrastructure/security/tokens'
 
 export interface AppContext {
   dataSource: DataSource
   config: AppConfig
-  mailer: Mailer
   passwords: PasswordHasher
   tokens: AccessTokens
   log: Logger

@@ -1,22 +1,20 @@
-// Boots the server: config, database (migrate, shipped scenarios, demo seed if empty), mail, grading threads,
-// HTTP; on SIGTERM drains the requests in flight (new ones get 503) before it closes everything.
+// Boots the server: config, database (migrate, then prepare-database.ts: shipped scenarios, demo if asked for,
+// first admin), background jobs (mail …), grading threads, HTTP; on SIGTERM drains the requests in flight (new
+// ones get 503) before it closes everything.
 import type { Server } from 'node:http'
 import { mkdirSync } from 'node:fs'
 import { createApp } from './app'
+import { startBackgroundJobs } from './background-jobs'
 import { ConfigError, loadConfig, type AppConfig } from './config'
-import { demoSignInTable } from './demo/demo-accounts'
-import { hasDemoAccounts, isDatabaseEmpty, seedDemo } from './demo/seed'
 import { dataSourceOptionsFor, openDatabase } from './infrastructure/database/data-source'
 import { createGradingPool } from './infrastructure/grading/grading-pool'
 import { createLifecycle } from './infrastructure/http/lifecycle'
 import { createMetrics } from './infrastructure/metrics'
 import { createLogger } from './infrastructure/logging'
-import { createMailer, type SmtpTarget } from './infrastructure/mail/mailer'
-import { startOutboxSmtp, type OutboxSmtp } from './infrastructure/mail/outbox-smtp'
+import { prepareDatabase, startupNotices } from './prepare-database'
 import { createPasswordHasher } from './infrastructure/security/passwords'
 import { SCENARIOS_DIR } from './infrastructure/paths'
 import { loadOrCreateJwtSecret } from './infrastructure/security/secrets'
-import { importShippedScenarios } from './scenarios/scenarios.service'
 import { APP_VERSION } from './version'
 
 export { SCENARIOS_DIR }
@@ -41,28 +39,20 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
   mkdirSync(config.dataDir, { recursive: true })
   const jwtSecret = loadOrCreateJwtSecret(config.dataDir, config.jwtSecret)
   const passwords = createPasswordHasher(config.passwordHashing)
-  // Seeding runs under the start-up lock, so instances starting together against one database seed once.
+  // Under the start-up lock, so instances starting together against one database seed once.
   const dataSource = await openDatabase(dataSourceOptionsFor(config), {
-    async afterMigrations(ds) {
-      const shipped = await importShippedScenarios(ds, SCENARIOS_DIR)
-      if (shipped.added) log.info({ added: shipped.added }, 'shipped scenarios imported')
-      for (const skip of shipped.skipped) log.warn(skip, 'shipped scenario skipped')
-      if (await isDatabaseEmpty(ds)) await seedDemo(ds, passwords, log)
-    },
+    afterMigrations: (ds) => prepareDatabase(ds, { config, passwords, log }),
   })
 
-  let outbox: OutboxSmtp | undefined
-  let target: SmtpTarget
-  if (config.smtp) {
-    target = { ...config.smtp, requireTls: true }
-  } else {
-    outbox = await startOutboxSmtp(dataSource, log)
-    target = { host: outbox.host, port: outbox.port, secure: false }
-    log.info({ port: outbox.port }, 'embedded SMTP outbox listening on loopback')
-  }
-  const mailer = createMailer({ target, from: config.mailFrom, log })
+  const jobs = await startBackgroundJobs({ dataSource, config, log })
   const metrics = createMetrics()
-  metrics.watchQueues(() => [{ queue: 'mail', depth: mailer.stats().queued, failed: mailer.stats().failed }])
+  metrics.watchQueues(async () =>
+    Object.entries(await jobs.figures()).map(([queue, figures]) => ({
+      queue,
+      depth: figures.queue.due + figures.queue.waiting + figures.queue.running,
+      failed: figures.queue.failed,
+    })),
+  )
   const grading = createGradingPool({
     threads: config.gradingThreads,
     queueLimit: config.gradingQueueLimit,
@@ -71,7 +61,7 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
   // Listen only once the threads answer, so the first submissions do not wait for them to load.
   await grading.warm()
   const lifecycle = createLifecycle()
-  const app = createApp({ dataSource, config, mailer, jwtSecret, log, passwords, grading, metrics, lifecycle })
+  const app = createApp({ dataSource, config, jwtSecret, log, passwords, grading, metrics, lifecycle })
 
   const server: Server = await new Promise((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s))
@@ -79,7 +69,7 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
   })
   const url = config.serveClient ? config.publicBaseUrl : `http://localhost:${config.port}`
   console.log(`\nSlipway ${APP_VERSION} listening on ${url}${config.serveClient ? '' : ' (API only)'}`)
-  if (await hasDemoAccounts(dataSource)) console.log(demoSignInTable() + '\n')
+  for (const notice of await startupNotices(dataSource, config)) console.log(notice + '\n')
 
   let stopping = false
   async function stop(signal: string) {
@@ -96,15 +86,14 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
     const closed = new Promise<void>((resolve) => server.close(() => resolve()))
     await Promise.race([closed, new Promise((resolve) => setTimeout(resolve, 2000))])
     server.closeAllConnections()
-    await Promise.race([mailer.idle(), new Promise((r) => setTimeout(r, 3000))])
-    mailer.close()
+    // Queued mail lives in the database: what is not sent now is sent by the next start.
+    await jobs.close(3000)
     await grading.close()
-    await outbox?.close()
     await dataSource.destroy()
     clearTimeout(force)
     process.exit(0)
   }
   process.once('SIGTERM', () => void stop('SIGTERM'))
   process.once('SIGINT', () => void stop('SIGINT'))
-  return { server, config, dataSource }
+  return { server, config, dataSource, jobs }
 }

@@ -1,4 +1,5 @@
-// /api/admin: accounts (list, role, deactivate, end sessions), instructor invitations, the outbox, backups.
+// /api/admin: accounts (list, role, deactivate, end sessions), instructor invitations, the outbox (and sending
+// a failed message again), backups.
 import { createReadStream } from 'node:fs'
 import { Router } from 'express'
 import { outboxQuerySchema } from '@shared/api/admin'
@@ -11,7 +12,8 @@ import { inviteInstructor } from '../invitations/invitations.service'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
 import { changeUser, listUsers, signOutUser } from '../users/users.service'
-import { listOutbox, makeBackup } from './admin.service'
+import { makeBackup } from './admin.service'
+import { listOutbox, retryOutboxMessage } from './outbox.service'
 
 export function adminRouter(ctx: AppContext): Router {
   const router = Router()
@@ -45,6 +47,10 @@ export function adminRouter(ctx: AppContext): Router {
 
   router.get('/outbox', validate({ query: outboxQuerySchema }), async (req, res) => {
     res.json(await listOutbox(ctx, req.query))
+  })
+
+  router.post('/outbox/:id/retry', validate({ params: idParamsSchema }), async (req, res) => {
+    res.json({ message: await retryOutboxMessage(ctx, req.params.id) })
   })
 
   router.get('/backup', async (_req, res) => {

@@ -1,27 +1,10 @@
-// The admin's tools beside accounts: the outbox of the embedded mail relay, and a database backup.
+// The admin's tools beside accounts: a database backup (the outbox is in outbox.service.ts).
 import { mkdtempSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
-import { ILike } from 'typeorm'
-import type { z } from 'zod'
-import type { OutboxPage, outboxQuerySchema } from '@shared/api/admin'
 import type { AppContext } from '../context'
-import { MailMessageEntity } from '../entities'
 import { HttpError } from '../http-error'
 import { writeBackup } from '../infrastructure/database/backup'
-import { presentMail } from './mail.presenter'
-
-type OutboxQuery = z.output<typeof outboxQuerySchema>
-
-export async function listOutbox(ctx: AppContext, { page, pageSize, to }: OutboxQuery): Promise<OutboxPage> {
-  const [rows, total] = await ctx.dataSource.getRepository(MailMessageEntity).findAndCount({
-    where: to ? { toAddress: ILike(`%${to}%`) } : {},
-    order: { receivedAt: 'DESC' },
-    skip: (page - 1) * pageSize,
-    take: pageSize,
-  })
-  return { items: rows.map(presentMail), total, page, pageSize }
-}
 
 /** A backup in a fresh temporary file; `remove` deletes it once it has been sent. */
 export interface BackupFile {

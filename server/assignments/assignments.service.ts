@@ -23,6 +23,7 @@ import {
 import { NOT_STARTED, standingsByAssignmentAndUser } from '../gradebook/standings'
 import { HttpError, conflict } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
+import { queueMail } from '../infrastructure/mail/mail-job'
 import { assignmentPublishedMail } from '../infrastructure/mail/templates'
 import { presentAssignment, presentAssignmentStats } from './assignment.presenter'
 
@@ -114,23 +115,26 @@ export async function createAssignment(
     createdById: user.id,
     createdAt: nowIso(),
   }
-  await ds.getRepository(AssignmentEntity).insert(row)
-  const members = await ds.getRepository(EnrollmentEntity).findBy({ cohortId: cohort.id })
-  const people = members.length
-    ? await ds.getRepository(UserEntity).findBy({ id: In(members.map((m) => m.userId)), active: true })
-    : []
-  for (const person of people) {
-    ctx.mailer.send(
-      assignmentPublishedMail({
-        to: person.email,
-        name: person.name,
-        title: row.title,
-        cohortName: cohort.name,
-        dueAt: row.dueAt,
-        url: appLink(ctx, `/assignments/${row.id}`),
-      }),
-    )
-  }
+  await ds.transaction(async (manager) => {
+    await manager.getRepository(AssignmentEntity).insert(row)
+    const members = await manager.getRepository(EnrollmentEntity).findBy({ cohortId: cohort.id })
+    const people = members.length
+      ? await manager.getRepository(UserEntity).findBy({ id: In(members.map((m) => m.userId)), active: true })
+      : []
+    for (const person of people) {
+      await queueMail(
+        manager,
+        assignmentPublishedMail({
+          to: person.email,
+          name: person.name,
+          title: row.title,
+          cohortName: cohort.name,
+          dueAt: row.dueAt,
+          url: appLink(ctx, `/assignments/${row.id}`),
+        }),
+      )
+    }
+  })
   return presentOne(ctx, row, user)
 }
 

@@ -1,7 +1,7 @@
 // Attempts as people read and review them: lists and detail as each role may see them, instructor feedback
 // and audited grade overrides. Submission is in submission.service.ts.
 import { randomUUID } from 'node:crypto'
-import { In, type FindOptionsWhere } from 'typeorm'
+import { In, type EntityManager, type FindOptionsWhere } from 'typeorm'
 import type { z } from 'zod'
 import type {
   AttemptDetail,
@@ -30,6 +30,7 @@ import {
 } from '../entities'
 import { conflict, forbidden } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
+import { queueMail } from '../infrastructure/mail/mail-job'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
 import {
   presentAttemptDetail,
@@ -183,21 +184,22 @@ async function overviewOf(ctx: AppContext, attempt: AttemptRow): Promise<Attempt
   )
 }
 
-/** Tells the attempt's owner (if still active) that their attempt was reviewed. */
+/** Tells the attempt's owner (if still active) that their attempt was reviewed, in the review's transaction. */
 async function notifyOwner(
   ctx: AppContext,
+  manager: EntityManager,
   attempt: AttemptRow,
   what: 'overridden' | 'feedback',
   score?: number,
   passed?: boolean,
 ) {
-  const ds = ctx.dataSource
-  const owner = await ds.getRepository(UserEntity).findOneBy({ id: attempt.userId })
+  const owner = await manager.getRepository(UserEntity).findOneBy({ id: attempt.userId })
   const assignment = attempt.assignmentId
-    ? await ds.getRepository(AssignmentEntity).findOneBy({ id: attempt.assignmentId })
+    ? await manager.getRepository(AssignmentEntity).findOneBy({ id: attempt.assignmentId })
     : null
   if (!owner?.active) return
-  ctx.mailer.send(
+  await queueMail(
+    manager,
     attemptReviewedMail({
       to: owner.email,
       name: owner.name,
@@ -224,8 +226,10 @@ export async function addFeedback(
     body,
     createdAt: nowIso(),
   }
-  await ctx.dataSource.getRepository(FeedbackEntity).insert(row)
-  await notifyOwner(ctx, attempt, 'feedback')
+  await ctx.dataSource.transaction(async (manager) => {
+    await manager.getRepository(FeedbackEntity).insert(row)
+    await notifyOwner(ctx, manager, attempt, 'feedback')
+  })
   return (await presentFeedbackRows(ctx, [row]))[0]!
 }
 
@@ -255,7 +259,7 @@ export async function overrideGrade(
       reason,
       createdAt: now,
     })
+    await notifyOwner(ctx, manager, attempt, 'overridden', score, passed)
   })
-  await notifyOwner(ctx, attempt, 'overridden', score, passed)
   return presentOne(ctx, await ds.getRepository(AttemptEntity).findOneByOrFail({ id: attempt.id }))
 }

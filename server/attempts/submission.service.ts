@@ -20,6 +20,7 @@ import { nowIso } from '../infrastructure/clock'
 import { findById } from '../infrastructure/database/lookups'
 import type { ReadSubmission } from '../infrastructure/grading/grading-pool'
 import type { SubmissionHeader } from '../infrastructure/grading/grading-worker'
+import { queueMail } from '../infrastructure/mail/mail-job'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
 import { presentOne } from './attempts.service'
 import { storedLogOpens } from './log-prefix'
@@ -171,6 +172,20 @@ async function storeSubmission(
           createdAt: now,
         })
       }
+      if (grade && assignment) {
+        await queueMail(
+          manager,
+          attemptReviewedMail({
+            to: user.email,
+            name: user.name,
+            title: assignment.title,
+            what: 'graded',
+            score: Math.round(grade.score),
+            passed: grade.passed,
+            url: appLink(ctx, `/attempts/${row.id}`),
+          }),
+        )
+      }
     })
   } catch (error) {
     // Two identical submissions racing: the loser returns the winner's stored result.
@@ -188,19 +203,6 @@ async function storeSubmission(
     if (winner?.userId === user.id && (error instanceof LostRace || !existing))
       return { created: false, attempt: winner }
     throw error
-  }
-  if (grade && assignment) {
-    ctx.mailer.send(
-      attemptReviewedMail({
-        to: user.email,
-        name: user.name,
-        title: assignment.title,
-        what: 'graded',
-        score: Math.round(grade.score),
-        passed: grade.passed,
-        url: appLink(ctx, `/attempts/${row.id}`),
-      }),
-    )
   }
   return { created: !existing || submitting, attempt: row }
 }

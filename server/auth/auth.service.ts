@@ -6,6 +6,7 @@ import { appLink, type AppContext } from '../context'
 import { PasswordResetEntity, UserEntity, type UserRow } from '../entities'
 import { HttpError } from '../http-error'
 import { HOUR, isoIn, nowIso } from '../infrastructure/clock'
+import { queueMail } from '../infrastructure/mail/mail-job'
 import { passwordResetMail } from '../infrastructure/mail/templates'
 import type { PasswordHasher } from '../infrastructure/security/passwords'
 import { hashToken, newOpaqueToken } from '../infrastructure/security/tokens'
@@ -68,22 +69,25 @@ export async function requestPasswordReset(ctx: AppContext, email: string): Prom
   const user = await ctx.dataSource.getRepository(UserEntity).findOneBy({ email })
   if (!user?.active) return
   const { token, hash } = newOpaqueToken()
-  await ctx.dataSource.getRepository(PasswordResetEntity).insert({
-    id: randomUUID(),
-    userId: user.id,
-    tokenHash: hash,
-    expiresAt: isoIn(RESET_TTL_MS),
-    usedAt: null,
-    createdAt: nowIso(),
+  await ctx.dataSource.transaction(async (manager) => {
+    await manager.getRepository(PasswordResetEntity).insert({
+      id: randomUUID(),
+      userId: user.id,
+      tokenHash: hash,
+      expiresAt: isoIn(RESET_TTL_MS),
+      usedAt: null,
+      createdAt: nowIso(),
+    })
+    await queueMail(
+      manager,
+      passwordResetMail({
+        to: user.email,
+        name: user.name,
+        url: appLink(ctx, `/reset-password?token=${encodeURIComponent(token)}`),
+        minutes: RESET_TTL_MS / 60_000,
+      }),
+    )
   })
-  ctx.mailer.send(
-    passwordResetMail({
-      to: user.email,
-      name: user.name,
-      url: appLink(ctx, `/reset-password?token=${encodeURIComponent(token)}`),
-      minutes: RESET_TTL_MS / 60_000,
-    }),
-  )
 }
 
 export async function confirmPasswordReset(

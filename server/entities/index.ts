@@ -6,6 +6,7 @@ import { CohortEntity } from './cohort'
 import { EnrollmentEntity } from './enrollment'
 import { FeedbackEntity } from './feedback'
 import { InvitationEntity } from './invitation'
+import { JobEntity } from './job'
 import { MailMessageEntity } from './mail-message'
 import { PasswordResetEntity } from './password-reset'
 import { RateLimitCounterEntity } from './rate-limit-counter'
@@ -21,6 +22,7 @@ export * from './cohort'
 export * from './enrollment'
 export * from './feedback'
 export * from './invitation'
+export * from './job'
 export * from './mail-message'
 export * from './password-reset'
 export * from './rate-limit-counter'
@@ -44,4 +46,5 @@ export const entities = [
   MailMessageEntity,
   UploadEntity,
   RateLimitCounterEntity,
+  JobEntity,
 ]

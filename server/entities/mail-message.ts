@@ -1,9 +1,11 @@
-// A message received by the embedded SMTP server (the local outbox).
+// A message received by the embedded SMTP server (the local outbox), once per Message-ID.
 import { EntitySchema } from 'typeorm'
 import { text, timestamp, uuidPrimary, varchar } from './columns'
 
 export interface MailMessageRow {
   id: string
+  /** The message's Message-ID header: a retried delivery of the same mail job carries the same one. */
+  messageId: string | null
   fromAddress: string
   toAddress: string
   subject: string
@@ -17,6 +19,7 @@ export const MailMessageEntity = new EntitySchema<MailMessageRow>({
   tableName: 'mail_messages',
   columns: {
     id: uuidPrimary,
+    messageId: varchar(255, true),
     fromAddress: varchar(320),
     toAddress: text,
     subject: text,
@@ -24,4 +27,5 @@ export const MailMessageEntity = new EntitySchema<MailMessageRow>({
     html: text,
     receivedAt: timestamp,
   },
+  indices: [{ name: 'uq_mail_messages_message_id', columns: ['messageId'], unique: true }],
 })

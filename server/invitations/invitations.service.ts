@@ -25,10 +25,10 @@ import {
 } from '../entities'
 import { HttpError, conflict, notFound } from '../http-error'
 import { DAY, isoIn, nowIso } from '../infrastructure/clock'
-import type { OutgoingMail } from '../infrastructure/mail/mailer'
+import { queueMail } from '../infrastructure/mail/mail-job'
 import { invitationMail } from '../infrastructure/mail/templates'
 import { hashToken, newOpaqueToken } from '../infrastructure/security/tokens'
-import { keepUpload, uploadedText, type UploadKind } from '../infrastructure/storage/uploads'
+import { inTransactionWithUpload, uploadedText, type UploadKind } from '../infrastructure/storage/uploads'
 import { presentInvitation, presentInvitationPreview } from './invitation.presenter'
 import { readRoster } from './roster'
 
@@ -42,12 +42,8 @@ export interface InviteInput {
   inviter: UserRow
 }
 
-/** Runs inside the caller's transaction; returns the mail to send once it has committed. */
-async function invite(
-  ctx: AppContext,
-  manager: EntityManager,
-  input: InviteInput,
-): Promise<{ outcome: InviteOutcome; mail?: OutgoingMail }> {
+/** Runs inside the caller's transaction, and queues the invitation mail in it. */
+async function invite(ctx: AppContext, manager: EntityManager, input: InviteInput): Promise<InviteOutcome> {
   const existing = await manager.getRepository(UserEntity).findOneBy({ email: input.email })
   if (existing) {
     if (existing.role !== 'apprentice' || input.role !== 'apprentice' || !input.cohort) {
@@ -57,7 +53,7 @@ async function invite(
     }
     const enrollments = manager.getRepository(EnrollmentEntity)
     if (await enrollments.countBy({ cohortId: input.cohort.id, userId: existing.id })) {
-      return { outcome: { outcome: 'alreadyMember', email: input.email, invitation: null } }
+      return { outcome: 'alreadyMember', email: input.email, invitation: null }
     }
     await enrollments.insert({
       id: randomUUID(),
@@ -65,7 +61,7 @@ async function invite(
       userId: existing.id,
       createdAt: nowIso(),
     })
-    return { outcome: { outcome: 'enrolled', email: input.email, invitation: null } }
+    return { outcome: 'enrolled', email: input.email, invitation: null }
   }
   const invitations = manager.getRepository(InvitationEntity)
   // A fresh invitation replaces an older pending one for the same address and cohort.
@@ -87,16 +83,19 @@ async function invite(
     createdAt: nowIso(),
   }
   await invitations.insert(row)
-  const mail = invitationMail({
-    to: input.email,
-    name: input.name,
-    invitedBy: input.inviter.name,
-    cohortName: input.cohort?.name ?? null,
-    role: input.role,
-    url: appLink(ctx, `/invitation?token=${encodeURIComponent(token)}`),
-    expiresAt: row.expiresAt,
-  })
-  return { outcome: { outcome: 'invited', email: input.email, invitation: presentInvitation(row) }, mail }
+  await queueMail(
+    manager,
+    invitationMail({
+      to: input.email,
+      name: input.name,
+      invitedBy: input.inviter.name,
+      cohortName: input.cohort?.name ?? null,
+      role: input.role,
+      url: appLink(ctx, `/invitation?token=${encodeURIComponent(token)}`),
+      expiresAt: row.expiresAt,
+    }),
+  )
+  return { outcome: 'invited', email: input.email, invitation: presentInvitation(row) }
 }
 
 export const ROSTER_UPLOAD: UploadKind = {
@@ -118,11 +117,9 @@ export async function inviteInstructor(
   inviter: UserRow,
   person: { email: string; name: string },
 ): Promise<InviteOutcome> {
-  const { outcome, mail } = await ctx.dataSource.transaction((manager) =>
+  return ctx.dataSource.transaction((manager) =>
     invite(ctx, manager, { ...person, role: 'instructor', cohort: null, inviter }),
   )
-  if (mail) ctx.mailer.send(mail)
-  return outcome
 }
 
 /** A cohort its instructor may invite into: managed by the inviter, not archived. */
@@ -140,11 +137,9 @@ export async function inviteToCohort(
   person: { email: string; name: string },
 ): Promise<InviteOutcome> {
   const cohort = await openCohortFor(ctx, inviter, cohortId)
-  const { outcome, mail } = await ctx.dataSource.transaction((manager) =>
+  return ctx.dataSource.transaction((manager) =>
     invite(ctx, manager, { ...person, role: 'apprentice', cohort, inviter }),
   )
-  if (mail) ctx.mailer.send(mail)
-  return outcome
 }
 
 /** Invites every row of a roster CSV, or nobody: any problem is reported per row and nothing is kept. */
@@ -165,8 +160,8 @@ export async function inviteRoster(
       { rows: errors },
     )
   }
-  const results = await ctx.dataSource.transaction(async (manager) => {
-    const done: { outcome: InviteOutcome; mail?: OutgoingMail }[] = []
+  return inTransactionWithUpload(ctx, inviter.id, ROSTER_UPLOAD, file, async (manager) => {
+    const done: InviteOutcome[] = []
     for (const row of rows) {
       try {
         done.push(
@@ -187,11 +182,8 @@ export async function inviteRoster(
         throw error
       }
     }
-    await keepUpload(ctx, manager, inviter.id, ROSTER_UPLOAD, file)
     return done
   })
-  for (const { mail } of results) if (mail) ctx.mailer.send(mail)
-  return results.map((r) => r.outcome)
 }
 
 /** The cohort's invitations still waiting for an answer (not accepted, not expired). */

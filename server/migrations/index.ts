@@ -3,10 +3,12 @@ import { InitialSchema1764600000000 } from './1764600000000-initial-schema'
 import { SharedRateLimits1764700000000 } from './1764700000000-shared-rate-limits'
 import { GradebookCoveringIndex1764800000000 } from './1764800000000-gradebook-covering-index'
 import { GradebookRevision1764900000000 } from './1764900000000-gradebook-revision'
+import { JobQueue1765000000000 } from './1765000000000-job-queue'
 
 export const migrations = [
   InitialSchema1764600000000,
   SharedRateLimits1764700000000,
   GradebookCoveringIndex1764800000000,
   GradebookRevision1764900000000,
+  JobQueue1765000000000,
 ]

@@ -20,7 +20,7 @@ import type { AppContext } from '../context'
 import { ScenarioEntity, type ScenarioRow, type UserRow } from '../entities'
 import { HttpError, notFound } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
-import { keepUpload, uploadedText, type UploadKind } from '../infrastructure/storage/uploads'
+import { inTransactionWithUpload, uploadedText, type UploadKind } from '../infrastructure/storage/uploads'
 import { presentScenario, presentScenarioDetail } from './scenario.presenter'
 import { checkScenarioDocument } from './scenario-check'
 
@@ -153,13 +153,12 @@ export async function uploadScenarioPack(
   const documents = Array.isArray(json)
     ? scenarioPackSchema.options[1].parse(json)
     : [scenarioPackSchema.options[0].parse(json)]
-  const items = await ctx.dataSource.transaction(async (manager) => {
+  const items = await inTransactionWithUpload(ctx, user.id, PACK_UPLOAD, file, async (manager) => {
     const stored = []
     for (const [index, document] of documents.entries()) {
       const prefix = Array.isArray(json) ? `[${index}]` : ''
       stored.push(await storeScenarioVersion(manager, document, user.id, 'either', prefix))
     }
-    await keepUpload(ctx, manager, user.id, PACK_UPLOAD, file)
     return stored
   })
   return items.map(({ row, created }) => ({ scenario: presentScenario(row), created }))

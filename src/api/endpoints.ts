@@ -57,6 +57,7 @@ export const endpoints = {
     user: (id: string) => `/admin/users/${enc(id)}`,
     inviteInstructor: '/admin/invitations',
     outbox: '/admin/outbox',
+    retryMessage: (id: string) => `/admin/outbox/${enc(id)}/retry`,
     backup: '/admin/backup',
   },
 } as const

@@ -1,7 +1,8 @@
-// Administration: accounts and roles, the local mail outbox, the database backup.
+// Administration: accounts and roles, the mail outbox, the database backup.
 import { defineStore } from 'pinia'
 import {
   outboxPageSchema,
+  outboxRetryResponseSchema,
   userPageSchema,
   meResponseSchema,
   inviteOutcomeSchema,
@@ -25,11 +26,13 @@ export const useAdminStore = defineStore('admin', () => {
     request(endpoints.admin.inviteInstructor, inviteOutcomeSchema, { method: 'POST', body })
   const outbox = (query: OutboxQuery) =>
     request(endpoints.admin.outbox, outboxPageSchema, { query: query as Query })
+  const retryMessage = async (id: string) =>
+    (await request(endpoints.admin.retryMessage(id), outboxRetryResponseSchema, { method: 'POST' })).message
 
   function downloadBackup() {
     const stamp = new Date().toISOString().slice(0, 19).replace(/[:T]/g, '-')
     return downloadFile(endpoints.admin.backup, `slipway-backup-${stamp}.sqlite`)
   }
 
-  return { users, updateUser, inviteInstructor, outbox, downloadBackup }
+  return { users, updateUser, inviteInstructor, outbox, retryMessage, downloadBackup }
 })

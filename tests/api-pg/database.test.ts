@@ -7,7 +7,7 @@ import { healthResponseSchema } from '../../shared/api'
 import { openDatabase } from '../../server/infrastructure/database/data-source'
 import { ScenarioEntity } from '../../server/entities'
 import { importShippedScenarios } from '../../server/scenarios/scenarios.service'
-import { SCENARIOS_DIR } from '../../server/main'
+import { SCENARIOS_DIR } from '../../server/prepare-database'
 import { createTestApi, type TestApi } from '../support/api-harness'
 import { createPostgresTestDatabase, onPostgres, type TestDatabase } from '../support/test-database'
 

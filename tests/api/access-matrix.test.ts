@@ -280,6 +280,8 @@ const ROUTES: Route[] = [
     expect: adminOnly(201),
   },
   { method: 'get', path: () => '/api/admin/outbox', expect: adminOnly(200) },
+  // An id that names no message: the role check comes first, then 404.
+  { method: 'post', path: () => `/api/admin/outbox/${randomUUID()}/retry`, expect: adminOnly(404) },
   { method: 'get', path: () => '/api/admin/backup', expect: adminOnly(200) },
 ]
 

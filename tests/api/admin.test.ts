@@ -68,7 +68,7 @@ describe('admin', () => {
     expect((await as(person).get('/api/auth/me')).status).toBe(401)
   })
 
-  it('shows messages received by the embedded SMTP outbox, newest first', async () => {
+  it('lists the mail Slipway sent, with its status and, in the local set-up, the message itself', async () => {
     await supertest(api.app).post('/api/auth/password-reset').send({ email: admin.email })
     await api.mail()
     const response = await as(admin).get(`/api/admin/outbox?to=${encodeURIComponent(admin.email)}`)
@@ -76,9 +76,13 @@ describe('admin', () => {
     expect(page.items[0]).toMatchObject({
       subject: 'Reset your Slipway password',
       from: expect.stringContaining('no-reply@slipway.test'),
+      status: 'sent',
+      attempts: 1,
+      lastError: null,
     })
     expect(page.items[0]!.to).toContain(admin.email)
-    expect(page.items[0]!.html).toContain('<a href=')
+    expect(page.items[0]!.body!.html).toContain('<a href=')
+    expect(page.local).toBe(true)
   })
 
   it('downloads a consistent SQLite backup that opens and holds the users', async () => {

@@ -193,7 +193,6 @@ describe('gradebook cache', () => {
     const other = createApp({
       dataSource: api.dataSource,
       config: api.config,
-      mailer: api.mailer,
       jwtSecret: TEST_JWT_SECRET,
       passwords: api.passwords,
     })

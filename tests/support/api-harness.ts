@@ -1,5 +1,6 @@
 // A fresh app per test file: temporary data folder and database (migrated, shipped scenarios loaded),
-// the embedded SMTP outbox on a random loopback port, and helpers to create users and sign in.
+// the background jobs with the embedded SMTP outbox on a random loopback port (jobs run when a test asks,
+// through `api.mail()` or `api.jobs.worker.runDue()`), and helpers to create users and sign in.
 // With TEST_DATABASE_URL set, each app gets its own new PostgreSQL database on that server instead.
 import { randomUUID } from 'node:crypto'
 import { mkdtempSync, rmSync } from 'node:fs'
@@ -20,12 +21,12 @@ import {
 } from '../../server/config'
 import { dataSourceOptionsFor, openDatabase } from '../../server/infrastructure/database/data-source'
 import { MailMessageEntity, UserEntity, type MailMessageRow, type UserRow } from '../../server/entities'
-import { SCENARIOS_DIR } from '../../server/main'
+import { SCENARIOS_DIR } from '../../server/prepare-database'
+import { startBackgroundJobs, type BackgroundJobs } from '../../server/background-jobs'
 import { createGradingPool, type GradingPool } from '../../server/infrastructure/grading/grading-pool'
 import { createLifecycle, type Lifecycle } from '../../server/infrastructure/http/lifecycle'
 import { createMetrics } from '../../server/infrastructure/metrics'
-import { createMailer, type Mailer } from '../../server/infrastructure/mail/mailer'
-import { startOutboxSmtp, type OutboxSmtp } from '../../server/infrastructure/mail/outbox-smtp'
+import type { OutboxSmtp } from '../../server/infrastructure/mail/outbox-smtp'
 import { createPasswordHasher, type PasswordHasher } from '../../server/infrastructure/security/passwords'
 import { importShippedScenarios } from '../../server/scenarios/scenarios.service'
 import { createTestDatabase } from './test-database'
@@ -64,7 +65,8 @@ export interface TestApi {
   http: supertest.Agent
   dataSource: DataSource
   config: AppConfig
-  mailer: Mailer
+  /** The job worker and the embedded outbox; `jobs.worker.runDue()` runs every job due now. */
+  jobs: BackgroundJobs
   grading: GradingPool
   /** Requests in flight; drain() starts a shutdown's 503s. */
   lifecycle: Lifecycle
@@ -74,7 +76,7 @@ export interface TestApi {
   /** Creates an active user directly in the database and signs them in. */
   createUser(role: Role, fields?: Partial<Pick<UserRow, 'name' | 'email'>>): Promise<TestUser>
   signIn(email: string, password: string): Promise<{ token: string; cookie: string }>
-  /** Waits for queued mail to reach the outbox, then returns every message (oldest first). */
+  /** Runs the due jobs (queued mail reaches the outbox), then returns every message received (oldest first). */
   mail(): Promise<MailMessageRow[]>
   close(): Promise<void>
 }
@@ -101,13 +103,8 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
   }
   const dataSource = await openDatabase(dataSourceOptionsFor(config))
   if (options.scenarios !== false) await importShippedScenarios(dataSource, SCENARIOS_DIR)
-  const outbox = await startOutboxSmtp(dataSource, log)
-  const mailer = createMailer({
-    target: { host: outbox.host, port: outbox.port, secure: false },
-    from: config.mailFrom,
-    log,
-    retryDelaysMs: [50, 100],
-  })
+  const jobs = await startBackgroundJobs({ dataSource, config, log, run: false })
+  const outbox = jobs.outbox!
   const passwords = createPasswordHasher(config.passwordHashing)
   // Real grading threads (the worker bundled from source, plain JavaScript), as in production.
   const metrics = createMetrics()
@@ -118,7 +115,6 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
   const app = createApp({
     dataSource,
     config,
-    mailer,
     jwtSecret: TEST_JWT_SECRET,
     log,
     passwords,
@@ -166,7 +162,7 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     http,
     dataSource,
     config,
-    mailer,
+    jobs,
     grading,
     lifecycle,
     passwords,
@@ -175,14 +171,12 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     createUser,
     signIn,
     async mail() {
-      await mailer.idle()
+      await jobs.worker.runDue()
       return dataSource.getRepository(MailMessageEntity).find({ order: { receivedAt: 'ASC' } })
     },
     async close() {
       await grading.close()
-      await mailer.idle()
-      mailer.close()
-      await outbox.close()
+      await jobs.close()
       await dataSource.destroy()
       await database.drop()
       rmSync(dataDir, { recursive: true, force: true })

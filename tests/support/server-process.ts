@@ -7,6 +7,8 @@ import { fileURLToPath } from 'node:url'
 import { builtServerFile, bundleFromSource, ensureServerBuild } from '../../scripts/build'
 
 export const ROOT = fileURLToPath(new URL('../..', import.meta.url))
+// The npm commands' scripts (db:reset, admin:create …) run from source through tsx, as `npm run` runs them.
+const TSX = ['--import', 'tsx']
 
 export interface ServerProcess {
   child: ChildProcess
@@ -91,7 +93,11 @@ export async function launch({
   return server
 }
 
-/** The production build (API + built client): NODE_ENV=production, its own DATA_DIR, loopback only. */
+/**
+ * The production build (API + built client): NODE_ENV=production, its own DATA_DIR, loopback only, with the
+ * demo centre seeded into the empty database as `npm start` does (DEMO=true; pass DEMO: 'false' in `env` for a
+ * plain production start).
+ */
 export async function startSlipway(
   dataDir: string,
   options: { port?: number; env?: NodeJS.ProcessEnv; timeoutMs?: number; nodeArgs?: string[] } = {},
@@ -105,6 +111,7 @@ export async function startSlipway(
     DATA_DIR: dataDir,
     PUBLIC_BASE_URL: `http://127.0.0.1:${port}`,
     LOG_LEVEL: 'warn',
+    DEMO: 'true',
     ...options.env,
   }
   await ensureServerBuild()
@@ -148,5 +155,33 @@ export async function startBareExpress(): Promise<ServerProcess> {
     port,
     healthPath: '/',
     timeoutMs: 30_000,
+  })
+}
+
+/**
+ * One of the npm commands' scripts (`server/scripts/…`) as an operator runs it: a minimal environment plus
+ * `env`, `input` on standard input; resolves with the exit code and everything it printed.
+ */
+export function runScript(
+  script: string,
+  args: string[],
+  { env = {}, input = '' }: { env?: Record<string, string>; input?: string } = {},
+): Promise<{ code: number | null; out: string }> {
+  return new Promise((resolve) => {
+    const child = spawn(process.execPath, [...TSX, script, ...args], {
+      cwd: ROOT,
+      env: {
+        PATH: process.env.PATH ?? '/usr/bin:/bin',
+        TSX_TSCONFIG_PATH: 'tsconfig.node.json',
+        LOG_LEVEL: 'silent',
+        ...env,
+      },
+      stdio: ['pipe', 'pipe', 'pipe'],
+    })
+    let out = ''
+    child.stdout!.on('data', (chunk: Buffer) => (out += chunk.toString()))
+    child.stderr!.on('data', (chunk: Buffer) => (out += chunk.toString()))
+    child.stdin!.end(input)
+    child.on('close', (code) => resolve({ code, out }))
   })
 }

@@ -1,13 +1,9 @@
-// Sends mail through nodemailer over SMTP, in the background: a failure is retried and never fails the request.
+// Delivers one queued mail job over SMTP with nodemailer. The Message-ID is made from the job's id, so a
+// delivery repeated after a crash (the relay accepted, the job was not yet marked sent) carries the same one:
+// the embedded relay keeps each Message-ID once; a real relay may pass a repeat on (see DEVELOPERS.md).
 import nodemailer, { type Transporter } from 'nodemailer'
-import type { Logger } from '../logging'
-
-export interface OutgoingMail {
-  to: string
-  subject: string
-  text: string
-  html: string
-}
+import { JobError, type JobHandler } from '../jobs'
+import type { OutgoingMail } from './mail-job'
 
 export interface SmtpTarget {
   host: string
@@ -19,30 +15,21 @@ export interface SmtpTarget {
   requireTls?: boolean
 }
 
-export interface Mailer {
-  /** Queues the message and returns at once. */
-  send(mail: OutgoingMail): void
-  /** Resolves when every queued message has been delivered or given up (tests, shutdown). */
-  idle(): Promise<void>
-  /** Messages waiting or being sent, and those given up since start (metrics). */
-  stats(): { queued: number; failed: number }
+export interface MailDelivery {
+  deliver: JobHandler<OutgoingMail>
   close(): void
 }
 
-export interface MailerOptions {
+export interface MailDeliveryOptions {
   target: SmtpTarget
   from: string
-  log: Logger
-  /** Delays before each retry; the default gives up after about a minute. */
-  retryDelaysMs?: number[]
+  /** The right-hand side of every Message-ID (the public host name). */
+  messageIdDomain: string
 }
 
-export function createMailer({
-  target,
-  from,
-  log,
-  retryDelaysMs = [1000, 5000, 20_000, 40_000],
-}: MailerOptions): Mailer {
+export const messageIdFor = (jobId: string, domain: string) => `<${jobId}@${domain}>`
+
+export function createMailDelivery({ target, from, messageIdDomain }: MailDeliveryOptions): MailDelivery {
   const loopback = target.host === '127.0.0.1' || target.host === 'localhost'
   const transport: Transporter = nodemailer.createTransport({
     host: target.host,
@@ -54,50 +41,52 @@ export function createMailer({
     greetingTimeout: 10_000,
     socketTimeout: 20_000,
   })
-  const pending = new Set<Promise<void>>()
-  const timers = new Set<NodeJS.Timeout>()
-  let closed = false
-  let failed = 0
-
-  const wait = (ms: number) =>
-    new Promise<void>((resolve) => {
-      const timer = setTimeout(() => {
-        timers.delete(timer)
-        resolve()
-      }, ms)
-      timers.add(timer)
-    })
-
-  async function deliver(mail: OutgoingMail) {
-    for (let attempt = 0; ; attempt++) {
-      try {
-        await transport.sendMail({ from, ...mail })
-        return
-      } catch (err) {
-        if (closed || attempt >= retryDelaysMs.length) {
-          log.error({ err, to: mail.to, subject: mail.subject }, 'mail could not be sent; giving up')
-          failed++
-          return
-        }
-        log.warn({ err, to: mail.to, attempt: attempt + 1 }, 'mail not sent; retrying')
-        await wait(retryDelaysMs[attempt]!)
-      }
-    }
-  }
-
   return {
-    send(mail) {
-      const job = deliver(mail).finally(() => pending.delete(job))
-      pending.add(job)
+    async deliver(mail, job) {
+      try {
+        await transport.sendMail({ from, ...mail, messageId: messageIdFor(job.id, messageIdDomain) })
+      } catch (error) {
+        throw inPlainWords(error)
+      }
     },
-    async idle() {
-      while (pending.size) await Promise.all([...pending])
-    },
-    stats: () => ({ queued: pending.size, failed }),
-    close() {
-      closed = true
-      for (const timer of timers) clearTimeout(timer)
-      transport.close()
-    },
+    close: () => transport.close(),
   }
+}
+
+interface SmtpFailure {
+  code?: string
+  responseCode?: number
+  response?: string
+  message?: string
+}
+
+/** A nodemailer failure as a JobError an admin can act on; an SMTP 5xx answer is not worth retrying. */
+export function inPlainWords(error: unknown): JobError {
+  const { code, responseCode, response, message = '' } = (error ?? {}) as SmtpFailure
+  const answer = response ? ` (it answered “${response.trim().slice(0, 300)}”)` : ''
+  if (responseCode && responseCode >= 500)
+    return new JobError(`The mail relay refused the message for good${answer}`, {
+      permanent: true,
+      cause: error,
+    })
+  if (responseCode && responseCode >= 400)
+    return new JobError(`The mail relay asked to try again later${answer}`, { cause: error })
+  if (code === 'EAUTH')
+    return new JobError(`The mail relay did not accept the user name or password${answer}`, { cause: error })
+  if (/ECONNREFUSED/.test(message))
+    return new JobError('The mail relay refused the connection (is it running, on this host and port?)', {
+      cause: error,
+    })
+  if (code === 'ETIMEDOUT' || /timeout|timed out/i.test(message))
+    return new JobError('The mail relay did not answer in time', { cause: error })
+  if (code === 'EDNS' || /ENOTFOUND|EAI_AGAIN/.test(message))
+    return new JobError('The mail relay’s host name could not be found', { cause: error })
+  if (code === 'ETLS')
+    return new JobError('A secure connection to the mail relay could not be set up', { cause: error })
+  if (code === 'EENVELOPE')
+    return new JobError(`The recipient’s address was not accepted${answer}`, {
+      permanent: true,
+      cause: error,
+    })
+  return new JobError('The connection to the mail relay failed', { cause: error })
 }

@@ -1,4 +1,6 @@
-// The embedded SMTP relay on loopback: receives each message over SMTP, parses it and stores it in the outbox.
+// The embedded SMTP relay on loopback: receives each message over SMTP, parses it and stores it in the outbox,
+// once per Message-ID: a delivery repeated after a crash (stored here, not yet marked sent) is accepted again
+// and stored no second time.
 import type { AddressInfo } from 'node:net'
 import { randomUUID } from 'node:crypto'
 import { simpleParser, type AddressObject } from 'mailparser'
@@ -27,15 +29,22 @@ export async function startOutboxSmtp(dataSource: DataSource, log: Logger, port 
     onData(stream, _session, callback) {
       simpleParser(stream)
         .then((parsed) =>
-          dataSource.getRepository(MailMessageEntity).insert({
-            id: randomUUID(),
-            fromAddress: addressText(parsed.from),
-            toAddress: addressText(parsed.to),
-            subject: parsed.subject ?? '',
-            text: parsed.text ?? '',
-            html: typeof parsed.html === 'string' ? parsed.html : '',
-            receivedAt: nowIso(),
-          }),
+          dataSource
+            .createQueryBuilder()
+            .insert()
+            .into(MailMessageEntity)
+            .values({
+              id: randomUUID(),
+              messageId: parsed.messageId?.slice(0, 255) ?? null,
+              fromAddress: addressText(parsed.from),
+              toAddress: addressText(parsed.to),
+              subject: parsed.subject ?? '',
+              text: parsed.text ?? '',
+              html: typeof parsed.html === 'string' ? parsed.html : '',
+              receivedAt: nowIso(),
+            })
+            .orIgnore()
+            .execute(),
         )
         .then(() => callback())
         .catch((err: Error) => {
@@ -55,4 +64,15 @@ export async function startOutboxSmtp(dataSource: DataSource, log: Logger, port 
     port: address.port,
     close: () => new Promise<void>((resolve) => server.close(() => resolve())),
   }
+}
+
+/** Deletes messages the embedded relay received before `before` (the outbox keeps them as long as the queue). */
+export async function pruneOutbox(dataSource: DataSource, before: Date): Promise<number> {
+  const result = await dataSource
+    .createQueryBuilder()
+    .delete()
+    .from(MailMessageEntity)
+    .where('"receivedAt" < :before', { before: before.toISOString() })
+    .execute()
+  return result.affected ?? 0
 }

@@ -1,5 +1,5 @@
 // The messages Slipway sends, each as plain text and HTML built from the same words.
-import type { OutgoingMail } from './mailer'
+import type { OutgoingMail } from './mail-job'
 
 const escapeHtml = (value: string) =>
   value.replace(

@@ -1,7 +1,7 @@
 // Upload handling: multer in memory with a size cap, a type check against name, MIME type and content,
-// then the accepted file is kept under DATA_DIR/uploads with a generated name.
+// then the accepted file is kept under DATA_DIR/uploads with a generated name, once its row has committed.
 import { randomUUID } from 'node:crypto'
-import { mkdirSync, writeFileSync } from 'node:fs'
+import { closeSync, fsyncSync, mkdirSync, openSync, renameSync, rmSync, writeSync } from 'node:fs'
 import { extname, join } from 'node:path'
 import multer from 'multer'
 import type { EntityManager } from 'typeorm'
@@ -59,26 +59,66 @@ export function uploadedText(
   return { file, text }
 }
 
-export async function keepUpload(
+/** Where uploads are kept, and the staging folder inside for files whose transaction has not committed. */
+export function uploadFolders(dataDir: string) {
+  const kept = join(dataDir, 'uploads')
+  return { kept, staging: join(kept, '.staging') }
+}
+
+/** Writes the bytes and flushes them to disk before anything points at them. */
+function writeDurably(path: string, bytes: Buffer) {
+  const fd = openSync(path, 'wx')
+  try {
+    writeSync(fd, bytes)
+    fsyncSync(fd)
+  } finally {
+    closeSync(fd)
+  }
+}
+
+/**
+ * Runs `work` in a transaction that also records the uploaded file. The file is written to the staging folder
+ * first and moved into place only once the transaction has committed: a rolled-back change leaves no file,
+ * and a crash in between leaves a staged file that the sweep (upload-sweep.ts) moves into place or removes.
+ */
+export async function inTransactionWithUpload<T>(
   ctx: AppContext,
-  manager: EntityManager,
   userId: string,
   kind: UploadKind,
   file: Express.Multer.File,
-): Promise<void> {
-  const dir = join(ctx.config.dataDir, 'uploads')
-  mkdirSync(dir, { recursive: true })
+  work: (manager: EntityManager) => Promise<T>,
+): Promise<T> {
+  const folders = uploadFolders(ctx.config.dataDir)
+  mkdirSync(folders.staging, { recursive: true })
   const id = randomUUID()
   const storedName = `${id}${extname(file.originalname).toLowerCase()}`
-  writeFileSync(join(dir, storedName), file.buffer)
-  await manager.getRepository(UploadEntity).insert({
-    id,
-    userId,
-    purpose: kind.purpose,
-    originalName: file.originalname.slice(0, 255),
-    storedName,
-    mimeType: file.mimetype.slice(0, 120),
-    size: file.size,
-    createdAt: nowIso(),
-  })
+  const staged = join(folders.staging, storedName)
+  writeDurably(staged, file.buffer)
+  let result: T
+  try {
+    result = await ctx.dataSource.transaction(async (manager) => {
+      const outcome = await work(manager)
+      await manager.getRepository(UploadEntity).insert({
+        id,
+        userId,
+        purpose: kind.purpose,
+        originalName: file.originalname.slice(0, 255),
+        storedName,
+        mimeType: file.mimetype.slice(0, 120),
+        size: file.size,
+        createdAt: nowIso(),
+      })
+      return outcome
+    })
+  } catch (error) {
+    rmSync(staged, { force: true })
+    throw error
+  }
+  try {
+    renameSync(staged, join(folders.kept, storedName))
+  } catch (err) {
+    // Committed: the sweep finishes the move; the request has succeeded.
+    ctx.log.error({ err, storedName }, 'could not move an upload into place; the next sweep will')
+  }
+  return result
 }
