@@ -16,7 +16,7 @@ describe('wiring on a live panel', () => {
     const warning = page.getByTestId('safety-warning').first()
     await warning.waitFor({ timeout: 10_000 })
     await expect(warning.textContent()).resolves.toMatch(
-      /Safety violation: Wire W1\b.* while the supply disconnect was on\..*with no lock/,
+      /Safety violation: Wire W1\b.* while the supply disconnect was on; with no lock/,
     )
     // The warning lies over the panel's corner: the canvas has not moved.
     const before = await page.getByTestId('panel-canvas').boundingBox()
@@ -26,7 +26,7 @@ describe('wiring on a live panel', () => {
     await panel.wire('runSwitch.b', 'drive.di1')
     await expect
       .poll(async () => page.getByTestId('safety-warning').first().textContent(), { timeout: 10_000 })
-      .toMatch(/Wire W2\b.* while the DC bus was at [\d.]+ V\./)
+      .toMatch(/Wire W2\b.* while the DC bus was at [\d.]+ V[;.]/)
     expect(await page.getByTestId('panel-canvas').boundingBox()).toEqual(before)
     await screenshot(page, 'panel-energised-02-bus-charged')
 

@@ -15,9 +15,27 @@ export type CreateLiveGrader = (scenario: Scenario, initial?: readonly AttemptEv
 export const SAFE_SEQUENCE =
   'Isolate, lock out, wait for the DC bus to discharge and prove absence of voltage before touching terminals.'
 
-/** One action's violations as the one warning the panel shows: the grader's words, then the safe sequence. */
+/**
+ * One action's violations as the one warning the panel shows: the grader's words, then the safe sequence.
+ * Each violation names the same work at the same moment ("Wire W1 added … at 00:15.2 while …", "… with no
+ * lock …"), so that shared opening is said once and the reasons follow it.
+ */
 export function warningText(violations: readonly SafetyViolation[]): string {
-  return `Safety violation: ${violations.map((v) => v.text).join(' ')} ${SAFE_SEQUENCE}`
+  const texts = violations.map((v) => v.text.replace(/\.$/, ''))
+  const opening = sharedOpening(texts)
+  const said = opening
+    ? `${opening.trimEnd()} ${texts.map((t) => t.slice(opening.length)).join('; ')}`
+    : texts.join('. ')
+  return `Safety violation: ${said}. ${SAFE_SEQUENCE}`
+}
+
+/** The words every text starts with, up to a space (empty for one text, or when they share no word). */
+function sharedOpening(texts: readonly string[]): string {
+  if (texts.length < 2) return ''
+  const first = texts[0]!
+  let n = 0
+  while (n < first.length && texts.every((t) => t[n] === first[n])) n++
+  return first.slice(0, first.lastIndexOf(' ', n - 1) + 1)
 }
 
 /** What the machine sends the grading actor, and what the actor sends back. */

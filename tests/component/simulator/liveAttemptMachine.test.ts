@@ -190,7 +190,7 @@ describe('live grading and live safety warnings', () => {
     actor.send({ type: 'RECORD', action: { type: 'lock.removed' }, t: 100 })
     expect(pushed).toEqual([{ t: 100, type: 'lock.removed' }])
     expect(actor.getSnapshot().context.warnings.map((w) => w.text)).toEqual([
-      `Safety violation: From the grader ${SAFE_SEQUENCE}`,
+      `Safety violation: From the grader. ${SAFE_SEQUENCE}`,
     ])
   })
 
@@ -207,6 +207,18 @@ describe('live grading and live safety warnings', () => {
     }
     return { actor, warned }
   }
+
+  it('says one action\'s violations once: the work, then each rule it broke, then the safe sequence', () => {
+    const at = 'Wire W1 added from +24 to Infeed run / stop terminal 13 at 00:15.2'
+    const violations = [
+      { kind: 'workWhileEnergised', t: 15_200, text: `${at} while the supply disconnect was on.` },
+      { kind: 'workWithoutLock', t: 15_200, text: `${at} with no lock on the disconnect.` },
+    ] as const
+    expect(warningText(violations)).toBe(
+      `Safety violation: ${at} while the supply disconnect was on; with no lock on the disconnect. ${SAFE_SEQUENCE}`,
+    )
+    expect(warningText([violations[1]])).toBe(`Safety violation: ${violations[1].text} ${SAFE_SEQUENCE}`)
+  })
 
   it('the shared grader: a correct attempt gets no warning, and the live ticks equal the grade', async () => {
     const events = reference.events as AttemptEvent[]
@@ -247,8 +259,10 @@ describe('live grading and live safety warnings', () => {
     const { warned } = await recordThrough(events)
     expect(warned.map((w) => w.t)).toEqual(works.map((_, i) => 1000 * (i + 1)))
     for (const w of warned) {
-      expect(w.text).toMatch(/^Safety violation: .* while the supply disconnect was on\./)
-      expect(w.text).toMatch(/with no lock on the disconnect/)
+      // The work is named once, then each rule it broke.
+      expect(w.text).toMatch(
+        /^Safety violation: [^;]+ at [\d:.]+ while the supply disconnect was on; with no lock on the disconnect; before absence of voltage was proved/,
+      )
       expect(w.text.endsWith(SAFE_SEQUENCE)).toBe(true)
     }
   })
