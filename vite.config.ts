@@ -56,6 +56,8 @@ export default defineConfig({
           environment: 'happy-dom',
           include: ['tests/component/**/*.test.ts'],
           setupFiles: ['tests/component/setup.ts'],
+          // Mounting the Pixi panel under happy-dom takes seconds on a busy 2-core machine; a hang still fails.
+          testTimeout: 15_000,
           // Vuetify ships .css imports that Node cannot load unless Vite transforms them.
           server: { deps: { inline: ['vuetify'] } },
         },

@@ -31,6 +31,9 @@ const SERVER_STAMP = join(SERVER_OUT, 'build-stamp.json')
 export const SERVER_ENTRIES = {
   index: 'server/index.ts',
   start: 'server/scripts/start.ts',
+  // The operator commands (npm run admin:create, npm run db:reset; scripts/operator.mjs runs them).
+  'admin-create': 'server/scripts/admin-create.ts',
+  'db-reset': 'server/scripts/db-reset.ts',
   ...WORKER_SOURCES,
 }
 

@@ -25,8 +25,12 @@ import { DatabaseRateLimitStore } from './infrastructure/rate-limit-store'
 import { createPasswordHasher, type PasswordHasher } from './infrastructure/security/passwords'
 import { createAccessTokens } from './infrastructure/security/tokens'
 import { invitationsRouter } from './invitations/invitations.router'
+import { framingFor } from './lti/framing'
+import { ltiRouter } from './lti/lti.router'
+import type { LtiOptions } from './lti/runtime'
 import { apiNotFound, errorHandler } from './middleware/errors'
 import { createLimiters } from './middleware/rate-limit'
+import { recordsRouter } from './records/records.router'
 import { scenariosRouter, scenarioVersionsRouter } from './scenarios/scenarios.router'
 
 export interface AppDeps {
@@ -41,6 +45,8 @@ export interface AppDeps {
   lifecycle?: Lifecycle
   /** Where the built client lives (default dist/client). */
   clientDir?: string
+  /** Learning-platform (LTI) settings for tests: key-set cache and grade retry timings. */
+  lti?: LtiOptions
 }
 
 export const DEFAULT_CLIENT_DIR = CLIENT_DIR
@@ -80,6 +86,9 @@ export function createApp(deps: AppDeps): Express {
   // Behind a reverse proxy on another host, TRUST_PROXY names it so rate limits see the client's address.
   app.set('trust proxy', deps.config.trustProxy)
   app.use(requestContext())
+  // Registered learning platforms may show Slipway's pages in a frame; nobody else may (lti/framing.ts).
+  const framing = framingFor(ctx)
+  app.use(framing.resolve)
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -94,12 +103,13 @@ export function createApp(deps: AppDeps): Express {
           // Pixi compiles shaders and may spin up workers from blob: URLs.
           workerSrc: ["'self'", 'blob:'],
           objectSrc: ["'none'"],
-          frameAncestors: ["'none'"],
+          frameAncestors: [framing.directive],
           upgradeInsecureRequests: null,
         },
       },
     }),
   )
+  app.use(framing.dropFrameOptions)
   app.use(requestLogger(log))
   app.use(metrics.httpMiddleware)
   app.use(lifecycle.middleware)
@@ -121,6 +131,8 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api/scenario-versions', scenarioVersionsRouter(ctx))
   app.use('/api/attempts', attemptsRouter(ctx))
   app.use('/api', assignmentsRouter(ctx))
+  app.use('/api/lti', ltiRouter(ctx, deps.lti))
+  app.use('/api', recordsRouter(ctx))
   app.use('/api', apiNotFound)
 
   const clientDir = deps.clientDir ?? DEFAULT_CLIENT_DIR

@@ -1,5 +1,5 @@
-// The background work of one instance: the job worker with a handler for every kind, the mail relay it
-// delivers to (a real one, or the embedded outbox), and the recurring housekeeping. main.ts starts it, and so
+// The background work of one instance: the job worker with a handler for every kind (mail, grades back to
+// learning platforms, sweeps), the mail relay it delivers to (a real one, or the embedded outbox), and the recurring housekeeping. main.ts starts it, and so
 // does the API test harness (without the timer: tests run due jobs with `worker.runDue()`).
 import type { DataSource } from 'typeorm'
 import { z } from 'zod'
@@ -14,6 +14,9 @@ import {
   type JobWorker,
 } from './infrastructure/jobs'
 import type { Logger } from './infrastructure/logging'
+import { postScore } from './lti/passback.service'
+import { createServiceTokenCache } from './lti/platform-client'
+import { scorePostJob } from './lti/score-post-job'
 import { mailJob, withoutBody } from './infrastructure/mail/mail-job'
 import { createMailDelivery, type SmtpTarget } from './infrastructure/mail/mailer'
 import { pruneOutbox, startOutboxSmtp, type OutboxSmtp } from './infrastructure/mail/outbox-smtp'
@@ -76,6 +79,9 @@ export async function startBackgroundJobs({
   const worker = createJobWorker({ dataSource, log, leaseMs: config.jobLeaseMs })
   // With a real relay the body (which may hold a one-time link) is not kept once sent; locally it is the outbox.
   worker.handle(mailJob, mail.deliver, config.smtp ? { whenDone: withoutBody } : {})
+  // Grades back to learning platforms; this worker keeps its own service tokens between posts.
+  const passback = { dataSource, serviceTokens: createServiceTokenCache() }
+  worker.handle(scorePostJob, (post, job) => postScore(passback, post, job))
   worker.handle(sweepUploadsJob, async () => {
     await sweepUploads(dataSource, config.dataDir, log)
   })

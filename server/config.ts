@@ -74,7 +74,22 @@ const envSchema = z.object({
     error: 'METRICS_TOKEN must be at least 16 characters',
   }),
   SHUTDOWN_TIMEOUT_MS: z.coerce.number().int().min(0).max(600_000).optional(),
+  CENTRE_NAME: optionalText.pipe(
+    z.string().max(160, { error: 'CENTRE_NAME: at most 160 characters' }).optional(),
+  ),
+  CENTRE_TIME_ZONE: optionalText.refine((value) => value === undefined || isTimeZone(value), {
+    error: 'CENTRE_TIME_ZONE must be an IANA time zone such as Europe/London or Pacific/Auckland',
+  }),
 })
+
+function isTimeZone(value: string): boolean {
+  try {
+    new Intl.DateTimeFormat('en-GB', { timeZone: value })
+    return true
+  } catch {
+    return false
+  }
+}
 
 export interface RateLimitRule {
   windowMs: number
@@ -84,6 +99,8 @@ export interface RateLimits {
   signIn: RateLimitRule
   passwordReset: RateLimitRule
   invitations: RateLimitRule
+  /** A learning platform's login, launch and session hand-over (per address: a classroom shares one). */
+  ltiLaunch: RateLimitRule
 }
 
 /** argon2id cost; the OWASP Password Storage Cheat Sheet minimum is 19 MiB, 2 iterations, 1 lane. */
@@ -138,6 +155,8 @@ export interface AppConfig {
   firstAdmin?: { email: string; name: string; password: string }
   /** How long a claimed job is held before another instance may take it over (JOB_LEASE_SECONDS). */
   jobLeaseMs: number
+  /** The centre named on printed records, and the time zone their dates are printed in. */
+  centre: { name: string; timeZone: string }
   version: string
 }
 
@@ -145,6 +164,7 @@ export const DEFAULT_RATE_LIMITS: RateLimits = {
   signIn: { windowMs: 15 * 60_000, limit: 20 },
   passwordReset: { windowMs: 15 * 60_000, limit: 5 },
   invitations: { windowMs: 15 * 60_000, limit: 60 },
+  ltiLaunch: { windowMs: 15 * 60_000, limit: 600 },
 }
 
 export class ConfigError extends Error {}
@@ -245,6 +265,7 @@ export function loadConfig(
     demo: e.DEMO === 'true',
     firstAdmin,
     jobLeaseMs: (e.JOB_LEASE_SECONDS ?? 60) * 1000,
+    centre: { name: e.CENTRE_NAME ?? 'Slipway training centre', timeZone: e.CENTRE_TIME_ZONE ?? 'UTC' },
     version: options.version ?? '0.0.0',
   }
 }

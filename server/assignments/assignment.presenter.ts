@@ -20,6 +20,7 @@ export const presentAssignment = (
   dueAt: row.dueAt,
   attemptLimit: row.attemptLimit,
   hintsAllowed: Boolean(row.hintsAllowed),
+  scorePolicy: row.scorePolicy,
   createdAt: row.createdAt,
   myProgress: related.mine
     ? {

@@ -112,6 +112,7 @@ export async function createAssignment(
     dueAt: new Date(body.dueAt).toISOString(),
     attemptLimit: body.attemptLimit,
     hintsAllowed: body.hintsAllowed,
+    scorePolicy: body.scorePolicy,
     createdById: user.id,
     createdAt: nowIso(),
   }
@@ -161,6 +162,7 @@ export async function updateAssignment(
     dueAt: changes.dueAt ? new Date(changes.dueAt).toISOString() : assignment.dueAt,
     attemptLimit: changes.attemptLimit === undefined ? assignment.attemptLimit : changes.attemptLimit,
     hintsAllowed: changes.hintsAllowed ?? Boolean(assignment.hintsAllowed),
+    scorePolicy: changes.scorePolicy ?? assignment.scorePolicy,
   }
   if (next.dueAt <= next.opensAt) {
     throw new HttpError(400, 'validation_failed', 'The due date must be after the opening date', {

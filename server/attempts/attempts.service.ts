@@ -31,6 +31,7 @@ import {
 import { conflict, forbidden } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
 import { queueMail } from '../infrastructure/mail/mail-job'
+import { queueScorePost } from '../lti/score-post-job'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
 import {
   presentAttemptDetail,
@@ -260,6 +261,9 @@ export async function overrideGrade(
       createdAt: now,
     })
     await notifyOwner(ctx, manager, attempt, 'overridden', score, passed)
+    if (attempt.assignmentId) {
+      await queueScorePost(manager, { assignmentId: attempt.assignmentId, userId: attempt.userId })
+    }
   })
   return presentOne(ctx, await ds.getRepository(AttemptEntity).findOneByOrFail({ id: attempt.id }))
 }

@@ -22,6 +22,7 @@ import type { ReadSubmission } from '../infrastructure/grading/grading-pool'
 import type { SubmissionHeader } from '../infrastructure/grading/grading-worker'
 import { queueMail } from '../infrastructure/mail/mail-job'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
+import { queueScorePost } from '../lti/score-post-job'
 import { presentOne } from './attempts.service'
 import { storedLogOpens } from './log-prefix'
 
@@ -185,6 +186,8 @@ async function storeSubmission(
             url: appLink(ctx, `/attempts/${row.id}`),
           }),
         )
+        // A learning platform that links this assignment receives the grade (nothing happens otherwise).
+        await queueScorePost(manager, { assignmentId: assignment.id, userId: user.id })
       }
     })
   } catch (error) {

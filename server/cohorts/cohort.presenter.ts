@@ -1,6 +1,7 @@
 // A cohort row → the API's Cohort (with its owner's name and head count); an enrolment → a CohortMember.
 import type { Cohort, CohortMember } from '@shared/api/cohorts'
 import type { CohortRow, EnrollmentRow, UserRow } from '../entities'
+import { shownEmail } from '@shared/api/users'
 
 export const presentCohort = (
   row: CohortRow,
@@ -19,7 +20,7 @@ export const presentCohort = (
 export const presentCohortMember = (enrollment: EnrollmentRow, user: UserRow): CohortMember => ({
   userId: user.id,
   name: user.name,
-  email: user.email,
+  email: shownEmail(user.email),
   active: Boolean(user.active),
   enrolledAt: enrollment.createdAt,
 })

@@ -106,6 +106,7 @@ export async function seedDemo(
         dueAt: new Date(Date.now() + plan.dueInDays * DAY).toISOString(),
         attemptLimit: 3,
         hintsAllowed: plan.key !== 'safe-isolation',
+        scorePolicy: 'best',
         createdById: cohort.ownerId,
         createdAt: now,
       })

@@ -1,4 +1,5 @@
 import { EntitySchema, type EntitySchemaOptions } from 'typeorm'
+import type { ScorePolicy } from '@shared/api/assignments'
 import { bool, timestamp, uuidColumn, uuidPrimary, varchar, belongsTo } from './columns'
 
 export interface AssignmentRow {
@@ -10,6 +11,8 @@ export interface AssignmentRow {
   dueAt: string
   attemptLimit: number | null
   hintsAllowed: boolean
+  /** Which score a learning platform receives (migration 1765000000000); 'best' unless chosen. */
+  scorePolicy: ScorePolicy
   createdById: string
   createdAt: string
 }
@@ -26,6 +29,7 @@ export const AssignmentEntity = new EntitySchema<AssignmentRow>({
     dueAt: timestamp,
     attemptLimit: { type: 'integer', nullable: true },
     hintsAllowed: bool,
+    scorePolicy: { type: 'varchar', length: 8, default: 'best' },
     createdById: uuidColumn,
     createdAt: timestamp,
   },

@@ -7,7 +7,9 @@ import { EnrollmentEntity } from './enrollment'
 import { FeedbackEntity } from './feedback'
 import { InvitationEntity } from './invitation'
 import { JobEntity } from './job'
+import { ltiEntities } from './lti'
 import { MailMessageEntity } from './mail-message'
+import { OutcomeSignOffEntity } from './outcome-sign-off'
 import { PasswordResetEntity } from './password-reset'
 import { RateLimitCounterEntity } from './rate-limit-counter'
 import { RefreshTokenEntity } from './refresh-token'
@@ -23,7 +25,9 @@ export * from './enrollment'
 export * from './feedback'
 export * from './invitation'
 export * from './job'
+export * from './lti'
 export * from './mail-message'
+export * from './outcome-sign-off'
 export * from './password-reset'
 export * from './rate-limit-counter'
 export * from './refresh-token'
@@ -47,4 +51,6 @@ export const entities = [
   UploadEntity,
   RateLimitCounterEntity,
   JobEntity,
+  ...ltiEntities,
+  OutcomeSignOffEntity,
 ]

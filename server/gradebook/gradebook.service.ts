@@ -18,6 +18,7 @@ import { nowIso } from '../infrastructure/clock'
 import type { GradebookPageBody, GradebookPageQuery } from './gradebook-cache'
 import { gradebookCsv, gradebookFileName } from './gradebook.presenter'
 import { NOT_STARTED, standingsByAssignmentAndUser } from './standings'
+import { shownEmail } from '@shared/api/users'
 
 export interface GradebookFilter {
   sort: 'name' | 'email' | 'lastActivity' | 'average'
@@ -69,7 +70,7 @@ export async function loadGradebook(ds: DataSource, cohort: CohortRow): Promise<
     return {
       userId: user.id,
       name: user.name,
-      email: user.email,
+      email: shownEmail(user.email),
       average: scored.length ? scored.reduce((a, b) => a + b, 0) / scored.length : null,
       lastActivity,
       cells,

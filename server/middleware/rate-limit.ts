@@ -44,5 +44,6 @@ export function createLimiters(limits: RateLimits | false, storeFor?: RateLimitS
     signIn: limiter(limits, 'signIn', storeFor),
     passwordReset: limiter(limits, 'passwordReset', storeFor),
     invitations: limiter(limits, 'invitations', storeFor),
+    ltiLaunch: limiter(limits, 'ltiLaunch', storeFor),
   }
 }

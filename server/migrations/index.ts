@@ -4,6 +4,8 @@ import { SharedRateLimits1764700000000 } from './1764700000000-shared-rate-limit
 import { GradebookCoveringIndex1764800000000 } from './1764800000000-gradebook-covering-index'
 import { GradebookRevision1764900000000 } from './1764900000000-gradebook-revision'
 import { JobQueue1765000000000 } from './1765000000000-job-queue'
+import { Lti1765100000000 } from './1765100000000-lti'
+import { OutcomeSignOffs1765200000000 } from './1765200000000-outcome-sign-offs'
 
 export const migrations = [
   InitialSchema1764600000000,
@@ -11,4 +13,6 @@ export const migrations = [
   GradebookCoveringIndex1764800000000,
   GradebookRevision1764900000000,
   JobQueue1765000000000,
+  Lti1765100000000,
+  OutcomeSignOffs1765200000000,
 ]

@@ -2,12 +2,17 @@
 import { z } from 'zod'
 import { idSchema, isoDateTimeSchema } from './common'
 
+/** Which score counts when an assignment sends grades to a learning platform: the best, or the latest. */
+export const scorePolicySchema = z.enum(['best', 'latest'])
+export type ScorePolicy = z.infer<typeof scorePolicySchema>
+
 const assignmentFields = {
   title: z.string().trim().max(160).optional(),
   opensAt: isoDateTimeSchema,
   dueAt: isoDateTimeSchema,
   attemptLimit: z.number().int().min(1).max(100).nullable(),
   hintsAllowed: z.boolean(),
+  scorePolicy: scorePolicySchema.default('best'),
 }
 
 export const createAssignmentRequestSchema = z
@@ -25,6 +30,7 @@ export const updateAssignmentRequestSchema = z
     dueAt: assignmentFields.dueAt.optional(),
     attemptLimit: assignmentFields.attemptLimit.optional(),
     hintsAllowed: assignmentFields.hintsAllowed.optional(),
+    scorePolicy: scorePolicySchema.optional(),
   })
   .refine((value) => Object.values(value).some((field) => field !== undefined), {
     error: 'Give at least one field to change',
@@ -52,6 +58,7 @@ export const assignmentSchema = z.object({
   dueAt: isoDateTimeSchema,
   attemptLimit: z.number().int().nullable(),
   hintsAllowed: z.boolean(),
+  scorePolicy: scorePolicySchema,
   createdAt: isoDateTimeSchema,
   myProgress: myProgressSchema.nullable(),
 })

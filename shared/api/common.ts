@@ -73,6 +73,10 @@ export const errorCodes = [
   'rate_limited',
   'server_busy',
   'shutting_down',
+  'lti_launch_invalid',
+  'lti_launch_refused',
+  'lti_not_linked',
+  'lti_service_failed',
   'internal_error',
 ] as const
 export const errorCodeSchema = z.enum(errorCodes)

@@ -13,6 +13,13 @@ export const userListQuerySchema = pageQuerySchema.extend({
 })
 export type UserListQuery = z.input<typeof userListQuerySchema>
 
+/**
+ * A person who came in from a learning platform without a shared e-mail address holds a reserved one
+ * (RFC 2606 `.invalid`, never mailed) because accounts need a unique address; screens show none instead.
+ */
+export const PLACEHOLDER_EMAIL_DOMAIN = '@platform.invalid'
+export const shownEmail = (email: string) => (email.endsWith(PLACEHOLDER_EMAIL_DOMAIN) ? '' : email)
+
 export const userPageSchema = pageOf(userSchema)
 export type UserPage = z.infer<typeof userPageSchema>
 

@@ -46,3 +46,12 @@ export function excerpt(text: string, max = 160): string {
   const cut = clean.slice(0, max)
   return `${cut.slice(0, Math.max(cut.lastIndexOf(' '), max * 0.6))}…`
 }
+
+/** A name as part of a file name: lower-case letters and digits joined by hyphens ("Autumn intake 1" → "autumn-intake-1"). */
+export function fileNamePart(name: string, fallback: string): string {
+  const safe = name
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-|-$/g, '')
+  return safe || fallback
+}

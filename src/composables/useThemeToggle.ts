@@ -1,3 +1,4 @@
+import { browserStorage } from '@/composables/browserStorage'
 import { computed } from 'vue'
 import { useTheme } from 'vuetify'
 import { THEME_STORAGE_KEY } from '@/plugins/theme'
@@ -8,7 +9,7 @@ export function useThemeToggle() {
   function toggle() {
     const next = isDark.value ? 'slipwayLight' : 'slipwayDark'
     theme.change(next)
-    localStorage.setItem(THEME_STORAGE_KEY, next)
+    browserStorage('localStorage').setItem(THEME_STORAGE_KEY, next)
   }
   return { isDark, toggle }
 }

@@ -1,5 +1,6 @@
 // Slipway's own palette: a deep teal-blue primary, a safety amber used sparingly, warm neutral surfaces.
 // Every text/background pair here is checked for WCAG contrast ≥ 4.5:1 in tests/component/theme.test.ts.
+import { browserStorage } from '@/composables/browserStorage'
 import type { ThemeDefinition } from 'vuetify'
 
 export const slipwayLight: ThemeDefinition = {
@@ -58,7 +59,7 @@ export const THEME_STORAGE_KEY = 'slipway.theme'
 export type ThemeName = 'slipwayLight' | 'slipwayDark'
 
 export function preferredTheme(): ThemeName {
-  const saved = typeof localStorage !== 'undefined' ? localStorage.getItem(THEME_STORAGE_KEY) : null
+  const saved = browserStorage('localStorage').getItem(THEME_STORAGE_KEY)
   if (saved === 'slipwayLight' || saved === 'slipwayDark') return saved
   const dark = typeof matchMedia === 'function' && matchMedia('(prefers-color-scheme: dark)').matches
   return dark ? 'slipwayDark' : 'slipwayLight'

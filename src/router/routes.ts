@@ -38,6 +38,20 @@ export const routes: RouteRecordRaw[] = [
     meta: { public: true, title: 'About' },
   },
 
+  // A learning platform's launch hands over here (code in the fragment); the view signs in and moves on.
+  {
+    path: '/lti/launch',
+    name: 'lti-launch',
+    component: () => import('@/views/LtiLaunchView.vue'),
+    meta: { public: true, title: 'Opening Slipway' },
+  },
+  {
+    path: '/lti/deep-link/:id',
+    name: 'lti-deep-link',
+    component: () => import('@/views/LtiDeepLinkView.vue'),
+    meta: { roles: STAFF, title: 'Add a Slipway activity' },
+  },
+
   // Any signed-in user
   {
     path: '/profile',
@@ -70,6 +84,12 @@ export const routes: RouteRecordRaw[] = [
     name: 'attempt-result',
     component: () => import('@/views/AttemptResultView.vue'),
     meta: { roles: ['apprentice'], title: 'Attempt result' },
+  },
+  {
+    path: '/records/commissioning/:id',
+    name: 'commissioning-record',
+    component: () => import('@/views/CommissioningRecordPrintView.vue'),
+    meta: { title: 'Commissioning record' },
   },
   {
     path: '/simulator/:key/:version(\\d+)?',
@@ -158,6 +178,13 @@ export const routes: RouteRecordRaw[] = [
     name: 'admin-backup',
     component: () => import('@/views/AdminBackupView.vue'),
     meta: { roles: ['admin'], title: 'Database backup' },
+  },
+
+  {
+    path: '/admin/learning-platforms',
+    name: 'admin-lti',
+    component: () => import('@/views/AdminLtiView.vue'),
+    meta: { roles: ['admin'], title: 'Learning platforms' },
   },
 
   // Links in e-mails, resolved per role

@@ -2,6 +2,7 @@
 // of leaving a blank screen. A timestamp in sessionStorage stops a reload loop.
 const KEY = 'slipway.chunkReloadAt'
 
+import { browserStorage } from '@/composables/browserStorage'
 export function isChunkLoadError(error: unknown): boolean {
   const message = error instanceof Error ? error.message : String(error)
   return /Failed to fetch dynamically imported module|error loading dynamically imported module|Importing a module script failed|Unable to preload CSS/i.test(
@@ -10,9 +11,9 @@ export function isChunkLoadError(error: unknown): boolean {
 }
 
 export function reloadForFreshChunks(targetPath: string, now = Date.now()): boolean {
-  const last = Number(sessionStorage.getItem(KEY) ?? 0)
+  const last = Number(browserStorage('sessionStorage').getItem(KEY) ?? 0)
   if (now - last < 10_000) return false
-  sessionStorage.setItem(KEY, String(now))
+  browserStorage('sessionStorage').setItem(KEY, String(now))
   window.location.assign(targetPath)
   return true
 }

@@ -1,7 +1,8 @@
 // The signed-in user and the access token (kept in memory only; the refresh token is an httpOnly cookie).
+import { browserStorage } from '@/composables/browserStorage'
 import { computed, ref } from 'vue'
 import { defineStore } from 'pinia'
-import type { ChangePasswordRequest, SessionResponse, SignInRequest, User } from '@shared/api'
+import type { ChangePasswordRequest, LaunchSession, SessionResponse, SignInRequest, User } from '@shared/api'
 import { connectAuth, request, requestVoid } from '@/api/client'
 import { endpoints } from '@/api/endpoints'
 import type { GuardSession } from '@/router/guard'
@@ -12,6 +13,10 @@ const authSchemas = () => import('@shared/api/auth')
 // A hint (not a secret) that this browser has had a session, so a first visit skips a refresh
 // call that can only fail; the refresh cookie itself is httpOnly and invisible to scripts.
 const HAD_SESSION_KEY = 'slipway.hadSession'
+// A session started by a learning platform's launch (often inside its frame) refreshes through its own
+// partitioned cookie and route; the mark lives in sessionStorage, so it belongs to this tab or frame only.
+const FRAMED_KEY = 'slipway.launchedSession'
+const ltiSchemas = () => import('@shared/api/lti')
 
 export const useSessionStore = defineStore('session', () => {
   const user = ref<User | null>(null)
@@ -21,6 +26,12 @@ export const useSessionStore = defineStore('session', () => {
   /** Set when a session ended on its own (expired or revoked), so the sign-in page can say so. */
   const endedUnexpectedly = ref(false)
 
+  /** True when this tab's session came from a learning platform's launch. */
+  // Inside a frame a session can only have come from a launch (Slipway is framed by platforms only), and the
+  // browser may refuse the frame any storage: then the partitioned refresh cookie is all there is.
+  const inFrame = window.self !== window.top
+  const launched = ref(inFrame || browserStorage('sessionStorage').getItem(FRAMED_KEY) === '1')
+
   const signedIn = computed(() => user.value !== null && accessToken.value !== null)
   const role = computed(() => user.value?.role ?? null)
 
@@ -28,21 +39,26 @@ export const useSessionStore = defineStore('session', () => {
     accessToken.value = session.accessToken
     user.value = session.user
     endedUnexpectedly.value = false
-    localStorage.setItem(HAD_SESSION_KEY, '1')
+    browserStorage('localStorage').setItem(HAD_SESSION_KEY, '1')
   }
 
   function clear() {
     accessToken.value = null
     user.value = null
-    localStorage.removeItem(HAD_SESSION_KEY)
+    browserStorage('localStorage').removeItem(HAD_SESSION_KEY)
+    browserStorage('sessionStorage').removeItem(FRAMED_KEY)
+    launched.value = inFrame
   }
 
   async function refresh(): Promise<boolean> {
     try {
       const { sessionResponseSchema } = await authSchemas()
-      adopt(
-        await request(endpoints.auth.refresh, sessionResponseSchema, { method: 'POST', refreshOn401: false }),
-      )
+      const path = launched.value ? endpoints.lti.refresh : endpoints.auth.refresh
+      const session = await request(path, sessionResponseSchema, { method: 'POST', refreshOn401: false })
+      if (launched.value) {
+        accessToken.value = session.accessToken
+        user.value = session.user
+      } else adopt(session)
       return true
     } catch {
       return false
@@ -53,7 +69,7 @@ export const useSessionStore = defineStore('session', () => {
   /** Resumes a session once per page load; later calls wait for the same attempt. */
   function restore(): Promise<void> {
     if (restored.value) return Promise.resolve()
-    if (!localStorage.getItem(HAD_SESSION_KEY)) {
+    if (!launched.value && !browserStorage('localStorage').getItem(HAD_SESSION_KEY)) {
       restored.value = true
       return Promise.resolve()
     }
@@ -76,9 +92,27 @@ export const useSessionStore = defineStore('session', () => {
     return user.value as User
   }
 
+  /** Swaps a launch's one-time code for a session; says where the launch leads. */
+  async function startLaunchedSession(code: string): Promise<LaunchSession> {
+    const { launchSessionSchema } = await ltiSchemas()
+    const launch = await request(endpoints.lti.session, launchSessionSchema, {
+      method: 'POST',
+      body: { code },
+      refreshOn401: false,
+    })
+    accessToken.value = launch.accessToken
+    user.value = launch.user
+    endedUnexpectedly.value = false
+    browserStorage('sessionStorage').setItem(FRAMED_KEY, '1')
+    launched.value = true
+    restored.value = true
+    return launch
+  }
+
   async function signOut() {
     try {
-      await requestVoid(endpoints.auth.signOut, { method: 'POST', refreshOn401: false })
+      const path = launched.value ? endpoints.lti.signOut : endpoints.auth.signOut
+      await requestVoid(path, { method: 'POST', refreshOn401: false })
     } finally {
       clear()
     }
@@ -131,6 +165,8 @@ export const useSessionStore = defineStore('session', () => {
     endedUnexpectedly,
     signedIn,
     role,
+    launched,
+    startLaunchedSession,
     restore,
     refresh,
     startSession: adopt,

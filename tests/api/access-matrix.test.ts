@@ -5,7 +5,7 @@ import { randomUUID } from 'node:crypto'
 import { readFileSync } from 'node:fs'
 import supertest from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { EnrollmentEntity } from '../../server/entities'
+import { EnrollmentEntity, OutcomeSignOffEntity } from '../../server/entities'
 import { createTestApi, type TestApi, type TestUser } from '../support/api-harness'
 import { buildWorld, EMPTY_LOG, type World } from '../support/world'
 
@@ -52,6 +52,7 @@ const ownCohortStaff = (ok: number): Expect => ({ ...staffOnly(ok), otherInstruc
 const adminOnly = (ok: number): Expect => ({ none: 401, apprentice: 403, instructor: 403, admin: ok })
 const future = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString()
 const FAKE_TOKEN = 'x'.repeat(43)
+const NO_SUCH_ID = '00000000-0000-4000-8000-000000000000'
 
 const ROUTES: Route[] = [
   { method: 'get', path: () => '/api/health', expect: everyone(200) },
@@ -260,6 +261,46 @@ const ROUTES: Route[] = [
     body: () => ({ score: 55, passed: false, reason: 'Matrix override' }),
     expect: ownCohortStaff(200),
   },
+  // records
+  {
+    method: 'get',
+    path: (w) => `/api/attempts/${w.attemptA1.id}/commissioning-record`,
+    expect: { none: 401, apprentice: 200, peer: 403, instructor: 200, otherInstructor: 403, admin: 200 },
+  },
+  {
+    method: 'get',
+    path: (w) => `/api/attempts/${w.attemptA1.id}/commissioning-record.pdf`,
+    expect: { none: 401, apprentice: 200, peer: 403, instructor: 200, otherInstructor: 403, admin: 200 },
+  },
+  {
+    method: 'get',
+    path: (w) => `/api/apprentices/${w.apprenticeA1.user.id}/training-record`,
+    expect: { none: 401, apprentice: 200, peer: 403, instructor: 200, otherInstructor: 403, admin: 200 },
+  },
+  {
+    method: 'get',
+    path: (w) => `/api/apprentices/${w.apprenticeA1.user.id}/training-record.pdf`,
+    expect: { none: 401, apprentice: 200, peer: 403, instructor: 200, otherInstructor: 403, admin: 200 },
+  },
+  {
+    method: 'post',
+    path: (w) => `/api/apprentices/${w.apprenticeA1.user.id}/sign-offs`,
+    body: (w) => ({
+      cohortId: w.cohortA.id,
+      scenarioKey: w.scenario.key,
+      outcome: shipped(w.scenario.key).learningOutcomes[0],
+      note: 'Matrix sign-off',
+    }),
+    expect: ownCohortStaff(201),
+    restore: async (_w, api) => {
+      await api.dataSource.getRepository(OutcomeSignOffEntity).clear()
+    },
+  },
+  {
+    method: 'get',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/training-records.zip`,
+    expect: ownCohortStaff(200),
+  },
   // admin
   { method: 'get', path: () => '/api/admin/users', expect: adminOnly(200) },
   {
@@ -283,6 +324,59 @@ const ROUTES: Route[] = [
   // An id that names no message: the role check comes first, then 404.
   { method: 'post', path: () => `/api/admin/outbox/${randomUUID()}/retry`, expect: adminOnly(404) },
   { method: 'get', path: () => '/api/admin/backup', expect: adminOnly(200) },
+  // learning platforms (LTI): the platform's browser flow needs no sign-in
+  { method: 'get', path: () => '/api/lti/jwks', expect: everyone(200) },
+  { method: 'get', path: () => '/api/lti/login', expect: everyone(400) },
+  { method: 'post', path: () => '/api/lti/login', body: () => ({}), expect: everyone(400) },
+  { method: 'post', path: () => '/api/lti/launch', body: () => ({}), expect: everyone(400) },
+  { method: 'get', path: () => `/api/lti/deep-linking/return/${FAKE_TOKEN}`, expect: everyone(404) },
+  {
+    method: 'post',
+    path: () => '/api/lti/session',
+    body: () => ({ code: FAKE_TOKEN }),
+    expect: everyone(400),
+  },
+  { method: 'post', path: () => '/api/lti/session/refresh', expect: everyone(401) },
+  { method: 'post', path: () => '/api/lti/session/sign-out', expect: everyone(204) },
+  // LTI: admins register platforms and keep Slipway's keys
+  { method: 'get', path: () => '/api/lti/tool', expect: adminOnly(200) },
+  { method: 'post', path: () => '/api/lti/tool/keys/rotate', expect: adminOnly(200) },
+  { method: 'get', path: () => '/api/lti/platforms', expect: adminOnly(200) },
+  { method: 'post', path: () => '/api/lti/platforms', body: () => ({}), expect: adminOnly(400) },
+  { method: 'get', path: () => `/api/lti/platforms/${NO_SUCH_ID}`, expect: adminOnly(404) },
+  {
+    method: 'patch',
+    path: () => `/api/lti/platforms/${NO_SUCH_ID}`,
+    body: () => ({ name: 'Renamed platform' }),
+    expect: adminOnly(404),
+  },
+  { method: 'delete', path: () => `/api/lti/platforms/${NO_SUCH_ID}`, expect: adminOnly(404) },
+  // LTI: instructors' course tools
+  { method: 'get', path: () => `/api/lti/deep-linking/${NO_SUCH_ID}`, expect: staffOnly(404) },
+  {
+    method: 'post',
+    path: () => `/api/lti/deep-linking/${NO_SUCH_ID}`,
+    body: (w) => ({
+      scenarioId: w.scenario.id,
+      opensAt: future(-1),
+      dueAt: future(5),
+      attemptLimit: null,
+      hintsAllowed: true,
+    }),
+    expect: staffOnly(404),
+  },
+  { method: 'get', path: (w) => `/api/lti/cohorts/${w.cohortA.id}`, expect: ownCohortStaff(200) },
+  {
+    method: 'post',
+    path: (w) => `/api/lti/cohorts/${w.cohortA.id}/roster-pull`,
+    expect: ownCohortStaff(409),
+  },
+  { method: 'get', path: (w) => `/api/lti/cohorts/${w.cohortA.id}/score-sync`, expect: ownCohortStaff(200) },
+  {
+    method: 'post',
+    path: (w) => `/api/lti/cohorts/${w.cohortA.id}/score-sync/retry`,
+    expect: ownCohortStaff(200),
+  },
 ]
 
 function expected(e: Expect, who: Who): number {
@@ -350,7 +444,7 @@ describe('access matrix: every route × every role', () => {
     const response = await request
     if (user && route.endsSessions) user.token = (await api.signIn(user.email, user.password)).token
     await route.restore?.(w, api)
-    expect(response.status, response.text.slice(0, 300)).toBe(status)
+    expect(response.status, (response.text ?? '').slice(0, 300)).toBe(status) // no text for a PDF or zip
     if (status >= 400) expect(response.body.error?.code, 'error body').toEqual(expect.any(String))
   })
 

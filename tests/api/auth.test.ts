@@ -290,6 +290,7 @@ describe('rate limits', () => {
         signIn: { windowMs: 60_000, limit: 3 },
         passwordReset: { windowMs: 60_000, limit: 2 },
         invitations: { windowMs: 60_000, limit: 2 },
+        ltiLaunch: { windowMs: 60_000, limit: 100 },
       },
     })
   })

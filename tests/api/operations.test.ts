@@ -57,7 +57,9 @@ describe('operations', () => {
 
     it('is not ready while a migration is pending', async () => {
       const [last] = await api.dataSource.query('SELECT * FROM "migrations" ORDER BY "id" DESC LIMIT 1')
-      await api.dataSource.query('DELETE FROM "migrations" WHERE "id" = ?', [last.id])
+      // The query builder writes each driver's placeholders (? on SQLite, $1 on PostgreSQL: test:pg runs this too).
+      const migrations = () => api.dataSource.createQueryBuilder()
+      await migrations().delete().from('migrations').where('id = :id', { id: last.id }).execute()
       try {
         const response = await api.http.get('/api/ready')
         expect(response.status).toBe(503)
@@ -65,11 +67,11 @@ describe('operations', () => {
         // Liveness is another matter: the process is up and the database answers.
         expect((await api.http.get('/api/health')).status).toBe(200)
       } finally {
-        await api.dataSource.query('INSERT INTO "migrations" ("id", "timestamp", "name") VALUES (?, ?, ?)', [
-          last.id,
-          last.timestamp,
-          last.name,
-        ])
+        await migrations()
+          .insert()
+          .into('migrations')
+          .values({ id: last.id, timestamp: last.timestamp, name: last.name })
+          .execute()
       }
     })
   })

@@ -106,7 +106,7 @@ describe('accessibility of every main screen', () => {
     expectOnlyKnown(found)
   })
 
-  it('apprentice: home, practice, attempts, a result, the simulator, profile', async () => {
+  it('apprentice: home, practice, attempts, a result and its printed record, the simulator, profile', async () => {
     const { page } = browser
     await signIn(page, app.url, demo('apprentice'))
     const found = [
@@ -117,6 +117,9 @@ describe('accessibility of every main screen', () => {
     await page.getByRole('link', { name: 'Details' }).first().click()
     await page.getByRole('heading', { name: 'Objectives' }).waitFor()
     found.push(...(await check('attempt-result')))
+    await page.getByRole('link', { name: 'Print view' }).click()
+    await page.getByRole('heading', { name: 'Commissioning record', level: 1 }).waitFor()
+    found.push(...(await check('commissioning-record-print')))
     await page.goto(`${app.url}/simulator/raise-lower-commissioning`)
     // The safety notice first (a dialog), then the panel around the canvas.
     await page.getByTestId('safety-understood').waitFor({ timeout: 30_000 })
@@ -156,7 +159,7 @@ describe('accessibility of every main screen', () => {
     expectOnlyKnown(found)
   })
 
-  it('admin: users and roles, the outbox, the backup', async () => {
+  it('admin: users and roles, the outbox, the backup, learning platforms', async () => {
     const { page } = browser
     await signOut(page)
     await signIn(page, app.url, demo('admin'))
@@ -164,6 +167,7 @@ describe('accessibility of every main screen', () => {
       ...(await visit('/admin/users', 'Users and roles', 'admin-users')),
       ...(await visit('/admin/outbox', 'Mail outbox', 'admin-outbox')),
       ...(await visit('/admin/backup', 'Database backup', 'admin-backup')),
+      ...(await visit('/admin/learning-platforms', 'Learning platforms', 'admin-lti')),
     ]
     expectOnlyKnown(found)
   })

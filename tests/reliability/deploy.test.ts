@@ -1,6 +1,7 @@
 // The deploy path the README gives, from a clean copy of the repository: build (with every dependency),
-// `npm ci --omit=dev`, `npm start` — then the server must serve the client, be ready, sign in and grade an
-// attempt with production dependencies only and no TypeScript loader.
+// `npm ci --omit=dev`, `npm run admin:create`, `npm start` — then the server must serve the client, be ready,
+// let the first admin sign in (and no demo account) and grade an attempt, with production dependencies only
+// and no TypeScript loader.
 import { execFileSync, spawnSync } from 'node:child_process'
 import {
   cpSync,
@@ -54,10 +55,18 @@ function run(command: string, args: string[], cwd: string, env: NodeJS.ProcessEn
   return (performance.now() - started) / 1000
 }
 
+/** The first admin, created with `npm run admin:create` in the deployed copy. */
+const ADMIN = {
+  email: 'head.of.training@deploy-check.example',
+  name: 'Deploy Check',
+  password: 'a-long-deploy-check-password',
+}
+
 describe('deploying the build with production dependencies only', () => {
   const copy = mkdtempSync(join(tmpdir(), 'slipway-deploy-'))
   const timings: Record<string, number> = {}
   let server: ServerProcess | undefined
+  let adminCreateOutput = ''
 
   beforeAll(async () => {
     let started = performance.now()
@@ -92,22 +101,38 @@ describe('deploying the build with production dependencies only', () => {
       }
     }
 
-    // 3. Start, as an operator would: `npm start` is `node scripts/start.mjs`; a minimal environment.
-    started = performance.now()
+    // A minimal environment, as an operator's would be.
     const port = await freePort()
+    const env = {
+      PATH: process.env.PATH ?? '/usr/bin:/bin',
+      HOME: process.env.HOME ?? '/tmp',
+      NODE_ENV: 'production',
+      PORT: String(port),
+      HOST: '127.0.0.1',
+      DATA_DIR: join(copy, 'data'),
+      PUBLIC_BASE_URL: `http://127.0.0.1:${port}`,
+      LOG_LEVEL: 'warn',
+    }
+
+    // 3. The first admin, through the npm command the README gives, the password on standard input.
+    started = performance.now()
+    const adminCreate = spawnSync(
+      'npm',
+      ['run', '--silent', 'admin:create', '--', '--email', ADMIN.email, '--name', ADMIN.name],
+      { cwd: copy, env, input: `${ADMIN.password}\n`, encoding: 'utf8' },
+    )
+    adminCreateOutput = `${adminCreate.stdout}${adminCreate.stderr}`
+    if (adminCreate.status !== 0) {
+      throw new Error(`npm run admin:create failed (${adminCreate.status}):\n${adminCreateOutput}`)
+    }
+    timings.adminCreate = (performance.now() - started) / 1000
+
+    // 4. Start, as an operator would: `npm start` is `node scripts/start.mjs`.
+    started = performance.now()
     server = await launch({
       script: join(copy, 'scripts/start.mjs'),
       cwd: copy,
-      env: {
-        PATH: process.env.PATH ?? '/usr/bin:/bin',
-        HOME: process.env.HOME ?? '/tmp',
-        NODE_ENV: 'production',
-        PORT: String(port),
-        HOST: '127.0.0.1',
-        DATA_DIR: join(copy, 'data'),
-        PUBLIC_BASE_URL: `http://127.0.0.1:${port}`,
-        LOG_LEVEL: 'warn',
-      },
+      env,
       port,
       healthPath: '/api/health',
       timeoutMs: 180_000,
@@ -127,13 +152,21 @@ describe('deploying the build with production dependencies only', () => {
 
   it('installed no development-only package and built the server to plain JavaScript', () => {
     for (const name of DEV_ONLY) expect(existsSync(join(copy, 'node_modules', name)), name).toBe(false)
-    const pkg = JSON.parse(readFileSync(join(copy, 'package.json'), 'utf8')) as { scripts: { start: string } }
+    const pkg = JSON.parse(readFileSync(join(copy, 'package.json'), 'utf8')) as {
+      scripts: Record<string, string>
+    }
     expect(pkg.scripts.start).toBe('node scripts/start.mjs')
-    for (const entry of ['start', 'index', 'grading-worker', 'sqlite-checkpointer']) {
+    // No npm command an operator runs goes through a TypeScript loader.
+    for (const command of ['start', 'admin:create', 'db:reset']) {
+      expect(pkg.scripts[command], command).toMatch(/^node scripts\/[\w-]+\.mjs\b/)
+    }
+    for (const entry of ['start', 'index', 'grading-worker', 'sqlite-checkpointer', 'admin-create', 'db-reset']) {
       expect(existsSync(join(copy, 'dist/server', `${entry}.js`)), entry).toBe(true)
     }
-    // The start script did not try to build: there are no build tools.
+    // Neither the start script nor admin:create tried to build: there are no build tools.
     expect(server!.output()).not.toMatch(/server built|Building the client/)
+    expect(adminCreateOutput).not.toMatch(/server built|no build to run/)
+    expect(adminCreateOutput).toContain(`Admin account created for ${ADMIN.name} <${ADMIN.email}>`)
   })
 
   it('serves the built client and is ready', async () => {
@@ -144,16 +177,27 @@ describe('deploying the build with production dependencies only', () => {
     expect(ready.status).toBe(200)
   })
 
-  it('signs in and grades an attempt in its grading threads', async () => {
-    // The demo centre is seeded into an empty database (README, Demo sign-ins).
-    const apprentice = DEMO_ACCOUNTS.find((a) => a.role === 'apprentice')!
-    const signIn = await fetch(`${server!.url}/api/auth/sign-in`, {
+  const signIn = (email: string, password: string) =>
+    fetch(`${server!.url}/api/auth/sign-in`, {
       method: 'POST',
       headers: { 'content-type': 'application/json' },
-      body: JSON.stringify({ email: apprentice.email, password: apprentice.password }),
+      body: JSON.stringify({ email, password }),
     })
-    expect(signIn.status).toBe(200)
-    const { accessToken } = (await signIn.json()) as { accessToken: string }
+
+  it('seeded no demo account: a production start never does (README, Demo sign-ins)', async () => {
+    for (const account of DEMO_ACCOUNTS.filter((a) => a.role === 'admin' || a.role === 'apprentice')) {
+      expect((await signIn(account.email, account.password)).status, account.email).toBe(401)
+    }
+  })
+
+  it('lets the admin from admin:create sign in, and grades an attempt in its grading threads', async () => {
+    const signedIn = await signIn(ADMIN.email, ADMIN.password)
+    expect(signedIn.status).toBe(200)
+    const { accessToken } = (await signedIn.json()) as { accessToken: string }
+    const me = (await (
+      await fetch(`${server!.url}/api/auth/me`, { headers: { authorization: `Bearer ${accessToken}` } })
+    ).json()) as { user: { role: string } }
+    expect(me.user.role).toBe('admin')
     const auth = { authorization: `Bearer ${accessToken}` }
     const scenarios = (await (await fetch(`${server!.url}/api/scenarios`, { headers: auth })).json()) as {
       items: { id: string; key: string }[]

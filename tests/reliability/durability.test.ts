@@ -75,11 +75,23 @@ describe('durability when the server is killed mid-way through submissions', () 
 
     let next = 0
     let killed: Promise<void> | undefined
+    let refusedBusy = 0
     const client = async () => {
       while (next < plan.length && !killed) {
         const attempt = plan[next++]!
         try {
-          const response = await post(server!.url, attempt)
+          let response = await post(server!.url, attempt)
+          // A full grading queue answers 503 with Retry-After and stores nothing: send the same attempt again
+          // after the wait, as the app's client does (useAttemptSubmission), until the kill.
+          while (response.status === 503 && !killed) {
+            refusedBusy++
+            await response.body?.cancel()
+            const seconds = Number(response.headers.get('retry-after') ?? 1)
+            await new Promise((resolve) => setTimeout(resolve, Math.min(seconds, 2) * 1000))
+            if (killed) break
+            response = await post(server!.url, attempt)
+          }
+          if (response.status === 503) continue
           const json = (await response.json()) as { grade: { score: number; passed: boolean } | null }
           if (response.status === 201 || response.status === 200) {
             acked.set(attempt.id, {
@@ -95,7 +107,13 @@ describe('durability when the server is killed mid-way through submissions', () 
       }
     }
     await Promise.all(Array.from({ length: CLIENTS }, client))
+    if (!killed) {
+      // Never reached the kill: stop this server rather than leave it running beside the restarted one.
+      await server.stop('SIGKILL')
+      throw new Error(`only ${acked.size} of ${TOTAL} acknowledged (${refusedBusy} refused busy): no kill`)
+    }
     await killed
+    console.log(`durability: ${refusedBusy} answers were 503 (grading queue full), each sent again`)
     server = await startSlipway(dataDir, { timeoutMs: 110_000 })
   })
 

@@ -11,7 +11,7 @@ import { pino, type Logger } from 'pino'
 import supertest from 'supertest'
 import type { DataSource } from 'typeorm'
 import type { Role } from '../../shared/api/auth'
-import { createApp } from '../../server/app'
+import { createApp, type AppDeps } from '../../server/app'
 import {
   DEFAULT_RATE_LIMITS,
   loadConfig,
@@ -51,6 +51,8 @@ export interface TestApiOptions {
   grading?: GradingPool
   /** Default: silent (TEST_LOG_LEVEL to see it). */
   log?: Logger
+  /** Learning-platform timings (key-set cache, grade retries). */
+  lti?: AppDeps['lti']
 }
 
 export interface TestUser {
@@ -122,6 +124,7 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     lifecycle,
     metrics,
     clientDir: options.clientDir,
+    lti: options.lti,
   })
   const http = supertest.agent(app)
 

@@ -4,10 +4,10 @@
 import { spawn, type ChildProcess } from 'node:child_process'
 import { createServer } from 'node:net'
 import { fileURLToPath } from 'node:url'
-import { builtServerFile, bundleFromSource, ensureServerBuild } from '../../scripts/build'
+import { builtServerFile, bundleFromSource, ensureServerBuild, SERVER_ENTRIES } from '../../scripts/build'
 
 export const ROOT = fileURLToPath(new URL('../..', import.meta.url))
-// The npm commands' scripts (db:reset, admin:create …) run from source through tsx, as `npm run` runs them.
+// An npm command's script that is not bundled (scenarios:check) runs from source through tsx, as `npm run` runs it.
 const TSX = ['--import', 'tsx']
 
 export interface ServerProcess {
@@ -159,16 +159,22 @@ export async function startBareExpress(): Promise<ServerProcess> {
 }
 
 /**
- * One of the npm commands' scripts (`server/scripts/…`) as an operator runs it: a minimal environment plus
- * `env`, `input` on standard input; resolves with the exit code and everything it printed.
+ * One of the npm commands' scripts (`server/scripts/…`) as an operator runs it: an operator command
+ * (admin-create, db-reset) from its bundle with plain node, as `npm run` runs it (scripts/operator.mjs), built
+ * first when stale; a minimal environment plus `env`, `input` on standard input. Resolves with the exit code
+ * and everything it printed.
  */
-export function runScript(
+export async function runScript(
   script: string,
   args: string[],
   { env = {}, input = '' }: { env?: Record<string, string>; input?: string } = {},
 ): Promise<{ code: number | null; out: string }> {
+  const name = script.replace(/^server\/scripts\/(.*)\.ts$/, '$1')
+  const bundled = name in SERVER_ENTRIES && name !== 'start'
+  if (bundled) await ensureServerBuild()
+  const command = bundled ? [builtServerFile(name as keyof typeof SERVER_ENTRIES)] : [...TSX, script]
   return new Promise((resolve) => {
-    const child = spawn(process.execPath, [...TSX, script, ...args], {
+    const child = spawn(process.execPath, [...command, ...args], {
       cwd: ROOT,
       env: {
         PATH: process.env.PATH ?? '/usr/bin:/bin',

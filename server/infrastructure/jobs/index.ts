@@ -4,5 +4,5 @@ export type { EnqueueOptions, EnqueuedJob, JobKind, JobKindSpec, RetryPolicy } f
 export { createJobWorker } from './worker'
 export type { HandlerOptions, JobCounts, JobHandler, JobWorker, JobWorkerOptions, RunningJob } from './worker'
 export type { Schedule } from './schedule'
-export { readJobQueueFigures, retryFailedJob, pruneDoneJobs } from './job-store'
+export { readJobQueueFigures, retryFailedJob, restartQueuedJob, pruneDoneJobs } from './job-store'
 export type { JobKindFigures } from './job-store'

@@ -144,6 +144,22 @@ export async function retryFailedJob(db: DataSource | EntityManager, id: string,
   return affected > 0
 }
 
+/**
+ * A queued job, due or waiting out a retry, made due now with a fresh set of attempts: what it is about has
+ * changed (a newer grade), so the wait for the old one is no longer worth keeping. False if it was claimed.
+ */
+export async function restartQueuedJob(manager: EntityManager, id: string, now: Date): Promise<boolean> {
+  const at = now.toISOString()
+  const { affected } = await run(
+    manager,
+    `UPDATE "jobs" SET "runAt" = ?, "attempts" = 0, "lastError" = NULL, "updatedAt" = ?
+     WHERE "id" = ? AND "status" = 'queued'`,
+    [at, at, id],
+  )
+  if (affected) noteEnqueued(manager)
+  return affected > 0
+}
+
 /** Deletes jobs that finished before `before` (failed ones stay until someone retries them). */
 export async function pruneDoneJobs(ds: DataSource, before: Date): Promise<number> {
   const { affected, records } = await run(

@@ -21,8 +21,12 @@ export const mailJob = defineJobKind({
   label: (mail) => mail.to,
 })
 
-export const queueMail = (manager: EntityManager, mail: OutgoingMail): Promise<EnqueuedJob> =>
-  mailJob.enqueue(manager, mail)
+/**
+ * Queues one message. The reserved .invalid top-level domain (RFC 2606) can never receive mail: accounts that
+ * came in from a learning platform without a shared address hold one, so nothing is queued for them.
+ */
+export const queueMail = async (manager: EntityManager, mail: OutgoingMail): Promise<EnqueuedJob | null> =>
+  /\.invalid$/i.test(mail.to) ? null : mailJob.enqueue(manager, mail)
 
 /** What a sent message keeps in the queue once a real relay has it: who and what, not the body. */
 export const withoutBody = (mail: OutgoingMail): OutgoingMail => ({ ...mail, text: '', html: '' })

@@ -10,6 +10,7 @@ import {
   mdiSineWave,
   mdiTableLarge,
   mdiAccountKeyOutline,
+  mdiSchoolOutline,
 } from '@mdi/js'
 import type { Role } from '@shared/api'
 
@@ -40,6 +41,7 @@ export function navFor(role: Role): NavItem[] {
     { title: 'Users and roles', to: '/admin/users', icon: mdiAccountKeyOutline },
     { title: 'Mail outbox', to: '/admin/outbox', icon: mdiEmailOutline },
     { title: 'Backup', to: '/admin/backup', icon: mdiDatabaseArrowDownOutline },
+    { title: 'Learning platforms', to: '/admin/learning-platforms', icon: mdiSchoolOutline },
     ...teaching,
     about,
   ]

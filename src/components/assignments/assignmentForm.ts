@@ -1,5 +1,5 @@
 // The assign-a-scenario form's values and their check against the shared request schema.
-import { createAssignmentRequestSchema, type CreateAssignmentRequest } from '@shared/api'
+import { createAssignmentRequestSchema, type CreateAssignmentRequest, type ScorePolicy } from '@shared/api'
 import { fromLocalInput, toLocalInput } from '@/composables/format'
 import { issuesByField } from '@/composables/validation'
 
@@ -11,6 +11,8 @@ export interface AssignmentFormValues {
   limitAttempts: boolean
   attemptLimit: number | string | null
   hintsAllowed: boolean
+  /** Which score a learning platform's gradebook receives. */
+  scorePolicy: ScorePolicy
 }
 
 export function defaultAssignmentForm(now = new Date()): AssignmentFormValues {
@@ -24,6 +26,7 @@ export function defaultAssignmentForm(now = new Date()): AssignmentFormValues {
     limitAttempts: true,
     attemptLimit: 3,
     hintsAllowed: true,
+    scorePolicy: 'best',
   }
 }
 
@@ -38,6 +41,7 @@ export function checkAssignmentForm(v: AssignmentFormValues): AssignmentFormResu
     dueAt: fromLocalInput(v.dueAt),
     attemptLimit: v.limitAttempts ? Number(v.attemptLimit) : null,
     hintsAllowed: v.hintsAllowed,
+    scorePolicy: v.scorePolicy,
   }
   const parsed = createAssignmentRequestSchema.safeParse(candidate)
   if (parsed.success) return { ok: true, body: parsed.data }

@@ -4,6 +4,7 @@
 // IndexedDB because its writes are synchronous: a tab closed right after an action still keeps it.
 import { z } from 'zod'
 import { attemptLogSchema, type AttemptEvent } from '@shared/model/events'
+import { browserStorage } from '@/composables/browserStorage'
 
 export const CHUNK_EVENTS = 200
 
@@ -44,7 +45,10 @@ export function attemptStorageKey(scenarioVersionId: string, assignmentId?: stri
 
 const chunkKey = (key: string, i: number) => `${key}.log.${i}`
 
-export function createAttemptStore(key: string, storage: Storage = window.localStorage): AttemptStore {
+export function createAttemptStore(
+  key: string,
+  storage: Storage = browserStorage('localStorage'),
+): AttemptStore {
   let header: Header | null = null
   let tail: AttemptEvent[] = []
 

@@ -69,6 +69,7 @@ describe('the data stores', () => {
       dueAt: '2026-12-08T17:00:00.000Z',
       attemptLimit: 3,
       hintsAllowed: true,
+      scorePolicy: 'best' as const,
       createdAt: '2026-12-01T09:00:00.000Z',
       myProgress: null,
     }
@@ -79,6 +80,7 @@ describe('the data stores', () => {
       dueAt: assignment.dueAt,
       attemptLimit: 3,
       hintsAllowed: true,
+      scorePolicy: 'best',
     })
     expect(calls[0]).toMatchObject({ url: `/api/cohorts/${ids.cohort}/assignments`, method: 'POST' })
     expect(created.title).toBe('Safe isolation')

@@ -28,13 +28,19 @@ export interface BrowserSession {
 }
 
 export async function launchBrowser(
-  options: { width?: number; height?: number; colorScheme?: 'light' | 'dark'; hasTouch?: boolean } = {},
+  options: {
+    width?: number
+    height?: number
+    colorScheme?: 'light' | 'dark'
+    hasTouch?: boolean
+    args?: string[]
+  } = {},
 ): Promise<BrowserSession> {
   const profile = mkdtempSync(join(tmpdir(), 'slipway-chromium-'))
   const context = await chromium.launchPersistentContext(profile, {
     executablePath: chromiumPath(),
     headless: true,
-    args: CHROMIUM_ARGS,
+    args: [...CHROMIUM_ARGS, ...(options.args ?? [])],
     viewport: { width: options.width ?? 1366, height: options.height ?? 900 },
     colorScheme: options.colorScheme ?? 'light',
     hasTouch: options.hasTouch ?? false,

@@ -1,0 +1,60 @@
+// Instructors' sign-offs of learning outcomes (entities/outcome-sign-off.ts). Table API: SQLite and PostgreSQL.
+import {
+  Table,
+  TableForeignKey,
+  TableIndex,
+  TableUnique,
+  type MigrationInterface,
+  type QueryRunner,
+} from 'typeorm'
+
+const fk = (column: string, table: string, onDelete: 'CASCADE' | 'RESTRICT') =>
+  new TableForeignKey({
+    columnNames: [column],
+    referencedTableName: table,
+    referencedColumnNames: ['id'],
+    onDelete,
+  })
+
+export class OutcomeSignOffs1765200000000 implements MigrationInterface {
+  name = 'OutcomeSignOffs1765200000000'
+
+  async up(q: QueryRunner): Promise<void> {
+    await q.createTable(
+      new Table({
+        name: 'outcome_sign_offs',
+        columns: [
+          { name: 'id', type: 'varchar', length: '36', isPrimary: true },
+          { name: 'apprenticeId', type: 'varchar', length: '36', isNullable: false },
+          { name: 'cohortId', type: 'varchar', length: '36', isNullable: false },
+          { name: 'scenarioKey', type: 'varchar', length: '80', isNullable: false },
+          { name: 'outcome', type: 'varchar', length: '500', isNullable: false },
+          { name: 'note', type: 'text', isNullable: false },
+          { name: 'signedById', type: 'varchar', length: '36', isNullable: false },
+          { name: 'signedAt', type: 'varchar', length: '32', isNullable: false },
+        ],
+        uniques: [
+          new TableUnique({
+            name: 'uq_outcome_sign_offs',
+            columnNames: ['apprenticeId', 'cohortId', 'scenarioKey', 'outcome'],
+          }),
+        ],
+        indices: [
+          new TableIndex({ name: 'idx_outcome_sign_offs_apprentice', columnNames: ['apprenticeId'] }),
+        ],
+        foreignKeys: [
+          fk('apprenticeId', 'users', 'CASCADE'),
+          fk('cohortId', 'cohorts', 'CASCADE'),
+          fk('signedById', 'users', 'RESTRICT'),
+        ],
+      }),
+      false,
+      true,
+      true,
+    )
+  }
+
+  async down(q: QueryRunner): Promise<void> {
+    await q.dropTable('outcome_sign_offs')
+  }
+}
