@@ -8,9 +8,11 @@ import { apprenticeRecord } from './apprentices.service'
 
 export function apprenticesRouter(ctx: AppContext): Router {
   const router = Router()
-  router.use(authenticate(ctx), requireRole('instructor', 'admin'))
+  // The role check sits on the route, not the router: other features (records) answer apprentices under
+  // /api/apprentices/:id/… too, and apprentices may read those.
+  const staff = [authenticate(ctx), requireRole('instructor', 'admin')]
 
-  router.get('/:id', validate({ params: idParamsSchema }), async (req, res) => {
+  router.get('/:id', ...staff, validate({ params: idParamsSchema }), async (req, res) => {
     res.json(await apprenticeRecord(ctx, currentUser(req), req.params.id))
   })
 

@@ -1,6 +1,13 @@
-// An attempt row → the API's AttemptSummary (and AttemptDetail with its log, feedback and grade history);
+// An attempt row → the API's AttemptSummary (and AttemptOverview with feedback and grade history, AttemptDetail
+// with its log as well);
 // feedback and grade audit rows → Feedback and GradeAuditEntry. Names come in; ids stay ids.
-import type { AttemptDetail, AttemptSummary, Feedback, GradeAuditEntry } from '@shared/api/attempts'
+import type {
+  AttemptDetail,
+  AttemptOverview,
+  AttemptSummary,
+  Feedback,
+  GradeAuditEntry,
+} from '@shared/api/attempts'
 import type { AttemptRow, AuditEntryRow, FeedbackRow } from '../entities'
 
 /** An attempt without its event log: everything a summary shows. */
@@ -8,7 +15,7 @@ export type AttemptSummaryRow = Omit<AttemptRow, 'events'>
 
 export const presentAttemptSummary = (
   row: AttemptSummaryRow,
-  related: { userName: string; scenario: { key: string; version: number } },
+  related: { userName: string; scenario: { key: string; version: number; title: string } },
 ): AttemptSummary => ({
   id: row.id,
   userId: row.userId,
@@ -17,6 +24,7 @@ export const presentAttemptSummary = (
   scenarioId: row.scenarioId,
   scenarioKey: related.scenario.key,
   scenarioVersion: related.scenario.version,
+  scenarioTitle: related.scenario.title,
   status: row.status,
   eventCount: row.eventCount,
   late: Boolean(row.late),
@@ -39,12 +47,16 @@ export const presentAttemptSummary = (
   reviewedAt: row.reviewedAt,
 })
 
-export const presentAttemptDetail = (
+export const presentAttemptOverview = (
   summary: AttemptSummary,
-  row: AttemptRow,
   feedback: Feedback[],
   audit: GradeAuditEntry[],
-): AttemptDetail => ({ ...summary, events: JSON.parse(row.events), feedback, audit })
+): AttemptOverview => ({ ...summary, feedback, audit })
+
+export const presentAttemptDetail = (overview: AttemptOverview, row: AttemptRow): AttemptDetail => ({
+  ...overview,
+  events: JSON.parse(row.events),
+})
 
 export const presentFeedback = (row: FeedbackRow, authorName: string): Feedback => ({
   id: row.id,

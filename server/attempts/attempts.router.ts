@@ -1,4 +1,5 @@
-// /api/attempts: submit or save progress, list and read (with replay log), feedback and grade overrides.
+// /api/attempts: submit or save progress, list and read (with replay log, or the overview without it),
+// feedback and grade overrides.
 import { Router } from 'express'
 import {
   attemptListQuerySchema,
@@ -11,7 +12,14 @@ import type { AppContext } from '../context'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { keepRawJsonBody } from '../middleware/raw-body'
 import { asMiddleware, validate } from '../middleware/validate'
-import { addFeedback, getAttemptDetail, listAttempts, markReviewed, overrideGrade } from './attempts.service'
+import {
+  addFeedback,
+  getAttemptDetail,
+  getAttemptOverview,
+  listAttempts,
+  markReviewed,
+  overrideGrade,
+} from './attempts.service'
 import { attemptNeighbours } from './neighbours'
 import { submitAttempt } from './submission.service'
 
@@ -33,6 +41,11 @@ export function attemptsRouter(ctx: AppContext): Router {
 
   router.get('/:id', validate({ params: idParamsSchema }), async (req, res) => {
     res.json(await getAttemptDetail(ctx, currentUser(req), req.params.id))
+  })
+
+  // The same without the event log (which can run to megabytes): for result and review pages.
+  router.get('/:id/overview', validate({ params: idParamsSchema }), async (req, res) => {
+    res.json(await getAttemptOverview(ctx, currentUser(req), req.params.id))
   })
 
   router.post(

@@ -5,6 +5,7 @@ import { In, type EntityManager, type FindOptionsWhere } from 'typeorm'
 import type { z } from 'zod'
 import type {
   AttemptDetail,
+  AttemptOverview,
   AttemptPage,
   AttemptSummary,
   Feedback,
@@ -34,6 +35,7 @@ import { queueScorePost } from '../lti/score-post-job'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
 import {
   presentAttemptDetail,
+  presentAttemptOverview,
   presentAttemptSummary,
   presentAuditEntry,
   presentFeedback,
@@ -66,7 +68,7 @@ export const ATTEMPT_SUMMARY_SELECT = {
   overrideReason: true,
 } satisfies Record<keyof AttemptSummaryRow, true>
 
-/** Summaries with their apprentices' names and scenario keys, read in two queries. */
+/** Summaries with their apprentices' names and scenario keys and titles, read in two queries. */
 async function presentAttempts(ctx: AppContext, rows: AttemptSummaryRow[]): Promise<AttemptSummary[]> {
   if (rows.length === 0) return []
   const ds = ctx.dataSource
@@ -76,7 +78,7 @@ async function presentAttempts(ctx: AppContext, rows: AttemptSummaryRow[]): Prom
   })
   const scenarios = await ds.getRepository(ScenarioEntity).find({
     where: { id: In([...new Set(rows.map((r) => r.scenarioId))]) },
-    select: { id: true, key: true, version: true },
+    select: { id: true, key: true, version: true, title: true },
   })
   return rows.map((row) =>
     presentAttemptSummary(row, {
@@ -118,6 +120,7 @@ export async function listAttempts(
   const ds = ctx.dataSource
   const where: FindOptionsWhere<AttemptRow> = {
     ...(q.status ? { status: q.status } : {}),
+    ...(q.scenarioId ? { scenarioId: q.scenarioId } : {}),
     ...(q.userId ? { userId: q.userId } : {}),
   }
   if (q.assignmentId) {
@@ -134,13 +137,18 @@ export async function listAttempts(
       : []
     where.assignmentId = In(assignments.map((a) => a.id))
   }
-  const [rows, total] = await ds.getRepository(AttemptEntity).findAndCount({
-    where,
-    select: ATTEMPT_SUMMARY_SELECT,
-    order: { updatedAt: 'DESC' },
-    skip: (q.page - 1) * q.pageSize,
-    take: q.pageSize,
-  })
+  // Counted apart: TypeORM 1.1's findAndCount with a `select` counts 0 once a page is full.
+  const repository = ds.getRepository(AttemptEntity)
+  const [rows, total] = await Promise.all([
+    repository.find({
+      where,
+      select: ATTEMPT_SUMMARY_SELECT,
+      order: { updatedAt: 'DESC' },
+      skip: (q.page - 1) * q.pageSize,
+      take: q.pageSize,
+    }),
+    repository.count({ where }),
+  ])
   return { items: await presentAttempts(ctx, rows), total, page: q.page, pageSize: q.pageSize }
 }
 
@@ -150,8 +158,22 @@ export async function getAttemptDetail(
   user: UserRow,
   attemptId: string,
 ): Promise<AttemptDetail> {
+  const attempt = await attemptFor(ctx.dataSource, user, attemptId, 'read')
+  return presentAttemptDetail(await overviewOf(ctx, attempt), attempt)
+}
+
+/** The same without the event log (which can run to megabytes): for result and review pages. */
+export async function getAttemptOverview(
+  ctx: AppContext,
+  user: UserRow,
+  attemptId: string,
+): Promise<AttemptOverview> {
+  const attempt = await attemptFor(ctx.dataSource, user, attemptId, 'read')
+  return overviewOf(ctx, attempt)
+}
+
+async function overviewOf(ctx: AppContext, attempt: AttemptRow): Promise<AttemptOverview> {
   const ds = ctx.dataSource
-  const attempt = await attemptFor(ds, user, attemptId, 'read')
   const summary = await presentOne(ctx, attempt)
   const feedback = await ds
     .getRepository(FeedbackEntity)
@@ -160,9 +182,8 @@ export async function getAttemptDetail(
     where: { entityType: 'attempt', entityId: attempt.id },
     order: { createdAt: 'ASC' },
   })
-  return presentAttemptDetail(
+  return presentAttemptOverview(
     summary,
-    attempt,
     await presentFeedbackRows(ctx, feedback),
     await presentAuditRows(ctx, audit),
   )

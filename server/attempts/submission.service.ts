@@ -1,7 +1,7 @@
 // Attempt submission: read the body in a grading thread, check the target and the rules, grade in a thread,
 // store once (idempotent by id).
 import { randomUUID } from 'node:crypto'
-import type { AttemptSummary } from '@shared/api/attempts'
+import { ATTEMPT_DIVERGED, type AttemptSummary } from '@shared/api/attempts'
 import { checkSubmission, personalTerms } from '@shared/progress'
 import { formatInZone } from '@shared/time/zone'
 import { isEnrolled } from '../access/access.service'
@@ -28,6 +28,7 @@ import { attemptReviewedMail } from '../infrastructure/mail/templates'
 import { queueScorePost } from '../lti/score-post-job'
 import { apprenticeFacts, assignmentTerms } from '../gradebook/standings'
 import { presentOne } from './attempts.service'
+import { storedLogOpens } from './log-prefix'
 
 interface Target {
   scenario: ScenarioRow
@@ -141,6 +142,13 @@ async function storeSubmission(
       : existing.assignmentId === null && existing.scenarioId === body.scenarioId
     if (!sameTarget)
       throw conflict('attempt_conflict', 'This attempt belongs to a different assignment or scenario')
+    // Saves only append: a log that drops what is stored was made from an older copy elsewhere.
+    if (!storedLogOpens(existing.events, eventsJson)) {
+      throw conflict(
+        ATTEMPT_DIVERGED,
+        `This attempt was continued on another computer: the server holds ${existing.eventCount} actions that this copy does not match. Load the newer copy to go on.`,
+      )
+    }
   }
   const { scenario, assignment } = await resolveTarget(ctx, user, body)
   const now = nowIso()
@@ -178,9 +186,10 @@ async function storeSubmission(
     await ds.transaction(async (manager) => {
       if (existing) {
         // Only a draft may change; if a racing request submitted it meanwhile, that one wins.
+        // …and only the draft that was checked above: a save that landed meanwhile wins this one.
         const changed = await manager
           .getRepository(AttemptEntity)
-          .update({ id: row.id, status: 'inProgress' }, row)
+          .update({ id: row.id, status: 'inProgress', updatedAt: existing.updatedAt }, row)
         if (!changed.affected) throw new LostRace()
       } else {
         await manager.getRepository(AttemptEntity).insert(row)
@@ -218,6 +227,16 @@ async function storeSubmission(
   } catch (error) {
     // Two identical submissions racing: the loser returns the winner's stored result.
     const winner = await attempts.findOneBy({ id: body.id })
+    if (
+      error instanceof LostRace &&
+      winner?.status === 'inProgress' &&
+      !storedLogOpens(winner.events, eventsJson)
+    ) {
+      throw conflict(
+        ATTEMPT_DIVERGED,
+        'This attempt was saved from another computer at the same moment. Load the newer copy to go on.',
+      )
+    }
     if (winner?.userId === user.id && (error instanceof LostRace || !existing))
       return { created: false, attempt: winner }
     throw error

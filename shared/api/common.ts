@@ -63,6 +63,7 @@ export const errorCodes = [
   'reset_token_invalid',
   'attempt_conflict',
   'attempt_limit_reached',
+  'attempt_diverged',
   'assignment_not_open',
   'assignment_closed',
   'cohort_archived',

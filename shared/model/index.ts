@@ -20,7 +20,6 @@ export {
   VOLTAGE_PRESENT_VOLTS,
 } from './meter'
 export { replay, sampleTimeline } from './replay'
-export { simulationMachine } from './simulationMachine'
 export { driveMachine } from './driveMachine'
 export { synchronousRpm, shaftRpm, frequencyForRpm, slipFraction } from './motor'
 export {

@@ -53,6 +53,7 @@ export const endpoints = {
     list: '/attempts',
     submit: '/attempts',
     one: (id: string) => `/attempts/${enc(id)}`,
+    overview: (id: string) => `/attempts/${enc(id)}/overview`,
     feedback: (id: string) => `/attempts/${enc(id)}/feedback`,
     override: (id: string) => `/attempts/${enc(id)}/grade-override`,
     review: (id: string) => `/attempts/${enc(id)}/review`,

@@ -13,6 +13,8 @@ declare module 'vue-router' {
     roles?: Role[]
     /** Title shown in the browser tab. */
     title?: string
+    /** A full-width workspace (the simulator): the navigation drawer opens over it instead of beside it. */
+    workspace?: boolean
   }
 }
 

@@ -95,13 +95,13 @@ export const routes: RouteRecordRaw[] = [
     path: '/simulator/:key/:version(\\d+)?',
     name: 'simulator',
     component: () => import('@/views/SimulatorView.vue'),
-    meta: { title: 'Simulator' },
+    meta: { title: 'Simulator', workspace: true },
   },
   {
     path: '/replay/:attemptId',
     name: 'replay',
     component: () => import('@/views/SimulatorView.vue'),
-    meta: { title: 'Replay' },
+    meta: { title: 'Replay', workspace: true },
   },
 
   // Instructor (admins may open these too)

@@ -2,6 +2,7 @@
 import { defineStore } from 'pinia'
 import {
   attemptDetailSchema,
+  attemptOverviewSchema,
   attemptPageSchema,
   attemptSummarySchema,
   feedbackSchema,
@@ -21,8 +22,14 @@ export const useAttemptsStore = defineStore('attempts', () => {
     })
   }
 
+  /** One attempt with its event log (replay, resuming). */
   async function get(id: string) {
     return request(endpoints.attempts.one(id), attemptDetailSchema)
+  }
+
+  /** One attempt without its event log (result and review pages). */
+  async function overview(id: string) {
+    return request(endpoints.attempts.overview(id), attemptOverviewSchema)
   }
 
   async function submit(body: SubmitAttemptRequest) {
@@ -47,5 +54,5 @@ export const useAttemptsStore = defineStore('attempts', () => {
     })
   }
 
-  return { page, get, submit, addFeedback, overrideGrade, markReviewed }
+  return { page, get, overview, submit, addFeedback, overrideGrade, markReviewed }
 })

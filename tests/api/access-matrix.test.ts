@@ -276,6 +276,11 @@ const ROUTES: Route[] = [
     expect: { none: 401, apprentice: 200, peer: 403, instructor: 200, otherInstructor: 403, admin: 200 },
   },
   {
+    method: 'get',
+    path: (w) => `/api/attempts/${w.attemptA1.id}/overview`,
+    expect: { none: 401, apprentice: 200, peer: 403, instructor: 200, otherInstructor: 403, admin: 200 },
+  },
+  {
     method: 'post',
     path: (w) => `/api/attempts/${w.attemptA1.id}/feedback`,
     body: () => ({ body: 'Matrix feedback' }),

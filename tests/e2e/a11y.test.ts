@@ -125,6 +125,10 @@ describe('accessibility of every main screen', () => {
     await page.getByTestId('safety-understood').waitFor({ timeout: 30_000 })
     found.push(...(await check('simulator-safety-notice')))
     await page.getByTestId('safety-understood').click()
+    // Then the workspace's first-run tour (a dialog), then the panel around the canvas.
+    await page.getByTestId('first-run-tour').waitFor({ timeout: 30_000 })
+    found.push(...(await check('simulator-tour')))
+    await page.getByTestId('tour-skip').click()
     await page.locator('[data-testid="simulator-slot"]').waitFor()
     found.push(...(await check('simulator')))
     found.push(...(await visit('/profile', 'Profile', 'profile')))

@@ -70,6 +70,11 @@ describe('every main screen', () => {
     ).resolves.toBe(true)
     await screenshot(page, 'client-simulator-safety')
     await page.getByTestId('safety-understood').click()
+    await page.getByTestId('safety-understood').waitFor({ state: 'hidden' })
+    // Then a short tour of the workspace, once.
+    await page.getByTestId('first-run-tour').waitFor()
+    await screenshot(page, 'client-simulator-tour')
+    await page.getByTestId('tour-skip').click()
     await notice.waitFor({ state: 'hidden' })
     await settled(page)
     await screenshot(page, 'client-simulator')
@@ -78,6 +83,7 @@ describe('every main screen', () => {
     await page.locator('[data-testid="simulator-slot"]').waitFor()
     await page.waitForTimeout(500)
     expect(await page.getByTestId('safety-understood').count()).toBe(0)
+    expect(await page.getByTestId('first-run-tour').count()).toBe(0)
   })
 
   it('instructor: cohorts, assigning a scenario, the scenario library, a scenario, the editor', async () => {

@@ -226,8 +226,17 @@ describe('Slipway launched from a learning platform', () => {
       await inFrame
         .getByText(`Resumed the attempt saved in this browser (${events.length} actions)`)
         .waitFor({ timeout: 30_000 })
-      await inFrame.getByRole('tab', { name: 'Task' }).click()
+      // The workspace: its first-run tour is skipped, the task sheet may be folded away, and submitting
+      // asks for confirmation first.
+      await inFrame
+        .getByTestId('tour-skip')
+        .click({ timeout: 5_000 })
+        .catch(() => undefined)
+      const sheet = inFrame.getByTestId('toggle-sheet')
+      if ((await sheet.getAttribute('aria-expanded')) !== 'true') await sheet.click()
+      await inFrame.getByRole('tab', { name: 'Task', exact: true }).click()
       await inFrame.getByTestId('submit-attempt').click()
+      await inFrame.getByTestId('confirm-submit-button').click()
       const grade = inFrame.getByTestId('attempt-grade')
       await grade.waitFor({ timeout: 30_000 })
       const shown = Number(/Graded: ([\d.]+) \/ 100/.exec((await grade.textContent()) ?? '')![1])

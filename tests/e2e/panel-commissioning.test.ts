@@ -1,5 +1,6 @@
-// The raise/lower commissioning scenario done by mouse on the canvas: prove dead, wire from scratch,
-// program with the keypad, start, raise to 1200 rpm, hold, lower, stop, submit, see the server's grade.
+// The raise/lower commissioning scenario done by mouse on the canvas: prove dead, wire from scratch by
+// tap-tap (click a terminal, then the other), program with the keypad, start, raise to 1200 rpm, hold,
+// lower, stop, submit (confirming), see the server's grade and follow its link to the result page.
 import { describe, expect, it } from 'vitest'
 import { screenshot } from './support'
 import { openPanel, panelTestBed, submitForGrade } from './panel-fixtures'
@@ -23,14 +24,16 @@ describe('commissioning raise/lower on the panel by mouse', () => {
     await panel.probe('red', null)
     await panel.probe('black', null)
 
-    // Sink logic from the drive's own supply: +24 feeds the contacts, DIC to 0V.
-    await panel.wire('drive.p24', 'runSwitch.a')
-    await panel.wire('runSwitch.a', 'raiseButton.a')
-    await panel.wire('raiseButton.a', 'lowerButton.a')
-    await panel.wire('runSwitch.b', 'drive.di1')
-    await panel.wire('raiseButton.b', 'drive.di2')
-    await panel.wire('lowerButton.b', 'drive.di3')
-    await panel.wire('drive.dcom', 'drive.0v')
+    // Sink logic from the drive's own supply: +24 feeds the contacts, DIC to 0V. Wired tap by tap.
+    await panel.wire('drive.p24', 'runSwitch.a', 'taps')
+    await panel.wire('runSwitch.a', 'raiseButton.a', 'taps')
+    await panel.wire('raiseButton.a', 'lowerButton.a', 'taps')
+    await panel.wire('runSwitch.b', 'drive.di1', 'taps')
+    await panel.wire('raiseButton.b', 'drive.di2', 'taps')
+    await panel.wire('lowerButton.b', 'drive.di3', 'taps')
+    await panel.wire('drive.dcom', 'drive.0v', 'taps')
+    expect(await panel.state.wires()).toHaveLength(7)
+    await panel.openSheet('Wiring')
     await expect(page.getByRole('list', { name: 'Wires' }).getByRole('listitem').count()).resolves.toBe(7)
     await step(page, 'panel-commission-03-wired')
 
@@ -104,6 +107,10 @@ describe('commissioning raise/lower on the panel by mouse', () => {
     const grade = await submitForGrade(page, 'panel-commission-07-graded')
     expect(grade).toMatch(/passed/)
     expect(grade).not.toMatch(/not passed/)
+    // The grade links to its result page.
+    await page.getByTestId('result-link').click()
+    await page.waitForURL((u) => u.pathname.startsWith('/learn/attempts/'))
+    await page.getByRole('heading', { name: 'Objectives' }).waitFor()
     expect(pageErrors).toEqual([])
   }, 300_000)
 })

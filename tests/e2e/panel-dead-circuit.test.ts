@@ -9,7 +9,7 @@ describe('a dead control circuit', () => {
 
   it('is repaired under lockout (fuse and broken wire) and the fan runs and passes', async () => {
     const { page, panel } = await openPanel(bed, 'dead-control-circuit')
-    await page.getByRole('tab', { name: 'Live values' }).click()
+    await panel.openSheet('Values')
 
     // The +24 V supply reads nothing against 0V: the fuse.
     await panel.probe('red', 'drive.p24')
@@ -21,9 +21,11 @@ describe('a dead control circuit', () => {
     await panel.proveDead()
     await page.getByRole('button', { name: 'Replace control fuse' }).click()
     // Replace the run wire: remove it from the list, draw a new one on the canvas.
+    await panel.openSheet('Wiring')
     await page.getByRole('button', { name: /^Remove wire W\S* BU from Fan run \/ stop 14 to DI1/ }).click()
+    await panel.openSheet('Values')
     await panel.wire('runSwitch.b', 'drive.di1')
-    await expect(page.getByRole('list', { name: 'Wires' }).getByRole('listitem').count()).resolves.toBe(3)
+    expect(await panel.state.wires()).toHaveLength(3)
     await screenshot(page, 'panel-dead-02-repaired')
 
     await panel.probe('red', null)

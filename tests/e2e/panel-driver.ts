@@ -7,11 +7,18 @@
 // the gesture only when the page has settled and still shows exactly what it showed before, and
 // otherwise fails at once, saying what it expected and what the panel shows.
 import type { Page } from 'playwright-core'
-import { layoutPanel, SCENE_WIDTH, SCENE_HEIGHT } from '../../src/panel/layout'
-import { probeTip } from '../../src/panel/hitTest'
-import { pointOnCubic, wireCurve } from '../../src/panel/wireCurve'
-import type { KeypadKey, PanelDevice, PanelLayout, PointId, ProbeColour, Vec } from '../../src/panel/types'
-import { keypadWords, PanelObserver, probeWords, wireCountWords } from './panel-observe'
+import { layoutPanel } from '../../src/simulator/scene/layout'
+import { probeTip } from '../../src/simulator/scene/hitTest'
+import { pointOnCubic, wireCurve } from '../../src/simulator/scene/wireCurve'
+import type {
+  KeypadKey,
+  PanelDevice,
+  PanelLayout,
+  PointId,
+  ProbeColour,
+  Vec,
+} from '../../src/simulator/scene/types'
+import { keypadWords, PanelObserver, probeWords, wireCountWords, type StartWire } from './panel-observe'
 
 /** How long a gesture's effect may take to show before the gesture counts as lost. */
 const EFFECT_WAIT_MS = 3_000
@@ -38,9 +45,10 @@ export class PanelDriver {
   constructor(
     readonly page: Page,
     devices: PanelDevice[],
+    startWires: readonly StartWire[] = [],
   ) {
     this.layout = layoutPanel(devices)
-    this.state = new PanelObserver(page, this.layout)
+    this.state = new PanelObserver(page, this.layout, startWires)
   }
 
   /** Waits until the canvas is drawn and describes the panel (Pixi has started). */
@@ -191,17 +199,29 @@ export class PanelDriver {
     )
   }
 
-  /** Draws a wire on the canvas from one terminal to another. */
-  async wire(from: PointId, to: PointId) {
+  /**
+   * Draws a wire on the canvas from one terminal to another: by dragging, or by tapping one terminal and
+   * then the other ('taps'; with a mouse, or with a finger when the page has a touch screen).
+   */
+  async wire(from: PointId, to: PointId, how: 'drag' | 'taps' | 'touch' = 'drag') {
     const words = this.state.wireWords(from, to)
     const before = await this.state.wiresWith(from, to)
     await this.until(
       {
-        action: `wiring ${words}`,
+        action: `wiring ${words} (${how})`,
         expected: wireCountWords({ total: before.total + 1, same: before.same + 1 }, words),
         observe: async () => wireCountWords(await this.state.wiresWith(from, to), words),
       },
-      () => this.drag(this.terminal(from), this.terminal(to)),
+      async () => {
+        if (how === 'drag') return this.drag(this.terminal(from), this.terminal(to))
+        // A repeat after a lost second tap would find the wire still armed: let it go first.
+        await this.page.keyboard.press('Escape')
+        for (const end of [from, to]) {
+          const p = await this.pagePoint(this.terminal(end))
+          if (how === 'touch') await this.page.touchscreen.tap(p.x, p.y)
+          else await this.page.mouse.click(p.x, p.y)
+        }
+      },
     )
   }
 
@@ -210,17 +230,10 @@ export class PanelDriver {
     const words = this.state.wireWords(from, to)
     const lane = (await this.state.wires()).indexOf(words)
     if (lane < 0) throw new Error(`selecting the wire ${words}: there is no such wire`)
-    const selected = async () => {
-      const item = this.page
-        .getByRole('list', { name: 'Wires' })
-        .locator('.v-list-item--active .v-list-item-title')
-      const title = (await item.count()) ? await item.first().textContent() : null
-      return title ? `selected: ${title.slice(title.indexOf(':') + 1).trim()}` : 'no wire selected'
-    }
     await this.clickUntil(pointOnCubic(wireCurve(this.terminal(from), this.terminal(to), lane), 0.6), {
       action: `selecting the wire ${words}`,
-      expected: `selected: ${words}`,
-      observe: selected,
+      expected: `selected: ${await this.state.wireMarker(lane)}`,
+      observe: () => this.state.selectedWire(),
     })
   }
 
@@ -263,7 +276,7 @@ export class PanelDriver {
   async isolateAndDischarge() {
     await this.switchDisconnect('off')
     await this.applyLock()
-    await this.page.getByRole('tab', { name: 'Live values' }).click()
+    await this.openSheet('Values')
     await this.setTimeSpeed(60)
     const bus = async () =>
       Number(/(\d+) V/.exec((await this.page.getByTestId('live-bus').textContent()) ?? '')?.[1])
@@ -276,9 +289,25 @@ export class PanelDriver {
     await this.setTimeSpeed(1)
   }
 
-  /** Chooses how fast simulated time runs (a button beside the canvas). */
+  /** Opens the task sheet (if it is hidden) at one of its tabs. */
+  async openSheet(tab: 'Task' | 'Wiring' | 'Settings' | 'Values' | 'Timeline') {
+    const toggle = this.page.getByTestId('toggle-sheet')
+    if ((await toggle.getAttribute('aria-expanded')) !== 'true') await toggle.click()
+    await this.page.getByRole('tab', { name: tab, exact: true }).click()
+  }
+
+  /** Hides the task sheet, where it lies over the panel. */
+  async closeSheet() {
+    const toggle = this.page.getByTestId('toggle-sheet')
+    if ((await toggle.getAttribute('aria-expanded')) === 'true') await toggle.click()
+  }
+
+  /** Chooses how fast simulated time runs (a button in the workspace's bar). */
   async setTimeSpeed(times: 1 | 10 | 60) {
-    const button = (n: number) => this.page.getByRole('button', { name: `Time runs ${n} times faster` })
+    const button = (n: number) =>
+      this.page.getByRole('button', {
+        name: n === 1 ? '1× (simulated time at real speed)' : `${n}× (simulated time ${n} times faster)`,
+      })
     await this.until(
       {
         action: `setting simulated time to ${times}×`,
@@ -338,17 +367,19 @@ export class PanelDriver {
     const deadline = Date.now() + CLEAR_WAIT_MS
     for (;;) {
       const spot = await canvas.evaluate(
-        (el, { p, scene }) => {
+        (el, { p }) => {
           // Centred, so no part of the scene sits under the app's sticky top bar.
           el.scrollIntoView({ block: 'center' })
           const r = el.getBoundingClientRect()
-          const x = r.left + (p.x / scene.w) * r.width
-          const y = r.top + (p.y / scene.h) * r.height
+          // The panel's view (fit, zoom, pan), as the canvas states it.
+          const scale = Number(el.getAttribute('data-scale'))
+          const x = r.left + Number(el.getAttribute('data-x')) + p.x * scale
+          const y = r.top + Number(el.getAttribute('data-y')) + p.y * scale
           const top = document.elementFromPoint(x, y)
           const cover = top === el ? null : top ? `${top.tagName.toLowerCase()}.${top.className}` : 'nothing'
           return { x, y, cover }
         },
-        { p, scene: { w: SCENE_WIDTH, h: SCENE_HEIGHT } },
+        { p },
       )
       if (!spot.cover) return spot
       if (Date.now() > deadline) {

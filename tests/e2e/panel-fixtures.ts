@@ -3,13 +3,14 @@
 // an apprentice's correct attempt records).
 import { readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
-import { afterAll, beforeAll } from 'vitest'
+import { afterAll, beforeAll, expect } from 'vitest'
 import type { Page } from 'playwright-core'
 import type { AttemptEvent } from '../../shared/model/events'
-import type { PanelDevice } from '../../src/panel/types'
+import type { PanelDevice } from '../../src/simulator/scene/types'
 import { DEMO_ACCOUNTS } from '../../server/demo/demo-accounts'
 import { launchBrowser, screenshot, startApp, type BrowserSession, type RunningApp } from './support'
 import { PanelDriver } from './panel-driver'
+import type { StartWire } from './panel-observe'
 
 export const APPRENTICE = DEMO_ACCOUNTS.find((a) => a.role === 'apprentice')!
 
@@ -22,7 +23,7 @@ export interface PanelTestBed {
  * Starts the app and a browser before the file's tests and stops both after them. Call it inside the
  * `describe`; the fields are filled once `beforeAll` has run.
  */
-export function panelTestBed(viewport: { width: number; height: number }): PanelTestBed {
+export function panelTestBed(viewport: { width: number; height: number; hasTouch?: boolean }): PanelTestBed {
   const bed = {} as PanelTestBed
   beforeAll(async () => {
     bed.app = await startApp()
@@ -36,7 +37,9 @@ export function panelTestBed(viewport: { width: number; height: number }): Panel
 }
 
 /** A scenario document from scenarios/, as the server seeds it. */
-export function scenarioFile(key: string): { start: { devices: PanelDevice[] } } & Record<string, unknown> {
+export function scenarioFile(
+  key: string,
+): { start: { devices: PanelDevice[]; wires?: StartWire[] } } & Record<string, unknown> {
   return JSON.parse(readFileSync(resolve(`scenarios/${key}.json`), 'utf8'))
 }
 
@@ -68,12 +71,15 @@ export async function openSignedIn(
   page.on('pageerror', (e) => pageErrors.push(e.message))
   await page.goto(`${url}/simulator/${scenarioKey}${query}`)
   await dismissSafetyNotice(page)
-  const panel = new PanelDriver(page, scenarioFile(scenarioKey).start.devices)
+  const { start } = scenarioFile(scenarioKey)
+  const panel = new PanelDriver(page, start.devices, start.wires)
   try {
     await panel.ready()
   } catch (e) {
     throw new Error(`${(e as Error).message}\npage errors: ${pageErrors.join('\n') || 'none'}`)
   }
+  // The tour opens with the panel, on the first run in this browser.
+  await skipTour(page)
   return { page, panel, pageErrors }
 }
 
@@ -107,11 +113,17 @@ export async function scenarioVersionId(url: string, token: string, key: string)
   return ((await res.json()) as { id: string }).id
 }
 
-/** Acknowledges the first-run safety notice if it is shown, and waits until it has gone. */
-/** Submits the attempt from the Task tab, waits for the server's grade, screenshots it and returns its text. */
+/**
+ * Submits the attempt from the Task tab (opening the task sheet if it is hidden), confirms, waits for the
+ * server's grade, screenshots it and returns its text.
+ */
 export async function submitForGrade(page: Page, shot: string): Promise<string> {
-  await page.getByRole('tab', { name: 'Task' }).click()
+  const toggle = page.getByTestId('toggle-sheet')
+  if ((await toggle.getAttribute('aria-expanded')) !== 'true') await toggle.click()
+  await page.getByRole('tab', { name: 'Task', exact: true }).click()
   await page.getByTestId('submit-attempt').click()
+  await expect(page.getByTestId('attempts-remaining').textContent()).resolves.toMatch(/attempt/)
+  await page.getByTestId('confirm-submit-button').click()
   const grade = page.getByTestId('attempt-grade')
   await grade.waitFor({ timeout: 30_000 })
   await grade.scrollIntoViewIfNeeded()
@@ -119,6 +131,17 @@ export async function submitForGrade(page: Page, shot: string): Promise<string> 
   return (await grade.textContent()) ?? ''
 }
 
+/** Skips the workspace's first-run tour if it is shown, and waits until it has gone. */
+export async function skipTour(page: Page) {
+  const skip = page.getByTestId('tour-skip')
+  const shown = await skip
+    .click({ timeout: 5_000 })
+    .then(() => true)
+    .catch(() => false)
+  if (shown) await skip.waitFor({ state: 'hidden', timeout: 15_000 })
+}
+
+/** Acknowledges the first-run safety notice if it is shown, and waits until it has gone. */
 export async function dismissSafetyNotice(page: Page) {
   const understood = page.getByTestId('safety-understood')
   const shown = await understood

@@ -43,16 +43,15 @@ describe('the panel while the motor runs', () => {
       [`slipway.attempt.practice.${versionId}`, events] as const,
     )
     const { panel } = await openSignedIn(page, url, 'raise-lower-commissioning', '?perf')
-    await page
-      .getByText(`Resumed the attempt saved in this browser (${events.length} actions)`)
-      .waitFor({ timeout: 30_000 })
     await page.waitForFunction(
       () => Array.isArray((globalThis as unknown as FramePage).__slipwayFrameTimes),
       null,
       { timeout: 30_000 },
     )
     await page.getByTestId('panel-canvas').scrollIntoViewIfNeeded()
+    // The saved attempt came back: its seven wires, and the motor running as it was.
     await expect.poll(() => panel.summary(), { timeout: 20_000 }).toMatch(/running, 1\d{3} rpm, 7 wires/)
+    expect(await panel.state.savedEvents()).toHaveLength(events.length)
 
     await page.evaluate(() => ((globalThis as unknown as FramePage).__slipwayFrameTimes = []))
     await page.waitForFunction(

@@ -17,7 +17,7 @@ describe('inputs that never turn on', () => {
     await panel.waitFor((s) => s.includes('drive ready'))
 
     // The side panel writes the same events as the keypad.
-    await page.getByRole('tab', { name: 'Settings' }).click()
+    await panel.openSheet('Settings')
     await page.getByTestId('setting-inputs.logic').click()
     await page.getByRole('option', { name: /^Sink/ }).click()
     await page.getByTestId('settings-save').click()

@@ -2,7 +2,7 @@
 // keypad and disconnect as buttons, FASTER/SLOWER held with their letter keys, submit with Enter.
 import { describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
-import type { KeypadKey } from '../../src/panel/types'
+import type { KeypadKey } from '../../src/simulator/scene/types'
 import { screenshot } from './support'
 import { openPanel, panelTestBed } from './panel-fixtures'
 import type { PanelDriver } from './panel-driver'
@@ -80,7 +80,7 @@ describe('commissioning raise/lower with the keyboard only', () => {
       await choose(page, 'Red probe (V+)', red)
       await choose(page, 'Black probe (COM)', black)
     }
-    await page.getByRole('tab', { name: 'Live values' }).focus()
+    await page.getByRole('tab', { name: 'Values', exact: true }).focus()
     await page.keyboard.press('Enter')
     await expect.poll(async () => page.getByTestId('live-meter').textContent()).toMatch(/^\s*0\.00 V/)
     await screenshot(page, 'panel-keyboard-01-proved-dead')
@@ -95,6 +95,8 @@ describe('commissioning raise/lower with the keyboard only', () => {
       ['Slower terminal 14', 'digital input 3'],
       ['digital-input common', '0 V control supply'],
     ]
+    await page.getByRole('tab', { name: 'Wiring', exact: true }).focus()
+    await page.keyboard.press('Enter')
     for (const [from, to] of wires) {
       await press(page, 'Add a wire…')
       await choose(page, 'From terminal', from)
@@ -159,9 +161,9 @@ describe('commissioning raise/lower with the keyboard only', () => {
     }
     expect(Math.abs((await rpm(page)) - 1200)).toBeLessThanOrEqual(20)
     await screenshot(page, 'panel-keyboard-04-at-target')
-    await press(page, 'Time runs 10 times faster')
+    await press(page, '10× (simulated time 10 times faster)')
     await page.waitForTimeout(2500)
-    await press(page, 'Time runs 1 times faster')
+    await press(page, '1× (simulated time at real speed)')
 
     await leaveFields(page)
     await page.keyboard.down('s')
@@ -170,9 +172,12 @@ describe('commissioning raise/lower with the keyboard only', () => {
     await panel.until(panel.selectorEffect('runSwitch', 0), () => page.keyboard.press('i'))
     await waitForLabel(page, / 0 rpm/)
 
-    await page.getByRole('tab', { name: 'Task' }).focus()
+    await page.getByRole('tab', { name: 'Task', exact: true }).focus()
     await page.keyboard.press('Enter')
     await page.getByTestId('submit-attempt').focus()
+    await page.keyboard.press('Enter')
+    // The confirmation says what submitting does; Enter on its button submits.
+    await page.getByTestId('confirm-submit-button').focus()
     await page.keyboard.press('Enter')
     const grade = page.getByTestId('attempt-grade')
     await grade.waitFor({ timeout: 30_000 })

@@ -1,9 +1,10 @@
 // What the panel shows besides its pixels, read the way a test can trust it: the canvas's accessible
-// summary, the control buttons beside it (their names and pressed states), the probe fields, the
-// wiring list, and the attempt log the page saves after every action. Each canvas gesture of the
-// driver is checked against one of these, in words that go straight into a failure message.
+// summary, the control buttons beside it (their names and pressed states), the probe fields, and the
+// attempt log the page saves after every action (the wiring is read from it). Each canvas gesture of
+// the driver is checked against one of these, in words that go straight into a failure message.
 import type { Page } from 'playwright-core'
-import type { KeypadKey, PanelLayout, PointId, ProbeColour } from '../../src/panel/types'
+import type { KeypadKey, PanelLayout, PointId, ProbeColour } from '../../src/simulator/scene/types'
+import { wireLabel } from '../../src/simulator/scene/wireColours'
 
 /** The lifted probe's entry in the probe fields. */
 const PROBE_LIFTED = 'Lifted (on the meter)'
@@ -13,10 +14,20 @@ interface SavedEvent {
   [field: string]: unknown
 }
 
+/** A wire as the scenario starts with it or as a wire.added event records it. */
+export interface StartWire {
+  id: string
+  from: string
+  to: string
+  colour: string
+}
+
 export class PanelObserver {
   constructor(
     readonly page: Page,
     readonly layout: PanelLayout,
+    /** The wires the scenario starts with (they are in no event). */
+    readonly startWires: readonly StartWire[] = [],
   ) {}
 
   /** The canvas's accessible name, which states the drive's state and speed, wires and isolation. */
@@ -63,13 +74,35 @@ export class PanelObserver {
     return probeWords(this.layout, probe, await this.probeAt(probe))
   }
 
-  /** The wiring list, one "from → to" (terminal titles) per wire. */
+  /** The wires now, in the order they were added, from the saved log. */
+  private async wireEvents(): Promise<StartWire[]> {
+    const wires: StartWire[] = [...this.startWires]
+    for (const e of await this.savedEvents()) {
+      if (e.type === 'wire.added') wires.push(e as unknown as (typeof wires)[number])
+      if (e.type === 'wire.removed')
+        wires.splice(
+          wires.findIndex((w) => w.id === e.id),
+          1,
+        )
+    }
+    return wires
+  }
+
+  /** The wiring, one "from → to" (terminal titles) per wire, as the Wiring tab lists it. */
   async wires(): Promise<string[]> {
-    const titles = await this.page
-      .getByRole('list', { name: 'Wires' })
-      .locator('.v-list-item-title')
-      .allTextContents()
-    return titles.filter((t) => t.includes('→')).map((t) => t.slice(t.indexOf(':') + 1).trim())
+    return (await this.wireEvents()).map((w) => this.wireWords(w.from, w.to))
+  }
+
+  /** The marker of the wire at a place in the list ("W1 BU"). */
+  async wireMarker(lane: number): Promise<string> {
+    const w = (await this.wireEvents())[lane]
+    return w ? wireLabel(w.id, w.colour, lane) : 'no such wire'
+  }
+
+  /** "selected: W1 BU" or "no wire selected", from the canvas's summary. */
+  async selectedWire(): Promise<string> {
+    const m = / Wire (\S+ \S+) selected\./.exec(await this.summary())
+    return m ? `selected: ${m[1]}` : 'no wire selected'
   }
 
   wireWords(from: PointId, to: PointId): string {
@@ -94,15 +127,22 @@ export class PanelObserver {
    */
   async savedEvents(): Promise<SavedEvent[]> {
     return this.page.evaluate(() => {
-      type Saved = { savedAt: string; events: SavedEvent[] }
-      let newest: Saved | null = null
+      // Header `slipway.attempt.<practice|assignment>.<id>`, the log in chunks `<header key>.log.<n>`.
+      type Header = { version: number; savedAt: string; chunks: number; events?: SavedEvent[] }
+      let newest: { key: string; header: Header } | null = null
       for (let i = 0; i < localStorage.length; i++) {
         const key = localStorage.key(i) ?? ''
         if (!/^slipway\.attempt\.(practice|assignment)\.[^.]+$/.test(key)) continue
-        const saved = JSON.parse(localStorage.getItem(key) ?? 'null') as Saved | null
-        if (saved && (!newest || saved.savedAt > newest.savedAt)) newest = saved
+        const header = JSON.parse(localStorage.getItem(key) ?? 'null') as Header | null
+        if (header && (!newest || header.savedAt > newest.header.savedAt)) newest = { key, header }
       }
-      return newest?.events ?? []
+      if (!newest) return []
+      if (newest.header.version === 1) return newest.header.events ?? []
+      const events: SavedEvent[] = []
+      for (let n = 0; n < newest.header.chunks; n++) {
+        events.push(...(JSON.parse(localStorage.getItem(`${newest.key}.log.${n}`) ?? '[]') as SavedEvent[]))
+      }
+      return events
     })
   }
 

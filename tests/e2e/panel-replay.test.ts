@@ -1,13 +1,17 @@
 // Replay: an attempt recorded on the server plays back on the same panel; scrubbing to a time shows
-// the speed recorded at that time, and the timeline marks the events.
+// the speed recorded at that time, the timeline names events in plain words, objectives not met by the
+// end say "missed", and the replay fits a tablet and a phone without sideways scrolling.
 import { readFileSync } from 'node:fs'
 import { resolve } from 'node:path'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { replay, sampleTimeline } from '../../shared/model'
 import { toSimulationSetup } from '../../shared/scenario/setup'
 import { scenarioSchema } from '../../shared/scenario/schema'
+import type { Page } from 'playwright-core'
+import { TERMINAL_LABEL_SIZE } from '../../src/simulator/scene/layout'
 import { screenshot } from './support'
 import {
+  APPRENTICE,
   apiToken,
   panelTestBed,
   raiseLowerCompleteLog,
@@ -19,6 +23,10 @@ import { PanelDriver } from './panel-driver'
 const scenario = scenarioSchema.parse(
   JSON.parse(readFileSync(resolve('scenarios/raise-lower-commissioning.json'), 'utf8')),
 )
+
+async function sidewaysScroll(page: Page): Promise<number> {
+  return page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth)
+}
 
 function parseTime(text: string): number {
   const m = /(\d+):(\d+)\.(\d)/.exec(text)
@@ -54,6 +62,10 @@ describe('replaying an attempt', () => {
     await page.goto(`${bed.app.url}/replay/${attemptId}`)
     const panel = new PanelDriver(page, scenario.start.devices)
     await panel.ready()
+    // It names the apprentice and the attempt.
+    await expect(page.getByTestId('workspace-subtitle').textContent()).resolves.toMatch(
+      new RegExp(`^${APPRENTICE.name}'s attempt, submitted .* · graded \\d+ / 100`),
+    )
     await page.getByTestId('replay-slider').scrollIntoViewIfNeeded()
     await screenshot(page, 'panel-replay-01-start')
 
@@ -66,19 +78,62 @@ describe('replaying an attempt', () => {
 
     const expected = Math.round(sampleTimeline(replay(toSimulationSetup(scenario), events), t).speedRpm)
     expect(expected).toBeGreaterThan(0)
+    await panel.openSheet('Values')
     await expect.poll(async () => page.getByTestId('live-rpm').first().textContent()).toBe(`${expected} rpm`)
     await expect.poll(() => panel.summary()).toContain(`${expected} rpm`)
     await screenshot(page, 'panel-replay-02-scrubbed')
 
+    // The timeline, in words.
+    await panel.openSheet('Timeline')
+    const timeline = page.getByTestId('replay-timeline')
+    await expect(
+      timeline.getByText('Wire W4 BU added from Infeed run / stop 14 to DI1').count(),
+    ).resolves.toBe(1)
+    await expect(timeline.getByText('Meter probes on L1 and L2').count()).resolves.toBe(1)
+    expect(await timeline.textContent()).not.toMatch(/wire\.added|meter\.probes|runSwitch/)
+
     // Playing on from there at 16× reaches the end of the attempt: the motor stopped by ramp.
+    await panel.openSheet('Values')
     await page.getByRole('button', { name: '16×' }).click()
     await page.getByTestId('replay-play').click()
     await expect
       .poll(async () => page.getByTestId('live-rpm').first().textContent(), { timeout: 30_000 })
       .toBe('0 rpm')
     await screenshot(page, 'panel-replay-03-played-to-end')
+    await panel.openSheet('Task')
     await expect(
       page.locator('[data-testid="objectives"] li[data-met="true"]').count(),
     ).resolves.toBeGreaterThan(3)
+    // At the end, nothing reads "not met yet": each objective is met or missed.
+    await expect(page.locator('[data-testid="objectives"] li[data-state="open"]').count()).resolves.toBe(0)
   }, 180_000)
+
+  it('fits a laptop, a tablet and a phone: labels readable, no sideways scrolling', async () => {
+    const { page } = bed.browser
+    for (const [width, height] of [
+      [1366, 768],
+      [768, 1024],
+      [390, 844],
+    ] as const) {
+      await page.setViewportSize({ width, height })
+      await page.goto(`${bed.app.url}/replay/${attemptId}`)
+      await new PanelDriver(page, scenario.start.devices).ready()
+      await page.waitForTimeout(300)
+      expect(await sidewaysScroll(page), `sideways scrolling at ${width} px`).toBeLessThanOrEqual(1)
+      const canvas = page.getByTestId('panel-canvas')
+      const box = (await canvas.boundingBox())!
+      expect(box.x).toBeGreaterThanOrEqual(0)
+      expect(box.x + box.width).toBeLessThanOrEqual(width)
+      // The app's top bar never covers the panel.
+      const bar = (await page.locator('header.v-app-bar').boundingBox())!
+      expect(box.y).toBeGreaterThanOrEqual(bar.y + bar.height)
+      if (width === 1366) {
+        // Terminal labels at fit: at least 11 CSS px (WCAG has no minimum; our own readability floor).
+        const scale = Number(await canvas.getAttribute('data-scale'))
+        expect(scale * TERMINAL_LABEL_SIZE).toBeGreaterThanOrEqual(11)
+      }
+      await screenshot(page, `panel-replay-${width}x${height}`)
+    }
+    await page.setViewportSize({ width: 1400, height: 1000 })
+  }, 120_000)
 })

@@ -13,7 +13,7 @@ describe('finding and repairing a wrong contact block', () => {
     await panel.waitFor((s) => s.includes('drive ready'))
 
     // With nothing pressed the raise input should be off; the meter shows it is fed.
-    await page.getByRole('tab', { name: 'Live values' }).click()
+    await panel.openSheet('Values')
     await panel.probe('red', 'drive.di2')
     await panel.probe('black', 'drive.0v')
     await expect.poll(async () => page.getByTestId('live-meter').textContent()).toMatch(/2\d\.\d+ V/)

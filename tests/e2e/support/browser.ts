@@ -28,7 +28,13 @@ export interface BrowserSession {
 }
 
 export async function launchBrowser(
-  options: { width?: number; height?: number; colorScheme?: 'light' | 'dark'; args?: string[] } = {},
+  options: {
+    width?: number
+    height?: number
+    colorScheme?: 'light' | 'dark'
+    hasTouch?: boolean
+    args?: string[]
+  } = {},
 ): Promise<BrowserSession> {
   const profile = mkdtempSync(join(tmpdir(), 'slipway-chromium-'))
   const context = await chromium.launchPersistentContext(profile, {
@@ -37,6 +43,7 @@ export async function launchBrowser(
     args: [...CHROMIUM_ARGS, ...(options.args ?? [])],
     viewport: { width: options.width ?? 1366, height: options.height ?? 900 },
     colorScheme: options.colorScheme ?? 'light',
+    hasTouch: options.hasTouch ?? false,
   })
   const page = context.pages()[0] ?? (await context.newPage())
   return {

@@ -1,0 +1,76 @@
+// Each attempt event in plain words, naming things as the panel shows them ("Wire W4 BU added from +24
+// to Faster 13", "Meter probes on DI1 and DIC"): the replay's timeline and the live announcements.
+import type { AttemptEvent } from '@shared/model/events'
+import { METER_MODE_LABELS } from '@shared/model/meterModes'
+import { POINT_LABELS } from '@shared/model/points'
+import { conductorName } from '@shared/scenario/names'
+import { settingDef, type SettingValue } from '@shared/model/settings'
+import { formatSettingValue, KEY_NAMES } from './keypadMenu'
+import type { PanelLayout, PointId } from './types'
+import { wireColour } from './wireColours'
+
+/** "Wire W4" for the wire the model calls w4 (its marker sleeve without the colour code), else "A wire". */
+export function wireName(id: string): string {
+  const digits = /(\d+)$/.exec(id)?.[1]
+  return digits ? `Wire W${digits}` : 'A wire'
+}
+
+/**
+ * `wireMarker`: the marker the panel prints on the event's wire ("W3 BU", see wireLabel), when the caller
+ * knows where the wire stands among the others; otherwise it is read from the wire's id.
+ */
+export function eventWords(event: AttemptEvent, layout: PanelLayout, wireMarker?: string): string {
+  const point = (id: PointId | null) =>
+    id ? (layout.terminals[id]?.title ?? 'an unknown point') : 'the meter'
+  const device = (id: string) => layout.devices.find((d) => d.id === id)?.label ?? 'a device'
+  switch (event.type) {
+    case 'wire.added':
+      return `${wireMarker ? `Wire ${wireMarker}` : `${wireName(event.id)} ${wireColour(event.colour).code}`} added from ${point(event.from)} to ${point(event.to)}`
+    case 'wire.removed':
+      return `${wireMarker ? `Wire ${wireMarker}` : wireName(event.id)} removed`
+    case 'device.pressed':
+      return `${device(event.device)} pressed`
+    case 'device.released':
+      return `${device(event.device)} released`
+    case 'device.switched':
+      return `${device(event.device)} turned to ${event.position}`
+    case 'device.turned':
+      return `${device(event.device)} set to ${Math.round(event.position * 100)} %`
+    case 'device.contactFitted':
+      return `New ${event.contact} contact block fitted to ${device(event.device)}`
+    case 'fuse.replaced':
+      return 'Control fuse replaced'
+    case 'setting.changed': {
+      const def = settingDef(event.key)
+      return `${def.label} set to ${formatSettingValue(def, event.value as SettingValue)} (not saved yet)`
+    }
+    case 'settings.saved':
+      return 'Settings saved to the drive'
+    case 'power.on':
+      return 'Supply disconnect switched on'
+    case 'power.off':
+      return 'Supply disconnect switched off'
+    case 'lock.applied':
+      return 'Lock applied to the disconnect'
+    case 'lock.removed':
+      return 'Lock removed from the disconnect'
+    case 'meter.probes':
+      if (!event.red && !event.black) return 'Meter probes lifted'
+      if (event.red && event.black) return `Meter probes on ${point(event.red)} and ${point(event.black)}`
+      return `Red probe on ${point(event.red)}, black probe on ${point(event.black)}`
+    case 'meter.mode':
+      return `Meter turned to ${METER_MODE_LABELS[event.mode]}`
+    case 'motor.conductorLanded':
+      return event.terminal
+        ? `Motor-cable conductor ${conductorName(event.conductor)} landed on motor terminal ${POINT_LABELS[`motor.${event.terminal}`]}`
+        : `Motor-cable conductor ${conductorName(event.conductor)} lifted`
+    case 'motor.cableReplaced':
+      return 'Motor cable replaced'
+    case 'keypad.key':
+      return `Keypad ${KEY_NAMES[event.key]} pressed`
+    case 'hint.revealed':
+      return 'Hint shown'
+    case 'attempt.ended':
+      return 'Attempt ended'
+  }
+}

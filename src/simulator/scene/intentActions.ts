@@ -1,0 +1,72 @@
+// What each pointer or keyboard intent records in the attempt: the model events to send, given the
+// model state now. Pure, so the mapping is tested without a panel.
+import { voltageRangeFor } from '@shared/model'
+import type { AttemptEvent } from '@shared/model/events'
+import type { SimState } from '@shared/model/types'
+import type { Intent } from './interaction'
+import { DEFAULT_WIRE_COLOUR, isWireColour } from './wireColours'
+
+type DistributiveOmit<T, K extends PropertyKey> = T extends unknown ? Omit<T, K> : never
+/** What the panel asks to record; the live-attempt machine stamps the simulated time. */
+export type PanelAction = DistributiveOmit<AttemptEvent, 't'>
+
+/** The next free wire id (w1, w2 …), never reusing the id of a wire still on the panel. */
+export function nextWireId(sim: Pick<SimState, 'wires'>): string {
+  const used = new Set(sim.wires.map((w) => w.id))
+  let n = sim.wires.length + 1
+  while (used.has(`w${n}`)) n++
+  return `w${n}`
+}
+
+/** The actions an intent records (none for selection, which is the panel's own state). */
+export function actionsFor(intent: Intent, sim: SimState, colour: string): PanelAction[] {
+  switch (intent.type) {
+    case 'wire.add':
+      return [
+        {
+          type: 'wire.added',
+          id: nextWireId(sim),
+          from: intent.from,
+          to: intent.to,
+          colour: isWireColour(colour) ? colour : DEFAULT_WIRE_COLOUR,
+        },
+      ]
+    case 'wire.remove':
+      return [{ type: 'wire.removed', id: intent.wire }]
+    case 'wire.select':
+    case 'wire.start':
+    case 'wire.cancel':
+      return []
+    case 'device.press':
+      return [{ type: 'device.pressed', device: intent.device }]
+    case 'device.release':
+      return [{ type: 'device.released', device: intent.device }]
+    case 'device.toggle':
+      return [
+        {
+          type: 'device.switched',
+          device: intent.device,
+          position: (sim.devices[intent.device]?.position ?? 0) >= 1 ? 0 : 1,
+        },
+      ]
+    case 'device.turn':
+      return [{ type: 'device.turned', device: intent.device, position: intent.position }]
+    case 'keypad':
+      return [{ type: 'keypad.key', key: intent.key }]
+    case 'disconnect.toggle':
+      return [{ type: sim.power.on ? 'power.off' : 'power.on' }]
+    case 'lock.toggle':
+      return [{ type: sim.power.locked ? 'lock.removed' : 'lock.applied' }]
+    case 'probe.place': {
+      const probes = { red: sim.meter.red, black: sim.meter.black, [intent.probe]: intent.point }
+      const placed: PanelAction[] = [{ type: 'meter.probes', red: probes.red, black: probes.black }]
+      // Interim, until the panel has the meter's range selector: turn it to the voltage range that
+      // shows what the probed pair could carry (V AC on line and output terminals, V DC elsewhere).
+      if (probes.red && probes.black) {
+        const range = voltageRangeFor(probes.red, probes.black)
+        if (sim.meter.mode !== range) placed.push({ type: 'meter.mode', mode: range })
+      }
+      return placed
+    }
+  }
+}

@@ -1,0 +1,118 @@
+// The whole live panel mounts on the real model and machine (Pixi mocked, the network replaced):
+// it records actions from its keyboard controls into the attempt saved in this browser, resumes it
+// after a remount, and leaves no listeners or Pixi application behind when unmounted.
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
+import { flushPromises, mount } from '@vue/test-utils'
+import { createPinia } from 'pinia'
+import { createVuetify } from 'vuetify'
+import { fromCallback, fromPromise } from 'xstate'
+import scenarioFile from '../../../scenarios/raise-lower-commissioning.json'
+import { scenarioSchema } from '@shared/scenario/schema'
+import { attemptStorageKey, createAttemptStore } from '@/simulator/storage/attemptStore'
+import { pixiState, resetPixiState } from './pixiMock'
+
+vi.mock('pixi.js', () => import('./pixiMock'))
+vi.mock('pixi.js/unsafe-eval', () => ({}))
+
+const scenario = scenarioSchema.parse(scenarioFile)
+const key = attemptStorageKey('version-1')
+
+// The app's actors without the network: the scenario is at hand, the browser copy is real.
+vi.mock('@/simulator/services', () => ({
+  liveAttemptActors: () => ({
+    loadStart: fromPromise(async () => {
+      const store = createAttemptStore(key)
+      const local = store.load()
+      return {
+        scenario,
+        scenarioTitle: scenario.title,
+        scenarioVersionId: 'version-1',
+        assignment: null,
+        store,
+        browser: local.copy ? { source: 'browser', ...local.copy } : null,
+        server: null,
+        problem: local.problem,
+      }
+    }),
+    loadServerCopy: fromPromise(async () => Promise.reject(new Error('offline'))),
+    saveProgress: fromPromise(async () => Promise.reject(new Error('offline'))),
+    submitAttempt: fromPromise(async () => Promise.reject(new Error('offline'))),
+    liveGrading: fromCallback(() => () => {}),
+  }),
+  replayActors: () => ({}),
+}))
+
+const { default: SimulatorPanel } = await import('@/simulator/components/SimulatorPanel.vue')
+
+function mountPanel() {
+  return mount(SimulatorPanel, {
+    props: {
+      request: { kind: 'live', target: { mode: 'practice', scenarioKey: scenario.id } },
+      tourReady: false,
+    },
+    global: { plugins: [createVuetify(), createPinia()] },
+    attachTo: document.body,
+  })
+}
+
+async function settle() {
+  await new Promise((r) => setTimeout(r, 30))
+  await flushPromises()
+  await new Promise((r) => setTimeout(r, 30))
+  await flushPromises()
+}
+
+const saved = () => createAttemptStore(key).load().copy
+
+describe('the simulator panel', () => {
+  beforeEach(() => {
+    resetPixiState()
+    localStorage.clear()
+  })
+  afterEach(() => localStorage.clear())
+
+  it('records an action from its controls in the attempt saved in this browser', async () => {
+    const wrapper = mountPanel()
+    await settle()
+    await wrapper.get('[data-testid="control-lock"]').trigger('click')
+    expect(saved()?.events.map((e) => e.type)).toEqual(['lock.removed'])
+    wrapper.unmount()
+  })
+
+  it('resumes the saved attempt after a remount with the same attempt id', async () => {
+    const first = mountPanel()
+    await settle()
+    await first.get('[data-testid="control-lock"]').trigger('click')
+    const id = saved()?.attemptId
+    first.unmount()
+    const second = mountPanel()
+    await settle()
+    expect(document.body.textContent).toContain('Resumed the attempt saved in this browser (1 action)')
+    expect(second.get('[data-testid="control-lock"]').text()).toContain('Apply my lock')
+    expect(saved()?.attemptId).toBe(id)
+    second.unmount()
+  })
+
+  it('removes its keyboard listeners and the Pixi application on unmount, every time', async () => {
+    const added = vi.spyOn(window, 'addEventListener')
+    const removed = vi.spyOn(window, 'removeEventListener')
+    for (let i = 0; i < 5; i++) {
+      const wrapper = mountPanel()
+      await settle()
+      wrapper.unmount()
+    }
+    // Every keyboard handler added to the window has been taken off again.
+    for (const type of ['keydown', 'keyup', 'blur']) {
+      const handlers = (spy: typeof added) =>
+        new Set(spy.mock.calls.filter((c) => c[0] === type).map((c) => c[1]))
+      const stillOn = [...handlers(added)].filter((h) => !handlers(removed).has(h))
+      expect(stillOn).toEqual([])
+      expect(handlers(added).size).toBeGreaterThanOrEqual(5)
+    }
+    expect(pixiState.initialised).toBe(5)
+    expect(pixiState.destroyed).toBe(5)
+    expect(pixiState.callbacks.size).toBe(0)
+    added.mockRestore()
+    removed.mockRestore()
+  }, 30_000)
+})
