@@ -22,6 +22,7 @@ describe('grade result schema', () => {
       autoScore: 50,
       autoPassed: false,
       overridden: false,
+      overrideReason: null,
       evidence,
       gradedAt: '2026-11-30T09:00:00.000Z',
     }
