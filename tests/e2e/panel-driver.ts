@@ -360,7 +360,8 @@ export class PanelDriver {
 
   /**
    * The page position of a scene point, once the canvas is scrolled into view and nothing covers that
-   * point (the loading veil, a fading dialog or menu, the sticky bar): a click there reaches the canvas.
+   * point (the loading veil, a fading dialog or menu, the sticky bar, a message over the panel, which is
+   * closed): a click there reaches the canvas.
    */
   private async pagePoint(p: Vec): Promise<Vec> {
     const canvas = this.page.getByTestId('panel-canvas')
@@ -377,11 +378,17 @@ export class PanelDriver {
           const y = r.top + Number(el.getAttribute('data-y')) + p.y * scale
           const top = document.elementFromPoint(x, y)
           const cover = top === el ? null : top ? `${top.tagName.toLowerCase()}.${top.className}` : 'nothing'
-          return { x, y, cover }
+          // A message over the panel (a safety warning, the narrow-screen note) is closed, as a person
+          // closes what covers the terminal they want; the canvas is then asked again.
+          const message = top?.closest('.panel-message')
+          const close = message?.querySelector<HTMLElement>('.v-alert__close button, button.v-alert__close')
+          close?.click()
+          return { x, y, cover, closed: Boolean(close) }
         },
         { p },
       )
       if (!spot.cover) return spot
+      if (spot.closed) continue
       if (Date.now() > deadline) {
         throw new Error(`the canvas point ${JSON.stringify(p)} stays covered by ${spot.cover}`)
       }
