@@ -197,6 +197,9 @@ export async function runScript(
     let out = ''
     child.stdout!.on('data', (chunk: Buffer) => (out += chunk.toString()))
     child.stderr!.on('data', (chunk: Buffer) => (out += chunk.toString()))
+    // A command that exits before reading its input (a refusal) closes the pipe: without a listener, that
+    // EPIPE is an uncaught error that takes the whole test process down.
+    child.stdin!.on('error', () => {})
     child.stdin!.end(input)
     child.on('close', (code) => resolve({ code, out }))
   })
