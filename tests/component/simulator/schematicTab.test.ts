@@ -54,7 +54,9 @@ async function waitForDrawing(wrapper: ReturnType<typeof mount>) {
 
 /** The wire markers on the drawing, e.g. ["W2 BU"]. */
 const markers = (svg: ReturnType<ReturnType<typeof mount>['get']>) =>
-  [...svg.element.querySelectorAll('text')].map((t) => t.textContent ?? '').filter((s) => /^W\d+ /.test(s))
+  [...(svg.element as Element).querySelectorAll('text')]
+    .map((t) => t.textContent ?? '')
+    .filter((s) => /^W\d+ /.test(s))
 
 describe('the replay’s Schematic tab', () => {
   it('draws the wiring as it was at the playhead, and follows the playhead when it moves', async () => {
