@@ -54,8 +54,14 @@ describe('commissioning raise/lower on the panel by mouse', () => {
       await page.setViewportSize({ width, height })
       await panel.openSheet('Schematic')
       await page.getByTestId('schematic').scrollIntoViewIfNeeded()
-      const box = (await drawing.boundingBox())!
-      expect(box.x + box.width, `drawing inside the page at ${width} px`).toBeLessThanOrEqual(width)
+      // The drawing scrolls inside its own frame; the frame and the page stay within the window.
+      const box = (await page.locator('.schematic__scroll').boundingBox())!
+      expect(box.x + box.width, `drawing's frame inside the page at ${width} px`).toBeLessThanOrEqual(width)
+      const sideways = await page.evaluate(
+        () => document.documentElement.scrollWidth - document.documentElement.clientWidth,
+      )
+      expect(sideways, `sideways scrolling at ${width} px`).toBeLessThanOrEqual(1)
+      await page.waitForTimeout(400) // the tab's slide
       await step(page, `panel-commission-03-schematic-${width}x${height}`)
     }
     await page.setViewportSize({ width: 1600, height: 1000 })

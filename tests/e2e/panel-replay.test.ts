@@ -150,7 +150,14 @@ describe('replaying an attempt', () => {
       expect(await sidewaysScroll(page), `sideways scrolling at ${width} px (schematic)`).toBeLessThanOrEqual(
         1,
       )
+      await page.waitForTimeout(400) // the tab's slide
       await screenshot(page, `panel-replay-schematic-${width}x${height}`)
+      // The whole window for the drawing, over the panel; Escape gives the sheet back.
+      await page.getByTestId('schematic-large').click()
+      await expect(page.getByRole('dialog', { name: /Control circuit as wired/ }).count()).resolves.toBe(1)
+      await screenshot(page, `panel-replay-schematic-large-${width}x${height}`)
+      await page.keyboard.press('Escape')
+      await page.getByTestId('schematic-large').waitFor()
     }
     await page.setViewportSize({ width: 1400, height: 1000 })
   }, 120_000)

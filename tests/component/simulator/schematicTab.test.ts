@@ -89,4 +89,23 @@ describe('the replay’s Schematic tab', () => {
     expect(markers(svg)).toEqual([])
     wrapper.unmount()
   })
+
+  it('takes the whole window for the drawing on request, and gives it back on Escape', async () => {
+    const { replay } = replayAt(5000)
+    const wrapper = mount(ReplaySheet, {
+      props: { replay, marks: [] },
+      global: { plugins: [createVuetify()] },
+      attachTo: document.body,
+    })
+    await wrapper.get('[data-testid="tab-schematic"]').trigger('click')
+    await waitForDrawing(wrapper)
+    const root = wrapper.get('[data-testid="schematic"]')
+    expect(root.attributes('role')).toBeUndefined()
+    await wrapper.get('[data-testid="schematic-large"]').trigger('click')
+    expect(root.attributes('role')).toBe('dialog')
+    expect(root.attributes('aria-label')).toContain('Control circuit as wired')
+    await root.trigger('keydown', { key: 'Escape' })
+    expect(root.attributes('role')).toBeUndefined()
+    wrapper.unmount()
+  })
 })
