@@ -2,8 +2,8 @@
 // who withdrew it, when and the reason. The sign-off's row is removed in the same transaction, so the
 // outcome can be signed off again; the id is the withdrawn sign-off's. Also written to the audit trail.
 import { EntitySchema, type EntitySchemaOptions } from 'typeorm'
-import { text, timestamp, uuidColumn, uuidPrimary, varchar, belongsTo } from './columns'
-import type { OutcomeSignOffRow } from './outcome-sign-off'
+import { text, timestamp, uuidColumn, belongsTo } from './columns'
+import { outcomeSignOffColumns, type OutcomeSignOffRow } from './outcome-sign-off'
 
 export interface OutcomeSignOffWithdrawalRow extends OutcomeSignOffRow {
   withdrawnById: string
@@ -15,14 +15,7 @@ export const OutcomeSignOffWithdrawalEntity = new EntitySchema<OutcomeSignOffWit
   name: 'OutcomeSignOffWithdrawal',
   tableName: 'outcome_sign_off_withdrawals',
   columns: {
-    id: uuidPrimary,
-    apprenticeId: uuidColumn,
-    cohortId: uuidColumn,
-    scenarioKey: varchar(80),
-    outcome: varchar(500),
-    note: text,
-    signedById: uuidColumn,
-    signedAt: timestamp,
+    ...outcomeSignOffColumns,
     withdrawnById: uuidColumn,
     withdrawnAt: timestamp,
     reason: text,
