@@ -70,6 +70,7 @@ export const endpoints = {
     training: (apprenticeId: string) => `/apprentices/${enc(apprenticeId)}/training-record`,
     trainingPdf: (apprenticeId: string) => `/apprentices/${enc(apprenticeId)}/training-record.pdf`,
     signOffs: (apprenticeId: string) => `/apprentices/${enc(apprenticeId)}/sign-offs`,
+    signOffWithdrawal: (signOffId: string) => `/sign-offs/${enc(signOffId)}/withdrawal`,
     cohortZip: (cohortId: string) => `/cohorts/${enc(cohortId)}/training-records.zip`,
   },
   admin: {

@@ -5,7 +5,7 @@ import { randomUUID } from 'node:crypto'
 import { readFileSync } from 'node:fs'
 import supertest from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { EnrollmentEntity, OutcomeSignOffEntity } from '../../server/entities'
+import { EnrollmentEntity, OutcomeSignOffEntity, OutcomeSignOffWithdrawalEntity } from '../../server/entities'
 import { createTestApi, type TestApi, type TestUser } from '../support/api-harness'
 import { buildWorld, EMPTY_LOG, type World } from '../support/world'
 
@@ -53,6 +53,7 @@ const adminOnly = (ok: number): Expect => ({ none: 401, apprentice: 403, instruc
 const future = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString()
 const FAKE_TOKEN = 'x'.repeat(43)
 const NO_SUCH_ID = '00000000-0000-4000-8000-000000000000'
+const MATRIX_SIGN_OFF = '00000000-0000-4000-8000-00000000051f'
 
 const ROUTES: Route[] = [
   { method: 'get', path: () => '/api/health', expect: everyone(200) },
@@ -325,6 +326,27 @@ const ROUTES: Route[] = [
     expect: ownCohortStaff(201),
     restore: async (_w, api) => {
       await api.dataSource.getRepository(OutcomeSignOffEntity).clear()
+    },
+  },
+  {
+    method: 'post',
+    path: () => `/api/sign-offs/${MATRIX_SIGN_OFF}/withdrawal`,
+    body: () => ({ reason: 'Matrix withdrawal' }),
+    expect: ownCohortStaff(201),
+    // A standing sign-off in cohort A before every role's call.
+    restore: async (w, api) => {
+      await api.dataSource.getRepository(OutcomeSignOffWithdrawalEntity).clear()
+      await api.dataSource.getRepository(OutcomeSignOffEntity).clear()
+      await api.dataSource.getRepository(OutcomeSignOffEntity).insert({
+        id: MATRIX_SIGN_OFF,
+        apprenticeId: w.apprenticeA1.user.id,
+        cohortId: w.cohortA.id,
+        scenarioKey: w.scenario.key,
+        outcome: shipped(w.scenario.key).learningOutcomes[0],
+        note: 'Matrix sign-off',
+        signedById: w.instructorA.user.id,
+        signedAt: new Date().toISOString(),
+      })
     },
   },
   {
