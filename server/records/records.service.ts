@@ -15,7 +15,7 @@ import type {
   WithdrawnSignOff,
 } from '@shared/api/records'
 import { scenarioSchema } from '@shared/scenario'
-import { attemptFor, cohortFor } from '../access/access.service'
+import { attemptFor, cohortFor, taughtCohortIds } from '../access/access.service'
 import type { AppContext } from '../context'
 import {
   AssignmentEntity,
@@ -184,11 +184,10 @@ async function trainingScope(
     return { cohortIds: [query.cohortId], includePractice: false }
   }
   if (user.role !== 'instructor') return { cohortIds: enrolled, includePractice: true }
-  const taught = enrolled.length
-    ? await ds.getRepository(CohortEntity).findBy({ id: In(enrolled), ownerId: user.id })
-    : []
+  const mine = new Set(await taughtCohortIds(ds, user.id))
+  const taught = enrolled.filter((id) => mine.has(id))
   if (taught.length === 0) throw forbidden('This apprentice is not in any of your cohorts')
-  return { cohortIds: taught.map((c) => c.id), includePractice: false }
+  return { cohortIds: taught, includePractice: false }
 }
 
 export async function trainingRecordSummary(

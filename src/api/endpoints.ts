@@ -29,6 +29,9 @@ export const endpoints = {
     assignments: (id: string) => `/cohorts/${enc(id)}/assignments`,
     gradebook: (id: string) => `/cohorts/${enc(id)}/gradebook`,
     gradebookCsv: (id: string) => `/cohorts/${enc(id)}/gradebook.csv`,
+    instructors: (id: string) => `/cohorts/${enc(id)}/instructors`,
+    instructor: (id: string, userId: string) => `/cohorts/${enc(id)}/instructors/${enc(userId)}`,
+    copy: (id: string) => `/cohorts/${enc(id)}/copy`,
   },
   scenarios: {
     list: '/scenarios',

@@ -5,7 +5,13 @@ import { randomUUID } from 'node:crypto'
 import { readFileSync } from 'node:fs'
 import supertest from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { EnrollmentEntity, OutcomeSignOffEntity, OutcomeSignOffWithdrawalEntity } from '../../server/entities'
+import {
+  CohortEntity,
+  CohortInstructorEntity,
+  EnrollmentEntity,
+  OutcomeSignOffEntity,
+  OutcomeSignOffWithdrawalEntity,
+} from '../../server/entities'
 import { createTestApi, type TestApi, type TestUser } from '../support/api-harness'
 import { buildWorld, EMPTY_LOG, type World } from '../support/world'
 
@@ -173,6 +179,31 @@ const ROUTES: Route[] = [
     path: (w) => `/api/cohorts/${w.cohortA.id}/members/remove`,
     body: () => ({ userIds: ['00000000-0000-4000-8000-000000000000'] }),
     expect: ownCohortStaff(400),
+  },
+  // who teaches a cohort, and copying it for the next intake
+  { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/instructors`, expect: ownCohortStaff(200) },
+  {
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/instructors`,
+    body: (w) => ({ email: w.instructorB.email }),
+    expect: ownCohortStaff(201),
+    restore: async (_w, api) => {
+      await api.dataSource.getRepository(CohortInstructorEntity).clear()
+    },
+  },
+  {
+    method: 'delete',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/instructors/${NO_SUCH_ID}`,
+    expect: ownCohortStaff(404),
+  },
+  {
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/copy`,
+    body: () => ({ name: 'Matrix copy', shiftDays: 7 }),
+    expect: ownCohortStaff(201),
+    restore: async (_w, api) => {
+      await api.dataSource.getRepository(CohortEntity).delete({ name: 'Matrix copy' })
+    },
   },
   // gradebook
   { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/gradebook`, expect: ownCohortStaff(200) },
