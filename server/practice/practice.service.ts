@@ -65,7 +65,9 @@ export async function cohortPractice(
   const ds = ctx.dataSource
   const userIds = (await ds.getRepository(EnrollmentEntity).findBy({ cohortId })).map((e) => e.userId)
   const members = userIds.length
-    ? await ds.getRepository(UserEntity).find({ select: { id: true, name: true }, where: { id: In(userIds) } })
+    ? await ds
+        .getRepository(UserEntity)
+        .find({ select: { id: true, name: true }, where: { id: In(userIds) } })
     : []
   // Event logs stay in the database: only the columns counted are read.
   const rows = userIds.length
@@ -128,4 +130,3 @@ export async function setCohortPractice(
     .update({ id: cohortId }, { practiceKeys: storedPolicy(policy) })
   return cohortPractice(ctx, user, cohortId)
 }
-

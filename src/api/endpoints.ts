@@ -29,6 +29,12 @@ export const endpoints = {
     assignments: (id: string) => `/cohorts/${enc(id)}/assignments`,
     gradebook: (id: string) => `/cohorts/${enc(id)}/gradebook`,
     gradebookCsv: (id: string) => `/cohorts/${enc(id)}/gradebook.csv`,
+    practice: (id: string) => `/cohorts/${enc(id)}/practice`,
+    insight: (id: string) => `/cohorts/${enc(id)}/insight`,
+  },
+  practice: {
+    list: '/practice',
+    check: (key: string) => `/practice/${enc(key)}`,
   },
   scenarios: {
     list: '/scenarios',
@@ -45,6 +51,7 @@ export const endpoints = {
     list: '/assignments',
     one: (id: string) => `/assignments/${enc(id)}`,
     stats: (id: string) => `/assignments/${enc(id)}/stats`,
+    insight: (id: string) => `/assignments/${enc(id)}/insight`,
     apprentices: (id: string) => `/assignments/${enc(id)}/apprentices`,
     exceptions: (id: string) => `/assignments/${enc(id)}/exceptions`,
     exception: (id: string, userId: string) => `/assignments/${enc(id)}/exceptions/${enc(userId)}`,

@@ -360,6 +360,9 @@ const ROUTES: Route[] = [
     body: () => ({ mode: 'all' }),
     expect: ownCohortStaff(200),
   },
+  // class insight
+  { method: 'get', path: (w) => `/api/assignments/${w.assignmentA.id}/insight`, expect: ownCohortStaff(200) },
+  { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/insight`, expect: ownCohortStaff(200) },
   // centre settings
   { method: 'get', path: () => '/api/centre', expect: signedIn(200) },
   {

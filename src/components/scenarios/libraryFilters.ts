@@ -21,7 +21,12 @@ export interface LibraryFilters {
   origin: ScenarioOrigin | null
 }
 
-export const noLibraryFilters = (): LibraryFilters => ({ q: '', difficulty: null, outcome: null, origin: null })
+export const noLibraryFilters = (): LibraryFilters => ({
+  q: '',
+  difficulty: null,
+  outcome: null,
+  origin: null,
+})
 
 export function filterLibrary(items: readonly ScenarioLibraryItem[], filters: LibraryFilters) {
   const q = filters.q.trim().toLowerCase()
