@@ -44,6 +44,30 @@ describe('library, insight and practice', () => {
     await expect.poll(() => page.locator('[data-testid="assign-scenario"]').textContent()).toContain(title)
   })
 
+  it('sorts an assignment column with Space and Enter, and gives the focus back when the attempts close', async () => {
+    const { page } = browser
+    await page.getByRole('link', { name: 'Gradebook' }).first().click()
+    await page.locator('[data-testid="gradebook-table"] tbody tr').first().waitFor()
+    await settled(page)
+    const header = page.locator('th.v-data-table__th--sortable').filter({ hasText: 'Due' }).first()
+    await header.focus()
+    const bySpace = page.waitForResponse((r) => /\/gradebook\?.*sort=[0-9a-f-]{36}.*order=asc/.test(r.url()))
+    await page.keyboard.press(' ')
+    await bySpace
+    const byEnter = page.waitForResponse((r) => /\/gradebook\?.*sort=[0-9a-f-]{36}.*order=desc/.test(r.url()))
+    await page.keyboard.press('Enter')
+    await byEnter
+    await settled(page)
+
+    const cell = page.locator('[data-testid="gradebook-table"] button.cell-btn:not([disabled])').first()
+    await cell.focus()
+    await page.keyboard.press('Enter')
+    await page.getByRole('dialog').waitFor()
+    await page.keyboard.press('Escape')
+    await page.getByRole('dialog').waitFor({ state: 'detached' })
+    await expect.poll(() => cell.evaluate((el) => el === document.activeElement)).toBe(true)
+  })
+
   it('shows the cohort’s insight and closes a scenario for practice, which its apprentices then miss', async () => {
     const { page } = browser
     await page.getByRole('link', { name: 'Cohorts' }).first().click()
