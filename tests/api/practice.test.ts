@@ -100,6 +100,18 @@ describe('the practice policy', () => {
     await expectStatus(submit(api, w.apprenticeA1, { scenarioId: w.scenario.id }), 201)
   })
 
+  it('opens an apprentice’s practice attempt for review to their instructor only', async () => {
+    const practice = await expectStatus(submit(api, w.apprenticeA2, { scenarioId: w.scenario.id }), 201)
+    const path = `/api/attempts/${practice.body.id}/overview`
+    const seen = await expectStatus(supertest(api.app).get(path).set(bearer(w.instructorA.token)), 200)
+    expect(seen.body).toMatchObject({ assignmentId: null, userId: w.apprenticeA2.user.id })
+    await expectStatus(supertest(api.app).get(path).set(bearer(w.instructorB.token)), 403)
+    await expectStatus(
+      supertest(api.app).get(`/api/attempts/${practice.body.id}/neighbours`).set(bearer(w.instructorA.token)),
+      200,
+    )
+  })
+
   it('lets only the cohort’s instructor change its policy', async () => {
     await policy(w.instructorB, { mode: 'all' }, 403)
     await policy(w.apprenticeA1, { mode: 'all' }, 403)
