@@ -35,6 +35,8 @@ import type { LtiOptions } from './lti/runtime'
 import { apiNotFound, errorHandler } from './middleware/errors'
 import { createLimiters } from './middleware/rate-limit'
 import { recordsRouter } from './records/records.router'
+import { practiceRouter } from './practice/practice.router'
+import { insightRouter } from './insight/insight.router'
 import { scenariosRouter, scenarioVersionsRouter } from './scenarios/scenarios.router'
 
 export interface AppDeps {
@@ -141,6 +143,8 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api', assignmentsRouter(ctx))
   app.use('/api/lti', ltiRouter(ctx, deps.lti))
   app.use('/api', recordsRouter(ctx))
+  app.use('/api', practiceRouter(ctx))
+  app.use('/api', insightRouter(ctx))
   app.use('/api', apiNotFound)
 
   const clientDir = deps.clientDir ?? DEFAULT_CLIENT_DIR

@@ -1,16 +1,6 @@
 // Descriptive statistics for a list of scores (0–100): mean, median and fixed-width histogram bins.
 
-export function mean(values: number[]): number | null {
-  return values.length ? values.reduce((sum, v) => sum + v, 0) / values.length : null
-}
-
-/** The middle value; for an even count, the mean of the two middle values. */
-export function median(values: number[]): number | null {
-  if (!values.length) return null
-  const sorted = [...values].sort((a, b) => a - b)
-  const mid = Math.floor(sorted.length / 2)
-  return sorted.length % 2 ? sorted[mid]! : (sorted[mid - 1]! + sorted[mid]!) / 2
-}
+export { mean, median } from '@shared/insight/average'
 
 /** Bins [0,10), [10,20) … [90,100]; the last bin includes 100. */
 export function histogram(values: number[], binWidth = 10): { from: number; to: number; count: number }[] {

@@ -14,7 +14,8 @@ export async function attemptNeighbours(
   attemptId: string,
 ): Promise<AttemptNeighbours> {
   const ds = ctx.dataSource
-  const attempt = await attemptFor(ds, user, attemptId, 'manage')
+  // 'read': an instructor may open a practice attempt of theirs for review (it has no neighbours).
+  const attempt = await attemptFor(ds, user, attemptId, 'read')
   const assignment = attempt.assignmentId
     ? await ds.getRepository(AssignmentEntity).findOneBy({ id: attempt.assignmentId })
     : null

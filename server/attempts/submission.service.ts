@@ -27,6 +27,7 @@ import { queueMail } from '../infrastructure/mail/mail-job'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
 import { queueScorePost } from '../lti/score-post-job'
 import { apprenticeFacts, assignmentTerms } from '../gradebook/standings'
+import { assertPracticeOpen } from '../practice/practice.service'
 import { presentOne } from './attempts.service'
 import { storedLogOpens } from './log-prefix'
 
@@ -57,6 +58,7 @@ async function resolveTarget(ctx: AppContext, user: UserRow, body: SubmissionHea
     })
   }
   if (scenario.status === 'retired') throw conflict('scenario_retired', 'This scenario is retired')
+  await assertPracticeOpen(ctx, user, scenario.key, scenario.title)
   return { scenario, assignment: null }
 }
 

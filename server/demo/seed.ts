@@ -126,7 +126,18 @@ export async function seedDemo(
         audience: 'cohort',
       })
     }
-    if (assignments.length) await manager.getRepository(AssignmentEntity).insert(assignments)
+    // updateEntity(false): scorePolicy has a default, so a plain multi-row insert re-reads the rows on SQLite and
+    // merges them back by position, which swapped ids between these objects and put the sample attempts
+    // under the wrong assignments (see CohortRow.gradebookRevision).
+    if (assignments.length) {
+      await manager
+        .createQueryBuilder()
+        .insert()
+        .into(AssignmentEntity)
+        .values(assignments)
+        .updateEntity(false)
+        .execute()
+    }
   })
   const attempts = await seedSampleAttempts(dataSource, users, cohorts, assignments)
   log.info(

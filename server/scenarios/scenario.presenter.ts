@@ -1,5 +1,5 @@
 // A stored scenario version → the API's summary (lists) or detail (with its document).
-import type { ScenarioDetail, ScenarioSummary } from '@shared/api/scenarios'
+import type { ScenarioDetail, ScenarioLibraryItem, ScenarioSummary } from '@shared/api/scenarios'
 import type { ScenarioRow } from '../entities'
 
 export function presentScenario(row: ScenarioRow): ScenarioSummary {
@@ -26,3 +26,13 @@ export const presentScenarioDetail = (row: ScenarioRow): ScenarioDetail => ({
   ...presentScenario(row),
   document: JSON.parse(row.document),
 })
+
+/** `firstVersion`: version 1 of the same key; the importer stores shipped scenarios with no author. */
+export function presentLibraryItem(row: ScenarioRow, firstVersion: ScenarioRow): ScenarioLibraryItem {
+  const document = JSON.parse(row.document) as { learningOutcomes?: string[] }
+  return {
+    ...presentScenario(row),
+    origin: firstVersion.createdById === null ? 'shipped' : 'centre',
+    learningOutcomes: document.learningOutcomes ?? [],
+  }
+}

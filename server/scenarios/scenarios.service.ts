@@ -11,6 +11,7 @@ import {
   scenarioPackSchema,
   type DuplicateScenarioRequest,
   type ScenarioDetail,
+  type ScenarioLibraryItem,
   type ScenarioStatus,
   type ScenarioSummary,
   type scenarioListQuerySchema,
@@ -21,7 +22,7 @@ import { ScenarioEntity, type ScenarioRow, type UserRow } from '../entities'
 import { HttpError, notFound } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
 import { inTransactionWithUpload, uploadedText, type UploadKind } from '../infrastructure/storage/uploads'
-import { presentScenario, presentScenarioDetail } from './scenario.presenter'
+import { presentLibraryItem, presentScenario, presentScenarioDetail } from './scenario.presenter'
 import { checkScenarioDocument } from './scenario-check'
 
 export const PACK_UPLOAD: UploadKind = {
@@ -113,19 +114,31 @@ async function latestOrThrow(ctx: AppContext, key: string): Promise<ScenarioRow>
   return row
 }
 
-/** The newest version of each key; apprentices only ever see what can still be practised. */
+/**
+ * The newest version of each key, by title; apprentices only ever see what can still be practised.
+ * A shipped scenario the centre has changed since stays "shipped" (its version says how often).
+ */
 export async function listScenarios(
   ctx: AppContext,
   user: UserRow,
   { includeRetired }: ScenarioListQuery,
-): Promise<ScenarioSummary[]> {
+): Promise<ScenarioLibraryItem[]> {
   const rows = await ctx.dataSource
     .getRepository(ScenarioEntity)
     .find({ order: { key: 'ASC', version: 'DESC' } })
-  const latest = rows.filter((row, i) => i === 0 || rows[i - 1]!.key !== row.key)
   const showRetired = includeRetired && user.role !== 'apprentice'
-  return latest.filter((row) => showRetired || row.status === 'active').map(presentScenario)
+  const items: ScenarioLibraryItem[] = []
+  rows.forEach((row, i) => {
+    if (i > 0 && rows[i - 1]!.key === row.key) return // an older version
+    if (!showRetired && row.status !== 'active') return
+    let first = i
+    while (rows[first + 1]?.key === row.key) first++
+    items.push(presentLibraryItem(row, rows[first]!))
+  })
+  return items.sort((a, b) => byTitle.compare(a.title, b.title) || a.key.localeCompare(b.key))
 }
+
+const byTitle = new Intl.Collator('en', { sensitivity: 'base', numeric: true })
 
 export async function createScenario(
   ctx: AppContext,

@@ -68,6 +68,7 @@ export const errorCodes = [
   'assignment_closed',
   'cohort_archived',
   'scenario_retired',
+  'practice_closed',
   'scenario_invalid',
   'hints_not_allowed',
   'roster_invalid',

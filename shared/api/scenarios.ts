@@ -45,8 +45,17 @@ export const scenarioListQuerySchema = z.object({
     .default(false),
 })
 export type ScenarioListQuery = z.input<typeof scenarioListQuerySchema>
-/** The list shows the newest version of each key. */
-export const scenarioListSchema = z.object({ items: z.array(scenarioSummarySchema) })
+/** Shipped with Slipway (version 1 came from scenarios/*.json) or written at this centre. */
+export const scenarioOriginSchema = z.enum(['shipped', 'centre'])
+export type ScenarioOrigin = z.infer<typeof scenarioOriginSchema>
+/** A library entry: the summary plus what the library filters by. */
+export const scenarioLibraryItemSchema = scenarioSummarySchema.extend({
+  origin: scenarioOriginSchema,
+  learningOutcomes: z.array(z.string()),
+})
+export type ScenarioLibraryItem = z.infer<typeof scenarioLibraryItemSchema>
+/** The list shows the newest version of each key, ordered by title. */
+export const scenarioListSchema = z.object({ items: z.array(scenarioLibraryItemSchema) })
 export type ScenarioList = z.infer<typeof scenarioListSchema>
 export const scenarioVersionListSchema = z.object({ items: z.array(scenarioSummarySchema) })
 

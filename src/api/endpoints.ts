@@ -32,6 +32,12 @@ export const endpoints = {
     instructors: (id: string) => `/cohorts/${enc(id)}/instructors`,
     instructor: (id: string, userId: string) => `/cohorts/${enc(id)}/instructors/${enc(userId)}`,
     copy: (id: string) => `/cohorts/${enc(id)}/copy`,
+    practice: (id: string) => `/cohorts/${enc(id)}/practice`,
+    insight: (id: string) => `/cohorts/${enc(id)}/insight`,
+  },
+  practice: {
+    list: '/practice',
+    check: (key: string) => `/practice/${enc(key)}`,
   },
   scenarios: {
     list: '/scenarios',
@@ -48,6 +54,7 @@ export const endpoints = {
     list: '/assignments',
     one: (id: string) => `/assignments/${enc(id)}`,
     stats: (id: string) => `/assignments/${enc(id)}/stats`,
+    insight: (id: string) => `/assignments/${enc(id)}/insight`,
     apprentices: (id: string) => `/assignments/${enc(id)}/apprentices`,
     exceptions: (id: string) => `/assignments/${enc(id)}/exceptions`,
     exception: (id: string, userId: string) => `/assignments/${enc(id)}/exceptions/${enc(userId)}`,

@@ -60,3 +60,9 @@ export function fileNamePart(name: string, fallback: string): string {
     .replace(/^-|-$/g, '')
   return safe || fallback
 }
+
+/** Wall-clock minutes in words: "under a minute", "25 min", "1.5 h". */
+export function formatMinutes(m: number | null | undefined): string {
+  if (m === null || m === undefined) return '—'
+  return m < 1 ? 'under a minute' : m < 90 ? `${Math.round(m)} min` : `${(m / 60).toFixed(1)} h`
+}

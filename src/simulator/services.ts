@@ -5,6 +5,7 @@ import type { AttemptDetail, AttemptSummary, SubmitAttemptRequest } from '@share
 import { useAssignmentsStore } from '@/stores/assignments'
 import { useAttemptsStore } from '@/stores/attempts'
 import { useScenariosStore } from '@/stores/scenarios'
+import { usePracticeStore } from '@/stores/practice'
 import type { AttemptCopy } from './machines/attemptStart'
 import { liveGradingActor } from './machines/liveGrading'
 import type { LiveStart, LiveTarget } from './machines/liveAttemptMachine'
@@ -20,6 +21,7 @@ export function liveAttemptActors() {
   const attempts = useAttemptsStore()
   const scenarios = useScenariosStore()
   const assignments = useAssignmentsStore()
+  const practice = usePracticeStore()
 
   /** The newest attempt in progress for this exercise on the server (another computer may have made it). */
   async function newestInProgress(
@@ -42,6 +44,8 @@ export function liveAttemptActors() {
   return {
     loadStart: fromPromise<LiveStart, { target: LiveTarget }>(async ({ input: { target } }) => {
       const assignment = target.assignmentId ? await assignments.get(target.assignmentId) : null
+      // Free practice an instructor has closed stops here, in the server's words, before any work is done.
+      if (target.mode === 'practice') await practice.check(target.scenarioKey)
       const detail = assignment
         ? await scenarios.getVersion(assignment.scenarioKey, assignment.scenarioVersion)
         : target.scenarioVersion

@@ -6,6 +6,7 @@ import {
   assignmentListSchema,
   assignmentSchema,
   assignmentStatsSchema,
+  assignmentInsightSchema,
   type Assignment,
   type CreateAssignmentRequest,
   type ExceptionRequest,
@@ -56,6 +57,7 @@ export const useAssignmentsStore = defineStore('assignments', () => {
   async function stats(id: string) {
     return request(endpoints.assignments.stats(id), assignmentStatsSchema)
   }
+  const insight = (id: string) => request(endpoints.assignments.insight(id), assignmentInsightSchema)
 
   /** The cohort's apprentices under their own terms on one assignment. */
   async function apprentices(id: string) {
@@ -86,6 +88,7 @@ export const useAssignmentsStore = defineStore('assignments', () => {
     update,
     remove,
     stats,
+    insight,
     apprentices,
     setExceptions,
     clearException,

@@ -6,6 +6,7 @@ import {
   cohortMemberListSchema,
   cohortMessageResultSchema,
   cohortSchema,
+  cohortInsightSchema,
   invitationListSchema,
   inviteOutcomeSchema,
   removeMembersResultSchema,
@@ -39,6 +40,8 @@ export const useCohortsStore = defineStore('cohorts', () => {
       loading.value = false
     }
   }
+
+  const insight = (id: string) => request(endpoints.cohorts.insight(id), cohortInsightSchema)
 
   async function get(id: string) {
     return request(endpoints.cohorts.one(id), cohortSchema)
@@ -99,6 +102,7 @@ export const useCohortsStore = defineStore('cohorts', () => {
     error,
     load,
     get,
+    insight,
     create,
     update,
     members,

@@ -9,13 +9,13 @@ import {
   scenarioVersionListSchema,
   SCENARIO_PACK_FIELD,
   type ScenarioDocument,
-  type ScenarioSummary,
+  type ScenarioLibraryItem,
 } from '@shared/api'
 import { request } from '@/api/client'
 import { endpoints } from '@/api/endpoints'
 
 export const useScenariosStore = defineStore('scenarios', () => {
-  const items = ref<ScenarioSummary[]>([])
+  const items = ref<ScenarioLibraryItem[]>([])
   const loading = ref(false)
   const error = ref<unknown>(null)
 

@@ -403,6 +403,19 @@ const ROUTES: Route[] = [
     path: (w) => `/api/attempts/${w.attemptA1.id}/neighbours`,
     expect: ownCohortStaff(200),
   },
+  // free practice and a cohort's practice policy
+  { method: 'get', path: () => '/api/practice', expect: signedIn(200) },
+  { method: 'get', path: (w) => `/api/practice/${w.scenario.key}`, expect: signedIn(200) },
+  { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/practice`, expect: ownCohortStaff(200) },
+  {
+    method: 'put',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/practice`,
+    body: () => ({ mode: 'all' }),
+    expect: ownCohortStaff(200),
+  },
+  // class insight
+  { method: 'get', path: (w) => `/api/assignments/${w.assignmentA.id}/insight`, expect: ownCohortStaff(200) },
+  { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/insight`, expect: ownCohortStaff(200) },
   // centre settings
   { method: 'get', path: () => '/api/centre', expect: signedIn(200) },
   {

@@ -61,6 +61,22 @@ describe('scenarios', () => {
     expect((await as(apprentice).get('/api/scenarios/bakery-fan-variant')).body.version).toBe(2)
   })
 
+  it('lists the library by title, says which scenarios are the centre’s own and carries their outcomes', async () => {
+    const items = scenarioListSchema.parse((await as(instructor).get('/api/scenarios')).body).items
+    const titles = items.map((s) => s.title)
+    // Intl.Collator (not our code) decides the order, without regard to case.
+    const collator = new Intl.Collator('en', { sensitivity: 'base', numeric: true })
+    expect(titles).toEqual([...titles].sort(collator.compare))
+    // The shipped keys and titles sort differently, so this fails for a list ordered by key.
+    const byKey = [...items].sort((a, b) => a.key.localeCompare(b.key)).map((s) => s.title)
+    expect(titles).not.toEqual(byKey)
+    const variant = items.find((s) => s.key === 'bakery-fan-variant')!
+    expect(variant).toMatchObject({ origin: 'centre', version: 2 })
+    const fan = items.find((s) => s.key === 'two-wire-run-stop')!
+    expect(fan.origin).toBe('shipped')
+    expect(fan.learningOutcomes).toEqual(shipped('two-wire-run-stop').learningOutcomes)
+  })
+
   it('refuses to create a key that exists', async () => {
     const response = await as(instructor).post('/api/scenarios', shipped('two-wire-run-stop'))
     expect(response.status).toBe(409)

@@ -6,6 +6,7 @@ import {
   AttemptEntity,
   CohortEntity,
   EnrollmentEntity,
+  ScenarioEntity,
   UserEntity,
 } from '../../server/entities'
 import { DEMO_ACCOUNTS, DEMO_DOMAIN, demoSignInTable } from '../../server/demo/demo-accounts'
@@ -32,6 +33,21 @@ describe('demo seed', () => {
     )
     expect(await api.dataSource.getRepository(CohortEntity).count()).toBe(2)
     expect(await api.dataSource.getRepository(EnrollmentEntity).count()).toBe(count('apprentice'))
+  })
+
+  it('files each sample attempt under the assignment of the scenario it was graded on', async () => {
+    const attempts = await api.dataSource.getRepository(AttemptEntity).find()
+    const assignments = await api.dataSource.getRepository(AssignmentEntity).find()
+    const scenarios = await api.dataSource.getRepository(ScenarioEntity).find()
+    const graded = attempts.filter((a) => a.evidence)
+    expect(graded.length).toBeGreaterThan(3)
+    for (const attempt of graded) {
+      const assignment = assignments.find((a) => a.id === attempt.assignmentId)!
+      const scenario = scenarios.find((s) => s.id === assignment.scenarioId)!
+      expect(attempt.scenarioId).toBe(scenario.id)
+      expect((JSON.parse(attempt.evidence!) as { scenarioId: string }).scenarioId).toBe(scenario.key)
+      expect(assignment.title).toBe(scenario.title)
+    }
   })
 
   it('puts every demo apprentice in the cohort of the instructor the demo accounts name', async () => {
