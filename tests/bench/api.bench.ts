@@ -8,7 +8,7 @@
 // Run alone: npx tsx --tsconfig tsconfig.node.json tests/bench/api.bench.ts
 // BENCH_API_SCALE=off skips the 200,000-attempt database; BENCH_API_SECONDS sets each load's length.
 import { randomUUID } from 'node:crypto'
-import { copyFileSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs'
+import { copyFileSync, mkdirSync, mkdtempSync, readFileSync, rmSync } from 'node:fs'
 import { loadavg, tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { pathToFileURL } from 'node:url'
@@ -41,7 +41,26 @@ export interface LoadFigures {
   total: number
   /** Responses that were not 2xx, plus socket errors and timeouts: must be 0 for the figure to count. */
   failures: number
+  /**
+   * CPU time the server process used per completed request (every thread: event loop, grading threads,
+   * SQLite's helpers), from /proc; NaN where /proc is missing. It says what a route costs on a machine whose
+   * cores are shared, where throughput depends on it.
+   */
+  cpuMsPerRequest: number
 }
+
+/** CPU time (user + system, all threads) a process has used so far, in ms; NaN without /proc. */
+function processCpuMs(pid: number | undefined): number {
+  try {
+    const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ')
+    // utime and stime are fields 14 and 15 of stat (11 and 12 after the command name), in clock ticks.
+    return ((Number(fields[11]) + Number(fields[12])) * 1000) / CLOCK_TICKS_PER_SECOND
+  } catch {
+    return Number.NaN
+  }
+}
+/** USER_HZ: 100 on Linux for every architecture this runs on (sysconf(_SC_CLK_TCK); common practice). */
+const CLOCK_TICKS_PER_SECOND = 100
 
 const DURATION_S = Number(process.env.BENCH_API_SECONDS ?? 8)
 const SCALE = process.env.BENCH_API_SCALE !== 'off'
@@ -50,10 +69,12 @@ const BODY_LIMIT = 2 * 1024 * 1024
 
 async function load(
   name: string,
-  url: string,
+  server: { url: string; child?: { pid?: number } },
   connections: number,
   request: autocannon.Request,
 ): Promise<LoadFigures> {
+  const { url } = server
+  const cpuBefore = processCpuMs(server.child?.pid)
   const result = await autocannon({
     url,
     connections,
@@ -69,6 +90,7 @@ async function load(
     p99: result.latency.p99,
     total: result.requests.total,
     failures: result.non2xx + result.errors + result.timeouts,
+    cpuMsPerRequest: (processCpuMs(server.child?.pid) - cpuBefore) / Math.max(1, result.requests.total),
   }
 }
 
@@ -154,14 +176,14 @@ async function prepare(server: ServerProcess, seeded: BulkSeedResult): Promise<W
 }
 
 const gradebookLoad = (server: ServerProcess, w: Workload) =>
-  load('gradebook page', server.url, 50, {
+  load('gradebook page', server, 50, {
     method: 'GET',
     path: w.gradebookPath,
     headers: { authorization: `Bearer ${w.instructorToken}` },
   })
 
 const submissionLoad = (server: ServerProcess, w: Workload, eventsJson: string) =>
-  load('attempt submission', server.url, 10, {
+  load('attempt submission', server, 10, {
     method: 'POST',
     path: '/api/attempts',
     headers: { authorization: `Bearer ${w.apprenticeToken}`, 'content-type': 'application/json' },
@@ -187,7 +209,7 @@ async function storeOnlyLoad(databasePath: string, w: Workload, eventsJson: stri
     timeoutMs: 30_000,
   })
   try {
-    return await load('store-only baseline', server.url, 10, {
+    return await load('store-only baseline', server, 10, {
       method: 'POST',
       path: '/attempts',
       headers: { 'content-type': 'application/json' },
@@ -251,7 +273,7 @@ export async function runApiBenchmark(): Promise<ApiBenchResult> {
     copyFileSync(databasePath, baselineDatabase)
 
     const bareServer = await startBareExpress()
-    const bare = await load('bare Express {}', bareServer.url, 50, { method: 'GET', path: '/' })
+    const bare = await load('bare Express {}', bareServer, 50, { method: 'GET', path: '/' })
     await bareServer.stop()
 
     server = await startSlipway(dataDir)
@@ -319,6 +341,13 @@ export function apiRows(r: ApiBenchResult): BenchRow[] {
       met: ok(r.gradebook) && r.gradebook.requestsPerSecond >= 0.5 * r.bare.requestsPerSecond,
     },
     { group, name: 'gradebook page p50', value: r.gradebook.p50, unit: 'ms' },
+    {
+      group,
+      name: 'gradebook page: server CPU per request (all threads)',
+      value: r.gradebook.cpuMsPerRequest,
+      unit: 'ms',
+      baseline: { name: 'bare Express {}', value: r.bare.cpuMsPerRequest },
+    },
     { group, name: 'gradebook page p99 (50 conn, 20k attempts)', value: r.gradebook.p99, unit: 'ms' },
     {
       group,
@@ -329,6 +358,12 @@ export function apiRows(r: ApiBenchResult): BenchRow[] {
     { group, name: 'store-only route p99', value: r.storeOnly.p99, unit: 'ms' },
     {
       group,
+      name: 'store-only route: server CPU per request (all threads)',
+      value: r.storeOnly.cpuMsPerRequest,
+      unit: 'ms',
+    },
+    {
+      group,
       name: `submission throughput (${r.submissionEvents} events, 10 conn)`,
       value: r.submission.requestsPerSecond,
       unit: 'req/s',
@@ -337,6 +372,13 @@ export function apiRows(r: ApiBenchResult): BenchRow[] {
       met: ok(r.submission) && r.submission.requestsPerSecond >= 0.5 * r.storeOnly.requestsPerSecond,
     },
     { group, name: 'submission p50', value: r.submission.p50, unit: 'ms' },
+    {
+      group,
+      name: 'submission: server CPU per request (all threads)',
+      value: r.submission.cpuMsPerRequest,
+      unit: 'ms',
+      baseline: { name: 'store-only route', value: r.storeOnly.cpuMsPerRequest },
+    },
     {
       group,
       name: 'submission p99 (10 conn, 20k attempts)',

@@ -12,6 +12,7 @@ describe('a dead control circuit', () => {
     await panel.openSheet('Values')
 
     // The +24 V supply reads nothing against 0V: the fuse.
+    await panel.meterMode('dcVolts')
     await panel.probe('red', 'drive.p24')
     await panel.probe('black', 'drive.0v')
     await expect.poll(async () => page.getByTestId('live-meter').textContent()).toMatch(/^\s*-?0\.\d+ V/)

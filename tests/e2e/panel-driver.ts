@@ -10,6 +10,7 @@ import type { Page } from 'playwright-core'
 import { layoutPanel } from '../../src/simulator/scene/layout'
 import { probeTip } from '../../src/simulator/scene/hitTest'
 import { pointOnCubic, wireCurve } from '../../src/simulator/scene/wireCurve'
+import { METER_MODE_LABELS, type MeterMode } from '../../shared/model/meterModes'
 import type {
   KeypadKey,
   PanelDevice,
@@ -261,13 +262,32 @@ export class PanelDriver {
     for (let i = 0; i < times; i++) await this.clickUntil(centre, await this.keypadEffect(key))
   }
 
-  /** Tests every line pair and the DC bus, lifting the probes from wherever they are. */
+  /** Turns the meter's selector by clicking its key on the canvas, checked beside the canvas. */
+  async meterMode(mode: MeterMode) {
+    const key = this.layout.meter.selector.find((k) => k.mode === mode)
+    if (!key) throw new Error(`no meter key for ${mode}`)
+    await this.clickUntil(
+      { x: key.rect.x + key.rect.w / 2, y: key.rect.y + key.rect.h / 2 },
+      {
+        action: `turning the meter to ${METER_MODE_LABELS[mode]}`,
+        expected: METER_MODE_LABELS[mode],
+        observe: () => this.state.meterMode(),
+      },
+    )
+  }
+
+  /**
+   * Tests every line pair on V AC and the DC bus on V DC, lifting the probes from wherever they are
+   * (the meter is turned to each range first, as an electrician would).
+   */
   async proveDead() {
+    await this.meterMode('acVolts')
     await this.probe('red', 'drive.l1')
     await this.probe('black', 'drive.l2')
     await this.probe('black', 'drive.l3')
     await this.probe('red', 'drive.l2')
     await this.probe('red', 'drive.l1')
+    await this.meterMode('dcVolts')
     await this.probe('red', 'drive.dcp')
     await this.probe('black', 'drive.dcn')
   }

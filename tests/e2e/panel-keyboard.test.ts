@@ -69,7 +69,7 @@ describe('commissioning raise/lower with the keyboard only', () => {
   it('can be done and submitted without touching the canvas', async () => {
     const { page, panel } = await openPanel(bed, 'raise-lower-commissioning')
 
-    // Prove dead with the probe lists.
+    // Prove dead with the probe lists, the meter on V AC for the line pairs and V DC for the bus.
     const pairs: [string, string][] = [
       ['incoming line 1', 'incoming line 2'],
       ['incoming line 2', 'incoming line 3'],
@@ -77,6 +77,12 @@ describe('commissioning raise/lower with the keyboard only', () => {
       ['DC bus positive', 'DC bus negative'],
     ]
     for (const [red, black] of pairs) {
+      const range = red.startsWith('DC bus') ? 'V DC' : 'V AC'
+      await page.getByRole('button', { name: `Meter selector: ${range}` }).focus()
+      await page.keyboard.press('Enter')
+      await expect
+        .poll(async () => page.getByTestId('meter-mode').locator('button[aria-pressed="true"]').textContent())
+        .toContain(range)
       await choose(page, 'Red probe (V+)', red)
       await choose(page, 'Black probe (COM)', black)
     }

@@ -60,6 +60,12 @@ export class PanelObserver {
     return `${this.deviceLabel(id)} ${pressed === 'true' ? 'held' : 'released'}`
   }
 
+  /** The meter selector's position in words ("V AC"), from its pressed button beside the canvas. */
+  async meterMode(): Promise<string> {
+    const pressed = this.page.getByTestId('meter-mode').locator('button[aria-pressed="true"]')
+    return (await pressed.count()) ? ((await pressed.first().textContent()) ?? '').trim() : 'no position'
+  }
+
   /** Where a probe is, from its field (which shows the point's name, or that it is lifted). */
   async probeAt(probe: ProbeColour): Promise<PointId | null> {
     const shown = await this.page.getByTestId(`probe-${probe}`).locator('input[role="combobox"]').inputValue()

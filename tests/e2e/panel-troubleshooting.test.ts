@@ -14,6 +14,7 @@ describe('finding and repairing a wrong contact block', () => {
 
     // With nothing pressed the raise input should be off; the meter shows it is fed.
     await panel.openSheet('Values')
+    await panel.meterMode('dcVolts')
     await panel.probe('red', 'drive.di2')
     await panel.probe('black', 'drive.0v')
     await expect.poll(async () => page.getByTestId('live-meter').textContent()).toMatch(/2\d\.\d+ V/)

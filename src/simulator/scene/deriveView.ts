@@ -58,6 +58,7 @@ export function deriveView(
     probes: { red: sim.meter.red, black: sim.meter.black },
     probeDrag: ui.probeDrag,
     meterText: meterText(circuit.meter),
+    meterMode: sim.meter.mode,
     highlight: ui.highlight,
     armed: ui.armed,
   }

@@ -1,6 +1,6 @@
 // What lies under a scene point. Pure geometry, so pointer handling can be tested without a canvas.
 import { TERMINAL_RADIUS } from './layout'
-import type { KeypadKey, PanelLayout, PointId, ProbeColour, Rect, Vec } from './types'
+import type { KeypadKey, MeterMode, PanelLayout, PointId, ProbeColour, Rect, Vec } from './types'
 import { distanceToCubic, wireCurve } from './wireCurve'
 
 export type Hit =
@@ -8,6 +8,7 @@ export type Hit =
   | { kind: 'device'; device: string }
   | { kind: 'disconnect' }
   | { kind: 'lock' }
+  | { kind: 'meterMode'; mode: MeterMode }
   | { kind: 'probe'; probe: ProbeColour }
   | { kind: 'terminal'; point: PointId }
   | { kind: 'wire'; wire: string }
@@ -46,6 +47,7 @@ export function hitTest(layout: PanelLayout, ctx: HitContext, p: Vec): Hit | nul
   }
   if (inRect(layout.disconnect.handle, p)) return { kind: 'disconnect' }
   if (inRect(layout.disconnect.lock, p)) return { kind: 'lock' }
+  for (const s of layout.meter.selector) if (inRect(s.rect, p)) return { kind: 'meterMode', mode: s.mode }
 
   // Probes before terminals: a placed probe covers its screw, and grabbing it moves it.
   for (const probe of ['red', 'black'] as const) {

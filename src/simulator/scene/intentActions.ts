@@ -1,6 +1,5 @@
 // What each pointer or keyboard intent records in the attempt: the model events to send, given the
 // model state now. Pure, so the mapping is tested without a panel.
-import { voltageRangeFor } from '@shared/model'
 import type { AttemptEvent } from '@shared/model/events'
 import type { SimState } from '@shared/model/types'
 import type { Intent } from './interaction'
@@ -59,14 +58,10 @@ export function actionsFor(intent: Intent, sim: SimState, colour: string): Panel
       return [{ type: sim.power.locked ? 'lock.removed' : 'lock.applied' }]
     case 'probe.place': {
       const probes = { red: sim.meter.red, black: sim.meter.black, [intent.probe]: intent.point }
-      const placed: PanelAction[] = [{ type: 'meter.probes', red: probes.red, black: probes.black }]
-      // Interim, until the panel has the meter's range selector: turn it to the voltage range that
-      // shows what the probed pair could carry (V AC on line and output terminals, V DC elsewhere).
-      if (probes.red && probes.black) {
-        const range = voltageRangeFor(probes.red, probes.black)
-        if (sim.meter.mode !== range) placed.push({ type: 'meter.mode', mode: range })
-      }
-      return placed
+      // The meter stays on whatever position the apprentice chose: choosing it is part of the skill.
+      return [{ type: 'meter.probes', red: probes.red, black: probes.black }]
     }
+    case 'meter.mode':
+      return sim.meter.mode === intent.mode ? [] : [{ type: 'meter.mode', mode: intent.mode }]
   }
 }

@@ -5,7 +5,7 @@
 // another (tap-tap: the first tap arms a wire from that terminal; a tap on the same terminal, on empty
 // panel or on anything else lets it go). Mouse, pen and touch work the same way.
 import type { Hit } from './hitTest'
-import type { KeypadKey, PanelLayout, PointId, ProbeColour, Vec } from './types'
+import type { KeypadKey, MeterMode, PanelLayout, PointId, ProbeColour, Vec } from './types'
 
 export type Gesture =
   | { kind: 'idle' }
@@ -32,6 +32,7 @@ export type Intent =
   | { type: 'keypad'; key: KeypadKey }
   | { type: 'disconnect.toggle' }
   | { type: 'lock.toggle' }
+  | { type: 'meter.mode'; mode: MeterMode }
   | { type: 'probe.place'; probe: ProbeColour; point: PointId | null }
 
 export interface GestureResult {
@@ -96,6 +97,8 @@ export function pointerDown(
       return { gesture: IDLE, intents: [{ type: 'disconnect.toggle' }] }
     case 'lock':
       return { gesture: IDLE, intents: [{ type: 'lock.toggle' }] }
+    case 'meterMode':
+      return { gesture: IDLE, intents: [{ type: 'meter.mode', mode: hit.mode }] }
     case 'probe':
       return { gesture: { kind: 'probe', probe: hit.probe, at: p }, intents: [] }
     case 'wire':

@@ -2,6 +2,7 @@
 // All wireable terminals share one horizontal line so wires can leave downward into the wireway
 // and never cover a terminal's label, which is printed above its screw.
 import { deviceTerminalLabels as terminalLabels } from '@shared/schematic/markings'
+import { METER_MODES } from '@shared/model/meterModes'
 import type { DeviceSpot, KeySpot, PanelDevice, PanelLayout, PointId, TerminalSpot } from './types'
 
 export const SCENE_WIDTH = 1280
@@ -132,6 +133,10 @@ export function layoutPanel(devices: readonly PanelDevice[]): PanelLayout {
       rect: { x: 20, y: 300, w: 190, h: 300 },
       display: { x: 38, y: 330, w: 154, h: 70 },
       holsters: { red: { x: 75, y: 560 }, black: { x: 155, y: 560 } },
+      selector: METER_MODES.map((mode, i) => ({
+        mode,
+        rect: { x: 38 + (i % 3) * 52, y: 408 + Math.floor(i / 3) * 30, w: 50, h: 26 },
+      })),
     },
     station,
     wireway: { x: 230, y: 440, w: 790, h: 180 },

@@ -35,6 +35,8 @@ export const PALETTE = {
   meterBody: 0x8cc7bd,
   meterEdge: 0x2f5d57,
   meterDisplay: 0xf3ead2,
+  meterKey: 0xdcefeb,
+  meterKeyOn: 0x2f5d57,
   motor: 0x6f7f8c,
   motorDark: 0x46535e,
   nameplate: 0xe9e3d2,

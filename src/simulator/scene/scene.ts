@@ -38,6 +38,15 @@ function box(g: Graphics, r: Rect, fill: number, edge: number, radius = 8) {
 /** Above this texture resolution the still parts are drawn as vectors each frame instead of cached. */
 const MAX_CACHE_RESOLUTION = 2.5
 
+/** The selector's positions as printed on the meter's buttons (short: they sit in a 50-unit key). */
+const METER_KEY_LABELS: Record<PanelView['meterMode'], string> = {
+  off: 'Off',
+  acVolts: 'V AC',
+  dcVolts: 'V DC',
+  resistance: 'Ω',
+  continuity: 'Cont.',
+}
+
 export class PanelScene {
   readonly root = new Container()
   /** What never changes (enclosures, printing, terminals): drawn once into a texture and reused. */
@@ -53,6 +62,8 @@ export class PanelScene {
   private readonly highlight = new Graphics()
   private readonly shaft = new Container()
   private readonly probes = new Graphics()
+  private readonly meterSelector = new Graphics()
+  private readonly meterSelectorLabels = new Map<string, Text>()
   private readonly displayLines: Text[] = []
   private readonly meterText: Text
   private readonly rpmText: Text
@@ -124,6 +135,17 @@ export class PanelScene {
       this.root.addChild(t)
     }
 
+    for (const key of layout.meter.selector) {
+      const label = text(
+        METER_KEY_LABELS[key.mode],
+        { fontSize: 12, fill: C.text, fontWeight: 'bold' },
+        key.rect.x + key.rect.w / 2,
+        key.rect.y + key.rect.h / 2,
+      )
+      this.meterSelectorLabels.set(key.mode, label)
+    }
+    this.root.addChild(this.meterSelector, ...this.meterSelectorLabels.values())
+
     this.root.addChild(
       this.meterText,
       this.rpmText,
@@ -170,6 +192,7 @@ export class PanelScene {
     this.when('meter', view.meterText, () => {
       this.meterText.text = view.meterText
     })
+    this.when('meterMode', view.meterMode, () => this.drawMeterSelector(view.meterMode))
     this.when('highlight', `${view.highlight}|${view.armed}`, () =>
       this.drawHighlight(view.highlight, view.armed),
     )
@@ -333,6 +356,17 @@ export class PanelScene {
     this.shaft.position.set(shaft.x, shaft.y)
   }
 
+  /** The selector's buttons, the chosen position filled dark with light lettering. */
+  private drawMeterSelector(mode: PanelView['meterMode']) {
+    const g = this.meterSelector.clear()
+    for (const key of this.layout.meter.selector) {
+      const on = key.mode === mode
+      box(g, key.rect, on ? C.meterKeyOn : C.meterKey, C.meterEdge, 4)
+      const label = this.meterSelectorLabels.get(key.mode)
+      if (label) label.style.fill = on ? C.meterKey : C.text
+    }
+  }
+
   private drawMeter(g: Graphics) {
     const { rect, display, holsters } = this.layout.meter
     box(g, rect, C.meterBody, C.meterEdge, 14)
@@ -350,7 +384,7 @@ export class PanelScene {
         'Drag a probe onto any\nterminal; drop it here\nto lift it.',
         { fontSize: 11, fill: C.text, align: 'center' },
         rect.x + rect.w / 2,
-        450,
+        496,
       ),
     )
     for (const probe of ['red', 'black'] as const) {

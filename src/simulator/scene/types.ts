@@ -1,4 +1,5 @@
 // Plain data shared by the panel's layout, hit-testing, interaction and drawing (no Pixi here).
+import type { MeterMode } from '@shared/model/meterModes'
 export type PointId = string
 
 export interface Vec {
@@ -65,10 +66,17 @@ export interface PanelLayout {
   drive: { rect: Rect; display: Rect; keys: KeySpot[]; statusLamp: Vec; controlStrip: Rect; powerStrip: Rect }
   disconnect: { rect: Rect; handle: Rect; lock: Rect }
   motor: { rect: Rect; shaft: Vec; shaftRadius: number; nameplate: Rect }
-  meter: { rect: Rect; display: Rect; holsters: { red: Vec; black: Vec } }
+  meter: {
+    rect: Rect
+    display: Rect
+    holsters: { red: Vec; black: Vec }
+    /** The function selector: one button per position, as printed on the meter. */
+    selector: { mode: MeterMode; rect: Rect }[]
+  }
   station: Rect
   /** The band below the terminal strips where wires run. */
   wireway: Rect
 }
 
 export type ProbeColour = 'red' | 'black'
+export type { MeterMode }

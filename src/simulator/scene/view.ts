@@ -1,6 +1,6 @@
 // Everything the scene draws, as plain data. The wrapper derives it from the model's readings;
 // the scene never reads the model itself.
-import type { PointId, ProbeColour, Vec } from './types'
+import type { MeterMode, PointId, ProbeColour, Vec } from './types'
 
 export interface ViewWire {
   id: string
@@ -32,6 +32,8 @@ export interface PanelView {
   /** While a probe is being dragged, where its tip is. */
   probeDrag: { probe: ProbeColour; at: Vec } | null
   meterText: string
+  /** Where the meter's function selector points (the apprentice turns it). */
+  meterMode: MeterMode
   /** Terminal under the pointer or focused by keyboard, highlighted. */
   highlight: PointId | null
   /** First terminal of a wire drawn tap by tap, waiting for the second. */
@@ -54,6 +56,7 @@ export function emptyView(): PanelView {
     probes: { red: null, black: null },
     probeDrag: null,
     meterText: '---',
+    meterMode: 'off',
     highlight: null,
     armed: null,
   }

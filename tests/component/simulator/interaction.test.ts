@@ -156,3 +156,29 @@ describe('wiring by tap-tap (mouse, pen and touch alike)', () => {
     })
   })
 })
+
+describe('the meter’s function selector', () => {
+  it('has one key per position, inside the meter and clear of its window, holsters and each other', () => {
+    const { rect, display, holsters, selector } = layout.meter
+    expect(selector.map((k) => k.mode)).toEqual(['off', 'acVolts', 'dcVolts', 'resistance', 'continuity'])
+    const inside = (r: { x: number; y: number; w: number; h: number }) =>
+      r.x >= rect.x && r.y >= rect.y && r.x + r.w <= rect.x + rect.w && r.y + r.h <= rect.y + rect.h
+    const apart = (a: typeof display, b: typeof display) =>
+      a.x + a.w <= b.x || b.x + b.w <= a.x || a.y + a.h <= b.y || b.y + b.h <= a.y
+    for (const key of selector) {
+      expect(inside(key.rect)).toBe(true)
+      expect(apart(key.rect, display)).toBe(true)
+      for (const h of Object.values(holsters)) expect(key.rect.y + key.rect.h).toBeLessThan(h.y)
+      for (const other of selector) if (other !== key) expect(apart(key.rect, other.rect)).toBe(true)
+    }
+  })
+
+  it('turns the selector where the apprentice clicks it', () => {
+    for (const key of layout.meter.selector) {
+      const centre = { x: key.rect.x + key.rect.w / 2, y: key.rect.y + key.rect.h / 2 }
+      const hit = hitTest(layout, noWires, centre)
+      expect(hit).toEqual({ kind: 'meterMode', mode: key.mode })
+      expect(pointerDown(ctx, IDLE, hit, centre).intents).toEqual([{ type: 'meter.mode', mode: key.mode }])
+    }
+  })
+})
