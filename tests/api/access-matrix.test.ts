@@ -74,6 +74,14 @@ const ROUTES: Route[] = [
     body: () => ({ name: 'Same Name Kept' }),
     expect: signedIn(200),
   },
+  // Each person's own optional mail: anyone signed in, for themselves only (there is no user id to name).
+  { method: 'get', path: () => '/api/auth/me/mail-preferences', expect: signedIn(200) },
+  {
+    method: 'patch',
+    path: () => '/api/auth/me/mail-preferences',
+    body: () => ({ dueReminders: true, dailyDigest: true }),
+    expect: signedIn(200),
+  },
   {
     method: 'post',
     path: () => '/api/auth/change-password',
