@@ -9,6 +9,7 @@ export const endpoints = {
     signOutEverywhere: '/auth/sign-out-everywhere',
     me: '/auth/me',
     profile: '/auth/me',
+    mailPreferences: '/auth/me/mail-preferences',
     password: '/auth/change-password',
     resetRequest: '/auth/password-reset',
     resetConfirm: '/auth/password-reset/confirm',
