@@ -167,6 +167,28 @@ const ROUTES: Route[] = [
     path: (w) => `/api/cohorts/${w.cohortA.id}/invitations/00000000-0000-4000-8000-000000000000`,
     expect: ownCohortStaff(404),
   },
+  // An id that names no pending invitation: the cohort check comes first, then 404.
+  {
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/invitations/${NO_SUCH_ID}/resend`,
+    expect: ownCohortStaff(404),
+  },
+  {
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/invitations/${NO_SUCH_ID}/link`,
+    expect: ownCohortStaff(404),
+  },
+  {
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/invitations/roster?rows=valid`,
+    attach: {
+      field: 'roster',
+      filename: 'roster.csv',
+      contentType: 'text/csv',
+      content: () => `name,email\nRow Person,row-${randomUUID().slice(0, 8)}@slipway.test\nBad Row,nope\n`,
+    },
+    expect: ownCohortStaff(201),
+  },
   // several members at once
   {
     method: 'post',
@@ -385,6 +407,10 @@ const ROUTES: Route[] = [
     body: () => ({ email: `staff-${randomUUID().slice(0, 8)}@slipway.test`, name: 'New Staff' }),
     expect: adminOnly(201),
   },
+  { method: 'get', path: () => '/api/admin/invitations', expect: adminOnly(200) },
+  { method: 'post', path: () => `/api/admin/invitations/${NO_SUCH_ID}/resend`, expect: adminOnly(404) },
+  { method: 'post', path: () => `/api/admin/invitations/${NO_SUCH_ID}/link`, expect: adminOnly(404) },
+  { method: 'delete', path: () => `/api/admin/invitations/${NO_SUCH_ID}`, expect: adminOnly(404) },
   { method: 'get', path: () => '/api/admin/outbox', expect: adminOnly(200) },
   // An id that names no message: the role check comes first, then 404.
   { method: 'post', path: () => `/api/admin/outbox/${randomUUID()}/retry`, expect: adminOnly(404) },
