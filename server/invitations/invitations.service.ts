@@ -27,7 +27,7 @@ import {
   type InvitationRow,
   type UserRow,
 } from '../entities'
-import { HttpError, conflict, notFound } from '../http-error'
+import { HttpError, conflict } from '../http-error'
 import { DAY, isoIn, nowIso } from '../infrastructure/clock'
 import { centreTimeZone } from '../centre/centre.service'
 import { queueMail } from '../infrastructure/mail/mail-job'
