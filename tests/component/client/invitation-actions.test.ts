@@ -84,6 +84,10 @@ describe('the actions on a pending invitation', () => {
     expect(document.body.textContent).toContain('The link for Rue Hollin is on your clipboard.')
     const field = document.querySelector<HTMLInputElement>('[data-test="invitation-link"] input')!
     expect(field.value).toBe(LINK.url)
+    expect(wrapper.emitted('changed')).toBeUndefined() // the list reloads once the link has been seen
+    dialogButton('Done')!.click()
+    await settle()
+    expect(wrapper.emitted('changed')).toHaveLength(1)
   })
 
   it('shows the link to copy by hand when the browser refuses the clipboard', async () => {
