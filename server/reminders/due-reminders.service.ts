@@ -38,7 +38,8 @@ async function candidates(ds: DataSource, from: string, to: string): Promise<Ass
   const extended = await ds
     .getRepository(AssignmentExceptionEntity)
     .createQueryBuilder('e')
-    .select('DISTINCT e.assignmentId', 'assignmentId')
+    .select('e.assignmentId', 'assignmentId')
+    .distinct(true)
     .where('e.dueAt > :from AND e.dueAt <= :to', between)
     .getRawMany<{ assignmentId: string }>()
   const seen = new Set(byOwnDate.map((a) => a.id))
