@@ -13,6 +13,7 @@ import { attemptsRouter } from './attempts/attempts.router'
 import { authRouter } from './auth/auth.router'
 import { centreRouter } from './centre/centre.router'
 import { cohortsRouter } from './cohorts/cohorts.router'
+import { cohortTeachingRouter } from './cohorts/teaching.router'
 import type { AppConfig } from './config'
 import type { AppContext } from './context'
 import { createGradebookCache } from './gradebook/gradebook-cache'
@@ -132,6 +133,7 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api/attention', attentionRouter(ctx))
   app.use('/api/apprentices', apprenticesRouter(ctx))
   app.use('/api/cohorts', cohortsRouter(ctx))
+  app.use('/api/cohorts', cohortTeachingRouter(ctx))
   app.use('/api/cohorts', gradebookRouter(ctx))
   app.use('/api/scenarios', scenariosRouter(ctx))
   app.use('/api/scenario-versions', scenarioVersionsRouter(ctx))

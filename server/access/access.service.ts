@@ -5,6 +5,7 @@ import {
   AssignmentEntity,
   AttemptEntity,
   CohortEntity,
+  CohortInstructorEntity,
   EnrollmentEntity,
   UserEntity,
   type AssignmentRow,
@@ -19,6 +20,19 @@ export async function isEnrolled(ds: DataSource, cohortId: string, userId: strin
   return (await ds.getRepository(EnrollmentEntity).countBy({ cohortId, userId })) > 0
 }
 
+/** Whether the user teaches the cohort: its owner or one of its co-instructors. */
+export async function teaches(ds: DataSource, cohort: CohortRow, userId: string): Promise<boolean> {
+  if (cohort.ownerId === userId) return true
+  return (await ds.getRepository(CohortInstructorEntity).countBy({ cohortId: cohort.id, userId })) > 0
+}
+
+/** The ids of the cohorts an instructor teaches: owned and co-taught. */
+export async function taughtCohortIds(ds: DataSource, userId: string): Promise<string[]> {
+  const owned = await ds.getRepository(CohortEntity).findBy({ ownerId: userId })
+  const shared = await ds.getRepository(CohortInstructorEntity).findBy({ userId })
+  return [...new Set([...owned.map((c) => c.id), ...shared.map((c) => c.cohortId)])]
+}
+
 export async function cohortFor(
   ds: DataSource,
   user: UserRow,
@@ -28,7 +42,7 @@ export async function cohortFor(
   const cohort = await findById(ds, CohortEntity, cohortId)
   if (!cohort) throw notFound('Cohort')
   if (user.role === 'admin') return cohort
-  if (user.role === 'instructor' && cohort.ownerId === user.id) return cohort
+  if (user.role === 'instructor' && (await teaches(ds, cohort, user.id))) return cohort
   if (mode === 'read' && user.role === 'apprentice' && (await isEnrolled(ds, cohort.id, user.id)))
     return cohort
   throw forbidden(mode === 'manage' ? 'Only the cohort’s instructor can do this' : 'This cohort is not yours')
@@ -60,7 +74,7 @@ export async function attemptFor(
   if (user.role === 'instructor' && attempt.assignmentId) {
     const assignment = await ds.getRepository(AssignmentEntity).findOneBy({ id: attempt.assignmentId })
     const cohort = assignment && (await ds.getRepository(CohortEntity).findOneBy({ id: assignment.cohortId }))
-    if (cohort?.ownerId === user.id) return attempt
+    if (cohort && (await teaches(ds, cohort, user.id))) return attempt
   }
   // Free practice belongs to no cohort: the instructors of the apprentice's cohorts may read it.
   if (user.role === 'instructor' && !attempt.assignmentId && mode === 'read') {
@@ -98,14 +112,12 @@ export async function apprenticeFor(ds: DataSource, user: UserRow, apprenticeId:
 export async function managedCohortIds(ds: DataSource, user: UserRow): Promise<string[] | undefined> {
   if (user.role === 'admin') return undefined
   if (user.role !== 'instructor') return []
-  return (await ds.getRepository(CohortEntity).findBy({ ownerId: user.id })).map((c) => c.id)
+  return taughtCohortIds(ds, user.id)
 }
 
-/** Cohort ids a user may read: enrolled (apprentice), owned (instructor), all (admin → undefined). */
+/** Cohort ids a user may read: enrolled (apprentice), taught (instructor), all (admin → undefined). */
 export async function readableCohortIds(ds: DataSource, user: UserRow): Promise<string[] | undefined> {
   if (user.role === 'admin') return undefined
-  if (user.role === 'instructor') {
-    return (await ds.getRepository(CohortEntity).findBy({ ownerId: user.id })).map((c) => c.id)
-  }
+  if (user.role === 'instructor') return taughtCohortIds(ds, user.id)
   return (await ds.getRepository(EnrollmentEntity).findBy({ userId: user.id })).map((e) => e.cohortId)
 }

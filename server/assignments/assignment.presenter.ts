@@ -7,7 +7,7 @@ import { histogram, mean, median } from './stats'
 
 export const presentAssignment = (
   row: AssignmentRow,
-  related: { cohortName: string; scenario: { key: string; version: number }; mine?: Standing },
+  related: { cohortName: string; scenario: { key: string; version: number; title: string }; mine?: Standing },
 ): Assignment => {
   const terms = assignmentTerms(row)
   const mine = related.mine
@@ -17,6 +17,7 @@ export const presentAssignment = (
     cohortName: related.cohortName,
     scenarioId: row.scenarioId,
     scenarioKey: related.scenario.key,
+    scenarioTitle: related.scenario.title,
     scenarioVersion: related.scenario.version,
     title: row.title,
     opensAt: row.opensAt,

@@ -44,7 +44,7 @@ async function presentAssignments(
     .findBy({ id: In([...new Set(rows.map((r) => r.cohortId))]) })
   const scenarios = await ds.getRepository(ScenarioEntity).find({
     where: { id: In([...new Set(rows.map((r) => r.scenarioId))]) },
-    select: { id: true, key: true, version: true },
+    select: { id: true, key: true, version: true, title: true },
   })
   const mine =
     viewer.role === 'apprentice' ? await standingsFor(ds, rows, [viewer.id], nowIso(), viewer.id) : undefined

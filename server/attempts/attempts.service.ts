@@ -13,13 +13,12 @@ import type {
   GradeOverrideRequest,
   attemptListQuerySchema,
 } from '@shared/api/attempts'
-import { assignmentFor, attemptFor } from '../access/access.service'
+import { assignmentFor, attemptFor, taughtCohortIds } from '../access/access.service'
 import { appLink, type AppContext } from '../context'
 import {
   AssignmentEntity,
   AttemptEntity,
   AuditEntryEntity,
-  CohortEntity,
   FeedbackEntity,
   ScenarioEntity,
   UserEntity,
@@ -131,9 +130,9 @@ export async function listAttempts(
     if (q.userId && q.userId !== user.id) throw forbidden('You can only list your own attempts')
     where.userId = user.id
   } else if (user.role === 'instructor' && !q.assignmentId) {
-    const cohorts = await ds.getRepository(CohortEntity).findBy({ ownerId: user.id })
-    const assignments = cohorts.length
-      ? await ds.getRepository(AssignmentEntity).findBy({ cohortId: In(cohorts.map((c) => c.id)) })
+    const cohortIds = await taughtCohortIds(ds, user.id)
+    const assignments = cohortIds.length
+      ? await ds.getRepository(AssignmentEntity).findBy({ cohortId: In(cohortIds) })
       : []
     where.assignmentId = In(assignments.map((a) => a.id))
   }

@@ -43,7 +43,7 @@ async function presentCohorts(ctx: AppContext, rows: CohortRow[]): Promise<Cohor
   )
 }
 
-async function presentOne(ctx: AppContext, row: CohortRow): Promise<Cohort> {
+export async function presentCohortFor(ctx: AppContext, row: CohortRow): Promise<Cohort> {
   return (await presentCohorts(ctx, [row]))[0]!
 }
 
@@ -83,11 +83,11 @@ export async function createCohort(ctx: AppContext, user: UserRow, body: CreateC
     createdAt: nowIso(),
   }
   await ctx.dataSource.getRepository(CohortEntity).insert(row)
-  return presentOne(ctx, row)
+  return presentCohortFor(ctx, row)
 }
 
 export async function getCohort(ctx: AppContext, user: UserRow, cohortId: string): Promise<Cohort> {
-  return presentOne(ctx, await cohortFor(ctx.dataSource, user, cohortId, 'read'))
+  return presentCohortFor(ctx, await cohortFor(ctx.dataSource, user, cohortId, 'read'))
 }
 
 export async function updateCohort(
@@ -104,7 +104,7 @@ export async function updateCohort(
   await ctx.dataSource
     .getRepository(CohortEntity)
     .update({ id: cohort.id }, { name: next.name, description: next.description, archived: next.archived })
-  return presentOne(ctx, next)
+  return presentCohortFor(ctx, next)
 }
 
 export async function listMembers(ctx: AppContext, user: UserRow, cohortId: string): Promise<CohortMember[]> {

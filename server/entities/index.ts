@@ -14,6 +14,7 @@ import { JobEntity } from './job'
 import { ltiEntities } from './lti'
 import { MailMessageEntity } from './mail-message'
 import { OutcomeSignOffEntity } from './outcome-sign-off'
+import { OutcomeSignOffWithdrawalEntity } from './outcome-sign-off-withdrawal'
 import { PasswordResetEntity } from './password-reset'
 import { RateLimitCounterEntity } from './rate-limit-counter'
 import { RefreshTokenEntity } from './refresh-token'
@@ -36,6 +37,7 @@ export * from './job'
 export * from './lti'
 export * from './mail-message'
 export * from './outcome-sign-off'
+export * from './outcome-sign-off-withdrawal'
 export * from './password-reset'
 export * from './rate-limit-counter'
 export * from './refresh-token'
@@ -61,6 +63,7 @@ export const entities = [
   JobEntity,
   ...ltiEntities,
   OutcomeSignOffEntity,
+  OutcomeSignOffWithdrawalEntity,
   CentreSettingsEntity,
   AssignmentExceptionEntity,
   AssignmentRecipientEntity,

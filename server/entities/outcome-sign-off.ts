@@ -15,19 +15,22 @@ export interface OutcomeSignOffRow {
   signedAt: string
 }
 
+/** The sign-off's columns; a withdrawn sign-off keeps them all (outcome-sign-off-withdrawal.ts). */
+export const outcomeSignOffColumns = {
+  id: uuidPrimary,
+  apprenticeId: uuidColumn,
+  cohortId: uuidColumn,
+  scenarioKey: varchar(80),
+  outcome: varchar(500),
+  note: text,
+  signedById: uuidColumn,
+  signedAt: timestamp,
+}
+
 export const OutcomeSignOffEntity = new EntitySchema<OutcomeSignOffRow>({
   name: 'OutcomeSignOff',
   tableName: 'outcome_sign_offs',
-  columns: {
-    id: uuidPrimary,
-    apprenticeId: uuidColumn,
-    cohortId: uuidColumn,
-    scenarioKey: varchar(80),
-    outcome: varchar(500),
-    note: text,
-    signedById: uuidColumn,
-    signedAt: timestamp,
-  },
+  columns: outcomeSignOffColumns,
   uniques: [
     {
       name: 'uq_outcome_sign_offs',

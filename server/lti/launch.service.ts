@@ -7,6 +7,7 @@
 import { randomUUID } from 'node:crypto'
 import { IsNull } from 'typeorm'
 import type { LaunchDestination } from '@shared/api/lti'
+import { teaches } from '../access/access.service'
 import type { AppContext } from '../context'
 import {
   AssignmentEntity,
@@ -187,7 +188,7 @@ async function destinationOf(
 
   const assignmentId = await assignmentOfActivity(ctx, launch, context, cohort)
   if (user.role !== 'apprentice') {
-    if (user.role === 'instructor' && cohort.ownerId !== user.id) {
+    if (user.role === 'instructor' && !(await teaches(ctx.dataSource, cohort, user.id))) {
       return {
         kind: 'notReady',
         message:

@@ -18,6 +18,9 @@ declare module 'express-serve-static-core' {
 
 export function authenticate(ctx: AppContext): Middleware {
   return async (req, _res, next) => {
+    // Several routers share a mount path (/api/cohorts, /api): the first one's check stands for the
+    // rest of this request, so the token is verified and the account read once, not once per router.
+    if (req.auth) return next()
     const header = req.headers.authorization
     if (!header?.startsWith('Bearer ')) {
       throw new HttpError(401, 'unauthenticated', 'Sign in first (no access token was sent)')

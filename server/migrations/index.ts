@@ -8,6 +8,7 @@ import { Lti1765100000000 } from './1765100000000-lti'
 import { OutcomeSignOffs1765200000000 } from './1765200000000-outcome-sign-offs'
 import { InstructorWeek1765300000000 } from './1765300000000-instructor-week'
 import { MailPreferences1765400000000 } from './1765400000000-mail-preferences'
+import { SignOffWithdrawals1765600000000 } from './1765600000000-sign-off-withdrawals'
 
 export const migrations = [
   InitialSchema1764600000000,
@@ -19,4 +20,5 @@ export const migrations = [
   OutcomeSignOffs1765200000000,
   InstructorWeek1765300000000,
   MailPreferences1765400000000,
+  SignOffWithdrawals1765600000000,
 ]

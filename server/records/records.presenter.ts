@@ -5,8 +5,9 @@ import type {
   OutcomeSignOff,
   TrainingOutcome,
   TrainingRecordSummary,
+  WithdrawnSignOff,
 } from '@shared/api/records'
-import type { OutcomeSignOffRow } from '../entities'
+import type { OutcomeSignOffRow, OutcomeSignOffWithdrawalRow } from '../entities'
 import type { RecordAttempt, TrainingData } from './trainingData'
 import { ASSISTANCE_LEVELS, formatAttemptTime, formatDateTime, formatDuration } from './format'
 import { trendChartSvg } from './trendChart'
@@ -43,6 +44,16 @@ export const presentSignOff = (row: OutcomeSignOffRow, byName: string): OutcomeS
   note: row.note,
 })
 
+export const presentWithdrawnSignOff = (
+  row: OutcomeSignOffWithdrawalRow,
+  names: ReadonlyMap<string, string>,
+): WithdrawnSignOff => ({
+  ...presentSignOff(row, names.get(row.signedById) ?? ''),
+  withdrawnByName: names.get(row.withdrawnById) ?? '',
+  withdrawnAt: row.withdrawnAt,
+  reason: row.reason,
+})
+
 export function trainingOutcomes(data: TrainingData): TrainingOutcome[] {
   return exercises(data).flatMap((exercise) => {
     const shown = data.attempts.find((a) => a.passed === true && keyOfAttempt(data, a) === exercise.key)
@@ -61,6 +72,9 @@ export function trainingOutcomes(data: TrainingData): TrainingOutcome[] {
             }
           : null,
         signOff: signOff ? presentSignOff(signOff, data.names.get(signOff.signedById) ?? '') : null,
+        withdrawnSignOffs: data.withdrawals
+          .filter((w) => w.scenarioKey === exercise.key && w.outcome === outcome)
+          .map((w) => presentWithdrawnSignOff(w, data.names)),
       }
     })
   })
@@ -100,6 +114,13 @@ export function trainingRecordView(
         score: o.shownBy.score,
       },
       signOff: o.signOff && { by: o.signOff.byName, at: o.signOff.at, note: o.signOff.note },
+      withdrawn: o.withdrawnSignOffs.map((w) => ({
+        by: w.byName,
+        at: w.at,
+        withdrawnBy: w.withdrawnByName,
+        withdrawnAt: w.withdrawnAt,
+        reason: w.reason,
+      })),
     })),
     attempts: data.attempts.map((a) => ({
       scenarioTitle: titleOf(data, a),

@@ -2,7 +2,11 @@
 // (JSON and PDF), a cohort's training records as a zip, and an instructor's sign-off of an outcome.
 import { Router, type Response } from 'express'
 import { idParamsSchema } from '@shared/api/common'
-import { signOffRequestSchema, trainingRecordQuerySchema } from '@shared/api/records'
+import {
+  signOffRequestSchema,
+  signOffWithdrawalRequestSchema,
+  trainingRecordQuerySchema,
+} from '@shared/api/records'
 import type { AppContext } from '../context'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
@@ -13,6 +17,7 @@ import {
   signOffOutcome,
   trainingRecordFile,
   trainingRecordSummary,
+  withdrawSignOff,
   type RecordFile,
 } from './records.service'
 
@@ -75,6 +80,16 @@ export function recordsRouter(ctx: AppContext): Router {
     validate({ params: idParamsSchema, body: signOffRequestSchema }),
     async (req, res) => {
       res.status(201).json(await signOffOutcome(ctx, currentUser(req), req.params.id, req.body))
+    },
+  )
+
+  router.post(
+    '/sign-offs/:id/withdrawal',
+    auth,
+    staff,
+    validate({ params: idParamsSchema, body: signOffWithdrawalRequestSchema }),
+    async (req, res) => {
+      res.status(201).json(await withdrawSignOff(ctx, currentUser(req), req.params.id, req.body))
     },
   )
 

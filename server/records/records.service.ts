@@ -9,11 +9,13 @@ import type {
   CommissioningRecord,
   OutcomeSignOff,
   SignOffRequest,
+  SignOffWithdrawalRequest,
   TrainingRecordQuery,
   TrainingRecordSummary,
+  WithdrawnSignOff,
 } from '@shared/api/records'
 import { scenarioSchema } from '@shared/scenario'
-import { attemptFor, cohortFor } from '../access/access.service'
+import { attemptFor, cohortFor, taughtCohortIds } from '../access/access.service'
 import type { AppContext } from '../context'
 import {
   AssignmentEntity,
@@ -22,9 +24,11 @@ import {
   EnrollmentEntity,
   FeedbackEntity,
   OutcomeSignOffEntity,
+  OutcomeSignOffWithdrawalEntity,
   ScenarioEntity,
   UserEntity,
   type OutcomeSignOffRow,
+  type OutcomeSignOffWithdrawalRow,
   type UserRow,
 } from '../entities'
 import { HttpError, conflict, forbidden, notFound } from '../http-error'
@@ -37,6 +41,7 @@ import {
   presentCommissioningRecord,
   presentSignOff,
   presentTrainingSummary,
+  presentWithdrawnSignOff,
   trainingRecordView,
 } from './records.presenter'
 import { labelsOfApprentice, loadTrainingData, type TrainingScope } from './trainingData'
@@ -179,11 +184,10 @@ async function trainingScope(
     return { cohortIds: [query.cohortId], includePractice: false }
   }
   if (user.role !== 'instructor') return { cohortIds: enrolled, includePractice: true }
-  const taught = enrolled.length
-    ? await ds.getRepository(CohortEntity).findBy({ id: In(enrolled), ownerId: user.id })
-    : []
+  const mine = new Set(await taughtCohortIds(ds, user.id))
+  const taught = enrolled.filter((id) => mine.has(id))
   if (taught.length === 0) throw forbidden('This apprentice is not in any of your cohorts')
-  return { cohortIds: taught.map((c) => c.id), includePractice: false }
+  return { cohortIds: taught, includePractice: false }
 }
 
 export async function trainingRecordSummary(
@@ -307,4 +311,63 @@ export async function signOffOutcome(
     })
   })
   return presentSignOff(row, user.name)
+}
+
+/**
+ * An instructor of the cohort (or an admin) withdraws a sign-off, saying why: the sign-off moves to the
+ * withdrawals with who, when and the reason, and the act is audited, in one transaction. The outcome
+ * reads "not signed off" again and may be signed off anew; the training record keeps the withdrawal.
+ */
+export async function withdrawSignOff(
+  ctx: AppContext,
+  user: UserRow,
+  signOffId: string,
+  request: SignOffWithdrawalRequest,
+): Promise<WithdrawnSignOff> {
+  const ds = ctx.dataSource
+  const signOff = await ds.getRepository(OutcomeSignOffEntity).findOneBy({ id: signOffId })
+  if (!signOff) {
+    const earlier = await ds.getRepository(OutcomeSignOffWithdrawalEntity).findOneBy({ id: signOffId })
+    if (earlier) {
+      await cohortFor(ds, user, earlier.cohortId, 'manage')
+      throw notReady('This sign-off has already been withdrawn')
+    }
+    throw notFound('Sign-off')
+  }
+  await cohortFor(ds, user, signOff.cohortId, 'manage')
+  const row: OutcomeSignOffWithdrawalRow = {
+    ...signOff,
+    withdrawnById: user.id,
+    withdrawnAt: nowIso(),
+    reason: request.reason,
+  }
+  await ds.transaction(async (manager) => {
+    // Only the transaction that removes the sign-off records its withdrawal (two clicks, one withdrawal).
+    const removed = await manager.getRepository(OutcomeSignOffEntity).delete({ id: signOff.id })
+    if (!removed.affected) throw notReady('This sign-off has already been withdrawn')
+    await manager.getRepository(OutcomeSignOffWithdrawalEntity).insert(row)
+    await manager.getRepository(AuditEntryEntity).insert({
+      id: randomUUID(),
+      actorId: user.id,
+      action: 'outcome.signOffWithdrawn',
+      entityType: 'outcomeSignOff',
+      entityId: signOff.id,
+      fromValue: JSON.stringify({
+        apprenticeId: signOff.apprenticeId,
+        cohortId: signOff.cohortId,
+        scenarioKey: signOff.scenarioKey,
+        outcome: signOff.outcome,
+        signedById: signOff.signedById,
+        signedAt: signOff.signedAt,
+        note: signOff.note,
+      }),
+      toValue: JSON.stringify({ withdrawnById: row.withdrawnById, withdrawnAt: row.withdrawnAt }),
+      reason: request.reason,
+      createdAt: row.withdrawnAt,
+    })
+  })
+  const people = await ds
+    .getRepository(UserEntity)
+    .find({ where: { id: In([row.signedById, row.withdrawnById]) }, select: { id: true, name: true } })
+  return presentWithdrawnSignOff(row, new Map(people.map((p) => [p.id, p.name])))
 }

@@ -11,11 +11,13 @@ import {
   AttemptEntity,
   CohortEntity,
   OutcomeSignOffEntity,
+  OutcomeSignOffWithdrawalEntity,
   ScenarioEntity,
   UserEntity,
   type AttemptRow,
   type CohortRow,
   type OutcomeSignOffRow,
+  type OutcomeSignOffWithdrawalRow,
   type ScenarioRow,
   type UserRow,
 } from '../entities'
@@ -37,7 +39,9 @@ export interface TrainingData {
   assignedScenarioIds: string[]
   attempts: RecordAttempt[]
   signOffs: OutcomeSignOffRow[]
-  /** Names of everyone who signed off or owns a cohort in scope, by id. */
+  /** Sign-offs withdrawn in the scope's cohorts, oldest first. */
+  withdrawals: OutcomeSignOffWithdrawalRow[]
+  /** Names of everyone who signed off, withdrew a sign-off or owns a cohort in scope, by id. */
   names: Map<string, string>
 }
 
@@ -124,7 +128,19 @@ export async function loadTrainingData(
         order: { signedAt: 'ASC' },
       })
     : []
-  const peopleIds = [...new Set([...signOffs.map((s) => s.signedById), ...cohorts.map((c) => c.ownerId)])]
+  const withdrawals = cohorts.length
+    ? await ds.getRepository(OutcomeSignOffWithdrawalEntity).find({
+        where: { apprenticeId: apprentice.id, cohortId: In(cohorts.map((c) => c.id)) },
+        order: { withdrawnAt: 'ASC' },
+      })
+    : []
+  const peopleIds = [
+    ...new Set([
+      ...signOffs.map((s) => s.signedById),
+      ...withdrawals.flatMap((w) => [w.signedById, w.withdrawnById]),
+      ...cohorts.map((c) => c.ownerId),
+    ]),
+  ]
   const people = peopleIds.length
     ? await ds
         .getRepository(UserEntity)
@@ -141,6 +157,7 @@ export async function loadTrainingData(
       grade: parseGrade(row.evidence),
     })),
     signOffs,
+    withdrawals,
     names: new Map(people.map((p) => [p.id, p.name])),
   }
 }

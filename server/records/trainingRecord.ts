@@ -14,12 +14,21 @@ import {
   renderPdf,
   signatureBlock,
 } from './pdf'
-import type { TrainingRecordView } from './types'
+import type { OutcomeLine, TrainingRecordView } from './types'
 
 export function trainingRecordDocument(view: TrainingRecordView): TDocumentDefinitions {
   const clock = clockOf(view)
   const shown = view.outcomes.filter((o) => o.shownBy).length
   const signed = view.outcomes.filter((o) => o.signOff).length
+  const withdrawnCount = view.outcomes.reduce((n, o) => n + o.withdrawn.length, 0)
+  // A withdrawn sign-off stays on the record, struck through in words: who signed, who withdrew it and why.
+  const withdrawals = (o: OutcomeLine): Content[] =>
+    o.withdrawn.map((w) => ({
+      text: `Sign-off by ${w.by} (${formatDate(w.at, clock)}) withdrawn by ${w.withdrawnBy}, ${formatDate(w.withdrawnAt, clock)}: ${w.reason}`,
+      fontSize: 8,
+      color: '#8a1c1c',
+      margin: [0, 2, 0, 0],
+    }))
   const outcomes: TableCell[][] = view.outcomes.map((o) => [
     { stack: [{ text: o.outcome }, { text: o.scenarioTitle, style: 'small' }] },
     o.shownBy
@@ -31,9 +40,10 @@ export function trainingRecordDocument(view: TrainingRecordView): TDocumentDefin
           stack: [
             { text: `${o.signOff.by}, ${formatDate(o.signOff.at, clock)}`, bold: true },
             ...(o.signOff.note ? [{ text: o.signOff.note, fontSize: 9 }] : []),
+            ...withdrawals(o),
           ],
         }
-      : { text: 'Not signed off', color: '#666666' },
+      : { stack: [{ text: 'Not signed off', color: '#666666' }, ...withdrawals(o)] },
   ])
   const attempts: TableCell[][] = view.attempts.map((a) => [
     a.scenarioTitle,
@@ -56,7 +66,10 @@ export function trainingRecordDocument(view: TrainingRecordView): TDocumentDefin
           [{ text: 'Instructor', bold: true }, view.instructor?.name ?? 'Not assigned'],
           [
             { text: 'Outcomes', bold: true },
-            `${shown} of ${view.outcomes.length} shown, ${signed} signed off`,
+            `${shown} of ${view.outcomes.length} shown, ${signed} signed off` +
+              (withdrawnCount
+                ? `, ${withdrawnCount} ${withdrawnCount === 1 ? 'sign-off' : 'sign-offs'} withdrawn`
+                : ''),
           ],
           [{ text: 'Record made', bold: true }, formatDateTime(view.generatedAt, clock)],
         ],

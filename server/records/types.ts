@@ -112,6 +112,8 @@ export interface OutcomeLine {
   /** The attempt that showed the outcome, or null when none has yet. */
   shownBy: { attemptLabel: string; at: string; score: number } | null
   signOff: { by: string; at: string; note: string } | null
+  /** Sign-offs taken back, oldest first: who signed and when, who withdrew it, when and why. */
+  withdrawn: { by: string; at: string; withdrawnBy: string; withdrawnAt: string; reason: string }[]
 }
 
 export interface AttemptLine {

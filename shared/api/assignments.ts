@@ -85,6 +85,8 @@ export const assignmentSchema = z.object({
   cohortName: z.string(),
   scenarioId: idSchema,
   scenarioKey: z.string(),
+  /** The scenario's own title, for people (the key is for links). */
+  scenarioTitle: z.string(),
   scenarioVersion: z.number().int(),
   title: z.string(),
   opensAt: isoDateTimeSchema,

@@ -1,6 +1,6 @@
 // Cohorts (an instructor's group of apprentices) and their members.
 import { z } from 'zod'
-import { idSchema, isoDateTimeSchema } from './common'
+import { emailSchema, idSchema, isoDateTimeSchema } from './common'
 
 export const cohortSchema = z.object({
   id: idSchema,
@@ -73,3 +73,49 @@ export const removeMembersRequestSchema = z.object({
   userIds: z.array(idSchema).min(1, { error: 'Choose at least one apprentice' }).max(2000),
 })
 export const removeMembersResultSchema = z.object({ removed: z.number().int().nonnegative() })
+
+/** Who teaches a cohort: its owner, and co-instructors who manage it as the owner does. */
+export const cohortInstructorSchema = z.object({
+  userId: idSchema,
+  name: z.string(),
+  email: z.string(),
+  /** The owner decides who else teaches the cohort; co-instructors do everything else. */
+  owner: z.boolean(),
+  /** When a co-instructor was added (the cohort's creation for its owner). */
+  since: isoDateTimeSchema,
+})
+export type CohortInstructor = z.infer<typeof cohortInstructorSchema>
+export const cohortInstructorListSchema = z.object({ items: z.array(cohortInstructorSchema) })
+
+/** A co-instructor is added by the e-mail address of their Slipway instructor account. */
+export const addCoInstructorRequestSchema = z.object({
+  email: emailSchema,
+})
+export type AddCoInstructorRequest = z.infer<typeof addCoInstructorRequestSchema>
+export const cohortInstructorParamsSchema = z.object({ id: idSchema, userId: idSchema })
+
+/** The most a copy may move its dates (ten years either way). */
+export const MAX_COPY_SHIFT_DAYS = 3660
+
+/**
+ * A cohort copied for its next intake: the same assignments (each one's dates moved by `shiftDays`) and
+ * practice choices, no members. Assignments for chosen apprentices only are not copied (nobody is chosen yet).
+ */
+export const copyCohortRequestSchema = z.object({
+  name: cohortName,
+  description: cohortDescription.optional(),
+  shiftDays: z
+    .number({ error: 'Give the number of days to move the dates by' })
+    .int({ error: 'Move the dates by whole days' })
+    .min(-MAX_COPY_SHIFT_DAYS, { error: 'Dates can move at most ten years' })
+    .max(MAX_COPY_SHIFT_DAYS, { error: 'Dates can move at most ten years' }),
+  coInstructors: z.boolean().default(true),
+})
+export type CopyCohortRequest = z.input<typeof copyCohortRequestSchema>
+export const copyCohortResultSchema = z.object({
+  cohort: cohortSchema,
+  assignmentsCopied: z.number().int().nonnegative(),
+  /** Assignments set for chosen apprentices only, left out of the copy. */
+  assignmentsLeftOut: z.number().int().nonnegative(),
+})
+export type CopyCohortResult = z.infer<typeof copyCohortResultSchema>

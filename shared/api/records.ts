@@ -30,6 +30,24 @@ export const outcomeSignOffSchema = z.object({
 })
 export type OutcomeSignOff = z.infer<typeof outcomeSignOffSchema>
 
+/** Withdrawing a sign-off: the instructor says why (kept with it and in the audit trail). */
+export const signOffWithdrawalRequestSchema = z.object({
+  reason: z
+    .string()
+    .trim()
+    .min(1, { error: 'Say why the sign-off is withdrawn' })
+    .max(2000, { error: 'At most 2000 characters' }),
+})
+export type SignOffWithdrawalRequest = z.infer<typeof signOffWithdrawalRequestSchema>
+
+/** A sign-off that was withdrawn: the sign-off as it was, and who withdrew it, when and why. */
+export const withdrawnSignOffSchema = outcomeSignOffSchema.extend({
+  withdrawnByName: z.string(),
+  withdrawnAt: z.string(),
+  reason: z.string(),
+})
+export type WithdrawnSignOff = z.infer<typeof withdrawnSignOffSchema>
+
 export const trainingOutcomeSchema = z.object({
   scenarioKey: z.string(),
   scenarioTitle: z.string(),
@@ -39,6 +57,8 @@ export const trainingOutcomeSchema = z.object({
     .object({ attemptId: idSchema, attemptLabel: z.string(), at: z.string(), score: z.number() })
     .nullable(),
   signOff: outcomeSignOffSchema.nullable(),
+  /** Sign-offs of this outcome that were withdrawn, oldest first. */
+  withdrawnSignOffs: z.array(withdrawnSignOffSchema),
 })
 export type TrainingOutcome = z.infer<typeof trainingOutcomeSchema>
 

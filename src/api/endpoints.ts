@@ -31,6 +31,9 @@ export const endpoints = {
     assignments: (id: string) => `/cohorts/${enc(id)}/assignments`,
     gradebook: (id: string) => `/cohorts/${enc(id)}/gradebook`,
     gradebookCsv: (id: string) => `/cohorts/${enc(id)}/gradebook.csv`,
+    instructors: (id: string) => `/cohorts/${enc(id)}/instructors`,
+    instructor: (id: string, userId: string) => `/cohorts/${enc(id)}/instructors/${enc(userId)}`,
+    copy: (id: string) => `/cohorts/${enc(id)}/copy`,
   },
   scenarios: {
     list: '/scenarios',
@@ -72,6 +75,7 @@ export const endpoints = {
     training: (apprenticeId: string) => `/apprentices/${enc(apprenticeId)}/training-record`,
     trainingPdf: (apprenticeId: string) => `/apprentices/${enc(apprenticeId)}/training-record.pdf`,
     signOffs: (apprenticeId: string) => `/apprentices/${enc(apprenticeId)}/sign-offs`,
+    signOffWithdrawal: (signOffId: string) => `/sign-offs/${enc(signOffId)}/withdrawal`,
     cohortZip: (cohortId: string) => `/cohorts/${enc(cohortId)}/training-records.zip`,
   },
   admin: {

@@ -1,11 +1,14 @@
 // Records: the commissioning record of an attempt (JSON for the print view, PDF), an apprentice's training
-// record (JSON, PDF), a cohort's records as a zip, and an instructor's sign-off of an outcome.
+// record (JSON, PDF), a cohort's records as a zip, and an instructor's sign-off of an outcome (and its
+// withdrawal).
 import { defineStore } from 'pinia'
 import {
   commissioningRecordSchema,
   outcomeSignOffSchema,
   trainingRecordSummarySchema,
+  withdrawnSignOffSchema,
   type SignOffRequest,
+  type SignOffWithdrawalRequest,
 } from '@shared/api'
 import { downloadFile, request } from '@/api/client'
 import { endpoints } from '@/api/endpoints'
@@ -29,5 +32,16 @@ export const useRecordsStore = defineStore('records', () => {
   const signOff = (apprenticeId: string, body: SignOffRequest) =>
     request(endpoints.records.signOffs(apprenticeId), outcomeSignOffSchema, { method: 'POST', body })
 
-  return { commissioning, downloadCommissioning, training, downloadTraining, downloadCohort, signOff }
+  const withdrawSignOff = (signOffId: string, body: SignOffWithdrawalRequest) =>
+    request(endpoints.records.signOffWithdrawal(signOffId), withdrawnSignOffSchema, { method: 'POST', body })
+
+  return {
+    commissioning,
+    downloadCommissioning,
+    training,
+    downloadTraining,
+    downloadCohort,
+    signOff,
+    withdrawSignOff,
+  }
 })

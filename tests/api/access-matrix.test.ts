@@ -5,7 +5,13 @@ import { randomUUID } from 'node:crypto'
 import { readFileSync } from 'node:fs'
 import supertest from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { EnrollmentEntity, OutcomeSignOffEntity } from '../../server/entities'
+import {
+  CohortEntity,
+  CohortInstructorEntity,
+  EnrollmentEntity,
+  OutcomeSignOffEntity,
+  OutcomeSignOffWithdrawalEntity,
+} from '../../server/entities'
 import { createTestApi, type TestApi, type TestUser } from '../support/api-harness'
 import { buildWorld, EMPTY_LOG, type World } from '../support/world'
 
@@ -53,6 +59,7 @@ const adminOnly = (ok: number): Expect => ({ none: 401, apprentice: 403, instruc
 const future = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString()
 const FAKE_TOKEN = 'x'.repeat(43)
 const NO_SUCH_ID = '00000000-0000-4000-8000-000000000000'
+const MATRIX_SIGN_OFF = '00000000-0000-4000-8000-00000000051f'
 
 const ROUTES: Route[] = [
   { method: 'get', path: () => '/api/health', expect: everyone(200) },
@@ -202,6 +209,31 @@ const ROUTES: Route[] = [
     path: (w) => `/api/cohorts/${w.cohortA.id}/members/remove`,
     body: () => ({ userIds: ['00000000-0000-4000-8000-000000000000'] }),
     expect: ownCohortStaff(400),
+  },
+  // who teaches a cohort, and copying it for the next intake
+  { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/instructors`, expect: ownCohortStaff(200) },
+  {
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/instructors`,
+    body: (w) => ({ email: w.instructorB.email }),
+    expect: ownCohortStaff(201),
+    restore: async (_w, api) => {
+      await api.dataSource.getRepository(CohortInstructorEntity).clear()
+    },
+  },
+  {
+    method: 'delete',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/instructors/${NO_SUCH_ID}`,
+    expect: ownCohortStaff(404),
+  },
+  {
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/copy`,
+    body: () => ({ name: 'Matrix copy', shiftDays: 7 }),
+    expect: ownCohortStaff(201),
+    restore: async (_w, api) => {
+      await api.dataSource.getRepository(CohortEntity).delete({ name: 'Matrix copy' })
+    },
   },
   // gradebook
   { method: 'get', path: (w) => `/api/cohorts/${w.cohortA.id}/gradebook`, expect: ownCohortStaff(200) },
@@ -355,6 +387,27 @@ const ROUTES: Route[] = [
     expect: ownCohortStaff(201),
     restore: async (_w, api) => {
       await api.dataSource.getRepository(OutcomeSignOffEntity).clear()
+    },
+  },
+  {
+    method: 'post',
+    path: () => `/api/sign-offs/${MATRIX_SIGN_OFF}/withdrawal`,
+    body: () => ({ reason: 'Matrix withdrawal' }),
+    expect: ownCohortStaff(201),
+    // A standing sign-off in cohort A before every role's call.
+    restore: async (w, api) => {
+      await api.dataSource.getRepository(OutcomeSignOffWithdrawalEntity).clear()
+      await api.dataSource.getRepository(OutcomeSignOffEntity).clear()
+      await api.dataSource.getRepository(OutcomeSignOffEntity).insert({
+        id: MATRIX_SIGN_OFF,
+        apprenticeId: w.apprenticeA1.user.id,
+        cohortId: w.cohortA.id,
+        scenarioKey: w.scenario.key,
+        outcome: shipped(w.scenario.key).learningOutcomes[0],
+        note: 'Matrix sign-off',
+        signedById: w.instructorA.user.id,
+        signedAt: new Date().toISOString(),
+      })
     },
   },
   {

@@ -52,6 +52,7 @@ describe('cohorts and assignments', () => {
     expect(list.items.map((a) => a.id)).toEqual([w.assignmentA.id])
     expect(list.items[0]!.myProgress).toMatchObject({ attemptsUsed: 1, passed: false })
     expect(list.items[0]!.scenarioKey).toBe('two-wire-run-stop')
+    expect(list.items[0]!.scenarioTitle).toBe(w.scenario.title)
   })
 
   it('validates assignment dates with a field error', async () => {

@@ -10,10 +10,11 @@ import {
   commissioningRecordSchema,
   outcomeSignOffSchema,
   trainingRecordSummarySchema,
+  withdrawnSignOffSchema,
   type AttemptSummary,
 } from '../../shared/api'
 import { drawSchematic, wiringOfState } from '../../shared/schematic'
-import { AuditEntryEntity, OutcomeSignOffEntity } from '../../server/entities'
+import { AuditEntryEntity, OutcomeSignOffEntity, OutcomeSignOffWithdrawalEntity } from '../../server/entities'
 import { bearer, createTestApi, type TestApi } from '../support/api-harness'
 import { attemptFixtures, endState, scenarioById } from '../support/shipped-attempts'
 import { buildWorld, expectStatus, submit, type World } from '../support/world'
@@ -332,6 +333,114 @@ describe('records', () => {
         .set(bearer(w.instructorA.token))
       expect(res.status).toBe(409)
       expect(res.body.error.message).toMatch(/no apprentices yet/)
+    })
+  })
+
+  describe('withdrawing a sign-off', () => {
+    const outcome = scenario.learningOutcomes[0]!
+    const withdraw = (token: string, id: string, body: object) =>
+      supertest(api.app).post(`/api/sign-offs/${id}/withdrawal`).set(bearer(token)).send(body)
+    const standing = () =>
+      api.dataSource.getRepository(OutcomeSignOffEntity).findOneByOrFail({
+        apprenticeId: w.apprenticeA1.user.id,
+        scenarioKey: scenario.id,
+        outcome,
+      })
+
+    it('refuses an empty reason, an apprentice and another cohort’s instructor, and changes nothing', async () => {
+      const { id } = await standing()
+      const empty = await withdraw(w.instructorA.token, id, { reason: '   ' })
+      expect(empty.status).toBe(400)
+      expect(empty.body.error.details.fields.reason).toBeDefined()
+      expect((await withdraw(w.apprenticeA1.token, id, { reason: 'Mine' })).status).toBe(403)
+      expect((await withdraw(w.instructorB.token, id, { reason: 'Not mine' })).status).toBe(403)
+      expect((await withdraw(w.instructorA.token, 'not-a-uuid', { reason: 'x' })).status).toBe(400)
+      expect(
+        (await withdraw(w.instructorA.token, '00000000-0000-4000-8000-000000000000', { reason: 'x' })).status,
+      ).toBe(404)
+      expect((await standing()).id).toBe(id)
+    })
+
+    it('moves the sign-off to the withdrawals with who, when and why, and audits it', async () => {
+      const signed = await standing()
+      const res = await withdraw(w.instructorA.token, signed.id, {
+        reason: '  Signed off on the wrong apprentice’s attempt.  ',
+      })
+      expect(res.status).toBe(201)
+      const withdrawn = withdrawnSignOffSchema.parse(res.body)
+      expect(withdrawn).toMatchObject({
+        id: signed.id,
+        note: signed.note,
+        byName: 'Ines Instructor-A',
+        withdrawnByName: 'Ines Instructor-A',
+        reason: 'Signed off on the wrong apprentice’s attempt.',
+      })
+      expect(await api.dataSource.getRepository(OutcomeSignOffEntity).findOneBy({ id: signed.id })).toBeNull()
+      const kept = await api.dataSource
+        .getRepository(OutcomeSignOffWithdrawalEntity)
+        .findOneByOrFail({ id: signed.id })
+      expect(kept).toMatchObject({ signedById: signed.signedById, withdrawnById: w.instructorA.user.id })
+      const audit = await api.dataSource
+        .getRepository(AuditEntryEntity)
+        .findOneByOrFail({ entityId: signed.id, action: 'outcome.signOffWithdrawn' })
+      expect(audit.actorId).toBe(w.instructorA.user.id)
+      expect(audit.reason).toBe('Signed off on the wrong apprentice’s attempt.')
+      expect(JSON.parse(audit.fromValue!)).toMatchObject({ outcome, note: signed.note })
+      // Twice is a conflict, not a second withdrawal.
+      const again = await withdraw(w.instructorA.token, signed.id, { reason: 'Again' })
+      expect(again.status).toBe(409)
+      expect(again.body.error.message).toMatch(/already been withdrawn/)
+      expect(
+        await api.dataSource.getRepository(AuditEntryEntity).countBy({ action: 'outcome.signOffWithdrawn' }),
+      ).toBe(1)
+    })
+
+    it('shows the outcome as not signed off, with the withdrawal, in the JSON and the PDF', async () => {
+      const summary = trainingRecordSummarySchema.parse(
+        (
+          await expectStatus(
+            supertest(api.app)
+              .get(`/api/apprentices/${w.apprenticeA1.user.id}/training-record`)
+              .set(bearer(w.apprenticeA1.token)),
+            200,
+          )
+        ).body,
+      )
+      const line = summary.outcomes.find((o) => o.scenarioKey === scenario.id && o.outcome === outcome)!
+      expect(line.signOff).toBeNull()
+      expect(line.withdrawnSignOffs.map((x) => x.reason)).toEqual([
+        'Signed off on the wrong apprentice’s attempt.',
+      ])
+      const res = await get(`/api/apprentices/${w.apprenticeA1.user.id}/training-record.pdf`, w.admin.token)
+      expect(res.status).toBe(200)
+      const text = (await readPdf(res.body as Buffer)).text
+      expect(text).toMatch(/0 signed off, 1 sign-off withdrawn/)
+      expect(text).toMatch(
+        /Sign-off by Ines Instructor-A \(\d+ \w+ \d{4}\) withdrawn by Ines Instructor-A, \d+ \w+ \d{4}: Signed off on the wrong apprentice’s attempt\./,
+      )
+    }, 60_000)
+
+    it('lets the outcome be signed off again afterwards', async () => {
+      const res = await supertest(api.app)
+        .post(`/api/apprentices/${w.apprenticeA1.user.id}/sign-offs`)
+        .set(bearer(w.instructorA.token))
+        .send({
+          cohortId: w.cohortA.id,
+          scenarioKey: scenario.id,
+          outcome,
+          note: 'Seen again, on attempt 2.',
+        })
+      expect(res.status).toBe(201)
+      const summary = trainingRecordSummarySchema.parse(
+        (
+          await supertest(api.app)
+            .get(`/api/apprentices/${w.apprenticeA1.user.id}/training-record`)
+            .set(bearer(w.instructorA.token))
+        ).body,
+      )
+      const line = summary.outcomes.find((o) => o.scenarioKey === scenario.id && o.outcome === outcome)!
+      expect(line.signOff?.note).toBe('Seen again, on attempt 2.')
+      expect(line.withdrawnSignOffs).toHaveLength(1)
     })
   })
 })

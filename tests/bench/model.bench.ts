@@ -1,5 +1,7 @@
 // Model benchmark: replay of generated mixed logs (1k / 10k / 100k events; 10k over 1 min and 10 h).
-// Run alone: npx tsx --tsconfig tsconfig.node.json tests/bench/model.bench.ts
+// `npm run bench` runs it bundled in a worker thread with the grading threads' heap limits, as the server
+// replays every submitted log (model-thread.ts), and once more with V8's defaults for comparison.
+// Run alone (in this process, under tsx): npx tsx --tsconfig tsconfig.node.json tests/bench/model.bench.ts
 import { cpus, loadavg } from 'node:os'
 import { pathToFileURL } from 'node:url'
 import { clearCircuitMemo, circuitSolveCount } from '../../shared/model/circuit/controlCircuit'

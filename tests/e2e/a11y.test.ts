@@ -131,6 +131,13 @@ describe('accessibility of every main screen', () => {
     await page.getByTestId('tour-skip').click()
     await page.locator('[data-testid="simulator-slot"]').waitFor()
     found.push(...(await check('simulator')))
+    // The task sheet's Schematic tab: the drawing (an image with a title) in a focusable scrolling frame.
+    if ((await page.getByTestId('toggle-sheet').getAttribute('aria-expanded')) !== 'true') {
+      await page.getByTestId('toggle-sheet').click()
+    }
+    await page.getByRole('tab', { name: 'Schematic', exact: true }).click()
+    await page.getByTestId('schematic-drawing').locator('svg').waitFor()
+    found.push(...(await check('simulator-schematic')))
     found.push(...(await visit('/profile', 'Profile', 'profile')))
     expectOnlyKnown(found)
   })

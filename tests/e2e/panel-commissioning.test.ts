@@ -37,6 +37,36 @@ describe('commissioning raise/lower on the panel by mouse', () => {
     await expect(page.getByRole('list', { name: 'Wires' }).getByRole('listitem').count()).resolves.toBe(7)
     await step(page, 'panel-commission-03-wired')
 
+    // The Schematic tab draws the seven wires, each marker once, readable on a laptop, tablet and phone.
+    await panel.openSheet('Schematic')
+    const drawing = page.getByTestId('schematic-drawing').locator('svg')
+    const markers = () =>
+      drawing
+        .locator('text')
+        .evaluateAll((texts) => texts.map((t) => t.textContent ?? '').filter((text) => /^W\d+ /.test(text)))
+    await expect.poll(markers, { timeout: 15_000 }).toHaveLength(7)
+    expect(new Set((await markers()).map((m) => m.split(' ')[0])).size).toBe(7)
+    for (const [width, height] of [
+      [1366, 768],
+      [768, 1024],
+      [390, 844],
+    ] as const) {
+      await page.setViewportSize({ width, height })
+      await panel.openSheet('Schematic')
+      await page.getByTestId('schematic').scrollIntoViewIfNeeded()
+      // The drawing scrolls inside its own frame; the frame and the page stay within the window.
+      const box = (await page.locator('.schematic__scroll').boundingBox())!
+      expect(box.x + box.width, `drawing's frame inside the page at ${width} px`).toBeLessThanOrEqual(width)
+      const sideways = await page.evaluate(
+        () => document.documentElement.scrollWidth - document.documentElement.clientWidth,
+      )
+      expect(sideways, `sideways scrolling at ${width} px`).toBeLessThanOrEqual(1)
+      await page.waitForTimeout(400) // the tab's slide
+      await step(page, `panel-commission-03-schematic-${width}x${height}`)
+    }
+    await page.setViewportSize({ width: 1600, height: 1000 })
+    await page.evaluate(() => window.scrollTo(0, 0))
+
     await panel.removeLock()
     await panel.switchDisconnect('on')
     await panel.waitFor((s) => s.includes('drive ready'))

@@ -290,7 +290,7 @@ export class PanelDriver {
   }
 
   /** Opens the task sheet (if it is hidden) at one of its tabs. */
-  async openSheet(tab: 'Task' | 'Wiring' | 'Settings' | 'Values' | 'Timeline') {
+  async openSheet(tab: 'Task' | 'Wiring' | 'Schematic' | 'Settings' | 'Values' | 'Timeline') {
     const toggle = this.page.getByTestId('toggle-sheet')
     if ((await toggle.getAttribute('aria-expanded')) !== 'true') await toggle.click()
     await this.page.getByRole('tab', { name: tab, exact: true }).click()

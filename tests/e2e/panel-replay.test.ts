@@ -83,6 +83,18 @@ describe('replaying an attempt', () => {
     await expect.poll(() => panel.summary()).toContain(`${expected} rpm`)
     await screenshot(page, 'panel-replay-02-scrubbed')
 
+    // The Schematic tab draws the wires as they were at that moment, not at the end.
+    const wiredThen = events.filter((e) => e.type === 'wire.added' && e.t <= t).length
+    expect(wiredThen).toBeGreaterThan(0)
+    await panel.openSheet('Schematic')
+    const markers = () =>
+      page
+        .getByTestId('schematic-drawing')
+        .locator('svg text')
+        .evaluateAll((texts) => texts.map((x) => x.textContent ?? '').filter((x) => /^W\d+ /.test(x)))
+    await expect.poll(markers, { timeout: 15_000 }).toHaveLength(wiredThen)
+    await screenshot(page, 'panel-replay-02-schematic')
+
     // The timeline, in words.
     await panel.openSheet('Timeline')
     const timeline = page.getByTestId('replay-timeline')
@@ -133,6 +145,19 @@ describe('replaying an attempt', () => {
         expect(scale * TERMINAL_LABEL_SIZE).toBeGreaterThanOrEqual(11)
       }
       await screenshot(page, `panel-replay-${width}x${height}`)
+      await new PanelDriver(page, scenario.start.devices).openSheet('Schematic')
+      await page.getByTestId('schematic-drawing').locator('svg').waitFor()
+      expect(await sidewaysScroll(page), `sideways scrolling at ${width} px (schematic)`).toBeLessThanOrEqual(
+        1,
+      )
+      await page.waitForTimeout(400) // the tab's slide
+      await screenshot(page, `panel-replay-schematic-${width}x${height}`)
+      // The whole window for the drawing, over the panel; Escape gives the sheet back.
+      await page.getByTestId('schematic-large').click()
+      await expect(page.getByRole('dialog', { name: /Control circuit as wired/ }).count()).resolves.toBe(1)
+      await screenshot(page, `panel-replay-schematic-large-${width}x${height}`)
+      await page.keyboard.press('Escape')
+      await page.getByTestId('schematic-large').waitFor()
     }
     await page.setViewportSize({ width: 1400, height: 1000 })
   }, 120_000)

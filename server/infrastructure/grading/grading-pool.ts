@@ -6,6 +6,7 @@ import { HttpError } from '../../http-error'
 import { unreplayableLog } from './grading'
 import type { GradingTask, LogGradeReport, ReadReport, SubmissionHeader } from './grading-worker'
 import { workerFile } from '../worker-file'
+import { GRADING_THREAD_RESOURCE_LIMITS } from './thread-limits'
 
 /** A submission's body after a thread has parsed and validated it. */
 export interface ReadSubmission {
@@ -74,6 +75,8 @@ export function createGradingPool(options: GradingPoolOptions): GradingPool {
         maxQueue: queueLimit,
         // Plain JavaScript: no loader flags from the parent (tsx in development) reach the threads.
         execArgv: [],
+        // A young generation sized for replays (see thread-limits.ts).
+        resourceLimits: GRADING_THREAD_RESOURCE_LIMITS,
         // Threads stay up: starting one costs far more than a grade.
         idleTimeout: Number.POSITIVE_INFINITY,
       }),

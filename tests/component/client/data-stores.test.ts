@@ -73,6 +73,7 @@ describe('the data stores', () => {
       cohortName: 'Autumn intake',
       scenarioId: ids.scenario,
       scenarioKey: 'safe-isolation',
+      scenarioTitle: 'Safe isolation of a conveyor drive',
       scenarioVersion: 1,
       title: 'Safe isolation',
       opensAt: '2026-12-01T09:00:00.000Z',

@@ -1,10 +1,12 @@
-// The records on the client: the instructor's sign-off dialog (note, confirmation, what is sent) and the
-// as-wired schematic drawn from an attempt's log.
+// The records on the client: the instructor's sign-off dialog (note, confirmation, what is sent), the
+// withdrawal of a sign-off (reason, confirmation) and the as-wired schematic drawn from an attempt's log.
 import { afterEach, describe, expect, it, vi } from 'vitest'
 import { flushPromises, mount } from '@vue/test-utils'
 import type { TrainingOutcome } from '@shared/api'
 import { scenarioSchema } from '@shared/scenario'
 import SignOffDialog from '@/components/records/SignOffDialog.vue'
+import TrainingOutcomes from '@/components/records/TrainingOutcomes.vue'
+import WithdrawSignOffDialog from '@/components/records/WithdrawSignOffDialog.vue'
 import { asWiredSchematic } from '@/components/records/asWired'
 import twoWire from '../../../scenarios/two-wire-run-stop.json'
 import reference from '../../fixtures/attempts/two-wire-run-stop--reference.json'
@@ -22,6 +24,7 @@ const outcome: TrainingOutcome = {
   outcome: 'Wire a maintained contact to a digital input',
   shownBy: null,
   signOff: null,
+  withdrawnSignOffs: [],
 }
 
 function typeNote(text: string) {
@@ -116,6 +119,98 @@ describe('the sign-off dialog', () => {
     await settle()
     expect(document.body.textContent).toContain('This outcome is already signed off for this apprentice')
     expect(wrapper.emitted('signed')).toBeUndefined()
+  })
+})
+
+describe('withdrawing a sign-off', () => {
+  afterEach(() => {
+    vi.unstubAllGlobals()
+    document.body.innerHTML = ''
+  })
+
+  const signed: TrainingOutcome = {
+    ...outcome,
+    signOff: {
+      id: ids.assignment,
+      cohortId: ids.cohort,
+      byName: 'Tam Ode',
+      at: '2026-12-01T10:00:00Z',
+      note: 'Seen.',
+    },
+  }
+
+  function mountDialog() {
+    const { pinia, router, vuetify } = testPlugins()
+    return mount(WithdrawSignOffDialog, {
+      props: { modelValue: true, apprenticeName: 'Wren Maddox', outcome: signed },
+      global: { plugins: [pinia, router, vuetify] },
+      attachTo: document.body,
+    })
+  }
+
+  it('asks for a reason, then for confirmation, and only then withdraws', async () => {
+    const calls = stubFetch(() => ({
+      status: 201,
+      body: {
+        ...signed.signOff,
+        withdrawnByName: 'Tam Ode',
+        withdrawnAt: '2026-12-02T10:00:00Z',
+        reason: 'Wrong apprentice.',
+      },
+    }))
+    const wrapper = mountDialog()
+    await settle()
+    document.body.querySelector('form')!.dispatchEvent(new Event('submit', { cancelable: true }))
+    await settle()
+    expect(document.body.textContent).toContain('Say why the sign-off is withdrawn')
+    typeNote('Wrong apprentice.')
+    await settle()
+    document.body.querySelector('form')!.dispatchEvent(new Event('submit', { cancelable: true }))
+    await settle()
+    expect(document.body.textContent).toContain('Withdraw this sign-off?')
+    expect(document.body.textContent).toContain('printed with its reason on Wren Maddox’s training record')
+    expect(calls).toHaveLength(0)
+    button('Withdraw sign-off').click()
+    await settle()
+    expect(calls).toHaveLength(1)
+    expect(calls[0]!.method).toBe('POST')
+    expect(calls[0]!.url).toContain(`/api/sign-offs/${ids.assignment}/withdrawal`)
+    expect(calls[0]!.body).toEqual({ reason: 'Wrong apprentice.' })
+    expect(wrapper.emitted('withdrawn')).toHaveLength(1)
+    expect(wrapper.emitted('update:modelValue')?.at(-1)).toEqual([false])
+  })
+
+  it('offers withdrawal only on a signed-off outcome, and shows a withdrawn one with its reason', async () => {
+    const { pinia, router, vuetify } = testPlugins()
+    const wrapper = mount(TrainingOutcomes, {
+      props: {
+        signable: true,
+        outcomes: [
+          signed,
+          {
+            ...outcome,
+            outcome: 'Prove the circuit dead',
+            withdrawnSignOffs: [
+              {
+                ...signed.signOff!,
+                id: ids.cohort,
+                withdrawnByName: 'Tam Ode',
+                withdrawnAt: '2026-12-02T10:00:00Z',
+                reason: 'Wrong apprentice.',
+              },
+            ],
+          },
+        ],
+      },
+      global: { plugins: [pinia, router, vuetify] },
+    })
+    const withdrawButtons = wrapper.findAll('button').filter((b) => b.text() === 'Withdraw sign-off')
+    expect(withdrawButtons).toHaveLength(1)
+    await withdrawButtons[0]!.trigger('click')
+    expect(wrapper.emitted('withdraw')?.[0]?.[0]).toMatchObject({ outcome: signed.outcome })
+    expect(wrapper.get('[data-testid="withdrawn-sign-off"]').text()).toMatch(
+      /Sign-off by Tam Ode \(.+\) withdrawn by Tam Ode, .+: “Wrong apprentice\.”/,
+    )
   })
 })
 

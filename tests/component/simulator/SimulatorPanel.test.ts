@@ -43,6 +43,7 @@ vi.mock('@/simulator/services', () => ({
 }))
 
 const { default: SimulatorPanel } = await import('@/simulator/components/SimulatorPanel.vue')
+const { default: PanelWiring } = await import('@/simulator/components/PanelWiring.vue')
 
 function mountPanel() {
   return mount(SimulatorPanel, {
@@ -91,6 +92,33 @@ describe('the simulator panel', () => {
     expect(second.get('[data-testid="control-lock"]').text()).toContain('Apply my lock')
     expect(saved()?.attemptId).toBe(id)
     second.unmount()
+  })
+
+  it('draws the wiring in its Schematic tab and redraws it when a wire is added', async () => {
+    const wrapper = mountPanel()
+    await settle()
+    await wrapper.get('[data-testid="tab-schematic"]').trigger('click')
+    const markers = async () => {
+      for (let i = 0; i < 50 && !wrapper.find('[data-testid="schematic-drawing"] svg').exists(); i++) {
+        await settle()
+      }
+      const svg = wrapper.get('[data-testid="schematic-drawing"] svg')
+      expect(svg.attributes('role')).toBe('img')
+      return [...svg.element.querySelectorAll('text')]
+        .map((t) => t.textContent ?? '')
+        .filter((text) => /^W\d+ /.test(text))
+    }
+    expect(await markers()).toEqual([])
+    expect(wrapper.get('[data-testid="schematic"]').text()).toContain('0 wires')
+    // On the Wiring tab, the "Add a wire…" picker emits this when both ends are chosen.
+    await wrapper.get('[data-testid="tab-wiring"]').trigger('click')
+    await settle()
+    wrapper.findComponent(PanelWiring).vm.$emit('addWire', 'drive.p24', 'runSwitch.a', 'brown')
+    await settle()
+    await wrapper.get('[data-testid="tab-schematic"]').trigger('click')
+    expect(await markers()).toEqual(['W1 BN'])
+    expect(wrapper.get('[data-testid="schematic"]').text()).toContain('1 wire.')
+    wrapper.unmount()
   })
 
   it('removes its keyboard listeners and the Pixi application on unmount, every time', async () => {

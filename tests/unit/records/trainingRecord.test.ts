@@ -1,5 +1,5 @@
 // The training record of one apprentice, read back from the PDF: each outcome with the attempt and date
-// that showed it and its sign-off, every attempt's score, the safety record.
+// that showed it and its sign-off (or a withdrawn one), every attempt's score, the safety record.
 import { describe, expect, it } from 'vitest'
 import { trainingRecordPdf, type TrainingRecordView } from '../../../server/records'
 import { readPdf } from './pdfText'
@@ -17,12 +17,22 @@ const view: TrainingRecordView = {
       // 23:30 UTC on 10 March is 11 March in Auckland (UTC+13 in daylight time; IANA tz database).
       shownBy: { attemptLabel: 'Attempt 3', at: '2026-03-10T23:30:00Z', score: 92 },
       signOff: { by: 'Oona Fairbrass', at: '2026-03-12T01:00:00Z', note: 'Proved dead without prompting.' },
+      withdrawn: [],
     },
     {
       outcome: 'Commission a drive: start, raise to a target speed, hold it, lower and stop by ramp',
       scenarioTitle: 'Commission raise/lower speed control on the sawmill infeed',
       shownBy: null,
       signOff: null,
+      withdrawn: [
+        {
+          by: 'Oona Fairbrass',
+          at: '2026-03-12T01:00:00Z',
+          withdrawnBy: 'Oona Fairbrass',
+          withdrawnAt: '2026-03-13T01:00:00Z',
+          reason: 'Signed off on the wrong exercise.',
+        },
+      ],
     },
   ],
   attempts: [
@@ -63,7 +73,11 @@ describe('training record', () => {
     expect(pdf.text).toContain('Attempt 3, 11 Mar 2026 92 %')
     expect(pdf.text).toContain('Oona Fairbrass, 12 Mar 2026 Proved dead without prompting.')
     expect(pdf.text).toContain('Not yet shown — Not signed off')
-    expect(pdf.text).toContain('1 of 2 shown, 1 signed off')
+    expect(pdf.text).toContain('1 of 2 shown, 1 signed off, 1 sign-off withdrawn')
+    // A withdrawn sign-off stays on the record with who, when and why.
+    expect(pdf.text).toContain(
+      'Sign-off by Oona Fairbrass (12 Mar 2026) withdrawn by Oona Fairbrass, 13 Mar 2026: Signed off on the wrong exercise.',
+    )
     // Scores, with the overridden one marked; the safety record.
     expect(pdf.text).toContain('Attempt 2 10 Mar 2026 55 % * Not passed 1')
     expect(pdf.text).toContain('Score changed by an instructor')
