@@ -21,6 +21,7 @@ import { mailJob, withoutBody } from './infrastructure/mail/mail-job'
 import { createMailDelivery, type SmtpTarget } from './infrastructure/mail/mailer'
 import { pruneOutbox, startOutboxSmtp, type OutboxSmtp } from './infrastructure/mail/outbox-smtp'
 import { sweepUploads, sweepUploadsJob } from './infrastructure/storage/upload-sweep'
+import { registerReminderJobs } from './reminders/reminder-jobs'
 
 /** Sent mail and finished jobs are kept this long (the admin outbox lists them), then deleted. */
 export const RETENTION_DAYS = 90
@@ -93,6 +94,15 @@ export async function startBackgroundJobs({
   })
   worker.schedule({ name: 'uploads.sweep', cron: '17 * * * *', job: sweepUploadsJob, payload: {} })
   worker.schedule({ name: 'housekeeping', cron: '40 3 * * *', job: housekeepingJob, payload: {} })
+  // Due-date reminders and the instructors' daily digest (server/reminders/).
+  await registerReminderJobs({
+    dataSource,
+    worker,
+    log,
+    link: (path) => `${config.publicBaseUrl}${path}`,
+    scanCron: config.reminderScanCron,
+    digestCron: config.digestCron,
+  })
 
   await sweepUploads(dataSource, config.dataDir, log)
   if (run) worker.start()

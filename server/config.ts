@@ -52,6 +52,8 @@ const envSchema = z.object({
   ADMIN_EMAIL: optionalText,
   ADMIN_NAME: optionalText,
   ADMIN_PASSWORD: z.string().optional(),
+  REMINDER_SCAN_CRON: optionalText,
+  DIGEST_CRON: optionalText,
   JOB_LEASE_SECONDS: z.coerce
     .number({ error: 'JOB_LEASE_SECONDS must be a whole number of seconds' })
     .int()
@@ -140,6 +142,10 @@ export interface AppConfig {
   firstAdmin?: { email: string; name: string; password: string }
   /** How long a claimed job is held before another instance may take it over (JOB_LEASE_SECONDS). */
   jobLeaseMs: number
+  /** How often due-date reminders are looked for (REMINDER_SCAN_CRON, default every ten minutes). */
+  reminderScanCron?: string
+  /** When the instructors' digest goes out, on the centre's clock (DIGEST_CRON, default 07:00). */
+  digestCron?: string
   version: string
 }
 
@@ -248,6 +254,8 @@ export function loadConfig(
     demo: e.DEMO === 'true',
     firstAdmin,
     jobLeaseMs: (e.JOB_LEASE_SECONDS ?? 60) * 1000,
+    reminderScanCron: e.REMINDER_SCAN_CRON,
+    digestCron: e.DIGEST_CRON,
     version: options.version ?? '0.0.0',
   }
 }

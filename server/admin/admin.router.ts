@@ -9,6 +9,12 @@ import { updateUserRequestSchema, userListQuerySchema } from '@shared/api/users'
 import type { AppContext } from '../context'
 import { nowIso } from '../infrastructure/clock'
 import { inviteInstructor } from '../invitations/invitations.service'
+import {
+  allPendingInvitations,
+  newInvitationLink,
+  resendInvitation,
+  revokeInvitation,
+} from '../invitations/pending.service'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
 import { changeUser, listUsers, signOutUser } from '../users/users.service'
@@ -44,6 +50,34 @@ export function adminRouter(ctx: AppContext): Router {
       res.status(201).json(await inviteInstructor(ctx, currentUser(req), req.body))
     },
   )
+
+  // Everyone invited and not yet answered, instructors and apprentices alike; resend, new link, withdraw.
+  router.get('/invitations', async (_req, res) => {
+    res.json({ items: await allPendingInvitations(ctx) })
+  })
+
+  router.post(
+    '/invitations/:id/resend',
+    ctx.limits.invitations,
+    validate({ params: idParamsSchema }),
+    async (req, res) => {
+      res.json({ invitation: await resendInvitation(ctx, currentUser(req), 'any', req.params.id) })
+    },
+  )
+
+  router.post(
+    '/invitations/:id/link',
+    ctx.limits.invitations,
+    validate({ params: idParamsSchema }),
+    async (req, res) => {
+      res.json(await newInvitationLink(ctx, currentUser(req), 'any', req.params.id))
+    },
+  )
+
+  router.delete('/invitations/:id', validate({ params: idParamsSchema }), async (req, res) => {
+    await revokeInvitation(ctx, currentUser(req), 'any', req.params.id)
+    res.status(204).end()
+  })
 
   router.get('/outbox', validate({ query: outboxQuerySchema }), async (req, res) => {
     res.json(await listOutbox(ctx, req.query))

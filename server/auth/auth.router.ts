@@ -1,4 +1,5 @@
-// /api/auth: sign-in, refresh, sign-out (one or all sessions), the current user, password reset and change.
+// /api/auth: sign-in, refresh, sign-out (one or all sessions), the current user and their mail preferences,
+// password reset and change.
 import { Router } from 'express'
 import {
   changePasswordRequestSchema,
@@ -7,9 +8,11 @@ import {
   signInRequestSchema,
   updateProfileRequestSchema,
 } from '@shared/api/auth'
+import { updateMailPreferencesRequestSchema } from '@shared/api/mail-preferences'
 import type { AppContext } from '../context'
 import { authenticate, currentUser } from '../middleware/auth'
 import { validate } from '../middleware/validate'
+import { getMailPreferences, updateMailPreferences } from '../users/mail-preferences.service'
 import { presentUser } from '../users/user.presenter'
 import {
   changePassword,
@@ -60,6 +63,20 @@ export function authRouter(ctx: AppContext): Router {
   router.patch('/me', auth, validate({ body: updateProfileRequestSchema }), async (req, res) => {
     res.json({ user: await renameSelf(ctx, currentUser(req), req.body.name) })
   })
+
+  // Optional mail: due-date reminders (apprentices) and the daily digest (instructors).
+  router.get('/me/mail-preferences', auth, async (req, res) => {
+    res.json(await getMailPreferences(ctx, currentUser(req)))
+  })
+
+  router.patch(
+    '/me/mail-preferences',
+    auth,
+    validate({ body: updateMailPreferencesRequestSchema }),
+    async (req, res) => {
+      res.json(await updateMailPreferences(ctx, currentUser(req), req.body))
+    },
+  )
 
   router.post('/change-password', auth, validate({ body: changePasswordRequestSchema }), async (req, res) => {
     sendSession(ctx, res, await changePassword(ctx, currentUser(req), req.body))

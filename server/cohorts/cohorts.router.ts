@@ -9,7 +9,11 @@ import {
   removeMembersRequestSchema,
   updateCohortRequestSchema,
 } from '@shared/api/cohorts'
-import { cohortInvitationParamsSchema, inviteRequestSchema } from '@shared/api/invitations'
+import {
+  cohortInvitationParamsSchema,
+  inviteRequestSchema,
+  rosterImportQuerySchema,
+} from '@shared/api/invitations'
 import type { AppContext } from '../context'
 import { uploadMiddleware } from '../infrastructure/storage/uploads'
 import {
@@ -17,8 +21,8 @@ import {
   inviteToCohort,
   pendingCohortInvitations,
   ROSTER_UPLOAD,
-  withdrawInvitation,
 } from '../invitations/invitations.service'
+import { newInvitationLink, resendInvitation, revokeInvitation } from '../invitations/pending.service'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
 import {
@@ -100,8 +104,30 @@ export function cohortsRouter(ctx: AppContext): Router {
     staff,
     validate({ params: cohortInvitationParamsSchema }),
     async (req, res) => {
-      await withdrawInvitation(ctx, currentUser(req), req.params.id, req.params.invitationId)
+      await revokeInvitation(ctx, currentUser(req), { cohortId: req.params.id }, req.params.invitationId)
       res.status(204).end()
+    },
+  )
+
+  router.post(
+    '/:id/invitations/:invitationId/resend',
+    staff,
+    inviteLimit,
+    validate({ params: cohortInvitationParamsSchema }),
+    async (req, res) => {
+      const scope = { cohortId: req.params.id }
+      res.json({ invitation: await resendInvitation(ctx, currentUser(req), scope, req.params.invitationId) })
+    },
+  )
+
+  router.post(
+    '/:id/invitations/:invitationId/link',
+    staff,
+    inviteLimit,
+    validate({ params: cohortInvitationParamsSchema }),
+    async (req, res) => {
+      const scope = { cohortId: req.params.id }
+      res.json(await newInvitationLink(ctx, currentUser(req), scope, req.params.invitationId))
     },
   )
 
@@ -120,10 +146,10 @@ export function cohortsRouter(ctx: AppContext): Router {
     '/:id/invitations/roster',
     staff,
     inviteLimit,
-    validate({ params: idParamsSchema }),
+    validate({ params: idParamsSchema, query: rosterImportQuerySchema }),
     uploadMiddleware(ROSTER_UPLOAD),
     async (req, res) => {
-      res.status(201).json({ items: await inviteRoster(ctx, currentUser(req), req.params.id, req.file) })
+      res.status(201).json(await inviteRoster(ctx, currentUser(req), req.params.id, req.file, req.query.rows))
     },
   )
 

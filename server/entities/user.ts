@@ -1,6 +1,6 @@
 import { EntitySchema } from 'typeorm'
 import type { Role } from '@shared/api/auth'
-import { bool, integer, nullableTimestamp, text, timestamp, uuidPrimary, varchar } from './columns'
+import { bool, integer, nullableBool, nullableTimestamp, text, timestamp, uuidPrimary, varchar } from './columns'
 
 export interface UserRow {
   id: string
@@ -14,6 +14,10 @@ export interface UserRow {
   createdAt: string
   updatedAt: string
   lastSignInAt: string | null
+  /** Reminders before due dates (migration 1765400000000); null: never chosen, so on. */
+  dueReminders?: boolean | null
+  /** The instructors' daily digest; null: never chosen, so on. */
+  dailyDigest?: boolean | null
 }
 
 export const UserEntity = new EntitySchema<UserRow>({
@@ -30,5 +34,7 @@ export const UserEntity = new EntitySchema<UserRow>({
     createdAt: timestamp,
     updatedAt: timestamp,
     lastSignInAt: nullableTimestamp,
+    dueReminders: nullableBool,
+    dailyDigest: nullableBool,
   },
 })

@@ -11,6 +11,9 @@ import {
   type Invitation,
   type InvitationPreview,
   type InviteOutcome,
+  type RosterImportMode,
+  type RosterImportResult,
+  type RosterRowError,
 } from '@shared/api/invitations'
 import { cohortFor } from '../access/access.service'
 import { startSession, type IssuedSession } from '../auth/sessions.service'
@@ -21,9 +24,10 @@ import {
   InvitationEntity,
   UserEntity,
   type CohortRow,
+  type InvitationRow,
   type UserRow,
 } from '../entities'
-import { HttpError, conflict, notFound } from '../http-error'
+import { HttpError, conflict } from '../http-error'
 import { DAY, isoIn, nowIso } from '../infrastructure/clock'
 import { centreTimeZone } from '../centre/centre.service'
 import { queueMail } from '../infrastructure/mail/mail-job'
@@ -84,22 +88,39 @@ async function invite(ctx: AppContext, manager: EntityManager, input: InviteInpu
     createdAt: nowIso(),
   }
   await invitations.insert(row)
+  await queueInvitationMail(ctx, manager, row, token, {
+    inviterName: input.inviter.name,
+    cohortName: input.cohort?.name ?? null,
+  })
+  return { outcome: 'invited', email: input.email, invitation: presentInvitation(row) }
+}
+
+/** The invitation mail with its one-time link (a fresh token: only its hash is stored). */
+export async function queueInvitationMail(
+  ctx: AppContext,
+  manager: EntityManager,
+  row: InvitationRow,
+  token: string,
+  names: { inviterName: string; cohortName: string | null },
+) {
   await queueMail(
     manager,
     invitationMail({
-      to: input.email,
-      name: input.name,
-      invitedBy: input.inviter.name,
-      cohortName: input.cohort?.name ?? null,
-      role: input.role,
-      url: appLink(ctx, `/invitation?token=${encodeURIComponent(token)}`),
+      to: row.email,
+      name: row.name,
+      invitedBy: names.inviterName,
+      cohortName: names.cohortName,
+      role: row.role,
+      url: invitationUrl(ctx, token),
       expiresAt: row.expiresAt,
       // The expiry date in the mail is on the centre's clock.
       timeZone: await centreTimeZone(manager),
     }),
   )
-  return { outcome: 'invited', email: input.email, invitation: presentInvitation(row) }
 }
+
+export const invitationUrl = (ctx: AppContext, token: string) =>
+  appLink(ctx, `/invitation?token=${encodeURIComponent(token)}`)
 
 export const ROSTER_UPLOAD: UploadKind = {
   purpose: 'roster',
@@ -145,17 +166,23 @@ export async function inviteToCohort(
   )
 }
 
-/** Invites every row of a roster CSV, or nobody: any problem is reported per row and nothing is kept. */
+/**
+ * Invites the rows of a roster CSV. `all` (the default): every row or nobody — any problem is reported per
+ * row and nothing is kept. `valid`: the rows that can be invited are, and the others come back as `skipped`
+ * with their reasons (a file that cannot be read at all is still refused).
+ */
 export async function inviteRoster(
   ctx: AppContext,
   inviter: UserRow,
   cohortId: string,
   upload: Express.Multer.File | undefined,
-): Promise<InviteOutcome[]> {
+  mode: RosterImportMode = 'all',
+): Promise<RosterImportResult> {
   const cohort = await openCohortFor(ctx, inviter, cohortId)
   const { file, text } = uploadedText({ file: upload }, ROSTER_UPLOAD)
   const { rows, errors } = readRoster(text)
-  if (errors.length) {
+  const fileErrors = errors.filter((e) => e.field.startsWith('('))
+  if (fileErrors.length || (errors.length && mode === 'all')) {
     throw new HttpError(
       400,
       'roster_invalid',
@@ -163,7 +190,8 @@ export async function inviteRoster(
       { rows: errors },
     )
   }
-  return inTransactionWithUpload(ctx, inviter.id, ROSTER_UPLOAD, file, async (manager) => {
+  const skipped: RosterRowError[] = [...errors]
+  const result = await inTransactionWithUpload(ctx, inviter.id, ROSTER_UPLOAD, file, async (manager) => {
     const done: InviteOutcome[] = []
     for (const row of rows) {
       try {
@@ -177,6 +205,11 @@ export async function inviteRoster(
           }),
         )
       } catch (error) {
+        // invite() refuses before it writes anything, so the transaction stays usable for the next row.
+        if (error instanceof HttpError && mode === 'valid') {
+          skipped.push({ row: row.line, field: 'email', message: error.message })
+          continue
+        }
         if (error instanceof HttpError) {
           throw new HttpError(400, 'roster_invalid', 'The roster has 1 problem(s); nothing was imported', {
             rows: [{ row: row.line, field: 'email', message: error.message }],
@@ -185,8 +218,14 @@ export async function inviteRoster(
         throw error
       }
     }
+    if (!done.length) {
+      throw new HttpError(400, 'roster_invalid', 'No row of the roster can be imported; nothing was', {
+        rows: skipped,
+      })
+    }
     return done
   })
+  return { items: result, skipped: skipped.sort((a, b) => a.row - b.row) }
 }
 
 /** The cohort's invitations still waiting for an answer (not accepted, not expired). */
@@ -201,20 +240,6 @@ export async function pendingCohortInvitations(
     order: { createdAt: 'DESC' },
   })
   return rows.filter((r) => r.expiresAt > nowIso()).map(presentInvitation)
-}
-
-/** Withdrawn = expired now; the link stops working and the record stays for the history. */
-export async function withdrawInvitation(
-  ctx: AppContext,
-  user: UserRow,
-  cohortId: string,
-  invitationId: string,
-): Promise<void> {
-  const cohort = await cohortFor(ctx.dataSource, user, cohortId, 'manage')
-  const result = await ctx.dataSource
-    .getRepository(InvitationEntity)
-    .update({ id: invitationId, cohortId: cohort.id, acceptedAt: IsNull() }, { expiresAt: nowIso() })
-  if (!result.affected) throw notFound('Pending invitation')
 }
 
 async function pending(ctx: AppContext, token: string) {

@@ -7,6 +7,7 @@ import { JobQueue1765000000000 } from './1765000000000-job-queue'
 import { Lti1765100000000 } from './1765100000000-lti'
 import { OutcomeSignOffs1765200000000 } from './1765200000000-outcome-sign-offs'
 import { InstructorWeek1765300000000 } from './1765300000000-instructor-week'
+import { MailPreferences1765400000000 } from './1765400000000-mail-preferences'
 import { SignOffWithdrawals1765600000000 } from './1765600000000-sign-off-withdrawals'
 
 export const migrations = [
@@ -18,5 +19,6 @@ export const migrations = [
   Lti1765100000000,
   OutcomeSignOffs1765200000000,
   InstructorWeek1765300000000,
+  MailPreferences1765400000000,
   SignOffWithdrawals1765600000000,
 ]

@@ -38,11 +38,38 @@ export const rosterRowErrorSchema = z.object({
   message: z.string(),
 })
 export type RosterRowError = z.infer<typeof rosterRowErrorSchema>
-export const rosterImportResultSchema = z.object({ items: z.array(inviteOutcomeSchema) })
+export const rosterImportResultSchema = z.object({
+  items: z.array(inviteOutcomeSchema),
+  /** Rows left out by an import of the valid rows only, each with its reason (empty otherwise). */
+  skipped: z.array(rosterRowErrorSchema).default([]),
+})
 export type RosterImportResult = z.infer<typeof rosterImportResultSchema>
 
-/** DELETE /api/cohorts/:id/invitations/:invitationId withdraws a pending invitation. */
+/** `all`: every row or nobody (the default); `valid`: the rows that can be invited, the others skipped. */
+export const ROSTER_IMPORT_MODES = ['all', 'valid'] as const
+export type RosterImportMode = (typeof ROSTER_IMPORT_MODES)[number]
+export const rosterImportQuerySchema = z.object({
+  rows: z.enum(ROSTER_IMPORT_MODES, { error: 'Choose all rows or the valid rows' }).default('all'),
+})
+
+/**
+ * /api/cohorts/:id/invitations/:invitationId — DELETE withdraws a pending invitation; POST …/resend sends it
+ * again with a new link; POST …/link makes a new link to hand over another way. Admins have the same under
+ * /api/admin/invitations/:id for every pending invitation.
+ */
 export const cohortInvitationParamsSchema = z.object({ id: idSchema, invitationId: idSchema })
+
+/** A new link for a pending invitation: the earlier link (and the one in the e-mail) stops working. */
+export const invitationLinkSchema = z.object({ url: z.string(), expiresAt: isoDateTimeSchema })
+export type InvitationLink = z.infer<typeof invitationLinkSchema>
+
+/** A pending invitation as an admin sees it: where to and from whom, in names. */
+export const pendingInvitationSchema = invitationSchema.extend({
+  cohortName: z.string().nullable(),
+  invitedByName: z.string(),
+})
+export type PendingInvitation = z.infer<typeof pendingInvitationSchema>
+export const pendingInvitationListSchema = z.object({ items: z.array(pendingInvitationSchema) })
 
 export const invitationTokenParamsSchema = z.object({ token: z.string().min(16).max(200) })
 

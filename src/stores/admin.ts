@@ -6,12 +6,14 @@ import {
   userPageSchema,
   meResponseSchema,
   inviteOutcomeSchema,
+  invitationLinkSchema,
+  pendingInvitationListSchema,
   type InviteRequest,
   type OutboxQuery,
   type UpdateUserRequest,
   type UserListQuery,
 } from '@shared/api'
-import { downloadFile, request } from '@/api/client'
+import { downloadFile, request, requestVoid } from '@/api/client'
 import { endpoints } from '@/api/endpoints'
 
 type Query = Record<string, string | number>
@@ -24,6 +26,15 @@ export const useAdminStore = defineStore('admin', () => {
     (await request(endpoints.admin.user(id), meResponseSchema, { method: 'PATCH', body })).user
   const inviteInstructor = (body: InviteRequest) =>
     request(endpoints.admin.inviteInstructor, inviteOutcomeSchema, { method: 'POST', body })
+  /** Everyone invited and not yet answered (instructors and apprentices). */
+  const pendingInvitations = async () =>
+    (await request(endpoints.admin.invitations, pendingInvitationListSchema)).items
+  const resendInvitation = async (id: string) => {
+    await requestVoid(`${endpoints.admin.invitation(id)}/resend`, { method: 'POST' })
+  }
+  const invitationLink = (id: string) =>
+    request(`${endpoints.admin.invitation(id)}/link`, invitationLinkSchema, { method: 'POST' })
+  const revokeInvitation = (id: string) => requestVoid(endpoints.admin.invitation(id), { method: 'DELETE' })
   const outbox = (query: OutboxQuery) =>
     request(endpoints.admin.outbox, outboxPageSchema, { query: query as Query })
   const retryMessage = async (id: string) =>
@@ -34,5 +45,16 @@ export const useAdminStore = defineStore('admin', () => {
     return downloadFile(endpoints.admin.backup, `slipway-backup-${stamp}.sqlite`)
   }
 
-  return { users, updateUser, inviteInstructor, outbox, retryMessage, downloadBackup }
+  return {
+    users,
+    updateUser,
+    inviteInstructor,
+    pendingInvitations,
+    resendInvitation,
+    invitationLink,
+    revokeInvitation,
+    outbox,
+    retryMessage,
+    downloadBackup,
+  }
 })

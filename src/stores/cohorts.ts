@@ -8,6 +8,8 @@ import {
   cohortSchema,
   cohortInsightSchema,
   invitationListSchema,
+  invitationLinkSchema,
+  type RosterImportMode,
   inviteOutcomeSchema,
   removeMembersResultSchema,
   rosterImportResultSchema,
@@ -88,13 +90,30 @@ export const useCohortsStore = defineStore('cohorts', () => {
     return request(endpoints.cohorts.invitations(id), inviteOutcomeSchema, { method: 'POST', body })
   }
 
-  async function uploadRoster(id: string, file: File) {
+  /** `all`: every row or nothing; `valid`: the valid rows, the others skipped (with reasons). */
+  async function uploadRoster(id: string, file: File, rows: RosterImportMode = 'all') {
     const form = new FormData()
     form.append('roster', file)
-    return (
-      await request(endpoints.cohorts.roster(id), rosterImportResultSchema, { method: 'POST', body: form })
-    ).items
+    return request(endpoints.cohorts.roster(id), rosterImportResultSchema, {
+      method: 'POST',
+      body: form,
+      query: { rows },
+    })
   }
+
+  /** Sends a pending invitation again, with a new link (the old one stops working). */
+  async function resendInvitation(id: string, invitationId: string) {
+    await requestVoid(`${endpoints.cohorts.invitation(id, invitationId)}/resend`, { method: 'POST' })
+  }
+
+  /** A new link for a pending invitation, to hand over another way (the mailed one stops working). */
+  const invitationLink = (id: string, invitationId: string) =>
+    request(`${endpoints.cohorts.invitation(id, invitationId)}/link`, invitationLinkSchema, {
+      method: 'POST',
+    })
+
+  const revokeInvitation = (id: string, invitationId: string) =>
+    requestVoid(endpoints.cohorts.invitation(id, invitationId), { method: 'DELETE' })
 
   return {
     items,
@@ -110,6 +129,9 @@ export const useCohortsStore = defineStore('cohorts', () => {
     invitations,
     invite,
     uploadRoster,
+    resendInvitation,
+    invitationLink,
+    revokeInvitation,
     removeMembers,
     message,
   }

@@ -81,6 +81,14 @@ const ROUTES: Route[] = [
     body: () => ({ name: 'Same Name Kept' }),
     expect: signedIn(200),
   },
+  // Each person's own optional mail: anyone signed in, for themselves only (there is no user id to name).
+  { method: 'get', path: () => '/api/auth/me/mail-preferences', expect: signedIn(200) },
+  {
+    method: 'patch',
+    path: () => '/api/auth/me/mail-preferences',
+    body: () => ({ dueReminders: true, dailyDigest: true }),
+    expect: signedIn(200),
+  },
   {
     method: 'post',
     path: () => '/api/auth/change-password',
@@ -165,6 +173,28 @@ const ROUTES: Route[] = [
     method: 'delete',
     path: (w) => `/api/cohorts/${w.cohortA.id}/invitations/00000000-0000-4000-8000-000000000000`,
     expect: ownCohortStaff(404),
+  },
+  // An id that names no pending invitation: the cohort check comes first, then 404.
+  {
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/invitations/${NO_SUCH_ID}/resend`,
+    expect: ownCohortStaff(404),
+  },
+  {
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/invitations/${NO_SUCH_ID}/link`,
+    expect: ownCohortStaff(404),
+  },
+  {
+    method: 'post',
+    path: (w) => `/api/cohorts/${w.cohortA.id}/invitations/roster?rows=valid`,
+    attach: {
+      field: 'roster',
+      filename: 'roster.csv',
+      contentType: 'text/csv',
+      content: () => `name,email\nRow Person,row-${randomUUID().slice(0, 8)}@slipway.test\nBad Row,nope\n`,
+    },
+    expect: ownCohortStaff(201),
   },
   // several members at once
   {
@@ -443,6 +473,10 @@ const ROUTES: Route[] = [
     body: () => ({ email: `staff-${randomUUID().slice(0, 8)}@slipway.test`, name: 'New Staff' }),
     expect: adminOnly(201),
   },
+  { method: 'get', path: () => '/api/admin/invitations', expect: adminOnly(200) },
+  { method: 'post', path: () => `/api/admin/invitations/${NO_SUCH_ID}/resend`, expect: adminOnly(404) },
+  { method: 'post', path: () => `/api/admin/invitations/${NO_SUCH_ID}/link`, expect: adminOnly(404) },
+  { method: 'delete', path: () => `/api/admin/invitations/${NO_SUCH_ID}`, expect: adminOnly(404) },
   { method: 'get', path: () => '/api/admin/outbox', expect: adminOnly(200) },
   // An id that names no message: the role check comes first, then 404.
   { method: 'post', path: () => `/api/admin/outbox/${randomUUID()}/retry`, expect: adminOnly(404) },

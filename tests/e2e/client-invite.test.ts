@@ -47,7 +47,7 @@ describe('inviting an apprentice by e-mail', () => {
     await page.getByRole('cell', { name: invitee.email }).waitFor()
   })
 
-  it('previews a roster with a bad row and refuses to import it', async () => {
+  it('previews a roster with a bad row, refuses it whole, and imports the valid rows', async () => {
     const { page } = browser
     const dir = mkdtempSync(join(tmpdir(), 'slipway-roster-'))
     const file = join(dir, 'roster.csv')
@@ -59,15 +59,38 @@ describe('inviting an apprentice by e-mail', () => {
     await page.locator('[data-testid="roster-file"] input[type="file"]').setInputFiles(file)
     const preview = page.locator('[data-testid="roster-preview"]')
     await preview.getByText('Must be an e-mail address').waitFor()
-    await expect(page.getByRole('button', { name: /Invite 1 apprentice/ }).isDisabled()).resolves.toBe(true)
+    await expect(page.getByRole('button', { name: 'Invite every row' }).isDisabled()).resolves.toBe(true)
+    await page.getByText('Up to 500 rows').waitFor()
     await screenshot(page, 'client-roster-preview')
-    await page.getByRole('dialog').getByRole('button', { name: 'Cancel' }).click()
+    await page.getByRole('button', { name: 'Import the valid rows (1)' }).click()
+    await page.getByText('Roster imported: 1 invited, 0 enrolled, 1 row left out').waitFor()
+    await page.getByRole('tab', { name: /Pending invitations \(2\)/ }).waitFor()
+  })
+
+  it('withdraws an invitation after asking', async () => {
+    const { page } = browser
+    await page.getByRole('cell', { name: 'bryn.castellan@kestrelvale.example' }).waitFor()
+    await screenshot(page, 'client-pending-invitations')
+    await page.getByRole('button', { name: 'Withdraw the invitation to Bryn Castellan' }).click()
+    const confirm = page.getByRole('alertdialog')
+    await confirm.getByText('Withdraw this invitation?').waitFor()
+    await confirm.getByRole('button', { name: 'Withdraw' }).click()
+    await page.getByText('Invitation for bryn.castellan@kestrelvale.example withdrawn').waitFor()
+    await page.getByRole('tab', { name: /Pending invitations \(1\)/ }).waitFor()
+  })
+
+  it('lists the pending invitation for the admin', async () => {
+    const { page } = browser
+    await signOut(page)
+    await signIn(page, app.url, demo('admin'))
+    await page.goto(`${app.url}/admin/users`)
+    const pending = page.locator('[data-test="pending-invitations"]')
+    await pending.getByText(invitee.email).waitFor()
+    await screenshot(page, 'client-admin-pending-invitations')
   })
 
   it('shows the admin the invitation e-mail in the outbox, with its link', async () => {
     const { page } = browser
-    await signOut(page)
-    await signIn(page, app.url, demo('admin'))
     await page.getByRole('link', { name: 'Mail outbox' }).click()
     // Mail goes out over SMTP after the request; give the embedded relay a moment.
     await expect

@@ -28,7 +28,8 @@ function render({ to, subject, greeting, paragraphs, action }: Template): Outgoi
   ].join('\n')
   const html = [
     `<p>${escapeHtml(greeting)}</p>`,
-    ...paragraphs.map((p) => `<p>${escapeHtml(p)}</p>`),
+    // A paragraph's own line breaks (a digest's list) are kept.
+    ...paragraphs.map((p) => `<p>${escapeHtml(p).replace(/\n/g, '<br>')}</p>`),
     action ? `<p><a href="${escapeHtml(action.url)}">${escapeHtml(action.label)}</a></p>` : '',
     `<p style="color:#555">${escapeHtml(SIGN_OFF)}</p>`,
   ].join('\n')
@@ -150,5 +151,76 @@ export function cohortMessageMail(input: {
       `— ${input.instructorName}, your instructor for ${input.cohortName}`,
     ],
     action: { label: 'Open Slipway', url: input.url },
+  })
+}
+
+export function dueReminderMail(input: {
+  to: string
+  name: string
+  title: string
+  cohortName: string
+  /** Their own due date (an extension included). */
+  dueAt: string
+  timeZone: string
+  /** The reminder's mark: 48 or 24 hours before. */
+  hours: number
+  /** They have submitted something that has not passed yet. */
+  tried: boolean
+  url: string
+  profileUrl: string
+}): OutgoingMail {
+  const when = input.hours >= 48 ? 'in two days' : input.hours >= 24 ? 'tomorrow' : 'soon'
+  return render({
+    to: input.to,
+    subject: `Due ${when}: ${input.title}`,
+    greeting: `Hello ${input.name},`,
+    paragraphs: [
+      `“${input.title}” (${input.cohortName}) is due by ${formatInZone(input.dueAt, input.timeZone, 'dateTimeZone')}.`,
+      input.tried
+        ? 'You have tried it but not passed yet: have another look at the objectives your last attempt missed.'
+        : 'You have not submitted a passing attempt yet.',
+      `You can turn these reminders off on your profile: ${input.profileUrl}`,
+    ],
+    action: { label: 'Open the assignment', url: input.url },
+  })
+}
+
+export interface DigestCohort {
+  cohortName: string
+  submissions: number
+  passed: number
+  /** One line per attempt with a safety violation: who, which exercise, what went wrong. */
+  violations: string[]
+}
+
+export function dailyDigestMail(input: {
+  to: string
+  name: string
+  since: string
+  timeZone: string
+  cohorts: DigestCohort[]
+  url: string
+  profileUrl: string
+}): OutgoingMail {
+  const count = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`
+  const paragraphs = input.cohorts.map((c) =>
+    [
+      `${c.cohortName}: ${count(c.submissions, 'new submission', 'new submissions')}, ${c.passed} passed` +
+        (c.violations.length
+          ? `; ${count(c.violations.length, 'attempt', 'attempts')} with a safety violation:`
+          : '; no safety violations.'),
+      ...c.violations.map((v) => `• ${v}`),
+    ].join('\n'),
+  )
+  return render({
+    to: input.to,
+    subject: 'Your Slipway digest',
+    greeting: `Hello ${input.name},`,
+    paragraphs: [
+      `Since ${formatInZone(input.since, input.timeZone, 'dateTimeZone')}, in the cohorts you teach:`,
+      ...paragraphs,
+      `You can turn this digest off on your profile: ${input.profileUrl}`,
+    ],
+    action: { label: 'See what needs your attention', url: input.url },
   })
 }
