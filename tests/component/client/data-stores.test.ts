@@ -61,9 +61,12 @@ describe('the data stores', () => {
     const calls = stubFetch(() => ({ status: 201, body: { items: [] } }))
     const cohorts = useCohortsStore()
     await cohorts.uploadRoster(ids.cohort, new File(['name,email\n'], 'roster.csv', { type: 'text/csv' }))
-    expect(calls[0].url).toBe(`/api/cohorts/${ids.cohort}/invitations/roster`)
+    expect(calls[0].url).toBe(`/api/cohorts/${ids.cohort}/invitations/roster?rows=all`)
     expect(calls[0].body).toBeInstanceOf(FormData)
     expect((calls[0].body as FormData).get('roster')).toBeInstanceOf(File)
+    // After the preview, the valid rows alone.
+    await cohorts.uploadRoster(ids.cohort, new File(['name,email\n'], 'roster.csv'), 'valid')
+    expect(calls[1].url).toBe(`/api/cohorts/${ids.cohort}/invitations/roster?rows=valid`)
   })
 
   it('creates an assignment under its cohort', async () => {
