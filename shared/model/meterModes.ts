@@ -15,3 +15,12 @@ export const METER_MODE_LABELS: Record<MeterMode, string> = {
   resistance: 'Resistance (Ω)',
   continuity: 'Continuity',
 }
+
+/** The same on the meter's small keys (and the panel's buttons), where the long words do not fit. */
+export const METER_MODE_KEY_LABELS: Record<MeterMode, string> = {
+  off: 'Off',
+  acVolts: 'V AC',
+  dcVolts: 'V DC',
+  resistance: 'Ω',
+  continuity: 'Cont.',
+}

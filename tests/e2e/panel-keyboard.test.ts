@@ -81,8 +81,10 @@ describe('commissioning raise/lower with the keyboard only', () => {
       await page.getByRole('button', { name: `Meter selector: ${range}` }).focus()
       await page.keyboard.press('Enter')
       await expect
-        .poll(async () => page.getByTestId('meter-mode').locator('button[aria-pressed="true"]').textContent())
-        .toContain(range)
+        .poll(async () =>
+          page.getByTestId('meter-mode').locator('button[aria-pressed="true"]').getAttribute('aria-label'),
+        )
+        .toBe(`Meter selector: ${range}`)
       await choose(page, 'Red probe (V+)', red)
       await choose(page, 'Black probe (COM)', black)
     }

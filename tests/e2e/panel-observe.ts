@@ -63,7 +63,8 @@ export class PanelObserver {
   /** The meter selector's position in words ("V AC"), from its pressed button beside the canvas. */
   async meterMode(): Promise<string> {
     const pressed = this.page.getByTestId('meter-mode').locator('button[aria-pressed="true"]')
-    return (await pressed.count()) ? ((await pressed.first().textContent()) ?? '').trim() : 'no position'
+    if (!(await pressed.count())) return 'no position'
+    return ((await pressed.first().getAttribute('aria-label')) ?? '').replace(/^Meter selector: /, '')
   }
 
   /** Where a probe is, from its field (which shows the point's name, or that it is lifted). */

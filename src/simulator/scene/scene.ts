@@ -1,5 +1,6 @@
 // The panel scene in pixi.js: built once from the layout, then redrawn only where the view changed.
 import { Container, Graphics, Text, type TextStyleOptions } from 'pixi.js'
+import { METER_MODE_KEY_LABELS } from '@shared/model/meterModes'
 import { probeTip } from './hitTest'
 import { PALETTE as C } from './palette'
 import { TERMINAL_LABEL_SIZE, TERMINAL_RADIUS } from './layout'
@@ -37,15 +38,6 @@ function box(g: Graphics, r: Rect, fill: number, edge: number, radius = 8) {
 
 /** Above this texture resolution the still parts are drawn as vectors each frame instead of cached. */
 const MAX_CACHE_RESOLUTION = 2.5
-
-/** The selector's positions as printed on the meter's buttons (short: they sit in a 50-unit key). */
-const METER_KEY_LABELS: Record<PanelView['meterMode'], string> = {
-  off: 'Off',
-  acVolts: 'V AC',
-  dcVolts: 'V DC',
-  resistance: 'Ω',
-  continuity: 'Cont.',
-}
 
 export class PanelScene {
   readonly root = new Container()
@@ -137,7 +129,7 @@ export class PanelScene {
 
     for (const key of layout.meter.selector) {
       const label = text(
-        METER_KEY_LABELS[key.mode],
+        METER_MODE_KEY_LABELS[key.mode],
         { fontSize: 12, fill: C.text, fontWeight: 'bold' },
         key.rect.x + key.rect.w / 2,
         key.rect.y + key.rect.h / 2,
