@@ -79,3 +79,12 @@ export function mergeServerRowErrors(preview: RosterPreview, details: unknown): 
   }
   return { ...preview, rows, validCount: rows.filter((r) => !Object.keys(r.errors).length).length }
 }
+
+/** The column a problem is in, in the words of the preview's headings (never the field's name). */
+const COLUMN_WORDS: Record<string, string> = { name: 'Name', email: 'E-mail' }
+
+/** One problem of a row as the preview shows it: "E-mail: Must be an e-mail address". */
+export function rowProblem(field: string, message: string): string {
+  const column = COLUMN_WORDS[field]
+  return column ? `${column}: ${message}` : message
+}

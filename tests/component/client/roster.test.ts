@@ -1,6 +1,6 @@
 // The roster preview: every row checked by the shared invitation schema before anything is sent.
 import { describe, expect, it } from 'vitest'
-import { mergeServerRowErrors, previewRoster } from '@/components/cohorts/roster'
+import { mergeServerRowErrors, previewRoster, rowProblem } from '@/components/cohorts/roster'
 
 describe('the roster preview', () => {
   it('reads name and e-mail columns in any order and case', () => {
@@ -53,5 +53,13 @@ describe('the roster preview', () => {
     })
     expect(merged.rows[0].errors).toEqual({ email: 'Already invited' })
     expect(merged.validCount).toBe(0)
+  })
+})
+
+describe('a row’s problem in words', () => {
+  it('names the column as its heading does, never the field behind it', () => {
+    expect(rowProblem('email', 'Must be an e-mail address')).toBe('E-mail: Must be an e-mail address')
+    expect(rowProblem('name', 'Enter a name')).toBe('Name: Enter a name')
+    expect(rowProblem('row', 'Already invited')).toBe('Already invited')
   })
 })
