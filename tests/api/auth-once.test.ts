@@ -20,7 +20,8 @@ describe('signing a request in once', () => {
       .get(`/api/cohorts/${w.cohortA.id}/gradebook`)
       .set(bearer(w.instructorA.token))
     expect(response.status).toBe(200)
-    const accountReads = logged.mock.calls.filter(([sql]) => /FROM "users" WHERE "id" = \?/.test(sql))
+    // SQLite numbers no placeholders ("?"); PostgreSQL does ("$1").
+    const accountReads = logged.mock.calls.filter(([sql]) => /FROM "users" WHERE "id" = (\?|\$1)/.test(sql))
     logged.mockRestore()
     expect(accountReads).toHaveLength(1)
   })
