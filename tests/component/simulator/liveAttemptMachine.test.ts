@@ -13,7 +13,12 @@ import reference from '../../fixtures/attempts/raise-lower-commissioning--refere
 import rewiredLive from '../../fixtures/attempts/configuration-conflict-alarm--mistake-rewired-live.json'
 import type { AttemptCopy } from '@/simulator/machines/attemptStart'
 import type { PanelAction } from '@/simulator/scene/intentActions'
-import { GRADE_COALESCE_MS, liveGradingActor, SAFE_SEQUENCE, warningText } from '@/simulator/machines/liveGrading'
+import {
+  GRADE_COALESCE_MS,
+  liveGradingActor,
+  SAFE_SEQUENCE,
+  warningText,
+} from '@/simulator/machines/liveGrading'
 import { liveAttemptMachine, type LiveStart, type LiveTarget } from '@/simulator/machines/liveAttemptMachine'
 import { isRetryable, retryDelayMs } from '@/simulator/machines/retry'
 import { createAttemptStore } from '@/simulator/storage/attemptStore'
@@ -87,6 +92,23 @@ const unlock: AttemptEvent = { t: 100, type: 'lock.removed' }
 const powerOn: AttemptEvent = { t: 200, type: 'power.on' }
 
 describe('where a live attempt starts', () => {
+  it('offers to try again only when opening failed for a reason that can pass', async () => {
+    const opened = (error: unknown) =>
+      createActor(
+        liveAttemptMachine.provide({ actors: { loadStart: fromPromise(async () => Promise.reject(error)) } }),
+        {
+          input: { target: practice },
+        },
+      ).start()
+    const refused = opened(failure(403, 'practice_closed'))
+    await waitFor(refused, (s) => s.matches('failed'))
+    expect(refused.getSnapshot().context.loadRetryable).toBe(false)
+    const offline = opened(failure(503))
+    await waitFor(offline, (s) => s.matches('failed'))
+    expect(offline.getSnapshot().context.loadRetryable).toBe(true)
+    expect(offline.getSnapshot().context.problem).toMatch(/could not be opened/)
+  })
+
   it('starts a fresh attempt with a new id when nothing is saved', async () => {
     const { actor } = start()
     await waitFor(actor, (s) => s.matches('live'))
@@ -208,7 +230,7 @@ describe('live grading and live safety warnings', () => {
     return { actor, warned }
   }
 
-  it('says one action\'s violations once: the work, then each rule it broke, then the safe sequence', () => {
+  it("says one action's violations once: the work, then each rule it broke, then the safe sequence", () => {
     const at = 'Wire W1 added from +24 to Infeed run / stop terminal 13 at 00:15.2'
     const violations = [
       { kind: 'workWhileEnergised', t: 15_200, text: `${at} while the supply disconnect was on.` },
