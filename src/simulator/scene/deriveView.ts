@@ -1,10 +1,11 @@
 // Builds what the scene draws from the model's state and readings plus the panel's own UI state.
 import type { CircuitReading, DriveReading, SimState } from '@shared/model/types'
 import type { MotorNameplate } from '@shared/model/setup'
-import { meterText, statusLamp, statusLines } from './driveDisplay'
-import { menuLines, type KeypadMenu } from './keypadMenu'
+import { readFrontPanel } from '@shared/model/frontPanel'
+import { frontPanelLines, meterText, statusLamp } from './driveDisplay'
+import { menuLines, statusPage, type KeypadMenu } from './keypadMenu'
 import type { PointId, ProbeColour, Vec } from './types'
-import type { PanelView } from './view'
+import type { PanelView, PowerView } from './view'
 import { wireLabel } from './wireColours'
 
 export interface PanelUiState {
@@ -28,6 +29,16 @@ export function nameplateLines(np: MotorNameplate): string[] {
   ]
 }
 
+/** The disconnect as drawn: on or off, and each lock on it with its tag (the apprentice's own first). */
+export function powerView(power: SimState['power']): PowerView {
+  return {
+    on: power.on,
+    locked: power.locked,
+    tag: power.locked ? (power.tag ?? null) : null,
+    supervisorLock: power.supervisorLock ?? null,
+  }
+}
+
 export function deriveView(
   sim: SimState,
   drive: DriveReading,
@@ -39,20 +50,22 @@ export function deriveView(
     const d = sim.devices[id]
     devices[id] = { held: d.pressed, position: d.position }
   }
+  // Only what the drive's front panel shows (readFrontPanel): nothing on a dark display, no voltages
+  // beyond its own readouts; the CHARGE lamp follows the bus, not the display.
+  const panel = readFrontPanel(sim, drive)
   const display =
-    ui.menu.screen !== 'status' && drive.displayOn
+    ui.menu.screen !== 'status' && panel.lit
       ? menuLines(ui.menu, { active: sim.settings.active, pending: sim.settings.pending })
-      : statusLines(drive)
+      : frontPanelLines(panel, statusPage(ui.menu))
   return {
     wires: sim.wires.map((w, i) => ({ ...w, label: wireLabel(w.id, w.colour, i) })),
     selectedWire: ui.selectedWire,
     draftWire: ui.draftWire,
     devices,
-    power: { on: sim.power.on, locked: sim.power.locked },
-    busVolts: drive.busVolts,
+    power: powerView(sim.power),
     display,
-    lamp: statusLamp(drive),
-    inputsOn: circuit.inputs.filter((i) => i.on).map((i) => i.point),
+    lamp: statusLamp(panel),
+    chargeLamp: panel.chargeLamp,
     rpm: drive.motorRpm,
     nameplate: nameplateLines(sim.motor.nameplate),
     probes: { red: sim.meter.red, black: sim.meter.black },
