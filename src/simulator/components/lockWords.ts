@@ -10,7 +10,9 @@ export function locksInWords(power: {
   if (power.supervisorLock) locks.push(`${power.supervisorLock.name}'s lock, tagged with their name`)
   if (power.locked) {
     locks.push(
-      power.tag ? `your lock, tagged ${power.tag.name}, ${power.tag.date}` : 'your lock (no tag details recorded)',
+      power.tag
+        ? `your lock, tagged ${power.tag.name}, ${power.tag.date}`
+        : 'your lock (no tag details recorded)',
     )
   }
   if (locks.length === 0) return 'No lock on the disconnect.'

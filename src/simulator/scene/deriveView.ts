@@ -1,6 +1,6 @@
 // Builds what the scene draws from the model's state and readings plus the panel's own UI state.
 import type { CircuitReading, DriveReading, SimState } from '@shared/model/types'
-import type { MotorNameplate } from '@shared/model/setup'
+import type { LockTag, MotorNameplate } from '@shared/model/setup'
 import { readFrontPanel } from '@shared/model/frontPanel'
 import { frontPanelLines, meterText, statusLamp } from './driveDisplay'
 import { menuLines, statusPage, type KeypadMenu } from './keypadMenu'
@@ -15,6 +15,11 @@ export interface PanelUiState {
   highlight: PointId | null
   armed: PointId | null
   menu: KeypadMenu
+  /**
+   * A replay of a log written before tags: the tag as the attempt's owner would have written it (their
+   * name, the attempt's date). A tag in the log always wins.
+   */
+  tagFallback?: LockTag | null
 }
 
 export function nameplateLines(np: MotorNameplate): string[] {
@@ -30,11 +35,11 @@ export function nameplateLines(np: MotorNameplate): string[] {
 }
 
 /** The disconnect as drawn: on or off, and each lock on it with its tag (the apprentice's own first). */
-export function powerView(power: SimState['power']): PowerView {
+export function powerView(power: SimState['power'], tagFallback: LockTag | null = null): PowerView {
   return {
     on: power.on,
     locked: power.locked,
-    tag: power.locked ? (power.tag ?? null) : null,
+    tag: power.locked ? (power.tag ?? tagFallback) : null,
     supervisorLock: power.supervisorLock ?? null,
   }
 }
@@ -62,7 +67,7 @@ export function deriveView(
     selectedWire: ui.selectedWire,
     draftWire: ui.draftWire,
     devices,
-    power: powerView(sim.power),
+    power: powerView(sim.power, ui.tagFallback ?? null),
     display,
     lamp: statusLamp(panel),
     chargeLamp: panel.chargeLamp,
