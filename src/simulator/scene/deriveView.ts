@@ -1,5 +1,5 @@
 // Builds what the scene draws from the model's state and readings plus the panel's own UI state.
-import type { CircuitReading, DriveReading, SimState } from '@shared/model/types'
+import type { CircuitReading, DriveReading, FrontPanelReading, SimState } from '@shared/model/types'
 import type { LockTag, MotorNameplate } from '@shared/model/setup'
 import { readFrontPanel } from '@shared/model/frontPanel'
 import { frontPanelLines, meterText, statusLamp } from './driveDisplay'
@@ -34,6 +34,16 @@ export function nameplateLines(np: MotorNameplate): string[] {
   ]
 }
 
+/**
+ * The drive display's four lines: the keypad menu, or the status screen's page. Only what the drive's
+ * front panel shows (readFrontPanel): nothing on a dark display, no voltages beyond its own readouts.
+ */
+export function displayLines(sim: SimState, panel: FrontPanelReading, menu: KeypadMenu): string[] {
+  return menu.screen !== 'status' && panel.lit
+    ? menuLines(menu, { active: sim.settings.active, pending: sim.settings.pending })
+    : frontPanelLines(panel, statusPage(menu))
+}
+
 /** The disconnect as drawn: on or off, and each lock on it with its tag (the apprentice's own first). */
 export function powerView(power: SimState['power'], tagFallback: LockTag | null = null): PowerView {
   return {
@@ -55,13 +65,8 @@ export function deriveView(
     const d = sim.devices[id]
     devices[id] = { held: d.pressed, position: d.position }
   }
-  // Only what the drive's front panel shows (readFrontPanel): nothing on a dark display, no voltages
-  // beyond its own readouts; the CHARGE lamp follows the bus, not the display.
   const panel = readFrontPanel(sim, drive)
-  const display =
-    ui.menu.screen !== 'status' && panel.lit
-      ? menuLines(ui.menu, { active: sim.settings.active, pending: sim.settings.pending })
-      : frontPanelLines(panel, statusPage(ui.menu))
+  const display = displayLines(sim, panel, ui.menu)
   return {
     wires: sim.wires.map((w, i) => ({ ...w, label: wireLabel(w.id, w.colour, i) })),
     selectedWire: ui.selectedWire,
