@@ -33,9 +33,9 @@ function text(value: string, style: TextStyleOptions, x: number, y: number, anch
 }
 
 /** What a lock's tag says, shortened to the tag's width (the accessible text has it in full). */
-function lockTagLines(name: string | null, date?: string): string[] {
+function lockTagLines(name: string | null, last?: string): string[] {
   const short = (v: string) => (v.length > 16 ? `${v.slice(0, 15)}…` : v)
-  return ['DO NOT OPERATE', name ? short(name) : '(no name)', date ?? '']
+  return ['DO NOT OPERATE', name ? short(name) : '(no name)', last ?? '']
 }
 
 function box(g: Graphics, r: Rect, fill: number, edge: number, radius = 8) {
@@ -311,7 +311,8 @@ export class PanelScene {
     )
     g.roundRect(lock.x, lock.y, lock.w, lock.h, 4).stroke({ width: 2, color: C.muted })
     this.staticLayer.addChild(
-      text('lock point', { fontSize: 10, fill: C.muted }, lock.x + lock.w / 2, lock.y + lock.h + 10),
+      // Above the hasp: the tags hang below it.
+      text('lock point', { fontSize: 10, fill: C.muted }, lock.x + lock.w / 2, lock.y - 8),
     )
   }
 
@@ -519,7 +520,10 @@ export class PanelScene {
     const l = this.layout.disconnect
     const g = this.lock.clear()
     const locks = [
-      power.supervisorLock && { colour: C.supervisorLock, lines: lockTagLines(power.supervisorLock.name) },
+      power.supervisorLock && {
+        colour: C.supervisorLock,
+        lines: lockTagLines(power.supervisorLock.name, 'supervisor'),
+      },
       power.locked && { colour: C.lockout, lines: lockTagLines(power.tag?.name ?? null, power.tag?.date) },
     ]
     const tagW = (l.rect.w - 24) / 2
