@@ -64,7 +64,6 @@ export class PanelScene {
   private readonly meterSelectorLabels = new Map<string, Text>()
   private readonly displayLines: Text[] = []
   private readonly meterText: Text
-  private readonly rpmText: Text
   private readonly nameplateText: Text
   private readonly disconnectText: Text
   private readonly deviceStateTexts = new Map<string, Text>()
@@ -99,12 +98,6 @@ export class PanelScene {
       { fontFamily: MONO, fontSize: 26, fill: C.text },
       m.x + m.w / 2,
       m.y + m.h / 2,
-    )
-    this.rpmText = text(
-      '0 rpm',
-      { fontSize: 15, fill: C.text, fontWeight: 'bold' },
-      layout.motor.shaft.x,
-      236,
     )
     // One tag per lock: the supervisor's (left) and the apprentice's own (right).
     for (let i = 0; i < 2; i++) {
@@ -153,7 +146,6 @@ export class PanelScene {
 
     this.root.addChild(
       this.meterText,
-      this.rpmText,
       this.nameplateText,
       this.disconnectText,
       this.disconnectHandle,
@@ -182,9 +174,6 @@ export class PanelScene {
     this.when('power', JSON.stringify(view.power), () => this.drawPower(view))
     this.when('display', view.display.join('\n'), () => view.display.forEach((l, i) => this.setLine(i, l)))
     this.when('lamp', `${view.lamp}|${view.chargeLamp}`, () => this.drawLamps(view))
-    this.when('rpm', String(Math.round(view.rpm)), () => {
-      this.rpmText.text = `${Math.round(view.rpm)} rpm`
-    })
     this.when('nameplate', view.nameplate.join('\n'), () => {
       this.nameplateText.text = view.nameplate.join('\n')
     })

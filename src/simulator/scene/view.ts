@@ -37,6 +37,7 @@ export interface PanelView {
   lamp: StatusLamp
   /** CHARGE lamp: the DC bus is above its threshold (lit or dark display). */
   chargeLamp: boolean
+  /** How fast the shaft turns (drawn as its rotation only: a motor prints no speed). */
   rpm: number
   nameplate: string[]
   probes: { red: PointId | null; black: PointId | null }
