@@ -20,6 +20,7 @@ import {
 } from './settings'
 import { settle } from './settle'
 import { advancePieces, type BreakpointSink } from './time'
+import type { LockTag } from './setup'
 import type { BreakpointKind, DeviceState, EventMessage, SimState } from './types'
 
 // Handlers complete a draft made for this event (a fresh copy of the state nobody else holds):
@@ -162,6 +163,13 @@ function pressKey(state: SimState, key: 'run' | 'stop' | 'reset'): SimState {
 
 function powerOn(state: SimState): SimState {
   if (state.power.on) return state
+  if (state.power.supervisorLock) {
+    const { name } = state.power.supervisorLock
+    return refuse(state, {
+      code: 'powerOnLocked',
+      text: `${name}'s lock is on the disconnect: the supply cannot be switched on until ${name} has removed it.`,
+    })
+  }
   if (state.power.locked) {
     return refuse(state, {
       code: 'powerOnLocked',
@@ -181,6 +189,36 @@ function powerOff(state: SimState): SimState {
   state.power = { ...state.power, on: false }
   state.bus = { mode: controlOn ? 'decayLoaded' : 'decayIdle', since: state.t, volts, controlOn }
   return withDrive(state, sendDrive(state.drive, { type: 'POWER_OFF', controlOn }))
+}
+
+function withTag(power: SimState['power'], tag: LockTag | undefined): SimState['power'] {
+  return tag ? { ...power, tag: { ...tag } } : power
+}
+
+function withoutKey<T extends object, K extends keyof T>(value: T, key: K): Omit<T, K> {
+  const { [key]: _dropped, ...rest } = value
+  return rest
+}
+
+/**
+ * Only the person who applied a lock removes it (OSHA 1910.147(e)(3), cited from memory): the apprentice
+ * may remove their own lock, never the supervisor's.
+ */
+function removeLock(state: SimState, whose: 'mine' | 'supervisor'): SimState {
+  const supervisor = state.power.supervisorLock
+  if (whose === 'supervisor' || (!state.power.locked && supervisor)) {
+    if (!supervisor) {
+      return refuse(state, { code: 'noLockToRemove', text: 'There is no one else’s lock on the disconnect.' })
+    }
+    return refuse(state, {
+      code: 'lockNotYours',
+      text:
+        `That lock is ${supervisor.name}'s. Only the person who applied a lock may remove it: ` +
+        `ask ${supervisor.name} when the work is finished and everyone is clear.`,
+    })
+  }
+  if (state.power.locked) state.power = withoutKey({ ...state.power, locked: false }, 'tag')
+  return state
 }
 
 function applyToState(state: SimState, event: AttemptEvent): SimState {
@@ -248,10 +286,12 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
           text: 'Switch the disconnect off before applying your lock.',
         })
       }
-      if (!state.power.locked) state.power = { ...state.power, locked: true }
+      if (!state.power.locked) state.power = withTag({ ...state.power, locked: true }, event.tag)
       return state
     case 'lock.removed':
-      if (state.power.locked) state.power = { ...state.power, locked: false }
+      return removeLock(state, event.whose ?? 'mine')
+    case 'supervisorLock.removed':
+      if (state.power.supervisorLock) state.power = withoutKey(state.power, 'supervisorLock')
       return state
     case 'meter.probes': {
       const unknown =

@@ -49,6 +49,8 @@ function checkSetup(setup: SimulationSetup): SettingValues {
     }
   }
   if (setup.power.on && setup.power.locked) fail('The disconnect cannot be locked while it is on.')
+  if (setup.power.on && setup.power.supervisorLock)
+    fail(`The disconnect cannot carry ${setup.power.supervisorLock.name}'s lock while it is on.`)
   if (setup.motor) {
     const problem = nameplateProblems(setup.motor)[0]
     if (problem) fail(`Motor nameplate ${setup.motor.serial}: ${problem.message}`)
@@ -95,7 +97,9 @@ export function createSimulation(setup: SimulationSetup): SimState {
     wires: valid.wires,
     brokenWires: valid.faults.flatMap((f) => (f.kind === 'brokenWire' ? [f.wireId] : [])),
     fuseBlown: valid.faults.some((f) => f.kind === 'blownFuse'),
-    power: { ...valid.power },
+    power: valid.power.supervisorLock
+      ? { ...valid.power, supervisorLock: { ...valid.power.supervisorLock } }
+      : { ...valid.power },
     lineVolts,
     machine: { ...DEFAULT_MACHINE, ...valid.machine },
     motor: {

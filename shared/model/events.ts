@@ -2,7 +2,7 @@
 import { z } from 'zod'
 import { METER_MODES } from './meterModes'
 import { MOTOR_TERMINALS, OUTPUT_PHASES } from './points'
-import { CONTACT_TYPES, WIRE_COLOURS, pointIdSchema } from './setup'
+import { CONTACT_TYPES, WIRE_COLOURS, lockTagSchema, pointIdSchema } from './setup'
 import { SETTING_KEYS } from './settings'
 
 const t = z
@@ -45,8 +45,12 @@ export const attemptEventSchema = z.discriminatedUnion('type', [
   z.object({ t, type: z.literal('settings.saved') }),
   z.object({ t, type: z.literal('power.on') }),
   z.object({ t, type: z.literal('power.off') }),
-  z.object({ t, type: z.literal('lock.applied') }),
-  z.object({ t, type: z.literal('lock.removed') }),
+  // The tag is optional so logs from before tags stay valid; the panel always writes one.
+  z.object({ t, type: z.literal('lock.applied'), tag: lockTagSchema.optional() }),
+  // `whose: 'supervisor'`: the apprentice tried to remove the story's supervisor lock (always refused).
+  z.object({ t, type: z.literal('lock.removed'), whose: z.enum(['mine', 'supervisor']).optional() }),
+  // The apprentice asked the supervisor, who came and removed their own lock.
+  z.object({ t, type: z.literal('supervisorLock.removed') }),
   z.object({
     t,
     type: z.literal('meter.probes'),

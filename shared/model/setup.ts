@@ -150,11 +150,31 @@ export const strictMotorCableSchema = z
   .strictObject({ u: landing, v: landing, w: landing })
   .refine(cableLandsOnce, CABLE_MESSAGE)
 
+/** A lock (with its tag) that someone in the scenario's story put on the disconnect. */
+export const supervisorLockSchema = z.object({
+  /** The name on the tag, as the story gives it (an invented person). */
+  name: z.string().trim().min(1).max(80),
+})
+export type SupervisorLock = z.infer<typeof supervisorLockSchema>
+
+/** What the apprentice writes on their own tag: their name and the date (ISO, YYYY-MM-DD). */
+export const lockTagSchema = z.object({
+  name: z.string().trim().min(1).max(80),
+  date: z.iso.date(),
+})
+export type LockTag = z.infer<typeof lockTagSchema>
+
 export const simulationSetupSchema = z.object({
   devices: z.array(deviceSpecSchema).max(32),
   wires: z.array(wireSpecSchema).max(200),
   settings: z.partialRecord(z.enum(SETTING_KEYS), z.union([z.number(), z.string(), z.boolean()])),
-  power: z.object({ on: z.boolean(), locked: z.boolean() }),
+  power: z.object({
+    on: z.boolean(),
+    /** The apprentice's own lock is on the disconnect. */
+    locked: z.boolean(),
+    /** Someone else's lock in the story (a supervisor who isolated it): only they remove it. */
+    supervisorLock: supervisorLockSchema.optional(),
+  }),
   faults: z.array(injectedFaultSchema).max(32),
   machine: machineLoadSchema.optional(),
   /** Incoming line voltage (line to line, RMS); default 400 V. */

@@ -2,7 +2,16 @@
 import type { MeterMode } from './meterModes'
 import type { DigitalInputNumber, OutputPhase, PointId } from './points'
 import type { InputFunction, SettingKey, SettingValue, SettingValues } from './settings'
-import type { ContactType, DeviceSpec, MachineLoad, MotorCable, MotorNameplate, WireSpec } from './setup'
+import type {
+  ContactType,
+  DeviceSpec,
+  LockTag,
+  MachineLoad,
+  MotorCable,
+  MotorNameplate,
+  SupervisorLock,
+  WireSpec,
+} from './setup'
 
 export type PowerState = 'off' | 'charging' | 'ready' | 'discharging'
 export type ControlState =
@@ -39,6 +48,8 @@ export interface EventMessage {
     | 'saveNeedsPower'
     | 'powerOnLocked'
     | 'lockNeedsPowerOff'
+    | 'lockNotYours'
+    | 'noLockToRemove'
     | 'unknownDevice'
     | 'wrongDeviceKind'
     | 'unknownPoint'
@@ -139,7 +150,11 @@ export interface SimState {
   wires: WireSpec[]
   brokenWires: string[]
   fuseBlown: boolean
-  power: { on: boolean; locked: boolean }
+  /**
+   * The disconnect. `locked`: the apprentice's own lock (with `tag`, what they wrote on it, when the log
+   * recorded one); `supervisorLock`: someone else's lock from the story. Power stays off while either is on.
+   */
+  power: { on: boolean; locked: boolean; tag?: LockTag; supervisorLock?: SupervisorLock }
   lineVolts: number
   machine: Required<MachineLoad>
   /** The motor and its cable (the nameplate never changes; the cable changes with motor events). */

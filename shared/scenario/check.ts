@@ -104,6 +104,17 @@ function semanticProblems(scenario: Scenario): ScenarioProblem[] {
     add(['start', 'settings', key], problem.message)
   }
 
+  // A lock goes on a disconnect that is off (the model refuses anything else at the start).
+  const { power } = scenario.start
+  if (power.on && power.locked)
+    add(['start', 'power', 'locked'], 'the disconnect cannot be locked while it is on')
+  if (power.on && power.supervisorLock) {
+    add(
+      ['start', 'power', 'supervisorLock'],
+      `the disconnect cannot carry ${power.supervisorLock.name}'s lock while it is on`,
+    )
+  }
+
   if (scenario.start.motor) {
     for (const problem of nameplateProblems(scenario.start.motor))
       add(['start', 'motor', problem.field], problem.message)

@@ -74,7 +74,13 @@ export const startingStateSchema = z.strictObject({
   wires: z.array(wireSpecSchema),
   /** Saved (active) values; anything not listed starts at the catalogue default. */
   settings: z.record(z.string(), settingValueSchema),
-  power: z.strictObject({ on: z.boolean(), locked: z.boolean() }),
+  power: z.strictObject({
+    on: z.boolean(),
+    /** The apprentice's own lock is already on (a story that says so). */
+    locked: z.boolean(),
+    /** A supervisor's lock from the story: the apprentice cannot remove it, only ask its owner to. */
+    supervisorLock: z.strictObject({ name: z.string().trim().min(1).max(80) }).optional(),
+  }),
   /** Incoming line voltage, line to line RMS (model default 400 V). */
   lineVolts: z.number().min(100).max(690).optional(),
   machine: z

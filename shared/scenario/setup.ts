@@ -14,7 +14,9 @@ export function toSimulationSetup(scenario: Scenario): SimulationSetup {
     wires: start.wires.map((wire) => ({ ...wire })),
     // Keys and values are checked by checkScenario against the catalogue before a scenario is used.
     settings: { ...start.settings } as Partial<Record<SettingKey, SettingValue>>,
-    power: { ...start.power },
+    power: start.power.supervisorLock
+      ? { ...start.power, supervisorLock: { ...start.power.supervisorLock } }
+      : { ...start.power },
     faults: scenario.faults.map((fault) => ({ ...fault })),
     machine,
   }

@@ -1,4 +1,5 @@
-// The raise/lower commissioning scenario done by mouse on the canvas: prove dead, wire from scratch by
+// The raise/lower commissioning scenario done by mouse on the canvas: add my lock beside the supervisor's,
+// prove dead, wire from scratch by
 // tap-tap (click a terminal, then the other), program with the keypad, start, raise to 1200 rpm, hold,
 // lower, stop, submit (confirming), see the server's grade and follow its link to the result page.
 import { describe, expect, it } from 'vitest'
@@ -18,7 +19,8 @@ describe('commissioning raise/lower on the panel by mouse', () => {
     const { page, panel, pageErrors } = await openPanel(bed, 'raise-lower-commissioning')
     await step(page, 'panel-commission-01-start')
 
-    // Prove absence of voltage under the lock: every line pair and the DC bus.
+    // The supervisor's lock is on: add my own beside it, then prove absence of voltage under it.
+    await panel.applyLock()
     await panel.proveDead()
     await step(page, 'panel-commission-02-proved-dead')
     await panel.probe('red', null)
@@ -68,6 +70,7 @@ describe('commissioning raise/lower on the panel by mouse', () => {
     await page.evaluate(() => window.scrollTo(0, 0))
 
     await panel.removeLock()
+    await panel.askSupervisorToUnlock()
     await panel.switchDisconnect('on')
     await panel.waitFor((s) => s.includes('drive ready'))
 

@@ -184,8 +184,41 @@ export class PanelDriver {
     await this.clickLock('applying the lock to the disconnect', 'disconnect off and locked')
   }
 
+  /** Clicks the lock point, which asks "Remove your lock?", and confirms in the dialog. */
   async removeLock() {
-    await this.clickLock('removing the lock from the disconnect', 'disconnect off')
+    const l = this.layout.disconnect.lock
+    const dialog = this.page.getByTestId('unlock-confirm')
+    await this.clickUntil(
+      { x: l.x + l.w / 2, y: l.y + l.h / 2 },
+      {
+        action: 'asking to remove the lock from the disconnect',
+        expected: 'asked',
+        observe: async () => ((await dialog.isVisible()) ? 'asked' : 'not asked'),
+      },
+    )
+    await this.until(
+      {
+        action: 'confirming the lock’s removal',
+        expected: 'disconnect off',
+        observe: () => this.state.isolation(),
+      },
+      () => dialog.getByRole('button', { name: 'Remove my lock' }).click(),
+      1,
+    )
+  }
+
+  /** Asks the story's supervisor to remove their lock (a button: the lock is theirs, not the apprentice's). */
+  async askSupervisorToUnlock() {
+    const button = this.page.getByTestId('control-supervisor-lock-ask')
+    await this.until(
+      {
+        action: 'asking the supervisor to remove their lock',
+        expected: 'gone',
+        observe: async () => ((await button.count()) === 0 ? 'gone' : 'on'),
+      },
+      () => button.click(),
+      1,
+    )
   }
 
   private async clickLock(action: string, expected: string) {

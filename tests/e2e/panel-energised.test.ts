@@ -10,7 +10,7 @@ describe('wiring on a live panel', () => {
   it('flags a wire added with the supply on and again while the DC bus is charged; a wire can be picked and deleted', async () => {
     const { page, panel } = await openPanel(bed, 'raise-lower-commissioning')
 
-    await panel.removeLock()
+    await panel.askSupervisorToUnlock()
     await panel.switchDisconnect('on')
     await panel.wire('drive.p24', 'runSwitch.a')
     const warning = page.getByTestId('safety-warning').first()

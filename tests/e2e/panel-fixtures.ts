@@ -164,9 +164,13 @@ const setting = (t: number, key: string, value: string): AttemptEvent[] => [
   { t, type: 'settings.saved' },
 ]
 
-/** Isolated, proved dead, wired for sink logic, programmed, started and raised; the motor runs at the end. */
+/**
+ * My lock beside the supervisor's, proved dead, wired for sink logic, both locks off, programmed, started
+ * and raised; the motor runs at the end. (The lock carries no tag, as logs written before tags.)
+ */
 export function raiseLowerRunningLog(): AttemptEvent[] {
   return [
+    { t: 500, type: 'lock.applied' },
     { t: 1000, type: 'meter.probes', red: 'drive.l1', black: 'drive.l2' },
     { t: 2000, type: 'meter.probes', red: 'drive.l2', black: 'drive.l3' },
     { t: 3000, type: 'meter.probes', red: 'drive.l1', black: 'drive.l3' },
@@ -180,6 +184,7 @@ export function raiseLowerRunningLog(): AttemptEvent[] {
     wire(15_000, 'w6', 'lowerButton.b', 'drive.di3'),
     wire(16_000, 'w7', 'drive.dcom', 'drive.0v'),
     { t: 20_000, type: 'lock.removed' },
+    { t: 20_500, type: 'supervisorLock.removed' },
     { t: 21_000, type: 'power.on' },
     ...setting(25_000, 'control.source', 'terminals'),
     ...setting(26_000, 'di1.function', 'run'),

@@ -69,7 +69,10 @@ describe('commissioning raise/lower with the keyboard only', () => {
   it('can be done and submitted without touching the canvas', async () => {
     const { page, panel } = await openPanel(bed, 'raise-lower-commissioning')
 
-    // Prove dead with the probe lists, the meter on V AC for the line pairs and V DC for the bus.
+    // My own lock beside the supervisor's, then prove dead with the probe lists, the meter on V AC for the
+    // line pairs and V DC for the bus.
+    await press(page, 'Apply my lock to the disconnect')
+    await waitForLabel(page, /disconnect off and locked\./)
     const pairs: [string, string][] = [
       ['incoming line 1', 'incoming line 2'],
       ['incoming line 2', 'incoming line 3'],
@@ -115,7 +118,11 @@ describe('commissioning raise/lower with the keyboard only', () => {
     await screenshot(page, 'panel-keyboard-02-wired')
 
     await press(page, 'Remove my lock from the disconnect')
+    await page.getByTestId('unlock-confirm').waitFor()
+    await press(page, 'Remove my lock')
     await waitForLabel(page, /disconnect off\./)
+    await press(page, 'Ask Rena Dubrovny to remove their lock')
+    await waitForLabel(page, /No lock on the disconnect\./)
     await press(page, /^Disconnect: OFF/)
     await waitForLabel(page, /drive ready/)
 

@@ -37,7 +37,7 @@ describe('an attempt on two computers', () => {
     // The laptop: at fit, terminal labels read at 11 CSS px or more.
     const laptop = await openPanel(bed, SCENARIO)
     expect((await canvasScale(laptop.page)) * TERMINAL_LABEL_SIZE).toBeGreaterThanOrEqual(11)
-    await laptop.panel.removeLock()
+    await laptop.panel.applyLock()
     await saveNow(laptop.panel, 1)
     await laptop.panel.closeSheet()
     await screenshot(laptop.page, 'panel-resume-01-laptop-saved')
@@ -57,7 +57,7 @@ describe('an attempt on two computers', () => {
       const panel = new PanelDriver(page, scenarioFile(SCENARIO).start.devices)
       await panel.ready()
       await skipTour(page)
-      expect(await panel.state.isolation()).toBe('disconnect off')
+      expect(await panel.state.isolation()).toBe('disconnect off and locked')
       await expect(page.getByText(/made for a screen at least 768 px wide/).count()).resolves.toBe(1)
 
       // Practice works by touch: tap one terminal, then the other.
@@ -71,7 +71,7 @@ describe('an attempt on two computers', () => {
       await saveNow(panel, 2)
 
       // Back on the laptop, which still holds the older copy: its next save is refused, and it offers the newer.
-      await laptop.panel.applyLock()
+      await laptop.panel.removeLock()
       await laptop.panel.openSheet('Task')
       await laptop.page.getByTestId('save-now').click()
       const conflict = laptop.page.getByTestId('attempt-conflict')
@@ -80,7 +80,7 @@ describe('an attempt on two computers', () => {
       await screenshot(laptop.page, 'panel-resume-04-laptop-conflict')
       await laptop.page.getByTestId('load-newer-copy').click()
       await conflict.waitFor({ state: 'hidden' })
-      await laptop.panel.waitFor((s) => s.includes('1 wires, disconnect off.'))
+      await laptop.panel.waitFor((s) => s.includes('1 wires, disconnect off and locked.'))
       expect(await laptop.panel.state.wires()).toEqual(['DIC → 0V'])
       await screenshot(laptop.page, 'panel-resume-05-laptop-newer-copy')
     } finally {

@@ -57,7 +57,19 @@ function sameScreen(a: Snapshot, b: Snapshot): boolean {
   )
 }
 
-export function useLiveAttempt(target: LiveTarget) {
+/** Today's date as a tag is written (the apprentice's own clock, YYYY-MM-DD). */
+function today(): string {
+  const d = new Date()
+  const pad = (n: number) => String(n).padStart(2, '0')
+  return `${d.getFullYear()}-${pad(d.getMonth() + 1)}-${pad(d.getDate())}`
+}
+
+export interface LiveAttemptOptions {
+  /** The name the apprentice writes on their lock's tag (the signed-in user's). */
+  tagName?: () => string | null
+}
+
+export function useLiveAttempt(target: LiveTarget, options: LiveAttemptOptions = {}) {
   const actor = useActorRef(liveAttemptMachine.provide({ actors: liveAttemptActors() }), {
     input: { target },
   })
@@ -72,6 +84,8 @@ export function useLiveAttempt(target: LiveTarget) {
     selectedWire: null as string | null,
     colour: DEFAULT_WIRE_COLOUR as string,
     speed: 1 as number,
+    /** Asking "remove your lock?" before the lock comes off. */
+    confirmingUnlock: false,
   })
   const clock = createSimClock(0)
   const circuits = createCircuitCache()
@@ -154,7 +168,14 @@ export function useLiveAttempt(target: LiveTarget) {
     }
     if (i.type === 'wire.cancel') return announce('Wire let go.')
     if (i.type === 'wire.remove' && ui.selectedWire === i.wire) ui.selectedWire = null
-    for (const action of actionsFor(i, sim, ui.colour)) record(action)
+    if (i.type === 'lock.toggle' && sim.power.locked) {
+      ui.confirmingUnlock = true
+      return
+    }
+    if (i.type === 'lock.remove') ui.confirmingUnlock = false
+    const name = options.tagName?.()?.trim()
+    const tag = name ? { name, date: today() } : undefined
+    for (const action of actionsFor(i, sim, ui.colour, tag)) record(action)
   }
 
   /** A wire chosen from lists (with its own colour). */

@@ -51,6 +51,7 @@ export function useReplay(attemptId: string) {
       highlight: null,
       armed: null,
       menu: d.menus[sample.segment],
+      tagFallback: { name: d.attempt.userName, date: d.attempt.startedAt.slice(0, 10) },
     })
   }
 

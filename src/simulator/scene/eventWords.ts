@@ -51,9 +51,15 @@ export function eventWords(event: AttemptEvent, layout: PanelLayout, wireMarker?
     case 'power.off':
       return 'Supply disconnect switched off'
     case 'lock.applied':
-      return 'Lock applied to the disconnect'
+      return event.tag
+        ? `Lock applied to the disconnect, tagged ${event.tag.name}, ${event.tag.date}`
+        : 'Lock applied to the disconnect'
     case 'lock.removed':
-      return 'Lock removed from the disconnect'
+      return event.whose === 'supervisor'
+        ? 'Tried to remove the supervisor’s lock from the disconnect'
+        : 'Lock removed from the disconnect'
+    case 'supervisorLock.removed':
+      return 'Asked the supervisor to remove their lock; they removed it'
     case 'meter.probes':
       if (!event.red && !event.black) return 'Meter probes lifted'
       if (event.red && event.black) return `Meter probes on ${point(event.red)} and ${point(event.black)}`

@@ -1,6 +1,7 @@
 // What each pointer or keyboard intent records in the attempt: the model events to send, given the
 // model state now. Pure, so the mapping is tested without a panel.
 import type { AttemptEvent } from '@shared/model/events'
+import type { LockTag } from '@shared/model/setup'
 import type { SimState } from '@shared/model/types'
 import type { Intent } from './interaction'
 import { DEFAULT_WIRE_COLOUR, isWireColour } from './wireColours'
@@ -17,8 +18,8 @@ export function nextWireId(sim: Pick<SimState, 'wires'>): string {
   return `w${n}`
 }
 
-/** The actions an intent records (none for selection, which is the panel's own state). */
-export function actionsFor(intent: Intent, sim: SimState, colour: string): PanelAction[] {
+/** The actions an intent records; `tag` is what the apprentice's lock tag says when they apply it. */
+export function actionsFor(intent: Intent, sim: SimState, colour: string, tag?: LockTag): PanelAction[] {
   switch (intent.type) {
     case 'wire.add':
       return [
@@ -55,7 +56,15 @@ export function actionsFor(intent: Intent, sim: SimState, colour: string): Panel
     case 'disconnect.toggle':
       return [{ type: sim.power.on ? 'power.off' : 'power.on' }]
     case 'lock.toggle':
-      return [{ type: sim.power.locked ? 'lock.removed' : 'lock.applied' }]
+      // Removing goes through a confirmation (the page asks, then sends lock.remove).
+      if (sim.power.locked) return []
+      return [tag ? { type: 'lock.applied', tag } : { type: 'lock.applied' }]
+    case 'lock.remove':
+      return sim.power.locked ? [{ type: 'lock.removed' }] : []
+    case 'supervisorLock.remove':
+      return [{ type: 'lock.removed', whose: 'supervisor' }]
+    case 'supervisorLock.ask':
+      return sim.power.supervisorLock ? [{ type: 'supervisorLock.removed' }] : []
     case 'probe.place': {
       const probes = { red: sim.meter.red, black: sim.meter.black, [intent.probe]: intent.point }
       // The meter stays on whatever position the apprentice chose: choosing it is part of the skill.

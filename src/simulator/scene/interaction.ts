@@ -31,7 +31,14 @@ export type Intent =
   | { type: 'device.turn'; device: string; position: number }
   | { type: 'keypad'; key: KeypadKey }
   | { type: 'disconnect.toggle' }
+  /** The lock point: applies the apprentice's lock, or asks to confirm removing it. */
   | { type: 'lock.toggle' }
+  /** Removal confirmed. */
+  | { type: 'lock.remove' }
+  /** An attempt to remove the story's supervisor lock (the model refuses it). */
+  | { type: 'supervisorLock.remove' }
+  /** Ask the supervisor to remove their own lock. */
+  | { type: 'supervisorLock.ask' }
   | { type: 'meter.mode'; mode: MeterMode }
   | { type: 'probe.place'; probe: ProbeColour; point: PointId | null }
 

@@ -11,10 +11,12 @@ import {
 import { readDrive } from '@shared/model/readings'
 import type { AttemptEvent } from '@shared/model/events'
 import type { SimState } from '@shared/model/types'
+import { STATUS_PAGES, type StatusPage } from './driveDisplay'
 import type { KeypadKey } from './types'
 
 export type KeypadMenu =
-  | { screen: 'status' }
+  /** The status display; `page` indexes STATUS_PAGES (▲▼ step through them; absent = the first). */
+  | { screen: 'status'; page?: number }
   | { screen: 'groups'; group: number }
   | { screen: 'settings'; group: number; item: number }
   | { screen: 'edit'; group: number; item: number; value: SettingValue }
@@ -83,6 +85,10 @@ export function pressKey(
   if (key === 'run' || key === 'stop' || key === 'reset') return same
   switch (menu.screen) {
     case 'status':
+      if (key === 'up' || key === 'down') {
+        const page = wrap((menu.page ?? 0) + (key === 'down' ? 1 : -1), STATUS_PAGES.length)
+        return { menu: page === 0 ? STATUS_SCREEN : { screen: 'status', page }, output: [] }
+      }
       return key === 'enter' || key === 'right' ? { menu: { screen: 'groups', group: 0 }, output: [] } : same
     case 'groups':
       if (key === 'up' || key === 'down') {
@@ -189,6 +195,11 @@ export function menuLines(menu: KeypadMenu, values: KeypadValues): string[] {
       ]
     }
   }
+}
+
+/** The status display's page the menu is on (the status screen's ▲▼ pages; the speed page elsewhere). */
+export function statusPage(menu: KeypadMenu): StatusPage {
+  return menu.screen === 'status' ? STATUS_PAGES[menu.page ?? 0] : 'speed'
 }
 
 /** Where the keypad must go to edit a setting: the path the side panel can show as a hint. */

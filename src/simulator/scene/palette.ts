@@ -18,8 +18,6 @@ export const PALETTE = {
   stationEdge: 0x6d7780,
   text: 0x1d252c,
   muted: 0x5a6670,
-  inputLit: 0x2fd36b,
-  inputDark: 0x23302b,
   lampOff: 0x3a4650,
   lampCharging: 0xffa000,
   lampReady: 0x4fc3f7,
@@ -29,6 +27,8 @@ export const PALETTE = {
   caution: 0xffd23f,
   cautionText: 0x1a1a1a,
   lockout: 0xd84315,
+  /** Someone else's lock (the story's supervisor): a different body colour from the apprentice's own. */
+  supervisorLock: 0x1565c0,
   probeRed: 0xd32f2f,
   probeBlack: 0x1a1a1a,
   // The meter: a sage-teal body with a warm cream window (our own; no instrument maker's colours).

@@ -32,6 +32,12 @@ function text(value: string, style: TextStyleOptions, x: number, y: number, anch
   return t
 }
 
+/** What a lock's tag says, shortened to the tag's width (the accessible text has it in full). */
+function lockTagLines(name: string | null, last?: string): string[] {
+  const short = (v: string) => (v.length > 16 ? `${v.slice(0, 15)}…` : v)
+  return ['DO NOT OPERATE', name ? short(name) : '(no name)', last ?? '']
+}
+
 function box(g: Graphics, r: Rect, fill: number, edge: number, radius = 8) {
   g.roundRect(r.x, r.y, r.w, r.h, radius).fill(fill).stroke({ width: 2, color: edge })
 }
@@ -50,7 +56,7 @@ export class PanelScene {
   private readonly lock = new Graphics()
   private readonly lamp = new Graphics()
   private readonly chargeLamp = new Graphics()
-  private readonly inputLeds = new Graphics()
+  private readonly tagTexts: Text[] = []
   private readonly highlight = new Graphics()
   private readonly shaft = new Container()
   private readonly probes = new Graphics()
@@ -58,8 +64,6 @@ export class PanelScene {
   private readonly meterSelectorLabels = new Map<string, Text>()
   private readonly displayLines: Text[] = []
   private readonly meterText: Text
-  private readonly rpmText: Text
-  private readonly busText: Text
   private readonly nameplateText: Text
   private readonly disconnectText: Text
   private readonly deviceStateTexts = new Map<string, Text>()
@@ -95,13 +99,15 @@ export class PanelScene {
       m.x + m.w / 2,
       m.y + m.h / 2,
     )
-    this.rpmText = text(
-      '0 rpm',
-      { fontSize: 15, fill: C.text, fontWeight: 'bold' },
-      layout.motor.shaft.x,
-      236,
-    )
-    this.busText = text('DC bus 0 V', { fontSize: 12, fill: C.enclosureText }, 610, 300)
+    // One tag per lock: the supervisor's (left) and the apprentice's own (right).
+    for (let i = 0; i < 2; i++) {
+      const tag = new Text({
+        text: '',
+        style: { fontFamily: FONT, fontSize: 9, fill: C.text, lineHeight: 11, align: 'center' },
+      })
+      tag.anchor.set(0.5, 0)
+      this.tagTexts.push(tag)
+    }
     const np = layout.motor.nameplate
     this.nameplateText = new Text({
       text: '',
@@ -140,15 +146,13 @@ export class PanelScene {
 
     this.root.addChild(
       this.meterText,
-      this.rpmText,
-      this.busText,
       this.nameplateText,
       this.disconnectText,
       this.disconnectHandle,
       this.lock,
       this.lamp,
       this.chargeLamp,
-      this.inputLeds,
+      ...this.tagTexts,
       this.shaft,
       this.devices,
       this.wires,
@@ -167,16 +171,9 @@ export class PanelScene {
       this.drawWires(view),
     )
     this.when('devices', JSON.stringify(view.devices), () => this.drawDevices(view))
-    this.when('power', `${view.power.on}${view.power.locked}`, () => this.drawPower(view))
+    this.when('power', JSON.stringify(view.power), () => this.drawPower(view))
     this.when('display', view.display.join('\n'), () => view.display.forEach((l, i) => this.setLine(i, l)))
-    this.when('lamp', `${view.lamp}|${view.busVolts > 50}`, () => this.drawLamps(view))
-    this.when('bus', String(Math.round(view.busVolts)), () => {
-      this.busText.text = `DC bus ${Math.round(view.busVolts)} V`
-    })
-    this.when('inputs', view.inputsOn.join(), () => this.drawInputLeds(view.inputsOn))
-    this.when('rpm', String(Math.round(view.rpm)), () => {
-      this.rpmText.text = `${Math.round(view.rpm)} rpm`
-    })
+    this.when('lamp', `${view.lamp}|${view.chargeLamp}`, () => this.drawLamps(view))
     this.when('nameplate', view.nameplate.join('\n'), () => {
       this.nameplateText.text = view.nameplate.join('\n')
     })
@@ -303,7 +300,8 @@ export class PanelScene {
     )
     g.roundRect(lock.x, lock.y, lock.w, lock.h, 4).stroke({ width: 2, color: C.muted })
     this.staticLayer.addChild(
-      text('lock point', { fontSize: 10, fill: C.muted }, lock.x + lock.w / 2, lock.y + lock.h + 10),
+      // Above the hasp: the tags hang below it.
+      text('lock point', { fontSize: 10, fill: C.muted }, lock.x + lock.w / 2, lock.y - 8),
     )
   }
 
@@ -500,20 +498,44 @@ export class PanelScene {
       .stroke({ width: 2, color: 0x111111 })
     this.disconnectText.text = view.power.on ? 'I  ON' : 'O  OFF'
 
-    const l = this.layout.disconnect.lock
-    this.lock.clear()
-    if (view.power.locked) {
-      const cx2 = l.x + l.w / 2
-      this.lock.roundRect(cx2 - 14, l.y + 18, 28, 24, 4).fill(C.lockout)
-      this.lock
-        .moveTo(cx2 - 10, l.y + 18)
-        .arc(cx2, l.y + 18, 10, Math.PI, 0)
-        .stroke({ width: 5, color: 0x555555 })
-      this.lock
-        .rect(l.x + l.w + 4, l.y + 4, 34, 40)
-        .fill(0xffffff)
-        .stroke({ width: 1.5, color: C.lockout })
-    }
+    this.drawLocks(view.power)
+  }
+
+  /**
+   * Each lock on the lock point with its tag hanging below (the story's supervisor's on the left, the
+   * apprentice's own on the right): a danger tag saying who applied it and when.
+   */
+  private drawLocks(power: PanelView['power']) {
+    const l = this.layout.disconnect
+    const g = this.lock.clear()
+    const locks = [
+      power.supervisorLock && {
+        colour: C.supervisorLock,
+        lines: lockTagLines(power.supervisorLock.name, 'supervisor'),
+      },
+      power.locked && { colour: C.lockout, lines: lockTagLines(power.tag?.name ?? null, power.tag?.date) },
+    ]
+    const tagW = (l.rect.w - 24) / 2
+    locks.forEach((lock, i) => {
+      const tagText = this.tagTexts[i]
+      tagText.text = ''
+      if (!lock) return
+      const cx = l.lock.x + l.lock.w / 2 + (i === 0 ? -13 : 13)
+      g.roundRect(cx - 10, l.lock.y + 18, 20, 20, 3).fill(lock.colour)
+      g.moveTo(cx - 7, l.lock.y + 18)
+        .arc(cx, l.lock.y + 18, 7, Math.PI, 0)
+        .stroke({ width: 4, color: 0x555555 })
+      // The tag: a red danger band over a white card, tied to the lock.
+      const tx = l.rect.x + 8 + i * (tagW + 8)
+      const ty = l.lock.y + l.lock.h + 2
+      g.moveTo(cx, l.lock.y + 38)
+        .lineTo(tx + tagW / 2, ty)
+        .stroke({ width: 1, color: 0x333333 })
+      g.rect(tx, ty, tagW, 40).fill(0xffffff).stroke({ width: 1, color: 0x333333 })
+      g.rect(tx, ty, tagW, 11).fill(C.lampFault)
+      tagText.text = lock.lines.join('\n')
+      tagText.position.set(tx + tagW / 2, ty + 1)
+    })
   }
 
   private drawLamps(view: PanelView) {
@@ -522,16 +544,8 @@ export class PanelScene {
     this.chargeLamp
       .clear()
       .circle(610, 268, 8)
-      .fill(view.busVolts > 50 ? C.lampCharging : C.lampOff)
+      .fill(view.chargeLamp ? C.lampCharging : C.lampOff)
       .stroke({ width: 2, color: 0x000000 })
-  }
-
-  private drawInputLeds(on: readonly PointId[]) {
-    const g = this.inputLeds.clear()
-    for (const t of Object.values(this.layout.terminals)) {
-      if (!/^drive\.di\d$/.test(t.id)) continue
-      g.circle(t.x, t.y - 34, 4).fill(on.includes(t.id) ? C.inputLit : C.inputDark)
-    }
   }
 
   private drawHighlight(point: PointId | null, armed: PointId | null) {

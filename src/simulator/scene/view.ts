@@ -1,5 +1,6 @@
 // Everything the scene draws, as plain data. The wrapper derives it from the model's readings;
 // the scene never reads the model itself.
+import type { LockTag, SupervisorLock } from '@shared/model/setup'
 import type { MeterMode, PointId, ProbeColour, Vec } from './types'
 
 export interface ViewWire {
@@ -8,6 +9,17 @@ export interface ViewWire {
   to: PointId
   colour: string
   label: string
+}
+
+/** The disconnect: its position and the locks on it, each with what its tag says. */
+export interface PowerView {
+  on: boolean
+  /** The apprentice's own lock. */
+  locked: boolean
+  /** What the apprentice wrote on their tag (null when the log recorded none: an older attempt). */
+  tag: LockTag | null
+  /** Someone else's lock from the scenario's story. */
+  supervisorLock: SupervisorLock | null
 }
 
 export type StatusLamp = 'off' | 'charging' | 'ready' | 'running' | 'alarm' | 'fault'
@@ -19,13 +31,13 @@ export interface PanelView {
   draftWire: { from: PointId; at: Vec; colour: string } | null
   /** Pushbutton held, selector position, potentiometer position (0..1). */
   devices: Record<string, { held?: boolean; position?: number }>
-  power: { on: boolean; locked: boolean }
-  busVolts: number
+  power: PowerView
   /** Status display lines, already formatted. */
   display: string[]
   lamp: StatusLamp
-  /** Drive terminals whose input is ON (lit indicator beside the terminal). */
-  inputsOn: PointId[]
+  /** CHARGE lamp: the DC bus is above its threshold (lit or dark display). */
+  chargeLamp: boolean
+  /** How fast the shaft turns (drawn as its rotation only: a motor prints no speed). */
   rpm: number
   nameplate: string[]
   probes: { red: PointId | null; black: PointId | null }
@@ -46,11 +58,10 @@ export function emptyView(): PanelView {
     selectedWire: null,
     draftWire: null,
     devices: {},
-    power: { on: false, locked: false },
-    busVolts: 0,
+    power: { on: false, locked: false, tag: null, supervisorLock: null },
     display: ['', '', '', ''],
     lamp: 'off',
-    inputsOn: [],
+    chargeLamp: false,
     rpm: 0,
     nameplate: [],
     probes: { red: null, black: null },

@@ -27,6 +27,14 @@ describe('events in plain words', () => {
       /^DI2 function set to .*raise/i,
     )
     expect(words({ t: 0, type: 'keypad.key', key: 'enter' })).toBe('Keypad OK pressed')
+    expect(words({ t: 0, type: 'lock.applied', tag: { name: 'Sam Apprentice', date: '2026-12-03' } })).toBe(
+      'Lock applied to the disconnect, tagged Sam Apprentice, 2026-12-03',
+    )
+    expect(words({ t: 0, type: 'lock.applied' })).toBe('Lock applied to the disconnect')
+    expect(words({ t: 0, type: 'lock.removed', whose: 'supervisor' })).toBe(
+      'Tried to remove the supervisor’s lock from the disconnect',
+    )
+    expect(words({ t: 0, type: 'supervisorLock.removed' })).toMatch(/^Asked the supervisor to remove/)
     expect(words({ t: 0, type: 'device.pressed', device: 'raiseButton' })).toBe('Faster pressed')
     expect(words({ t: 0, type: 'meter.mode', mode: 'acVolts' })).toBe('Meter turned to V AC')
     expect(words({ t: 0, type: 'motor.conductorLanded', conductor: 'u', terminal: null })).toBe(

@@ -88,7 +88,8 @@ const copy = (source: 'browser' | 'server', attemptId: string, events: AttemptEv
 const summary = (over: Partial<AttemptSummary> = {}) =>
   ({ id: 'x', status: 'inProgress', eventCount: 0, grade: null, ...over }) as AttemptSummary
 const failure = (status: number, code = 'x') => Object.assign(new Error(`failed ${status}`), { status, code })
-const unlock: AttemptEvent = { t: 100, type: 'lock.removed' }
+// The scenario starts under the supervisor's lock: asking them to remove it lets the supply on.
+const unlock: AttemptEvent = { t: 100, type: 'supervisorLock.removed' }
 const powerOn: AttemptEvent = { t: 200, type: 'power.on' }
 
 describe('where a live attempt starts', () => {
@@ -163,26 +164,26 @@ describe('recording an action', () => {
     const { actor, store } = start()
     await waitFor(actor, (s) => s.matches('live'))
     const log = actor.getSnapshot().context.log
-    actor.send({ type: 'RECORD', action: { type: 'lock.removed' }, t: 500 })
+    actor.send({ type: 'RECORD', action: { type: 'supervisorLock.removed' }, t: 500 })
     const ctx = actor.getSnapshot().context
-    expect(ctx.sim?.power.locked).toBe(false)
+    expect(ctx.sim?.power.supervisorLock).toBeUndefined()
     expect(ctx.log).toBe(log) // appended in place, not copied
     expect(ctx.logLength).toBe(1)
-    expect(store.load().copy?.events).toEqual([{ t: 500, type: 'lock.removed' }])
+    expect(store.load().copy?.events).toEqual([{ t: 500, type: 'supervisorLock.removed' }])
   })
 
   it('never records an action earlier than the model’s time', async () => {
     const { actor } = start()
     await waitFor(actor, (s) => s.matches('live'))
     actor.send({ type: 'TICK', t: 3000 })
-    actor.send({ type: 'RECORD', action: { type: 'lock.removed' }, t: 1000 })
+    actor.send({ type: 'RECORD', action: { type: 'supervisorLock.removed' }, t: 1000 })
     expect(actor.getSnapshot().context.log[0].t).toBe(3000)
   })
 
   it('moves the keypad menu, and OK in an edit screen also records the setting and saves it', async () => {
     const { actor } = start()
     await waitFor(actor, (s) => s.matches('live'))
-    actor.send({ type: 'RECORD', action: { type: 'lock.removed' }, t: 100 })
+    actor.send({ type: 'RECORD', action: { type: 'supervisorLock.removed' }, t: 100 })
     actor.send({ type: 'RECORD', action: { type: 'power.on' }, t: 200 })
     actor.send({ type: 'TICK', t: 10_000 })
     for (const key of ['enter', 'enter', 'enter', 'down', 'enter'] as const) {
@@ -209,8 +210,8 @@ describe('live grading and live safety warnings', () => {
     }) as unknown as ReturnType<typeof liveGradingActor>
     const { actor } = start({ grading })
     await waitFor(actor, (s) => s.matches('live'))
-    actor.send({ type: 'RECORD', action: { type: 'lock.removed' }, t: 100 })
-    expect(pushed).toEqual([{ t: 100, type: 'lock.removed' }])
+    actor.send({ type: 'RECORD', action: { type: 'supervisorLock.removed' }, t: 100 })
+    expect(pushed).toEqual([{ t: 100, type: 'supervisorLock.removed' }])
     expect(actor.getSnapshot().context.warnings.map((w) => w.text)).toEqual([
       `Safety violation: From the grader. ${SAFE_SEQUENCE}`,
     ])
@@ -311,7 +312,7 @@ describe('submitting', () => {
       },
     })
     await waitFor(actor, (s) => s.matches('live'))
-    actor.send({ type: 'RECORD', action: { type: 'lock.removed' }, t: 100 })
+    actor.send({ type: 'RECORD', action: { type: 'supervisorLock.removed' }, t: 100 })
     actor.send({ type: 'SUBMIT' })
     actor.send({ type: 'CONFIRM' })
     await waitFor(actor, (s) => s.matches('submitted'))
@@ -355,7 +356,7 @@ describe('saving on the server, and two computers on one attempt', () => {
     await waitFor(actor, (s) => s.matches('live'))
     await new Promise((r) => setTimeout(r, 60))
     expect(sent).toEqual([])
-    actor.send({ type: 'RECORD', action: { type: 'lock.removed' }, t: 100 })
+    actor.send({ type: 'RECORD', action: { type: 'supervisorLock.removed' }, t: 100 })
     await waitFor(actor, (s) => s.context.serverSaved === 1)
     expect(sent[0]).toMatchObject({ id: 'new-1', status: 'inProgress', scenarioId: 'version-1' })
   })
@@ -368,7 +369,7 @@ describe('saving on the server, and two computers on one attempt', () => {
     await waitFor(actor, (s) => s.matches('live'))
     actor.send({ type: 'SAVE_NOW' })
     expect(sent).toEqual([]) // nothing new to save
-    actor.send({ type: 'RECORD', action: { type: 'lock.removed' }, t: 100 })
+    actor.send({ type: 'RECORD', action: { type: 'supervisorLock.removed' }, t: 100 })
     actor.send({ type: 'SAVE_NOW' })
     expect(sent).toHaveLength(1)
   })
@@ -379,7 +380,7 @@ describe('saving on the server, and two computers on one attempt', () => {
       serverCopy: copy('server', 'new-1', [unlock, powerOn]),
     })
     await waitFor(actor, (s) => s.matches('live'))
-    actor.send({ type: 'RECORD', action: { type: 'lock.removed' }, t: 300 })
+    actor.send({ type: 'RECORD', action: { type: 'supervisorLock.removed' }, t: 300 })
     actor.send({ type: 'RECORD', action: { type: 'lock.applied' }, t: 400 })
     await waitFor(actor, (s) => s.matches('conflict'))
     actor.send({ type: 'LOAD_SERVER_COPY' })
@@ -393,7 +394,7 @@ describe('saving on the server, and two computers on one attempt', () => {
   it('or keeps this copy as a new attempt', async () => {
     const { actor } = start({ save: async () => Promise.reject(failure(409, 'attempt_diverged')) })
     await waitFor(actor, (s) => s.matches('live'))
-    actor.send({ type: 'RECORD', action: { type: 'lock.removed' }, t: 300 })
+    actor.send({ type: 'RECORD', action: { type: 'supervisorLock.removed' }, t: 300 })
     await waitFor(actor, (s) => s.matches('conflict'))
     actor.send({ type: 'KEEP_AS_NEW' })
     expect(actor.getSnapshot().context.attemptId).toBe('new-2')
@@ -403,7 +404,7 @@ describe('saving on the server, and two computers on one attempt', () => {
   it('notices an attempt submitted from another computer', async () => {
     const { actor } = start({ save: async (b) => summary({ id: b.id, status: 'submitted', eventCount: 3 }) })
     await waitFor(actor, (s) => s.matches('live'))
-    actor.send({ type: 'RECORD', action: { type: 'lock.removed' }, t: 300 })
+    actor.send({ type: 'RECORD', action: { type: 'supervisorLock.removed' }, t: 300 })
     await waitFor(actor, (s) => s.matches('submitted'))
     expect(actor.getSnapshot().context.notice).toMatch(/submitted from another computer/)
   })
@@ -413,14 +414,14 @@ describe('starting again', () => {
   it('asks, then begins a new practice attempt from the starting state', async () => {
     const { actor, store } = start()
     await waitFor(actor, (s) => s.matches('live'))
-    actor.send({ type: 'RECORD', action: { type: 'lock.removed' }, t: 100 })
+    actor.send({ type: 'RECORD', action: { type: 'supervisorLock.removed' }, t: 100 })
     actor.send({ type: 'START_AGAIN' })
     expect(actor.getSnapshot().matches({ live: { dialog: 'confirmingRestart' } })).toBe(true)
     actor.send({ type: 'CONFIRM' })
     const ctx = actor.getSnapshot().context
     expect(ctx.attemptId).toBe('new-2')
     expect(ctx.log).toEqual([])
-    expect(ctx.sim?.power.locked).toBe(true)
+    expect(ctx.sim?.power.supervisorLock).toEqual({ name: 'Rena Dubrovny' })
     expect(store.load().copy).toMatchObject({ attemptId: 'new-2', events: [] })
   })
 

@@ -17,7 +17,7 @@ const attempt = (events: AttemptEvent[]) =>
 const mistakeLog = (mistake as { events: unknown[] }).events.map((e) => attemptEventSchema.parse(e))
 
 const keypadLog: AttemptEvent[] = [
-  { t: 1000, type: 'lock.removed' },
+  { t: 1000, type: 'supervisorLock.removed' },
   { t: 2000, type: 'power.on' },
   { t: 8000, type: 'keypad.key', key: 'enter' },
   { t: 9000, type: 'keypad.key', key: 'down' },

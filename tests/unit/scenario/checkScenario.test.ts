@@ -268,4 +268,18 @@ describe('checkScenario on the motor, its cable and the bench points', () => {
     )
     expect(problems.map((p) => p.message)).toContain('motor.u1 is a power terminal and cannot be wired')
   })
+
+  it('takes a supervisor’s lock in the story only on a disconnect that starts off', () => {
+    expect(load('raise-lower-commissioning.json').start.power.supervisorLock).toEqual({
+      name: 'Rena Dubrovny',
+    })
+    const energised = problemsOf(
+      variant(
+        (s) => (s.start.power = { on: true, locked: false, supervisorLock: { name: 'Rena Dubrovny' } }),
+      ),
+    )
+    expect(energised.map((p) => p.message).join(' ')).toMatch(/Rena Dubrovny's lock while it is on/)
+    const unnamed = problemsOf(variant((s) => (s.start.power.supervisorLock = { name: '' })))
+    expect(unnamed.some((p) => p.path.startsWith('$.start.power.supervisorLock'))).toBe(true)
+  })
 })

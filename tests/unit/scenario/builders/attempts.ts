@@ -91,14 +91,14 @@ const twoWireRunStop: AttemptScript[] = [
     scenario: 'two-wire-run-stop',
     name: 'reference',
     description:
-      'Proved dead, wired DIC to 0V and the selector from +24 to DI1, assigned run, terminal control, ran and stopped.',
+      'Switched off, locked, proved dead, wired DIC to 0V and the selector from +24 to DI1, assigned run, terminal control, ran and stopped.',
     misses: [],
     build: (b) => twoWire(b, true),
   },
   {
     scenario: 'two-wire-run-stop',
     name: 'mistake-not-proved-dead',
-    description: 'Trusted the lock that was already on and wired without testing for absence of voltage.',
+    description: 'Switched off and locked, but wired without testing for absence of voltage.',
     misses: ['proved-dead'],
     build: (b) => twoWire(b, false),
   },
@@ -132,7 +132,7 @@ const raiseLowerCommissioning: AttemptScript[] = [
     scenario: 'raise-lower-commissioning',
     name: 'reference',
     description:
-      'Locked out, proved dead, wired run/raise/lower in sink logic, programmed, raised to 1200 rpm, held, lowered, stopped.',
+      'Added own lock beside the supervisor’s, proved dead, wired run/raise/lower in sink logic, asked the supervisor to unlock, programmed, raised to 1200 rpm, held, lowered, stopped.',
     misses: [],
     build: (b) => commission(b, { raiseToHz: sawmillHz }),
   },
@@ -324,14 +324,14 @@ const threeWireStartStop: AttemptScript[] = [
     scenario: 'three-wire-start-stop',
     name: 'reference',
     description:
-      'Proved dead, wired the NC stop and NO start from +24, assigned start and stop, started, ran at 40 Hz, stopped.',
+      'Switched off, locked, proved dead, wired the NC stop and NO start from +24, assigned start and stop, started, ran at 40 Hz, stopped.',
     misses: [],
     build: (b) => threeWire(b, { proveDead: true }),
   },
   {
     scenario: 'three-wire-start-stop',
     name: 'mistake-not-proved-dead',
-    description: 'Relied on the existing lock and wired without testing for absence of voltage.',
+    description: 'Switched off and locked, but wired without testing for absence of voltage.',
     misses: ['proved-dead'],
     build: (b) => threeWire(b, { proveDead: false }),
   },
@@ -369,7 +369,7 @@ const potentiometerReference: AttemptScript[] = [
     scenario: 'potentiometer-reference',
     name: 'reference',
     description:
-      'Proved dead, wired the pot across +10/AIC with the wiper to AI, checked both ends of the knob, ran at 45 Hz.',
+      'Switched off, locked, proved dead, wired the pot across +10/AIC with the wiper to AI, checked both ends of the knob, ran at 45 Hz.',
     misses: [],
     build: (b) => potentiometer(b, { wireLow: true }),
   },

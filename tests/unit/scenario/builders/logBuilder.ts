@@ -141,6 +141,16 @@ export class LogBuilder {
     return this.record({ type: 'lock.removed' })
   }
 
+  /** The story's supervisor lock still on the disconnect (their name), if any. */
+  get supervisorLock(): string | null {
+    return this.state.power.supervisorLock?.name ?? null
+  }
+
+  /** Ask the story's supervisor to remove their own lock. */
+  askSupervisorToUnlock(): this {
+    return this.record({ type: 'supervisorLock.removed' })
+  }
+
   probe(red: string | null, black: string | null): this {
     return this.record({ type: 'meter.probes', red, black })
   }

@@ -58,9 +58,13 @@ export function isolateAndProve(b: LogBuilder, options: IsolationOptions = {}): 
   return b.probe(null, null).wait(1000)
 }
 
-/** Lift the probes, remove the lock, switch on and wait for the DC bus to charge. */
+/**
+ * Lift the probes, remove the lock (and ask the story's supervisor to remove theirs), switch on and wait
+ * for the DC bus to charge.
+ */
 export function restorePower(b: LogBuilder): LogBuilder {
   if (b.drive.locked) b.unlock().wait(1000)
+  if (b.supervisorLock) b.askSupervisorToUnlock().wait(1000)
   return b
     .powerOn()
     .waitUntil((d) => d.power === 'ready', 'the drive becoming ready', 100, 10_000)
