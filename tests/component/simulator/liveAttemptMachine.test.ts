@@ -13,7 +13,12 @@ import reference from '../../fixtures/attempts/raise-lower-commissioning--refere
 import rewiredLive from '../../fixtures/attempts/configuration-conflict-alarm--mistake-rewired-live.json'
 import type { AttemptCopy } from '@/simulator/machines/attemptStart'
 import type { PanelAction } from '@/simulator/scene/intentActions'
-import { GRADE_COALESCE_MS, liveGradingActor, SAFE_SEQUENCE, warningText } from '@/simulator/machines/liveGrading'
+import {
+  GRADE_COALESCE_MS,
+  liveGradingActor,
+  SAFE_SEQUENCE,
+  warningText,
+} from '@/simulator/machines/liveGrading'
 import { liveAttemptMachine, type LiveStart, type LiveTarget } from '@/simulator/machines/liveAttemptMachine'
 import { isRetryable, retryDelayMs } from '@/simulator/machines/retry'
 import { createAttemptStore } from '@/simulator/storage/attemptStore'
@@ -46,6 +51,7 @@ function start(options: Setup = {}) {
     scenarioTitle: (options.scenario ?? scenario).title,
     scenarioVersionId: 'version-1',
     assignment: null,
+    assistance: 'standard',
     store,
     browser: options.browser ?? null,
     server: options.server ?? null,
@@ -208,7 +214,7 @@ describe('live grading and live safety warnings', () => {
     return { actor, warned }
   }
 
-  it('says one action\'s violations once: the work, then each rule it broke, then the safe sequence', () => {
+  it("says one action's violations once: the work, then each rule it broke, then the safe sequence", () => {
     const at = 'Wire W1 added from +24 to Infeed run / stop terminal 13 at 00:15.2'
     const violations = [
       { kind: 'workWhileEnergised', t: 15_200, text: `${at} while the supply disconnect was on.` },
