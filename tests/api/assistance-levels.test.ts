@@ -97,6 +97,12 @@ describe('assistance levels', () => {
     expect(done.body.grade.evidence.points.hintCost).toBe(0)
     const row = await api.dataSource.getRepository(AttemptEntity).findOneByOrFail({ id })
     expect(row.assistanceLevel).toBe('guided')
+    // The commissioning record prints the stored level, in words.
+    const record = await supertest(api.app)
+      .get(`/api/attempts/${id}/commissioning-record`)
+      .set(bearer(w.instructorA.token))
+    expect(record.status).toBe(200)
+    expect(record.body.attempt.assistance).toBe('Guided')
     // A new attempt starts at the level set now.
     const next = await submit(api, w.apprenticeA1, { assignmentId: assignment.id })
     expect(next.body.assistanceLevel).toBe('assessment')
