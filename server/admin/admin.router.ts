@@ -4,13 +4,13 @@ import { createReadStream } from 'node:fs'
 import { Router } from 'express'
 import { outboxQuerySchema } from '@shared/api/admin'
 import { idParamsSchema } from '@shared/api/common'
-import { inviteRequestSchema } from '@shared/api/invitations'
+import { inviteRequestSchema, pendingInvitationQuerySchema } from '@shared/api/invitations'
 import { updateUserRequestSchema, userListQuerySchema } from '@shared/api/users'
 import type { AppContext } from '../context'
 import { nowIso } from '../infrastructure/clock'
 import { inviteInstructor } from '../invitations/invitations.service'
 import {
-  allPendingInvitations,
+  pendingInvitationPage,
   newInvitationLink,
   resendInvitation,
   revokeInvitation,
@@ -52,8 +52,8 @@ export function adminRouter(ctx: AppContext): Router {
   )
 
   // Everyone invited and not yet answered, instructors and apprentices alike; resend, new link, withdraw.
-  router.get('/invitations', async (_req, res) => {
-    res.json({ items: await allPendingInvitations(ctx) })
+  router.get('/invitations', validate({ query: pendingInvitationQuerySchema }), async (req, res) => {
+    res.json(await pendingInvitationPage(ctx, req.query))
   })
 
   router.post(

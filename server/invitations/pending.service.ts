@@ -3,6 +3,7 @@
 // so "resend" and "copy link" both make a new token: the earlier link stops working, which is what the
 // screens say. An instructor acts on the invitations of cohorts they manage, an admin on any.
 import { In, IsNull, MoreThan, type EntityManager } from 'typeorm'
+import type { Page, PageQuery } from '@shared/api/common'
 import type { Invitation, InvitationLink, PendingInvitation } from '@shared/api/invitations'
 import { cohortFor } from '../access/access.service'
 import type { AppContext } from '../context'
@@ -98,12 +99,18 @@ export async function revokeInvitation(
   })
 }
 
-/** Every invitation still waiting for an answer, newest first, with cohort and inviter in names (admins). */
-export async function allPendingInvitations(ctx: AppContext): Promise<PendingInvitation[]> {
+/** Invitations still waiting for an answer, a page at a time, newest first, with cohort and inviter in names (admins). */
+export async function pendingInvitationPage(
+  ctx: AppContext,
+  query: PageQuery,
+): Promise<Page<PendingInvitation>> {
   const ds = ctx.dataSource
-  const rows = await ds.getRepository(InvitationEntity).find({
+  const [rows, total] = await ds.getRepository(InvitationEntity).findAndCount({
     where: { acceptedAt: IsNull(), expiresAt: MoreThan(nowIso()) },
-    order: { createdAt: 'DESC' },
+    // The id breaks ties so a roster's invitations (one timestamp) keep their place between pages.
+    order: { createdAt: 'DESC', id: 'ASC' },
+    skip: (query.page - 1) * query.pageSize,
+    take: query.pageSize,
   })
   const cohortIds = [...new Set(rows.map((r) => r.cohortId).filter((id): id is string => id !== null))]
   const inviterIds = [...new Set(rows.map((r) => r.invitedById))]
@@ -119,9 +126,10 @@ export async function allPendingInvitations(ctx: AppContext): Promise<PendingInv
       u,
     ]),
   )
-  return rows.map((row) => ({
+  const items = rows.map((row) => ({
     ...presentInvitation(row),
     cohortName: row.cohortId ? (cohorts.get(row.cohortId)?.name ?? null) : null,
     invitedByName: inviters.get(row.invitedById)?.name ?? '',
   }))
+  return { items, total, page: query.page, pageSize: query.pageSize }
 }

@@ -15,7 +15,7 @@ export function checkScenarioFile(file: string): FileReport {
   try {
     json = JSON.parse(readFileSync(file, 'utf8'))
   } catch (error) {
-    return { file, problems: [{ path: '$', message: `not readable as JSON: ${(error as Error).message}` }] }
+    return { file, problems: [{ path: '$', place: '', message: `not readable as JSON: ${(error as Error).message}` }] }
   }
   const result = checkScenario(json)
   if (!result.ok) return { file, problems: result.problems }
@@ -31,6 +31,7 @@ export function checkScenarioFiles(files: string[]): FileReport[] {
     if (other)
       report.problems.push({
         path: '$.id',
+        place: 'Key',
         message: `the id "${report.id}" is also used by ${basename(other)}`,
       })
     else seen.set(report.id, report.file)

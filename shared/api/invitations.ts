@@ -1,6 +1,6 @@
 // Invitations by e-mail: apprentices into a cohort (one or a roster CSV), instructors by an admin.
 import { z } from 'zod'
-import { emailSchema, idSchema, isoDateTimeSchema, personNameSchema } from './common'
+import { emailSchema, idSchema, isoDateTimeSchema, pageOf, pageQuerySchema, personNameSchema } from './common'
 import { passwordSchema, roleSchema } from './auth'
 
 export const inviteRequestSchema = z.object({ email: emailSchema, name: personNameSchema })
@@ -69,7 +69,10 @@ export const pendingInvitationSchema = invitationSchema.extend({
   invitedByName: z.string(),
 })
 export type PendingInvitation = z.infer<typeof pendingInvitationSchema>
-export const pendingInvitationListSchema = z.object({ items: z.array(pendingInvitationSchema) })
+/** GET /api/admin/invitations: one page, newest first (a centre may have hundreds outstanding after a roster). */
+export const pendingInvitationQuerySchema = pageQuerySchema
+export const pendingInvitationListSchema = pageOf(pendingInvitationSchema)
+export type PendingInvitationPage = z.infer<typeof pendingInvitationListSchema>
 
 export const invitationTokenParamsSchema = z.object({ token: z.string().min(16).max(200) })
 

@@ -16,12 +16,16 @@ import {
   validateSetting,
   type SettingValues,
 } from '../model'
+import { authoringProblems } from './authoringChecks'
 import type { Objective } from './objectiveSchema'
+import { plainIssueMessage, problemPlace } from './problemWords'
 import { scenarioSchema, type Scenario, type ScenarioDevice } from './schema'
 
 export interface ScenarioProblem {
-  /** JSON path, e.g. `$.objectives[3].target`. */
+  /** JSON path, e.g. `$.objectives[3].target` (for tools and the API's field errors). */
   path: string
+  /** The same place in words, for screens: `Objective 4 (Fan ran at 40 Hz), target`. */
+  place: string
   message: string
 }
 
@@ -40,17 +44,25 @@ export function checkScenario(input: unknown): ScenarioCheck {
   if (!parsed.success) {
     return {
       ok: false,
-      problems: parsed.error.issues.map((issue) => ({ path: jsonPath(issue.path), message: issue.message })),
+      problems: parsed.error.issues.map((issue) => ({
+        path: jsonPath(issue.path),
+        place: problemPlace(issue.path, input),
+        message: plainIssueMessage(issue),
+      })),
     }
   }
   const problems = semanticProblems(parsed.data)
+  // The grader's checks need a scenario whose references all hold.
+  if (problems.length === 0)
+    for (const p of authoringProblems(parsed.data))
+      problems.push({ path: jsonPath(p.path), place: problemPlace(p.path, parsed.data), message: p.message })
   return problems.length === 0 ? { ok: true, scenario: parsed.data } : { ok: false, problems }
 }
 
 function semanticProblems(scenario: Scenario): ScenarioProblem[] {
   const problems: ScenarioProblem[] = []
   const add = (path: readonly PropertyKey[], message: string) =>
-    problems.push({ path: jsonPath(path), message })
+    problems.push({ path: jsonPath(path), place: problemPlace(path, scenario), message })
   const devices = new Map<string, ScenarioDevice>()
 
   scenario.start.devices.forEach((device, i) => {

@@ -12,7 +12,10 @@ import { objectiveSchema } from './objectiveSchema'
 
 const slug = z
   .string()
-  .regex(/^[a-z0-9]+(?:-[a-z0-9]+)*$/, 'must be a kebab-case slug (lower-case letters, digits and dashes)')
+  .regex(
+    /^[a-z0-9]+(?:-[a-z0-9]+)*$/,
+    'Use lower-case letters and digits, joined by single hyphens (for example night-shift-pump)',
+  )
 
 const idSchema = z
   .string()

@@ -10,6 +10,7 @@ import {
   pendingInvitationListSchema,
   type InviteRequest,
   type OutboxQuery,
+  type PageQuery,
   type UpdateUserRequest,
   type UserListQuery,
 } from '@shared/api'
@@ -27,8 +28,8 @@ export const useAdminStore = defineStore('admin', () => {
   const inviteInstructor = (body: InviteRequest) =>
     request(endpoints.admin.inviteInstructor, inviteOutcomeSchema, { method: 'POST', body })
   /** Everyone invited and not yet answered (instructors and apprentices). */
-  const pendingInvitations = async () =>
-    (await request(endpoints.admin.invitations, pendingInvitationListSchema)).items
+  const pendingInvitations = (query: PageQuery) =>
+    request(endpoints.admin.invitations, pendingInvitationListSchema, { query: query as Query })
   const resendInvitation = async (id: string) => {
     await requestVoid(`${endpoints.admin.invitation(id)}/resend`, { method: 'POST' })
   }

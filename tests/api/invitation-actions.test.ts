@@ -141,6 +141,34 @@ describe('pending invitations', () => {
     )
     await expectStatus(supertest(api.app).get('/api/admin/invitations').set(bearer(instructor.token)), 403)
   })
+
+  it('pages the list for admins: every pending invitation once, newest first, and a bad page is a 400', async () => {
+    for (let i = 0; i < 3; i++) await invite(`paged.${i}@slipway.test`, `Paged Person ${i}`)
+    const pageOf = async (page: number) =>
+      pendingInvitationListSchema.parse(
+        (
+          await expectStatus(
+            supertest(api.app).get(`/api/admin/invitations?page=${page}&pageSize=2`).set(bearer(admin.token)),
+            200,
+          )
+        ).body,
+      )
+    const first = await pageOf(1)
+    expect(first.items).toHaveLength(2)
+    const pages = Math.ceil(first.total / 2)
+    const all = [first, ...(await Promise.all(Array.from({ length: pages - 1 }, (_, i) => pageOf(i + 2))))]
+    const emails = all.flatMap((p) => p.items.map((i) => i.email))
+    expect(emails).toHaveLength(first.total)
+    expect(new Set(emails).size).toBe(first.total)
+    const created = all.flatMap((p) => p.items.map((i) => i.createdAt))
+    expect([...created].sort().reverse()).toEqual(created)
+    expect(emails).toContain('paged.2@slipway.test')
+    const bad = await expectStatus(
+      supertest(api.app).get('/api/admin/invitations?page=0').set(bearer(admin.token)),
+      400,
+    )
+    expect(bad.body.error.message).toBeTruthy()
+  })
 })
 
 describe('importing the valid rows of a roster', () => {

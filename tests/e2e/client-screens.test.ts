@@ -144,7 +144,7 @@ describe('every main screen', () => {
       .getByRole('row', { name: /Zofia Brennock/ })
       .locator('.v-select .v-field')
       .click()
-    await page.getByRole('option', { name: 'instructor' }).click()
+    await page.getByRole('option', { name: 'Instructor' }).click()
     await page
       .getByRole('alertdialog')
       .getByText(/Zofia Brennock becomes instructor/)

@@ -101,7 +101,7 @@ export function checkDraft(d: ScenarioDraft): DraftCheck {
     technical = parsed as Doc
   } catch (e) {
     const message = `The technical part is not valid JSON: ${(e as Error).message}`
-    return { scenario: null, problems: [{ path: '$', message }], byField: { technical: message } }
+    return { scenario: null, problems: [{ path: '$', place: 'Technical part', message }], byField: { technical: message } }
   }
   const document: Doc = {
     id: d.id,
@@ -124,7 +124,7 @@ export function checkDraft(d: ScenarioDraft): DraftCheck {
   const byField: DraftCheck['byField'] = {}
   for (const p of check.problems) {
     const field = FIELD_OF.find(([re]) => re.test(p.path))?.[1] ?? 'technical'
-    byField[field] ??= field === 'technical' ? `${p.path}: ${p.message}` : p.message
+    byField[field] ??= field === 'technical' ? `${p.place}: ${p.message}` : p.message
   }
   return { scenario: null, problems: check.problems, byField }
 }

@@ -90,6 +90,8 @@ export interface LiveAttemptContext {
   actionError: string | null
   notice: string | null
   problem: string | null
+  /** Whether opening the exercise again could succeed (a network or server failure, not a refusal). */
+  loadRetryable: boolean
   tries: number
   result: AttemptSummary | null
 }
@@ -229,9 +231,13 @@ export const liveAttemptMachine = setup({
         decision: chooseStart(start.browser, start.server, context.target.attemptId),
       }
     }),
-    noteLoadError: assign(({ event }) => ({
-      problem: `The exercise could not be opened: ${errorMessage((event as { error?: unknown }).error)}`,
-    })),
+    noteLoadError: assign(({ event }) => {
+      const error = (event as { error?: unknown }).error
+      return {
+        problem: `The exercise could not be opened: ${errorMessage(error)}`,
+        loadRetryable: isRetryable(error),
+      }
+    }),
     beginFromDecision: assign(({ context }) => {
       const decision = context.decision
       if (decision?.kind === 'resume') {
@@ -351,6 +357,7 @@ export const liveAttemptMachine = setup({
     actionError: null,
     notice: null,
     problem: null,
+    loadRetryable: true,
     tries: 0,
     result: null,
   }),

@@ -21,14 +21,16 @@ describe('the scenario editor draft', () => {
     expect(check.problems.map((p) => p.path)).toContain('$.title')
   })
 
-  it('reports a setting key the catalogue does not know, with its JSON path', () => {
+  it('reports a setting key the catalogue does not know, placed in words for the screen', () => {
     const draft = shipped()
     const technical = JSON.parse(draft.technical)
     technical.start.settings['speed.warp'] = 9
     const check = checkDraft({ ...draft, technical: JSON.stringify(technical) })
     expect(check.scenario).toBeNull()
     expect(check.problems.some((p) => p.path.startsWith('$.start.settings'))).toBe(true)
-    expect(check.byField.technical).toMatch(/^\$\.start\.settings/)
+    // The JSON path stays on the problem for tools; the field's message names the place in words.
+    expect(check.byField.technical).toMatch(/^Starting setting “speed\.warp”: /)
+    expect(check.byField.technical).not.toContain('$.')
   })
 
   it('says when the technical part is not JSON, and keeps the text', () => {
@@ -43,5 +45,11 @@ describe('the scenario editor draft', () => {
     expect(check.scenario).toBeNull()
     expect(check.byField.title).toBeTruthy()
     expect(check.byField.story).toBeTruthy()
+    // In words an instructor reads: no zod phrasing, no JSON paths.
+    for (const p of check.problems) {
+      expect(p.message).not.toMatch(/Too small|expected string|>=/)
+      expect(p.place).not.toMatch(/\$|\[/)
+    }
+    expect(check.byField.title).toBe('Write at least 3 characters')
   })
 })

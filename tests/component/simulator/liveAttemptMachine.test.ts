@@ -93,6 +93,23 @@ const unlock: AttemptEvent = { t: 100, type: 'lock.removed' }
 const powerOn: AttemptEvent = { t: 200, type: 'power.on' }
 
 describe('where a live attempt starts', () => {
+  it('offers to try again only when opening failed for a reason that can pass', async () => {
+    const opened = (error: unknown) =>
+      createActor(
+        liveAttemptMachine.provide({ actors: { loadStart: fromPromise(async () => Promise.reject(error)) } }),
+        {
+          input: { target: practice },
+        },
+      ).start()
+    const refused = opened(failure(403, 'practice_closed'))
+    await waitFor(refused, (s) => s.matches('failed'))
+    expect(refused.getSnapshot().context.loadRetryable).toBe(false)
+    const offline = opened(failure(503))
+    await waitFor(offline, (s) => s.matches('failed'))
+    expect(offline.getSnapshot().context.loadRetryable).toBe(true)
+    expect(offline.getSnapshot().context.problem).toMatch(/could not be opened/)
+  })
+
   it('starts a fresh attempt with a new id when nothing is saved', async () => {
     const { actor } = start()
     await waitFor(actor, (s) => s.matches('live'))

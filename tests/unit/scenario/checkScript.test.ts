@@ -39,7 +39,7 @@ describe('scenarios:check', () => {
   it('reports two files that share an id', () => {
     const copy = tempScenario(() => {}, 'copy.json')
     const reports = checkScenarioFiles([shipped('two-wire-run-stop.json'), copy])
-    expect(reports[1].problems).toEqual([
+    expect(reports[1].problems).toMatchObject([
       { path: '$.id', message: 'the id "two-wire-run-stop" is also used by two-wire-run-stop.json' },
     ])
   })

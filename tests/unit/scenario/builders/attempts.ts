@@ -418,7 +418,7 @@ const fanRampOrCoast: AttemptScript[] = [
     name: 'mistake-chose-coast',
     description:
       'Chose a coast stop instead of a controlled ramp: no trip, but not the stop that was asked for.',
-    misses: ['stop-method', 'decel-time', 'ramp-stop'],
+    misses: ['decel-time', 'ramp-stop'],
     build: (b) => fanStop(b, { coast: true }),
   },
 ]

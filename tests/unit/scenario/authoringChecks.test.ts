@@ -1,0 +1,160 @@
+// The checks an author gets that a schema cannot make: an objective already met before the apprentice
+// does anything, more input functions than inputs, and every problem's place and message in words.
+import { describe, expect, it } from 'vitest'
+import { DIGITAL_INPUT_NUMBERS } from '@shared/model/points'
+import { checkScenario, type Scenario } from '@shared/scenario'
+import { objectivesMetAtStart, tooManyInputFunctions } from '@shared/scenario/authoringChecks'
+import { parseJsonPath, plainIssueMessage, problemPlace } from '@shared/scenario/problemWords'
+import { shippedScenario } from './helpers'
+
+const problemsOf = (input: unknown) => {
+  const result = checkScenario(input)
+  return result.ok ? [] : result.problems
+}
+
+describe('an objective already met at the start', () => {
+  it('is reported for an isolation objective when the scenario starts isolated and locked', () => {
+    const scenario = structuredClone(shippedScenario('two-wire-run-stop'))
+    scenario.start.power = { on: false, locked: true }
+    scenario.objectives.push({ id: 'iso', kind: 'isolated', title: 'Drive isolated and locked', weight: 5 })
+    const problems = objectivesMetAtStart(scenario)
+    expect(problems).toEqual([
+      expect.objectContaining({ path: ['objectives', scenario.objectives.length - 1] }),
+    ])
+    expect(problems[0].message).toMatch(/Already met at the start/)
+  })
+
+  it('is not reported when the apprentice has to isolate (the drive starts energised)', () => {
+    const scenario = structuredClone(shippedScenario('safe-isolation'))
+    expect(scenario.start.power.on).toBe(true)
+    expect(scenario.objectives.some((o) => o.kind === 'isolated')).toBe(true)
+    expect(objectivesMetAtStart(scenario)).toEqual([])
+  })
+
+  it('is reported for a setting the drive already has, and not for rules that hold until broken', () => {
+    const scenario = structuredClone(shippedScenario('fan-ramp-or-coast'))
+    expect(scenario.start.settings['stop.mode']).toBe('ramp')
+    scenario.objectives.push({
+      id: 'ramp-chosen',
+      kind: 'settingEquals',
+      title: 'Ramp stop chosen',
+      weight: 5,
+      key: 'stop.mode',
+      value: 'ramp',
+    })
+    // noFaultTrips and finishedWithin are met with nothing done, by design.
+    expect(scenario.objectives.some((o) => o.kind === 'noFaultTrips')).toBe(true)
+    const problems = objectivesMetAtStart(scenario)
+    expect(problems.map((p) => scenario.objectives[p.path[1] as number].id)).toEqual(['ramp-chosen'])
+  })
+
+  it('stops the scenario from validating, with the objective named in words', () => {
+    const scenario = structuredClone(shippedScenario('two-wire-run-stop')) as Scenario
+    scenario.start.power = { on: false, locked: true }
+    scenario.objectives.push({ id: 'iso', kind: 'isolated', title: 'Drive isolated and locked', weight: 5 })
+    const problems = problemsOf(scenario)
+    expect(problems).toHaveLength(1)
+    expect(problems[0].place).toBe(`Objective ${scenario.objectives.length} (Drive isolated and locked)`)
+  })
+})
+
+describe('more input functions than inputs', () => {
+  it('is reported when the objectives need more functions than the drive has inputs', () => {
+    const scenario = structuredClone(shippedScenario('two-wire-run-stop'))
+    const functions = ['run', 'stop', 'start', 'reverse', 'raise', 'lower', 'externalFault', 'reset', 'jog']
+    scenario.objectives = functions.map((fn, i) => ({
+      id: `in-${i}`,
+      kind: 'wiringCondition' as const,
+      title: `Input ${fn} on`,
+      weight: 1,
+      while: {},
+      input: { function: fn },
+      expect: 'on' as const,
+    }))
+    const problems = tooManyInputFunctions(scenario)
+    const distinct = new Set(functions).size
+    expect(distinct).toBeGreaterThan(DIGITAL_INPUT_NUMBERS.length)
+    expect(problems).toHaveLength(1)
+    expect(problems[0].message).toContain(`${distinct} different input functions`)
+  })
+
+  it('is not reported for a shipped scenario', () => {
+    expect(tooManyInputFunctions(shippedScenario('raise-lower-commissioning'))).toEqual([])
+  })
+})
+
+describe('problems in words', () => {
+  const doc = {
+    objectives: [{ title: 'Fan ran at 40 Hz' }, {}],
+    start: { wires: [{ id: 'w1' }], devices: [{ label: 'Fan run / stop' }] },
+  }
+  it('names the place as the editor does, with the item’s own title or label', () => {
+    expect(problemPlace(['objectives', 0, 'target'], doc)).toBe('Objective 1 (Fan ran at 40 Hz), target')
+    expect(problemPlace(['objectives', 1, 'fromAtLeastHz'], doc)).toBe('Objective 2, from at least hz')
+    expect(problemPlace(['start', 'devices', 0, 'kind'], doc)).toBe(
+      'Starting device 1 (Fan run / stop), kind',
+    )
+    expect(problemPlace(['start', 'settings', 'speed.max'], doc)).toBe('Starting setting “speed.max”')
+    expect(problemPlace(['faults', 0, 'wireId'], doc)).toBe('Fault 1, wire')
+    expect(problemPlace(['site', 'name'], doc)).toBe('Site')
+    expect(problemPlace(['learningOutcomes', 2], doc)).toBe('Learning outcomes line 3')
+  })
+
+  it('reads back a JSON path the API sent, odd keys included', () => {
+    expect(parseJsonPath('$.objectives[3].target')).toEqual(['objectives', 3, 'target'])
+    expect(parseJsonPath('$.start.settings["speed.max"]')).toEqual(['start', 'settings', 'speed.max'])
+  })
+
+  it('replaces zod’s own wording and keeps a message the schema wrote', () => {
+    const base = { path: [], input: undefined }
+    expect(
+      plainIssueMessage({
+        ...base,
+        code: 'too_small',
+        origin: 'string',
+        minimum: 3,
+        message: 'Too small: expected string to have >=3 characters',
+      }),
+    ).toBe('Write at least 3 characters')
+    expect(
+      plainIssueMessage({
+        ...base,
+        code: 'too_small',
+        origin: 'array',
+        minimum: 1,
+        message: 'Too small: expected array to have >=1 items',
+      }),
+    ).toBe('Add at least one')
+    expect(
+      plainIssueMessage({
+        ...base,
+        code: 'invalid_type',
+        expected: 'number',
+        message: 'Invalid input: expected number, received undefined',
+      }),
+    ).toBe('Missing: fill this in')
+    expect(
+      plainIssueMessage({
+        ...base,
+        code: 'invalid_format',
+        format: 'regex',
+        message: 'must look like device.terminal',
+      }),
+    ).toBe('must look like device.terminal')
+  })
+
+  it('places a schema problem in words with a plain message', () => {
+    const scenario = structuredClone(shippedScenario('two-wire-run-stop')) as Partial<Scenario>
+    scenario.title = 'ab'
+    delete scenario.story
+    const problems = problemsOf(scenario)
+    expect(problems.find((p) => p.path === '$.title')).toMatchObject({
+      place: 'Title',
+      message: 'Write at least 3 characters',
+    })
+    expect(problems.find((p) => p.path === '$.story')).toMatchObject({
+      place: 'Story',
+      message: 'Missing: fill this in',
+    })
+  })
+})
