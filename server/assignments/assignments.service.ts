@@ -8,6 +8,8 @@ import type {
   CreateAssignment,
   UpdateAssignmentRequest,
 } from '@shared/api/assignments'
+import { requestedAssistanceLevel } from '@shared/api/assignments'
+import { DEFAULT_ASSISTANCE_LEVEL, type AssistanceLevel } from '@shared/scenario/assistance'
 import { assignmentFor, cohortFor, readableCohortIds } from '../access/access.service'
 import { appLink, type AppContext } from '../context'
 import {
@@ -147,6 +149,11 @@ async function audienceOf(ds: DataSource, row: AssignmentRow, members: string[])
 }
 
 /** Publishing tells every active apprentice it is set for by mail. */
+/** The level and the older hints column, kept in step: hints everywhere but in an assessment. */
+function assistanceColumns(level: AssistanceLevel): Pick<AssignmentRow, 'assistanceLevel' | 'hintsAllowed'> {
+  return { assistanceLevel: level, hintsAllowed: level !== 'assessment' }
+}
+
 export async function createAssignment(
   ctx: AppContext,
   user: UserRow,
@@ -171,7 +178,7 @@ export async function createAssignment(
     opensAt: new Date(body.opensAt).toISOString(),
     dueAt: new Date(body.dueAt).toISOString(),
     attemptLimit: body.attemptLimit,
-    hintsAllowed: body.hintsAllowed,
+    ...assistanceColumns(requestedAssistanceLevel(body) ?? DEFAULT_ASSISTANCE_LEVEL),
     scorePolicy: body.scorePolicy,
     createdById: user.id,
     createdAt: nowIso(),
@@ -216,7 +223,7 @@ export async function updateAssignment(
     opensAt: changes.opensAt ? new Date(changes.opensAt).toISOString() : assignment.opensAt,
     dueAt: changes.dueAt ? new Date(changes.dueAt).toISOString() : assignment.dueAt,
     attemptLimit: changes.attemptLimit === undefined ? assignment.attemptLimit : changes.attemptLimit,
-    hintsAllowed: changes.hintsAllowed ?? Boolean(assignment.hintsAllowed),
+    ...assistanceColumns(requestedAssistanceLevel(changes) ?? assignment.assistanceLevel),
     scorePolicy: changes.scorePolicy ?? assignment.scorePolicy,
     latePolicy: changes.latePolicy ?? assignment.latePolicy,
     latePenalty: changes.latePenalty ?? assignment.latePenalty,

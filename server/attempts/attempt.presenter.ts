@@ -26,6 +26,7 @@ export const presentAttemptSummary = (
   scenarioVersion: related.scenario.version,
   scenarioTitle: related.scenario.title,
   status: row.status,
+  assistanceLevel: row.assistanceLevel,
   eventCount: row.eventCount,
   late: Boolean(row.late),
   startedAt: row.startedAt,

@@ -65,6 +65,7 @@ export const ATTEMPT_SUMMARY_SELECT = {
   reviewedById: true,
   overriddenAt: true,
   overrideReason: true,
+  assistanceLevel: true,
 } satisfies Record<keyof AttemptSummaryRow, true>
 
 /** Summaries with their apprentices' names and scenario keys and titles, read in two queries. */

@@ -3,6 +3,7 @@
 import { randomUUID } from 'node:crypto'
 import { ATTEMPT_DIVERGED, type AttemptSummary } from '@shared/api/attempts'
 import { checkSubmission, personalTerms } from '@shared/progress'
+import { DEFAULT_ASSISTANCE_LEVEL, type AssistanceLevel } from '@shared/scenario/assistance'
 import { formatInZone } from '@shared/time/zone'
 import { isEnrolled } from '../access/access.service'
 import { centreTimeZone } from '../centre/centre.service'
@@ -70,7 +71,6 @@ async function checkRules(
   ctx: AppContext,
   user: UserRow,
   assignment: AssignmentRow,
-  hintRevealed: boolean,
   usedAttempts: number,
   now: string,
 ): Promise<boolean> {
@@ -96,12 +96,19 @@ async function checkRules(
         throw conflict('attempt_limit_reached', check.message)
     }
   }
-  if (!assignment.hintsAllowed && hintRevealed) {
-    throw new HttpError(400, 'hints_not_allowed', 'Hints are not allowed on this assignment', {
-      fields: { events: ['Contains a revealed hint'] },
-    })
-  }
   return check.late
+}
+
+/**
+ * An assessment offers no hints, so a log that reveals one did not come from the panel at that level: it is
+ * refused (and nothing is stored) rather than graded, so no grade ever stands on help the level forbids.
+ */
+function refuseHintsInAssessment(level: AssistanceLevel, hintRevealed: boolean, assigned: boolean): void {
+  if (level !== 'assessment' || !hintRevealed) return
+  const where = assigned ? 'this assignment (an assessment)' : 'an assessment'
+  throw new HttpError(400, 'hints_not_allowed', `Hints are not allowed in ${where}`, {
+    fields: { events: ['Contains a revealed hint'] },
+  })
 }
 
 class LostRace extends Error {}
@@ -154,19 +161,27 @@ async function storeSubmission(
   }
   const { scenario, assignment } = await resolveTarget(ctx, user, body)
   const now = nowIso()
+  // Fixed at the first save: the assignment's level then, or the apprentice's choice for practice.
+  const assistanceLevel: AssistanceLevel =
+    existing?.assistanceLevel ??
+    assignment?.assistanceLevel ??
+    body.assistanceLevel ??
+    DEFAULT_ASSISTANCE_LEVEL
   let late = false
   if (assignment) {
     const used = await attempts.countBy({ assignmentId: assignment.id, userId: user.id, status: 'submitted' })
-    late = await checkRules(ctx, user, assignment, submission.hintRevealed, used, now)
+    late = await checkRules(ctx, user, assignment, used, now)
   }
+  refuseHintsInAssessment(assistanceLevel, submission.hintRevealed, assignment !== null)
   const submitting = body.status === 'submitted'
-  const grade = submitting ? await ctx.grading.grade(scenario, eventsJson) : null
+  const grade = submitting ? await ctx.grading.grade(scenario, eventsJson, assistanceLevel) : null
   const row: AttemptRow = {
     id: body.id,
     userId: user.id,
     assignmentId: assignment?.id ?? null,
     scenarioId: scenario.id,
     status: body.status,
+    assistanceLevel,
     events: eventsJson,
     eventCount: submission.eventCount,
     late: submitting && late,

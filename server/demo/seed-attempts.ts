@@ -63,13 +63,16 @@ export async function seedSampleAttempts(
     const at = new Date(Date.now() - daysAgo * DAY)
     const startedAt = new Date(at.getTime() - HOUR / 2).toISOString()
     const kept = inProgress ? events.slice(0, Math.ceil(events.length / 2)) : events
-    const grade = inProgress ? null : gradeAttempt(JSON.parse(scenario.document) as Scenario, kept)
+    const grade = inProgress
+      ? null
+      : gradeAttempt(JSON.parse(scenario.document) as Scenario, kept, target.assistanceLevel)
     rows.push({
       id: randomUUID(),
       userId: user.id,
       assignmentId: target.id,
       scenarioId: scenario.id,
       status: inProgress ? 'inProgress' : 'submitted',
+      assistanceLevel: target.assistanceLevel,
       events: JSON.stringify(kept),
       eventCount: kept.length,
       late: !inProgress && at.toISOString() > target.dueAt,

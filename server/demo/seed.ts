@@ -2,6 +2,7 @@
 // apprentices, assignments of the shipped scenarios, and sample attempts graded by the real grader.
 import { randomUUID } from 'node:crypto'
 import type { DataSource } from 'typeorm'
+import type { AssistanceLevel } from '@shared/scenario/assistance'
 import type { Logger } from '../infrastructure/logging'
 import { CENTRE_ID } from '../centre/centre.service'
 import {
@@ -21,13 +22,20 @@ import type { PasswordHasher } from '../infrastructure/security/passwords'
 import { seedSampleAttempts } from './seed-attempts'
 
 /** Which shipped scenarios each demo cohort is set, by scenario id, with due dates in days from now. */
-const DEMO_ASSIGNMENTS: { cohort: number; key: string; opensInDays: number; dueInDays: number }[] = [
-  { cohort: 0, key: 'safe-isolation', opensInDays: -21, dueInDays: -7 },
-  { cohort: 0, key: 'two-wire-run-stop', opensInDays: -14, dueInDays: 7 },
+// Isolation is assessed unaided; a first wiring exercise is guided; the rest are set at the standard level.
+const DEMO_ASSIGNMENTS: {
+  cohort: number
+  key: string
+  opensInDays: number
+  dueInDays: number
+  level: AssistanceLevel
+}[] = [
+  { cohort: 0, key: 'safe-isolation', opensInDays: -21, dueInDays: -7, level: 'assessment' },
+  { cohort: 0, key: 'two-wire-run-stop', opensInDays: -14, dueInDays: 7, level: 'guided' },
   // Due tomorrow: the instructor's needs-attention page has work closing soon to show.
-  { cohort: 0, key: 'raise-lower-commissioning', opensInDays: -3, dueInDays: 1 },
-  { cohort: 1, key: 'safe-isolation', opensInDays: -7, dueInDays: 7 },
-  { cohort: 1, key: 'three-wire-start-stop', opensInDays: -2, dueInDays: 21 },
+  { cohort: 0, key: 'raise-lower-commissioning', opensInDays: -3, dueInDays: 1, level: 'standard' },
+  { cohort: 1, key: 'safe-isolation', opensInDays: -7, dueInDays: 7, level: 'assessment' },
+  { cohort: 1, key: 'three-wire-start-stop', opensInDays: -2, dueInDays: 21, level: 'standard' },
 ]
 
 const ENROLLED_DAYS_AGO = 30
@@ -117,7 +125,8 @@ export async function seedDemo(
         opensAt: new Date(Date.now() + plan.opensInDays * DAY).toISOString(),
         dueAt: new Date(Date.now() + plan.dueInDays * DAY).toISOString(),
         attemptLimit: 3,
-        hintsAllowed: plan.key !== 'safe-isolation',
+        hintsAllowed: plan.level !== 'assessment',
+        assistanceLevel: plan.level,
         scorePolicy: 'best',
         createdById: cohort.ownerId,
         createdAt: now,

@@ -1,6 +1,7 @@
 import { EntitySchema, type EntitySchemaOptions } from 'typeorm'
 import type { ScorePolicy } from '@shared/api/assignments'
 import type { LatePolicy } from '@shared/progress'
+import type { AssistanceLevel } from '@shared/scenario/assistance'
 import { bool, timestamp, uuidColumn, uuidPrimary, varchar, belongsTo } from './columns'
 
 export interface AssignmentRow {
@@ -11,7 +12,10 @@ export interface AssignmentRow {
   opensAt: string
   dueAt: string
   attemptLimit: number | null
+  /** Kept in step with the level (false exactly for an assessment) for readers of the older column. */
   hintsAllowed: boolean
+  /** Migration 1765700000000; an assignment made before it without hints became an assessment. */
+  assistanceLevel: AssistanceLevel
   /** Which score a learning platform receives (migration 1765000000000); 'best' unless chosen. */
   scorePolicy: ScorePolicy
   createdById: string
@@ -36,6 +40,7 @@ export const AssignmentEntity = new EntitySchema<AssignmentRow>({
     dueAt: timestamp,
     attemptLimit: { type: 'integer', nullable: true },
     hintsAllowed: bool,
+    assistanceLevel: { type: 'varchar', length: 16, default: 'standard' },
     scorePolicy: { type: 'varchar', length: 8, default: 'best' },
     createdById: uuidColumn,
     createdAt: timestamp,

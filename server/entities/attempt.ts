@@ -1,6 +1,7 @@
 // An attempt is its event log plus the server's grade; `id` is the client-generated UUID.
 import { EntitySchema, type EntitySchemaOptions } from 'typeorm'
 import type { AttemptStatus } from '@shared/api/attempts'
+import type { AssistanceLevel } from '@shared/scenario/assistance'
 import {
   bool,
   integer,
@@ -23,6 +24,8 @@ export interface AttemptRow {
   assignmentId: string | null
   scenarioId: string
   status: AttemptStatus
+  /** The assistance level it was started at (migration 1765700000000); never changes afterwards. */
+  assistanceLevel: AssistanceLevel
   /** JSON text of the event log. */
   events: string
   eventCount: number
@@ -54,6 +57,7 @@ export const AttemptEntity = new EntitySchema<AttemptRow>({
     assignmentId: nullableUuid,
     scenarioId: uuidColumn,
     status: varchar(16),
+    assistanceLevel: { type: 'varchar', length: 16, default: 'standard' },
     events: text,
     eventCount: integer,
     late: bool,

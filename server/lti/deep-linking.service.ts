@@ -79,6 +79,7 @@ export async function answerDeepLink(
     opensAt: choice.opensAt,
     dueAt: choice.dueAt,
     attemptLimit: choice.attemptLimit,
+    assistanceLevel: choice.assistanceLevel,
     hintsAllowed: choice.hintsAllowed,
     scorePolicy: choice.scorePolicy,
     // The course's own gradebook keeps its late rules; Slipway accepts late work without a penalty.

@@ -9,6 +9,7 @@ import { OutcomeSignOffs1765200000000 } from './1765200000000-outcome-sign-offs'
 import { InstructorWeek1765300000000 } from './1765300000000-instructor-week'
 import { MailPreferences1765400000000 } from './1765400000000-mail-preferences'
 import { SignOffWithdrawals1765600000000 } from './1765600000000-sign-off-withdrawals'
+import { AssistanceLevels1765700000000 } from './1765700000000-assistance-levels'
 
 export const migrations = [
   InitialSchema1764600000000,
@@ -21,4 +22,5 @@ export const migrations = [
   InstructorWeek1765300000000,
   MailPreferences1765400000000,
   SignOffWithdrawals1765600000000,
+  AssistanceLevels1765700000000,
 ]

@@ -1,7 +1,7 @@
 // Words and numbers as the records print them. Every date is formatted in a time zone the caller names
 // (the centre's), never the server's own.
 import { settingDef, type SettingKey, type SettingValue } from '@shared/model'
-import { formatTime } from '@shared/scenario'
+import { assistanceLabel, formatTime, type AssistanceLevel } from '@shared/scenario'
 
 export interface Clock {
   /** IANA time zone, e.g. "Europe/London". */
@@ -57,12 +57,13 @@ export function formatSettingValue(key: SettingKey, value: SettingValue | undefi
   return option ? option.label : String(value)
 }
 
-export const ASSISTANCE_LEVELS = {
-  guided: 'Guided (hints and extra readings shown)',
-  standard: 'Standard',
-  assessment: 'Assessment (no extra help)',
-} as const
-export type AssistanceLevel = keyof typeof ASSISTANCE_LEVELS
+/** Each level's label for the paperwork (shared/scenario/assistance.ts holds the one definition). */
+export const ASSISTANCE_LEVELS: Record<AssistanceLevel, string> = {
+  guided: assistanceLabel('guided'),
+  standard: assistanceLabel('standard'),
+  assessment: assistanceLabel('assessment'),
+}
+export type { AssistanceLevel }
 
 export function formatScore(score: number): string {
   return `${Math.round(score)} %`

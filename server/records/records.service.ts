@@ -112,8 +112,7 @@ async function commissioningRecordView(
       label,
       startedAt: attempt.startedAt,
       submittedAt: attempt.submittedAt,
-      // The assistance level is not stored per attempt: set work without hints is assessed unaided.
-      assistance: assignment && !assignment.hintsAllowed ? 'assessment' : 'standard',
+      assistance: attempt.assistanceLevel,
     },
     review: {
       feedback: feedback.map((f) => ({ author: nameOf(f.authorId), at: f.createdAt, body: f.body })),

@@ -1,6 +1,7 @@
-// Assignments: one scenario version set for a cohort with a window, an attempt limit and a hint rule.
+// Assignments: one scenario version set for a cohort with a window, an attempt limit and an assistance level.
 import { z } from 'zod'
 import { LATE_POLICIES, WORK_STATUSES } from '../progress/standing'
+import { assistanceLevelSchema, levelFromHintsAllowed, type AssistanceLevel } from '../scenario/assistance'
 import { idSchema, isoDateTimeSchema } from './common'
 
 /** Which score counts when an assignment sends grades to a learning platform: the best, or the latest. */
@@ -8,12 +9,35 @@ export const scorePolicySchema = z.enum(['best', 'latest'])
 export type ScorePolicy = z.infer<typeof scorePolicySchema>
 export const latePolicyFieldSchema = z.enum(LATE_POLICIES)
 
+/** An assessment allows no hints; any other level allows them. */
+function levelAgreesWithHints(value: { assistanceLevel?: AssistanceLevel; hintsAllowed?: boolean }): boolean {
+  if (value.assistanceLevel === undefined || value.hintsAllowed === undefined) return true
+  return (value.assistanceLevel === 'assessment') === !value.hintsAllowed
+}
+const HINTS_DISAGREE = {
+  error:
+    'Hints are allowed at every assistance level except assessment: leave hintsAllowed out or make it agree',
+  path: ['hintsAllowed'],
+}
+
+/** The level a create or update request asks for (undefined: it asks for no change). */
+export function requestedAssistanceLevel(value: {
+  assistanceLevel?: AssistanceLevel
+  hintsAllowed?: boolean
+}): AssistanceLevel | undefined {
+  if (value.assistanceLevel) return value.assistanceLevel
+  return value.hintsAllowed === undefined ? undefined : levelFromHintsAllowed(value.hintsAllowed)
+}
+
 const assignmentFields = {
   title: z.string().trim().max(160).optional(),
   opensAt: isoDateTimeSchema,
   dueAt: isoDateTimeSchema,
   attemptLimit: z.number().int().min(1).max(100).nullable(),
-  hintsAllowed: z.boolean(),
+  /** How much help an attempt gets (shared/scenario/assistance.ts); absent: from `hintsAllowed`, else standard. */
+  assistanceLevel: assistanceLevelSchema.optional(),
+  /** Kept for older clients: false means an assessment. The level wins when both are given (they must agree). */
+  hintsAllowed: z.boolean().optional(),
   scorePolicy: scorePolicySchema.default('best'),
   /** Close at the due date, or accept late work with a penalty (points off a late attempt's score). */
   latePolicy: latePolicyFieldSchema.default('acceptLate'),
@@ -36,6 +60,7 @@ export const createAssignmentRequestSchema = z
     error: 'The due date must be after the opening date',
     path: ['dueAt'],
   })
+  .refine(levelAgreesWithHints, HINTS_DISAGREE)
 export type CreateAssignmentRequest = z.input<typeof createAssignmentRequestSchema>
 export type CreateAssignment = z.output<typeof createAssignmentRequestSchema>
 
@@ -45,7 +70,8 @@ export const updateAssignmentRequestSchema = z
     opensAt: assignmentFields.opensAt.optional(),
     dueAt: assignmentFields.dueAt.optional(),
     attemptLimit: assignmentFields.attemptLimit.optional(),
-    hintsAllowed: assignmentFields.hintsAllowed.optional(),
+    assistanceLevel: assignmentFields.assistanceLevel,
+    hintsAllowed: assignmentFields.hintsAllowed,
     scorePolicy: scorePolicySchema.optional(),
     latePolicy: latePolicyFieldSchema.optional(),
     latePenalty: z.number().int().min(0).max(100).optional(),
@@ -60,6 +86,7 @@ export const updateAssignmentRequestSchema = z
   .refine((value) => Object.values(value).some((field) => field !== undefined), {
     error: 'Give at least one field to change',
   })
+  .refine(levelAgreesWithHints, HINTS_DISAGREE)
 export type UpdateAssignmentRequest = z.infer<typeof updateAssignmentRequestSchema>
 
 /** The apprentice's own standing on it (only in apprentice views), under their own terms. */
@@ -92,6 +119,8 @@ export const assignmentSchema = z.object({
   opensAt: isoDateTimeSchema,
   dueAt: isoDateTimeSchema,
   attemptLimit: z.number().int().nullable(),
+  assistanceLevel: assistanceLevelSchema,
+  /** False exactly when the level is assessment. */
   hintsAllowed: z.boolean(),
   scorePolicy: scorePolicySchema,
   latePolicy: latePolicyFieldSchema,

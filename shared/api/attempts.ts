@@ -2,6 +2,7 @@
 import { z } from 'zod'
 import { attemptEventSchema, attemptLogSchema } from '../model/events'
 import { idSchema, isoDateTimeSchema, pageOf, pageQuerySchema, type ErrorCode } from './common'
+import { assistanceLevelSchema } from '../scenario/assistance'
 import { gradeResultSchema } from './grading'
 
 /** The model's own event schemas (shared/model/events.ts): every event typed, times in order. */
@@ -26,6 +27,11 @@ export const submitAttemptRequestSchema = z
     scenarioId: idSchema.optional(),
     status: attemptStatusSchema,
     events: attemptEventLogSchema,
+    /**
+     * Free practice: the level the apprentice chose (default standard), kept from the first save on. Assigned
+     * work takes the assignment's level at the first save, whatever is sent here.
+     */
+    assistanceLevel: assistanceLevelSchema.optional(),
   })
   .refine((value) => (value.assignmentId === undefined) !== (value.scenarioId === undefined), {
     error: 'Give either an assignmentId or a scenarioId (free practice), not both',
@@ -73,6 +79,8 @@ export const attemptSummarySchema = z.object({
   /** The scenario version's title, so a page can name the exercise without loading the library. */
   scenarioTitle: z.string(),
   status: attemptStatusSchema,
+  /** The level it was made at, fixed when it started. */
+  assistanceLevel: assistanceLevelSchema,
   eventCount: z.number().int().nonnegative(),
   late: z.boolean(),
   startedAt: isoDateTimeSchema,

@@ -2,6 +2,7 @@
 // roster pulls and the state of grades sent back. The platform-facing messages themselves (OIDC login,
 // launch, key set) are form posts and JWTs, read on the server only (server/lti/claims.ts).
 import { z } from 'zod'
+import { assistanceLevelSchema } from '../scenario/assistance'
 import { scorePolicySchema } from './assignments'
 import { sessionResponseSchema } from './auth'
 import { idSchema, isoDateTimeSchema } from './common'
@@ -135,7 +136,9 @@ export const deepLinkingChoiceSchema = z
     opensAt: z.iso.datetime({ offset: true, error: 'Must be an ISO 8601 date-time' }),
     dueAt: z.iso.datetime({ offset: true, error: 'Must be an ISO 8601 date-time' }),
     attemptLimit: z.number().int().min(1).max(100).nullable(),
-    hintsAllowed: z.boolean(),
+    /** The assistance level (absent: from `hintsAllowed`, where false is an assessment). */
+    assistanceLevel: assistanceLevelSchema.optional(),
+    hintsAllowed: z.boolean().optional(),
     scorePolicy: scorePolicySchema.default('best'),
   })
   .refine((value) => Date.parse(value.dueAt) > Date.parse(value.opensAt), {

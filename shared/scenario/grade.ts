@@ -4,6 +4,7 @@
 import type { AttemptEvent } from '../model'
 import type { GradeResult } from '../api/grading'
 import { assertEndAt, assertEventTime, createLiveGrader } from './liveGrader'
+import type { AssistanceLevel } from './assistance'
 import type { Scenario } from './schema'
 
 export type { GradeResult, HintUse, ObjectiveResult, SafetyViolation } from '../api/grading'
@@ -12,6 +13,8 @@ export { GradeInputError } from './liveGrader'
 export interface GradeOptions {
   /** Judge at this simulated time (ms) instead of the last event: the panel's live view. */
   endAt?: number
+  /** The attempt's assistance level: a guided attempt's hints cost nothing (default standard). */
+  assistance?: AssistanceLevel
 }
 
 export function grade(
@@ -22,5 +25,5 @@ export function grade(
   // Every input problem is reported before any replay work.
   events.forEach((event, index) => assertEventTime(event, index, index > 0 ? events[index - 1]!.t : 0))
   assertEndAt(options.endAt)
-  return createLiveGrader(scenario, events).result(options.endAt)
+  return createLiveGrader(scenario, events, { assistance: options.assistance }).result(options.endAt)
 }

@@ -14,4 +14,5 @@ export {
 } from './grade'
 export { createLiveGrader, type LiveGrader } from './liveGrader'
 export { formatTime } from './format'
+export * from './assistance'
 export * from './names'

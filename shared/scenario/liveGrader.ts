@@ -3,6 +3,7 @@
 // grade() is this grader fed the whole log, so live ticks and the server's grade cannot disagree.
 import { ModelInputError, type AttemptEvent } from '../model'
 import type { GradeResult, HintUse, SafetyViolation } from '../api/grading'
+import { DEFAULT_ASSISTANCE_LEVEL, hintCostAt, type AssistanceLevel } from './assistance'
 import { startObjective, type Folding } from './evaluators'
 import { SafetyRule } from './safety'
 import { AttemptSampler, type Sample } from './samples'
@@ -52,6 +53,7 @@ export function assertEndAt(endAt: number | undefined): void {
 
 class IncrementalGrader implements LiveGrader {
   readonly #scenario: Scenario
+  readonly #assistance: AssistanceLevel
   readonly #sampler: AttemptSampler
   readonly #objectives: Folding[]
   readonly #safety = new SafetyRule()
@@ -61,8 +63,9 @@ class IncrementalGrader implements LiveGrader {
   #eventCount = 0
   #lastEventT = 0
 
-  constructor(scenario: Scenario) {
+  constructor(scenario: Scenario, assistance: AssistanceLevel) {
     this.#scenario = scenario
+    this.#assistance = assistance
     this.#sampler = new AttemptSampler(toSimulationSetup(scenario))
     const context = { scenario, start: this.#sampler.start }
     this.#objectives = scenario.objectives.map((objective) => startObjective(objective, context))
@@ -115,16 +118,26 @@ class IncrementalGrader implements LiveGrader {
     return this.#safety.step(sample)
   }
 
-  /** Each known hint counts once, at its first reveal; unknown hint ids cost nothing. */
+  /** Each known hint counts once, at its first reveal, at its cost at this level; unknown hint ids cost nothing. */
   #hintRevealed(id: string, t: number): void {
     if (this.#hintsUsed.some((h) => h.id === id)) return
     const hint = this.#scenario.hints.find((h) => h.id === id)
-    if (hint) this.#hintsUsed.push({ id: hint.id, t, cost: hint.cost, text: hint.text })
+    if (hint)
+      this.#hintsUsed.push({ id: hint.id, t, cost: hintCostAt(this.#assistance, hint.cost), text: hint.text })
   }
 }
 
-export function createLiveGrader(scenario: Scenario, initial: readonly AttemptEvent[] = []): LiveGrader {
-  const grader = new IncrementalGrader(scenario)
+export interface LiveGraderOptions {
+  /** The attempt's assistance level (default standard): guided hints cost nothing. */
+  assistance?: AssistanceLevel
+}
+
+export function createLiveGrader(
+  scenario: Scenario,
+  initial: readonly AttemptEvent[] = [],
+  options: LiveGraderOptions = {},
+): LiveGrader {
+  const grader = new IncrementalGrader(scenario, options.assistance ?? DEFAULT_ASSISTANCE_LEVEL)
   for (const event of initial) grader.push(event)
   return grader
 }

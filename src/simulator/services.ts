@@ -2,6 +2,7 @@
 // `loadServerCopy` and `loadReplay` do in the app (tests give the machines their own).
 import { fromPromise } from 'xstate'
 import type { AttemptDetail, AttemptSummary, SubmitAttemptRequest } from '@shared/api/attempts'
+import { DEFAULT_ASSISTANCE_LEVEL } from '@shared/scenario/assistance'
 import { useAssignmentsStore } from '@/stores/assignments'
 import { useAttemptsStore } from '@/stores/attempts'
 import { useScenariosStore } from '@/stores/scenarios'
@@ -13,7 +14,13 @@ import type { ReplaySource } from './machines/replayMachine'
 import { attemptStorageKey, createAttemptStore } from './storage/attemptStore'
 
 function serverCopy(detail: AttemptDetail): AttemptCopy {
-  return { source: 'server', attemptId: detail.id, events: detail.events, savedAt: detail.updatedAt }
+  return {
+    source: 'server',
+    attemptId: detail.id,
+    events: detail.events,
+    savedAt: detail.updatedAt,
+    assistance: detail.assistanceLevel,
+  }
 }
 
 /** Call inside a component's setup (Pinia stores). */
@@ -66,6 +73,8 @@ export function liveAttemptActors() {
               hintsAllowed: assignment.hintsAllowed,
             }
           : null,
+        assistance:
+          server?.assistance ?? assignment?.assistanceLevel ?? target.assistance ?? DEFAULT_ASSISTANCE_LEVEL,
         store,
         browser: local.copy ? { source: 'browser', ...local.copy } : null,
         server,

@@ -75,6 +75,51 @@ describe('database', () => {
     ).rejects.toThrow(/FOREIGN KEY/)
   })
 
+  it('makes an assignment without hints an assessment, and its attempts too (migration 1765700000000)', async () => {
+    const scratch = await openDatabase({ databasePath: join(dir, 'levels.sqlite') })
+    try {
+      await scratch.undoLastMigration() // back to before assistance levels
+      await scratch.query('PRAGMA foreign_keys = OFF') // bare rows, without their people and cohorts
+      const at = '2026-01-01T00:00:00.000Z'
+      for (const [id, hints] of [
+        ['open', 1],
+        ['strict', 0],
+      ] as const) {
+        await scratch.query(
+          `INSERT INTO assignments (id, cohortId, scenarioId, title, opensAt, dueAt, attemptLimit, hintsAllowed, createdById, createdAt)
+           VALUES (?, 'c', 's', ?, ?, ?, NULL, ?, 'u', ?)`,
+          [id, id, at, at, hints, at],
+        )
+      }
+      for (const [id, assignmentId] of [
+        ['on-open', 'open'],
+        ['on-strict', 'strict'],
+        ['practice', null],
+      ]) {
+        await scratch.query(
+          `INSERT INTO attempts (id, userId, assignmentId, scenarioId, status, events, eventCount, late, startedAt, updatedAt)
+           VALUES (?, 'u', ?, 's', 'inProgress', '[]', 0, 0, ?, ?)`,
+          [id, assignmentId, at, at],
+        )
+      }
+      await scratch.runMigrations()
+      const levels = async (table: string) =>
+        Object.fromEntries(
+          (await scratch.query(`SELECT id, assistanceLevel FROM ${table} ORDER BY id`)).map(
+            (r: { id: string; assistanceLevel: string }) => [r.id, r.assistanceLevel],
+          ),
+        )
+      expect(await levels('assignments')).toEqual({ open: 'standard', strict: 'assessment' })
+      expect(await levels('attempts')).toEqual({
+        'on-open': 'standard',
+        'on-strict': 'assessment',
+        practice: 'standard',
+      })
+    } finally {
+      await scratch.destroy()
+    }
+  })
+
   it('undoes every migration, leaving no application tables', async () => {
     const scratch = await openDatabase({ databasePath: join(dir, 'scratch.sqlite') })
     try {

@@ -137,12 +137,15 @@ describe('LTI Advantage services', () => {
             opensAt: new Date(Date.now() - 60_000).toISOString(),
             dueAt: new Date(Date.now() + 7 * 86_400_000).toISOString(),
             attemptLimit: 5,
-            hintsAllowed: true,
+            assistanceLevel: 'assessment',
             scorePolicy: 'best',
           }),
         201,
       )
       assignmentId = answer.body.assignmentId
+      // The level chosen on the platform's linking page is the assignment's (attempts start at it).
+      const linked = await admins().get(`/api/assignments/${assignmentId}`).set(bearer(instructorToken))
+      expect(linked.body).toMatchObject({ assistanceLevel: 'assessment', hintsAllowed: false })
       const returnPath = new URL(answer.body.returnPageUrl).pathname
       const page = await expectStatus(admins().get(returnPath), 200)
       expect(page.headers['content-security-policy']).toContain(`form-action ${platform.url}`)

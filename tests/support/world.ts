@@ -3,6 +3,7 @@
 import { randomUUID } from 'node:crypto'
 import supertest from 'supertest'
 import type { Assignment, AttemptSummary, Cohort, ScenarioSummary } from '../../shared/api'
+import type { AssistanceLevel } from '../../shared/scenario/assistance'
 import { bearer, type TestApi, type TestUser } from './api-harness'
 
 export interface World {
@@ -64,6 +65,7 @@ export async function createAssignment(
     dueAt: string
     attemptLimit: number | null
     hintsAllowed: boolean
+    assistanceLevel: AssistanceLevel
     title: string
   }> = {},
 ): Promise<Assignment> {
@@ -72,7 +74,6 @@ export async function createAssignment(
     opensAt: new Date(Date.now() - 86_400_000).toISOString(),
     dueAt: new Date(Date.now() + 7 * 86_400_000).toISOString(),
     attemptLimit: null,
-    hintsAllowed: true,
     ...fields,
   }
   return (
@@ -92,6 +93,7 @@ export async function submit(
     status?: 'inProgress' | 'submitted'
     events?: unknown[]
     id?: string
+    assistanceLevel?: string
   },
 ) {
   return supertest(api.app)

@@ -2,6 +2,7 @@
 // and grades their logs, so a long attempt never holds up other requests. The queue in front of the threads
 // is bounded: when it is full the submission is refused with 503 and Retry-After before anything is stored.
 import { Piscina } from 'piscina'
+import type { AssistanceLevel } from '@shared/scenario/assistance'
 import { HttpError } from '../../http-error'
 import { unreplayableLog } from './grading'
 import type { GradingTask, LogGradeReport, ReadReport, SubmissionHeader } from './grading-worker'
@@ -40,8 +41,12 @@ export interface GradingPoolStats {
 export interface GradingPool {
   /** Parses and validates a submission body in a thread; a bad one is the 400 express.json and validate() give. */
   read(body: Uint8Array | null): Promise<ReadSubmission>
-  /** Grades a validated log against a scenario version; an unreplayable log is a 400. */
-  grade(scenario: { id: string; document: string }, eventsJson: string): Promise<StoredGrade>
+  /** Grades a validated log against a scenario version at the attempt's level; an unreplayable log is a 400. */
+  grade(
+    scenario: { id: string; document: string },
+    eventsJson: string,
+    assistance?: AssistanceLevel,
+  ): Promise<StoredGrade>
   /** Resolves once the threads have started and answered a first task (readiness). */
   warm(): Promise<void>
   stats(): GradingPoolStats
@@ -125,12 +130,13 @@ export function createGradingPool(options: GradingPoolOptions): GradingPool {
       const { ok: _ok, ...read } = report
       return read
     },
-    async grade(scenario, eventsJson) {
+    async grade(scenario, eventsJson, assistance) {
       const report = await run<LogGradeReport>({
         kind: 'grade',
         scenarioId: scenario.id,
         document: scenario.document,
         eventsJson,
+        assistance,
       })
       if (!report.ok) throw unreplayableLog(report.inputError)
       const { ok: _ok, ...grade } = report

@@ -5,6 +5,7 @@
 // - `grade`: a validated log replayed against a scenario version.
 import { submitAttemptRequestSchema, type SubmitAttemptRequest } from '@shared/api/attempts'
 import type { AttemptEvent } from '@shared/model'
+import type { AssistanceLevel } from '@shared/scenario/assistance'
 import type { Scenario } from '@shared/scenario/schema'
 import { INVALID_JSON_MESSAGE, VALIDATION_MESSAGE, zodDetails } from '../../http-error'
 import { gradeReport } from './grading'
@@ -22,6 +23,8 @@ export interface GradeTask {
   document: string
   /** The validated event log as JSON text. */
   eventsJson: string
+  /** The attempt's assistance level (default standard): guided hints cost nothing. */
+  assistance?: AssistanceLevel
 }
 
 export type GradingTask = ReadTask | GradeTask
@@ -95,7 +98,7 @@ export type LogGradeReport =
   { ok: true; score: number; passed: boolean; evidenceJson: string } | { ok: false; inputError: string }
 
 export function gradeLog(task: Omit<GradeTask, 'kind'>): LogGradeReport {
-  const report = gradeReport(scenarioOf(task), JSON.parse(task.eventsJson) as AttemptEvent[])
+  const report = gradeReport(scenarioOf(task), JSON.parse(task.eventsJson) as AttemptEvent[], task.assistance)
   if (!report.ok) return report
   const { score, passed, evidence } = report.outcome
   return { ok: true, score, passed, evidenceJson: JSON.stringify(evidence) }

@@ -1,6 +1,7 @@
 // Authoritative grading: replays the stored log against the scenario version with the shared grader.
 import { ModelInputError, type AttemptEvent } from '@shared/model'
 import { grade, type GradeResult } from '@shared/scenario/grade'
+import type { AssistanceLevel } from '@shared/scenario/assistance'
 import type { Scenario } from '@shared/scenario/schema'
 import { HttpError } from '../../http-error'
 
@@ -14,9 +15,13 @@ export interface GradeOutcome {
 export type GradeReport = { ok: true; outcome: GradeOutcome } | { ok: false; inputError: string }
 
 /** Grades a log; a log the model cannot replay (an event naming a device the scenario lacks …) is reported. */
-export function gradeReport(scenario: Scenario, events: AttemptEvent[]): GradeReport {
+export function gradeReport(
+  scenario: Scenario,
+  events: AttemptEvent[],
+  assistance?: AssistanceLevel,
+): GradeReport {
   try {
-    const result = grade(scenario, events)
+    const result = grade(scenario, events, { assistance })
     return { ok: true, outcome: { score: result.score, passed: result.passed, evidence: result } }
   } catch (error) {
     if (error instanceof ModelInputError) return { ok: false, inputError: error.message }
@@ -37,6 +42,10 @@ export function outcomeOf(report: GradeReport): GradeOutcome {
 }
 
 /** Grades on the calling thread (seeding, benchmarks, tests); the API grades through a GradingPool. */
-export function gradeAttempt(scenario: Scenario, events: AttemptEvent[]): GradeOutcome {
-  return outcomeOf(gradeReport(scenario, events))
+export function gradeAttempt(
+  scenario: Scenario,
+  events: AttemptEvent[],
+  assistance?: AssistanceLevel,
+): GradeOutcome {
+  return outcomeOf(gradeReport(scenario, events, assistance))
 }

@@ -1,6 +1,7 @@
 // The assign-a-scenario form's values and their check against the shared request schema.
 import { createAssignmentRequestSchema, type CreateAssignment, type ScorePolicy } from '@shared/api'
 import type { LatePolicy } from '@shared/progress'
+import { DEFAULT_ASSISTANCE_LEVEL, type AssistanceLevel } from '@shared/scenario/assistance'
 import { fromLocalInput, toLocalInput } from '@/composables/format'
 import { issuesByField } from '@/composables/validation'
 
@@ -11,7 +12,8 @@ export interface AssignmentFormValues {
   dueAt: string // datetime-local value
   limitAttempts: boolean
   attemptLimit: number | string | null
-  hintsAllowed: boolean
+  /** How much help an attempt gets; hints follow from it (none in an assessment). */
+  assistanceLevel: AssistanceLevel
   /** Which score a learning platform's gradebook receives. */
   scorePolicy: ScorePolicy
   latePolicy: LatePolicy
@@ -28,7 +30,7 @@ export function defaultAssignmentForm(now = new Date()): AssignmentFormValues {
     dueAt: `${inAWeek.slice(0, 10)}T17:00`,
     limitAttempts: true,
     attemptLimit: 3,
-    hintsAllowed: true,
+    assistanceLevel: DEFAULT_ASSISTANCE_LEVEL,
     scorePolicy: 'best',
     latePolicy: 'acceptLate',
     latePenalty: 10,
@@ -45,7 +47,7 @@ export function checkAssignmentForm(v: AssignmentFormValues): AssignmentFormResu
     opensAt: fromLocalInput(v.opensAt),
     dueAt: fromLocalInput(v.dueAt),
     attemptLimit: v.limitAttempts ? Number(v.attemptLimit) : null,
-    hintsAllowed: v.hintsAllowed,
+    assistanceLevel: v.assistanceLevel,
     scorePolicy: v.scorePolicy,
     latePolicy: v.latePolicy,
     latePenalty: v.latePolicy === 'acceptLate' ? Number(v.latePenalty) : 0,

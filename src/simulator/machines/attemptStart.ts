@@ -3,6 +3,7 @@
 // copies that went separate ways, or a server copy this browser has never seen, are offered to the user.
 import { isLogPrefix } from '@shared/api/attempts'
 import type { AttemptEvent } from '@shared/model/events'
+import type { AssistanceLevel } from '@shared/scenario/assistance'
 import { formatDateTime } from '@/composables/format'
 
 export interface AttemptCopy {
@@ -10,6 +11,8 @@ export interface AttemptCopy {
   attemptId: string
   events: AttemptEvent[]
   savedAt: string
+  /** A server copy's level, fixed when it started. */
+  assistance?: AssistanceLevel
 }
 
 export interface StartChoice {

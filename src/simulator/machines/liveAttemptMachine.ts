@@ -9,6 +9,7 @@ import { attemptEventSchema, type AttemptEvent } from '@shared/model/events'
 import type { SimulationSetup } from '@shared/model/setup'
 import type { SimState } from '@shared/model/types'
 import type { GradeResult } from '@shared/scenario/grade'
+import type { AssistanceLevel } from '@shared/scenario/assistance'
 import type { Scenario } from '@shared/scenario/schema'
 import { toSimulationSetup } from '@shared/scenario/setup'
 import type { PanelAction } from '../scene/intentActions'
@@ -28,6 +29,8 @@ export interface LiveTarget {
   assignmentId?: string
   /** An attempt to resume (a "Resume" link names it). */
   attemptId?: string
+  /** Practice: the assistance level the apprentice chose (standard when absent). */
+  assistance?: AssistanceLevel
 }
 
 export interface AssignmentRules {
@@ -44,6 +47,11 @@ export interface LiveStart {
   scenarioTitle: string
   scenarioVersionId: string
   assignment: AssignmentRules | null
+  /**
+   * The level this attempt is made at: a copy on the server keeps the level it started at, else the
+   * assignment's, else the apprentice's choice for practice. The panel shows and hides help by it.
+   */
+  assistance: AssistanceLevel
   store: AttemptStore
   browser: AttemptCopy | null
   server: AttemptCopy | null
@@ -123,7 +131,8 @@ function requestBody(
   const target = context.target.assignmentId
     ? { assignmentId: context.target.assignmentId }
     : { scenarioId: context.start!.scenarioVersionId }
-  return { id: context.attemptId, status, events, ...target }
+  // The server fixes the level at the first save (an assignment's own level wins there).
+  return { id: context.attemptId, status, events, assistanceLevel: context.start!.assistance, ...target }
 }
 
 /** The log to submit: the attempt's events, closed by attempt.ended unless it already is. */
@@ -375,7 +384,11 @@ export const liveAttemptMachine = setup({
       invoke: {
         id: 'grader',
         src: 'liveGrading',
-        input: ({ context }) => ({ scenario: context.start!.scenario, events: [...context.log] }),
+        input: ({ context }) => ({
+          scenario: context.start!.scenario,
+          events: [...context.log],
+          assistance: context.start!.assistance,
+        }),
       },
       on: {
         TICK: { guard: 'laterTick', actions: 'advanceClock' },

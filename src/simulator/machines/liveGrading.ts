@@ -6,10 +6,15 @@ import { fromCallback } from 'xstate'
 import type { AttemptEvent } from '@shared/model/events'
 import type { GradeResult, SafetyViolation } from '@shared/api/grading'
 import { createLiveGrader, type LiveGrader } from '@shared/scenario/liveGrader'
+import type { AssistanceLevel } from '@shared/scenario/assistance'
 import type { Scenario } from '@shared/scenario/schema'
 
 export type { LiveGrader }
-export type CreateLiveGrader = (scenario: Scenario, initial?: readonly AttemptEvent[]) => LiveGrader
+export type CreateLiveGrader = (
+  scenario: Scenario,
+  initial?: readonly AttemptEvent[],
+  options?: { assistance?: AssistanceLevel },
+) => LiveGrader
 
 /** What to do instead, said after every live warning (the safe sequence the grader checks for). */
 export const SAFE_SEQUENCE =
@@ -39,7 +44,12 @@ function sharedOpening(texts: readonly string[]): string {
 }
 
 /** What the machine sends the grading actor, and what the actor sends back. */
-export type LiveGradingInput = { scenario: Scenario; events: readonly AttemptEvent[] }
+export type LiveGradingInput = {
+  scenario: Scenario
+  events: readonly AttemptEvent[]
+  /** The attempt's level: the live grade charges hints as the server's will. */
+  assistance?: AssistanceLevel
+}
 export type ToLiveGrading =
   { type: 'grading.push'; event: AttemptEvent } | { type: 'grading.grade'; endAt: number }
 export type FromLiveGrading =
@@ -51,7 +61,7 @@ export const GRADE_COALESCE_MS = 400
 
 export function liveGradingActor(create: CreateLiveGrader = createLiveGrader) {
   return fromCallback<ToLiveGrading, LiveGradingInput, FromLiveGrading>(({ input, sendBack, receive }) => {
-    const grader = create(input.scenario, input.events)
+    const grader = create(input.scenario, input.events, { assistance: input.assistance })
     let timer: ReturnType<typeof setTimeout> | null = null
     let endAt = 0
     receive((message) => {

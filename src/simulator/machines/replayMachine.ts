@@ -58,7 +58,7 @@ export function prepareReplay({ attempt, scenario }: ReplaySource): ReplayData {
   })
   let graded: GradeResult | null = null
   try {
-    graded = grade(scenario, events)
+    graded = grade(scenario, events, { assistance: attempt.assistanceLevel })
   } catch {
     graded = null
   }

@@ -82,6 +82,7 @@ describe('the data stores', () => {
       opensAt: '2026-12-01T09:00:00.000Z',
       dueAt: '2026-12-08T17:00:00.000Z',
       attemptLimit: 3,
+      assistanceLevel: 'standard' as const,
       hintsAllowed: true,
       scorePolicy: 'best' as const,
       latePolicy: 'acceptLate',

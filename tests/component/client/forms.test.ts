@@ -34,6 +34,12 @@ describe('the assign-a-scenario form', () => {
     expect(result.ok && result.body.attemptLimit).toBeNull()
   })
 
+  it('sets the standard assistance level unless the instructor chooses another, and sends the choice', () => {
+    expect(base.assistanceLevel).toBe('standard')
+    const result = checkAssignmentForm({ ...base, assistanceLevel: 'assessment' })
+    expect(result.ok && result.body.assistanceLevel).toBe('assessment')
+  })
+
   it('refuses a limit of zero attempts', () => {
     const result = checkAssignmentForm({ ...base, attemptLimit: 0 })
     expect(result.ok).toBe(false)

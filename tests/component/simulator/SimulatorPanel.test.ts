@@ -7,6 +7,8 @@ import { createPinia } from 'pinia'
 import { createVuetify } from 'vuetify'
 import { fromCallback, fromPromise } from 'xstate'
 import scenarioFile from '../../../scenarios/raise-lower-commissioning.json'
+import conflictFile from '../../../scenarios/configuration-conflict-alarm.json'
+import type { AssistanceLevel } from '@shared/scenario/assistance'
 import { scenarioSchema } from '@shared/scenario/schema'
 import { attemptStorageKey, createAttemptStore } from '@/simulator/storage/attemptStore'
 import { pixiState, resetPixiState } from './pixiMock'
@@ -15,6 +17,11 @@ vi.mock('pixi.js', () => import('./pixiMock'))
 vi.mock('pixi.js/unsafe-eval', () => ({}))
 
 const scenario = scenarioSchema.parse(scenarioFile)
+// What the next mounted panel starts with (the level is what loadStart settled on).
+const starting: { scenario: typeof scenario; assistance: AssistanceLevel } = {
+  scenario,
+  assistance: 'standard',
+}
 const key = attemptStorageKey('version-1')
 
 // The app's actors without the network: the scenario is at hand, the browser copy is real.
@@ -24,10 +31,11 @@ vi.mock('@/simulator/services', () => ({
       const store = createAttemptStore(key)
       const local = store.load()
       return {
-        scenario,
-        scenarioTitle: scenario.title,
+        scenario: starting.scenario,
+        scenarioTitle: starting.scenario.title,
         scenarioVersionId: 'version-1',
         assignment: null,
+        assistance: starting.assistance,
         store,
         browser: local.copy ? { source: 'browser', ...local.copy } : null,
         server: null,
@@ -69,6 +77,8 @@ describe('the simulator panel', () => {
   beforeEach(() => {
     resetPixiState()
     localStorage.clear()
+    starting.scenario = scenario
+    starting.assistance = 'standard'
   })
   afterEach(() => localStorage.clear())
 
@@ -154,6 +164,57 @@ describe('the simulator panel', () => {
     expect(await markers()).toEqual(['W1 BN'])
     expect(wrapper.get('[data-testid="schematic"]').text()).toContain('1 wire.')
     wrapper.unmount()
+  })
+
+  describe('follows the attempt’s assistance level', () => {
+    const alarmScenario = scenarioSchema.parse(conflictFile)
+
+    it('at standard: no Values tab, alarms by short code and what is wrong, without the fix', async () => {
+      starting.scenario = alarmScenario
+      const wrapper = mountPanel()
+      await settle()
+      expect(wrapper.get('[data-testid="assistance-level"]').text()).toBe('Assistance: Standard')
+      expect(wrapper.find('[data-testid="tab-live"]').exists()).toBe(false)
+      expect(wrapper.findAll('.v-tab').map((t) => t.text())).not.toContain('Values')
+      const notice = wrapper.get('[data-testid="drive-notice"]')
+      expect(notice.text()).toMatch(/Alarm W-[A-Z]+: /)
+      expect(wrapper.find('[data-testid="drive-notice-fix"]').exists()).toBe(false)
+      expect(wrapper.get('[data-testid="drive-notices"]').text()).not.toContain('What to check')
+      wrapper.unmount()
+    })
+
+    it('at guided: the Values tab and the alarm’s fix', async () => {
+      starting.scenario = alarmScenario
+      starting.assistance = 'guided'
+      const wrapper = mountPanel()
+      await settle()
+      expect(wrapper.get('[data-testid="assistance-level"]').text()).toBe('Assistance: Guided')
+      expect(wrapper.find('[data-testid="tab-live"]').exists()).toBe(true)
+      expect(wrapper.get('[data-testid="drive-notice-fix"]').text()).toMatch(/^What to check: .+/)
+      wrapper.unmount()
+    })
+
+    it('in an assessment: no hints and no ticks', async () => {
+      starting.assistance = 'assessment'
+      const wrapper = mountPanel()
+      await settle()
+      expect(wrapper.get('[data-testid="assistance-level"]').text()).toBe('Assistance: Assessment')
+      expect(wrapper.find('[data-testid="no-hints"]').exists()).toBe(scenario.hints.length > 0)
+      expect(wrapper.findAll('button').filter((b) => b.text().startsWith('Show a hint'))).toHaveLength(0)
+      expect(wrapper.find('[data-testid="objectives-unticked"]').exists()).toBe(true)
+      expect(wrapper.get('[data-testid="objectives"]').text()).not.toMatch(/not met yet|✔|○/)
+      wrapper.unmount()
+    })
+
+    it('at standard, hints are offered at their cost and objectives are ticked', async () => {
+      const wrapper = mountPanel()
+      await settle()
+      const offers = wrapper.findAll('button').filter((b) => b.text().startsWith('Show a hint'))
+      expect(offers.length).toBe(scenario.hints.length)
+      expect(offers[0]?.text()).toContain(`costs ${scenario.hints[0]!.cost} points`)
+      expect(wrapper.get('[data-testid="objectives"]').text()).toContain('not met yet')
+      wrapper.unmount()
+    })
   })
 
   it('removes its keyboard listeners and the Pixi application on unmount, every time', async () => {

@@ -51,6 +51,7 @@ function start(options: Setup = {}) {
     scenarioTitle: (options.scenario ?? scenario).title,
     scenarioVersionId: 'version-1',
     assignment: null,
+    assistance: 'standard',
     store,
     browser: options.browser ?? null,
     server: options.server ?? null,

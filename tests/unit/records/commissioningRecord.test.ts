@@ -129,7 +129,8 @@ describe.each(references.map((f) => [f.scenario] as const))(
       expect(pdf.text).toContain(scenario.title)
       expect(pdf.text).toContain(scenario.site.name)
       expect(pdf.text).toContain('Ravi Lindqvist')
-      expect(pdf.text).toContain('Assessment (no extra help)')
+      expect(pdf.text).toContain('Assistance level')
+      expect(pdf.text).toContain('Assessment')
       // 09:48 UTC on 12 March 2026 is 09:48 GMT in London (summer time starts on 29 March; IANA tz database).
       expect(pdf.text).toContain('Submitted 12 Mar 2026, 09:48 GMT')
       expect(pdf.text).toContain('No unsafe acts recorded')
