@@ -22,6 +22,16 @@ const STATE_WORDS: Record<DriveReading['control'], string> = {
 const WIDTH = 24
 const fit = (s: string) => (s.length > WIDTH ? `${s.slice(0, WIDTH - 1)}…` : s)
 
+/** Words over two display lines, broken at spaces; what does not fit ends in an ellipsis. */
+export function wrapTwo(text: string): [string, string] {
+  const words = text.split(/\s+/).filter(Boolean)
+  let first = ''
+  while (words.length && `${first} ${words[0]}`.trim().length <= WIDTH)
+    first = `${first} ${words.shift()}`.trim()
+  if (!first && words.length) return [fit(words.shift()!), fit(words.join(' '))]
+  return [first, fit(words.join(' '))]
+}
+
 export function stateWord(d: DriveReading): string {
   if (!d.displayOn) return 'DARK'
   if (d.tripped) return 'TRIPPED'
@@ -87,7 +97,9 @@ export function frontPanelLines(panel: FrontPanelReading, page: StatusPage = 'sp
   if (IO_PAGES.includes(page)) return ioLines(panel.io, page)
   if (d.state === 'tripped' && d.faults.length) {
     const f = d.faults[0]
-    return [fit(`TRIPPED: ${f.text}`), fit(f.check ? `Check: ${f.check}` : ''), '', fit('RESET to clear')]
+    // Our own short code first (never cut off), then what is wrong over two lines. The fix is not on
+    // the display: the guided assistance level shows it beside the panel, standard only through a hint.
+    return [fit(`TRIPPED  ${f.short}`), ...wrapTwo(f.text), fit('RESET to clear')]
   }
   const dir = d.direction === 'reverse' ? 'REV' : 'FWD'
   const place = d.commandSource === 'keypad' ? 'LOCAL' : 'REMOTE'
@@ -108,7 +120,7 @@ export function frontPanelLines(panel: FrontPanelReading, page: StatusPage = 'sp
             fit(`Ref ${d.referenceHz.toFixed(1)} Hz`),
             fit(`${Math.round(Math.abs(d.speedRpm))} rpm`),
           ]
-  if (d.alarms.length) lines[3] = fit(`! ${d.alarms[0].text}`)
+  if (d.alarms.length) lines[3] = fit(`! ${d.alarms[0].short} ${d.alarms[0].text}`)
   return lines
 }
 

@@ -3,7 +3,8 @@
 // lit above 60 V (IEC 60204-1 6.2.4). The I/O status screen is our own design, reached with ▲▼.
 import { describe, expect, it } from 'vitest'
 import { advance, applyEvent, createSimulation, readCircuit, readDrive } from '@shared/model'
-import type { AttemptEvent, SimState, SimulationSetup } from '@shared/model'
+import type { AttemptEvent, FrontPanelReading, SimState, SimulationSetup } from '@shared/model'
+import { frontPanelLines, wrapTwo } from '@/simulator/scene/driveDisplay'
 import { deriveView, type PanelUiState } from '@/simulator/scene/deriveView'
 import { pressKey, STATUS_SCREEN, type KeypadMenu } from '@/simulator/scene/keypadMenu'
 import { actionsFor } from '@/simulator/scene/intentActions'
@@ -135,5 +136,47 @@ describe('locks and tags on the drawn disconnect', () => {
     const locked = run(off, [{ t: 0, type: 'lock.applied', tag }])
     expect(actionsFor({ type: 'lock.toggle' }, locked, 'blue', tag)).toEqual([])
     expect(actionsFor({ type: 'lock.remove' }, locked, 'blue')).toEqual([{ type: 'lock.removed' }])
+  })
+})
+
+describe('a trip on the drive display', () => {
+  const trip = (text: string, check: string): FrontPanelReading => ({
+    lit: true,
+    chargeLamp: true,
+    io: { inputs: [], relayClosed: false, analogVolts: 0 },
+    status: {
+      state: 'tripped',
+      commandSource: 'terminals',
+      direction: 'forward',
+      outputOn: false,
+      outputHz: 0,
+      referenceHz: 0,
+      outputVolts: 0,
+      outputAmps: 0,
+      torquePercent: 0,
+      busVolts: 540,
+      speedRpm: 0,
+      faults: [{ code: 'externalFault', short: 'T-EXT', text, check }],
+      alarms: [],
+      restartInterlock: false,
+    },
+  })
+
+  it('shows our short code and what is wrong, never the fix, in lines that fit the display', () => {
+    const text = 'External fault: the external fault input is OFF (its normally closed circuit opened).'
+    const fix = 'Find why the external circuit opened; when the input is ON again, reset.'
+    const lines = frontPanelLines(trip(text, fix))
+    expect(lines[0]).toBe('TRIPPED  T-EXT')
+    expect(lines[1]).toBe('External fault: the')
+    expect(lines[2].startsWith('external fault input')).toBe(true)
+    expect(lines.join(' ')).not.toContain('Find why')
+    for (const line of lines) expect(line.length).toBeLessThanOrEqual(24)
+  })
+
+  it('breaks at spaces and ends what does not fit with an ellipsis', () => {
+    expect(wrapTwo('short words')).toEqual(['short words', ''])
+    const [a, b] = wrapTwo('one two three four five six seven eight nine ten eleven twelve')
+    expect(a).toBe('one two three four five')
+    expect(b.endsWith('…')).toBe(true)
   })
 })
