@@ -1,5 +1,6 @@
 // Each attempt event in plain words, naming things as the panel shows them ("Wire W4 BU added from +24
 // to Faster 13", "Meter probes on DI1 and DIC"): the replay's timeline and the live announcements.
+import { DIAGNOSIS_FINDING_SHORT, type DiagnosisTarget } from '@shared/model/diagnosis'
 import type { AttemptEvent } from '@shared/model/events'
 import { METER_MODE_LABELS } from '@shared/model/meterModes'
 import { POINT_LABELS } from '@shared/model/points'
@@ -15,6 +16,13 @@ export function wireName(id: string): string {
   return digits ? `Wire W${digits}` : 'A wire'
 }
 
+/** The wire an event is about (added, removed, or named by a diagnosis), for its marker. */
+export function eventWireId(event: AttemptEvent): string | undefined {
+  if (event.type === 'wire.added' || event.type === 'wire.removed') return event.id
+  if (event.type === 'diagnosis.recorded' && event.target.kind === 'wire') return event.target.wire
+  return undefined
+}
+
 /**
  * `wireMarker`: the marker the panel prints on the event's wire ("W3 BU", see wireLabel), when the caller
  * knows where the wire stands among the others; otherwise it is read from the wire's id.
@@ -23,6 +31,22 @@ export function eventWords(event: AttemptEvent, layout: PanelLayout, wireMarker?
   const point = (id: PointId | null) =>
     id ? (layout.terminals[id]?.title ?? 'an unknown point') : 'the meter'
   const device = (id: string) => layout.devices.find((d) => d.id === id)?.label ?? 'a device'
+  const targetWords = (target: DiagnosisTarget): string => {
+    switch (target.kind) {
+      case 'wire':
+        return wireMarker ? `wire ${wireMarker}` : wireName(target.wire).toLowerCase()
+      case 'device':
+        return device(target.device)
+      case 'controlFuse':
+        return 'control fuse'
+      case 'motorCable':
+        return 'motor cable'
+      case 'setting':
+        return settingDef(target.key).label
+      case 'terminal':
+        return `terminal ${point(target.point)}`
+    }
+  }
   switch (event.type) {
     case 'wire.added':
       return `${wireMarker ? `Wire ${wireMarker}` : `${wireName(event.id)} ${wireColour(event.colour).code}`} added from ${point(event.from)} to ${point(event.to)}`
@@ -70,6 +94,8 @@ export function eventWords(event: AttemptEvent, layout: PanelLayout, wireMarker?
       return `Keypad ${KEY_NAMES[event.key]} pressed`
     case 'hint.revealed':
       return 'Hint shown'
+    case 'diagnosis.recorded':
+      return `Diagnosis recorded: ${targetWords(event.target)}, ${DIAGNOSIS_FINDING_SHORT[event.finding]}`
     case 'attempt.ended':
       return 'Attempt ended'
   }
