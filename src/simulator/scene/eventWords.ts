@@ -1,6 +1,6 @@
 // Each attempt event in plain words, naming things as the panel shows them ("Wire W4 BU added from +24
 // to Faster 13", "Meter probes on DI1 and DIC"): the replay's timeline and the live announcements.
-import { DIAGNOSIS_FINDING_SHORT, type DiagnosisTarget } from '@shared/model/diagnosis'
+import { DIAGNOSIS_FINDING_SHORT, type DiagnosisFinding, type DiagnosisTarget } from '@shared/model/diagnosis'
 import type { AttemptEvent } from '@shared/model/events'
 import { METER_MODE_LABELS } from '@shared/model/meterModes'
 import { POINT_LABELS } from '@shared/model/points'
@@ -23,6 +23,32 @@ export function eventWireId(event: AttemptEvent): string | undefined {
   return undefined
 }
 
+/** A diagnosis in words, e.g. "wire W3 BU: open circuit", "Raise: wrong contact type". */
+export function diagnosisWords(
+  event: { target: DiagnosisTarget; finding: DiagnosisFinding },
+  layout: PanelLayout,
+  wireMarker?: string,
+): string {
+  const { target } = event
+  const what = (() => {
+    switch (target.kind) {
+      case 'wire':
+        return wireMarker ? `wire ${wireMarker}` : wireName(target.wire).toLowerCase()
+      case 'device':
+        return layout.devices.find((d) => d.id === target.device)?.label ?? 'a device'
+      case 'controlFuse':
+        return 'control fuse'
+      case 'motorCable':
+        return 'motor cable'
+      case 'setting':
+        return `setting ${settingDef(target.key).label}`
+      case 'terminal':
+        return `terminal ${layout.terminals[target.point]?.title ?? 'an unknown point'}`
+    }
+  })()
+  return `${what}: ${DIAGNOSIS_FINDING_SHORT[event.finding]}`
+}
+
 /**
  * `wireMarker`: the marker the panel prints on the event's wire ("W3 BU", see wireLabel), when the caller
  * knows where the wire stands among the others; otherwise it is read from the wire's id.
@@ -31,22 +57,6 @@ export function eventWords(event: AttemptEvent, layout: PanelLayout, wireMarker?
   const point = (id: PointId | null) =>
     id ? (layout.terminals[id]?.title ?? 'an unknown point') : 'the meter'
   const device = (id: string) => layout.devices.find((d) => d.id === id)?.label ?? 'a device'
-  const targetWords = (target: DiagnosisTarget): string => {
-    switch (target.kind) {
-      case 'wire':
-        return wireMarker ? `wire ${wireMarker}` : wireName(target.wire).toLowerCase()
-      case 'device':
-        return device(target.device)
-      case 'controlFuse':
-        return 'control fuse'
-      case 'motorCable':
-        return 'motor cable'
-      case 'setting':
-        return settingDef(target.key).label
-      case 'terminal':
-        return `terminal ${point(target.point)}`
-    }
-  }
   switch (event.type) {
     case 'wire.added':
       return `${wireMarker ? `Wire ${wireMarker}` : `${wireName(event.id)} ${wireColour(event.colour).code}`} added from ${point(event.from)} to ${point(event.to)}`
@@ -95,7 +105,7 @@ export function eventWords(event: AttemptEvent, layout: PanelLayout, wireMarker?
     case 'hint.revealed':
       return 'Hint shown'
     case 'diagnosis.recorded':
-      return `Diagnosis recorded: ${targetWords(event.target)}, ${DIAGNOSIS_FINDING_SHORT[event.finding]}`
+      return `Diagnosis recorded: ${diagnosisWords(event, layout, wireMarker)}`
     case 'attempt.ended':
       return 'Attempt ended'
   }
