@@ -5,7 +5,6 @@ import type { Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
 import type { PanelDriver } from './panel-driver'
 import { openPanel, openSignedIn, panelTestBed, submitForGrade } from './panel-fixtures'
-import { screenshot } from './support'
 
 /** Records a diagnosis through the dialog: the part typed into its list, the finding picked from its list. */
 async function diagnose(page: Page, part: string, finding: string) {
