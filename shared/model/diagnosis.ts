@@ -46,7 +46,7 @@ export const DIAGNOSIS_FINDING_LABELS: Record<DiagnosisFinding, string> = {
 /** The same in a few words, for lists and evidence ("open circuit"). */
 export const DIAGNOSIS_FINDING_SHORT: Record<DiagnosisFinding, string> = {
   open: 'open circuit',
-  notLanded: 'loose or not connected',
+  notLanded: 'not connected',
   blown: 'blown',
   wrongContactType: 'wrong contact type',
   stuckClosed: 'stuck closed',

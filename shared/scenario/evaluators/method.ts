@@ -102,7 +102,8 @@ function judgeDiagnosis(
   repairedAt: number | undefined,
   end: Sample,
 ): Verdict {
-  const right = `${diagnosisTargetName(answer.target, end.state)}: ${answer.findings.map((f) => DIAGNOSIS_FINDING_SHORT[f]).join(' or ')}`
+  const findings = answer.findings.map((f) => DIAGNOSIS_FINDING_SHORT[f])
+  const right = `${diagnosisTargetName(answer.target, end.state)}: ${findings.length > 1 ? `${findings.slice(0, -1).join(', ')}, or ${findings.at(-1)}` : findings[0]}`
   const when =
     repairedAt === undefined
       ? `by the end (${formatTime(end.t)})`
@@ -248,7 +249,7 @@ export const noNeedlessReplacements: Evaluator<'noNeedlessReplacements'> = (obje
     { needless: [], lifted: [] },
     (watch, sample) => (sample.at === 'before' ? (needlessReplacement(watch, sample) ?? watch) : watch),
     ({ needless }) => {
-      if (needless.length === 0) return { met: true, evidence: 'Only faulty parts were replaced.' }
+      if (needless.length === 0) return { met: true, evidence: 'No healthy part was replaced.' }
       const lost = Math.min(objective.weight, objective.costEach * needless.length)
       return {
         met: false,
