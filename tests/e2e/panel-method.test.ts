@@ -4,22 +4,7 @@
 import type { Page } from 'playwright-core'
 import { describe, expect, it } from 'vitest'
 import type { PanelDriver } from './panel-driver'
-import { openPanel, openSignedIn, panelTestBed, submitForGrade } from './panel-fixtures'
-
-/** Records a diagnosis through the dialog: the part typed into its list, the finding picked from its list. */
-async function diagnose(page: Page, part: string, finding: string) {
-  await page.getByRole('button', { name: 'Record diagnosis…' }).click()
-  const dialog = page.getByTestId('diagnosis-dialog')
-  await dialog.getByRole('combobox', { name: 'Which part' }).fill(part)
-  await page
-    .getByRole('option', { name: new RegExp(`^${part}`) })
-    .first()
-    .click()
-  await dialog.getByTestId('diagnosis-finding').click()
-  await page.getByRole('option', { name: finding }).click()
-  await dialog.getByRole('button', { name: 'Record diagnosis' }).click()
-  await dialog.waitFor({ state: 'hidden' })
-}
+import { diagnose, openPanel, openSignedIn, panelTestBed, submitForGrade } from './panel-fixtures'
 
 async function lockedAndProvedDead(panel: PanelDriver) {
   await panel.isolateAndDischarge()
