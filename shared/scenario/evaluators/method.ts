@@ -70,7 +70,8 @@ interface DiagnosisWatch {
 
 /**
  * Met when, before the repair, the last diagnosis naming this part had a right finding and no diagnosis
- * named a part with nothing wrong with it (so naming every part in turn does not pass).
+ * named a part with nothing wrong with it (so naming every part in turn does not pass). Not met while the
+ * repair has not been made.
  */
 export const diagnosisCorrect: Evaluator<'diagnosisCorrect'> = (objective, { scenario, start }) => {
   const fault = objective.fault === undefined ? undefined : scenario.faults[objective.fault]
@@ -91,7 +92,16 @@ export const diagnosisCorrect: Evaluator<'diagnosisCorrect'> = (objective, { sce
         return { ...watch, diagnoses: [...watch.diagnoses, { event, state: sample.state }] }
       return watch
     },
-    ({ diagnoses, repairedAt }, end) => judgeDiagnosis(answer, atFault, diagnoses, repairedAt, end),
+    ({ diagnoses, repairedAt }, end) => {
+      const verdict = judgeDiagnosis(answer, atFault, diagnoses, repairedAt, end)
+      // Judged only once the repair is made, so a live tick never confirms a guess before the repair.
+      if (repairedAt !== undefined) return verdict
+      return {
+        met: false,
+        evidence: `Not judged: it was not put right by the end (${formatTime(end.t)}). ${verdict.evidence}`,
+        at: end.t,
+      }
+    },
   )
 }
 
@@ -141,7 +151,8 @@ interface MeasurementWatch {
 
 /**
  * Met when, while the fault was there and before it was first put right, the meter showed a reading that
- * the same moment with only that fault cleared would not show (method.ts: tellingReading).
+ * the same moment with only that fault cleared would not show (method.ts: tellingReading). Not met while the
+ * fault is still there.
  */
 export const discriminatingMeasurement: Evaluator<'discriminatingMeasurement'> = (
   objective,
@@ -156,14 +167,23 @@ export const discriminatingMeasurement: Evaluator<'discriminatingMeasurement'> =
   return folding<MeasurementWatch>(
     { found: undefined, repairedAt: undefined },
     (watch, sample) => {
-      if (watch.found || watch.repairedAt !== undefined) return watch
+      if (watch.repairedAt !== undefined) return watch
       if (!faultPresent(sample.state, fault)) return { ...watch, repairedAt: sample.t }
+      if (watch.found) return watch
       // A reading is taken once an event has applied (probes placed, selector turned, a switch moved).
       if (sample.at !== 'after' && sample.at !== 'start') return watch
       const telling = tellingReading(sample.state, fault)
       return telling ? { ...watch, found: { t: sample.t, telling, state: sample.state } } : watch
     },
     ({ found, repairedAt }, end) => {
+      // Judged only once the repair is made, so a live tick never tells which reading found the fault.
+      if (found && repairedAt === undefined) {
+        return {
+          met: false,
+          evidence: `Not judged: the fault was not put right by the end (${formatTime(end.t)}).`,
+          at: end.t,
+        }
+      }
       if (found) {
         const { reading, healthy } = found.telling
         return {

@@ -36,6 +36,14 @@ describe('diagnosisCorrect', () => {
     )
   })
 
+  it('is not met before the repair, even when right (a live tick must not confirm a guess)', () => {
+    const result = judge(scenario, (b) =>
+      ready(b).diagnose({ kind: 'device', device: 'raiseButton' }, 'wrongContactType').wait(1000),
+    )
+    expect(result.met).toBe(false)
+    expect(result.evidence).toMatch(/^Not judged: it was not put right by the end/)
+  })
+
   it('is missed when the diagnosis comes only after the repair', () => {
     const result = judge(scenario, (b) => {
       isolateAndProve(ready(b)).fitContact('raiseButton', 'NO').wait(1000)
@@ -143,6 +151,14 @@ describe('discriminatingMeasurement', () => {
     expect(result.evidence).toMatch(
       /^No meter reading before the repair at \d\d:\d\d\.\d told this fault apart/,
     )
+  })
+
+  it('is not met while the fault is still there (a live tick must not point at the fault)', () => {
+    const result = judge(scenario, (b) =>
+      ready(b).measure('raiseButton.a', 'raiseButton.b', 'dcVolts').wait(1000),
+    )
+    expect(result.met).toBe(false)
+    expect(result.evidence).toMatch(/^Not judged: the fault was not put right by the end/)
   })
 
   it('is missed when the telling reading is taken only after the repair', () => {

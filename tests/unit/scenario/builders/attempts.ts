@@ -201,8 +201,8 @@ const configurationConflictAlarm: AttemptScript[] = [
     scenario: 'configuration-conflict-alarm',
     name: 'mistake-never-saved',
     description:
-      'Changed the reference source but never saved it, so the alarm stayed and RAISE still did nothing.',
-    misses: ['reference-source', 'alarm-cleared', 'raise-works'],
+      'Changed the reference source but never saved it, so the alarm stayed and RAISE still did nothing (and the diagnosis is never judged).',
+    misses: ['cause-diagnosed', 'reference-source', 'alarm-cleared', 'raise-works'],
     build: (b) => clearAlarm(b, { save: false }),
   },
   {
