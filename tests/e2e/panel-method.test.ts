@@ -71,6 +71,10 @@ describe('troubleshooting graded on method', () => {
     await page.getByRole('button', { name: /^Remove wire W\S* BU from Fan run \/ stop 14 to DI1/ }).click()
     await panel.openSheet('Values')
     await panel.wire('runSwitch.b', 'drive.di1')
+    // The diagnosis still names the wire by the marker it had, now that it has gone.
+    await expect
+      .poll(async () => page.getByTestId('diagnosis-last').textContent())
+      .toMatch(/Last diagnosis: wire W3 BU: open circuit/)
     await backOnAndRunning(page, panel)
 
     expect(await submitForGrade(page, 'panel-method-01-graded-by-method')).toMatch(/— passed/)
