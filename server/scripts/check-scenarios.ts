@@ -2,7 +2,7 @@
 // prints every problem with its file and JSON path, and exits non-zero when there is any.
 import { readdirSync, readFileSync } from 'node:fs'
 import { basename, join, resolve } from 'node:path'
-import { checkScenario, type ScenarioProblem } from '../../shared/scenario'
+import { checkScenario, methodProblems, type ScenarioProblem } from '../../shared/scenario'
 
 interface FileReport {
   file: string
@@ -19,7 +19,7 @@ export function checkScenarioFile(file: string): FileReport {
   }
   const result = checkScenario(json)
   if (!result.ok) return { file, problems: result.problems }
-  return { file, id: result.scenario.id, problems: [] }
+  return { file, id: result.scenario.id, problems: methodProblems(result.scenario) }
 }
 
 export function checkScenarioFiles(files: string[]): FileReport[] {

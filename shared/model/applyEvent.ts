@@ -332,6 +332,7 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
         return pressKey(state, event.key)
       return state
     case 'hint.revealed':
+    case 'diagnosis.recorded':
     case 'attempt.ended':
       return state
   }

@@ -1,5 +1,6 @@
 // Attempt events: the log an attempt is made of. Validated at the edge with these schemas.
 import { z } from 'zod'
+import { DIAGNOSIS_FINDINGS, diagnosisTargetSchema } from './diagnosis'
 import { METER_MODES } from './meterModes'
 import { MOTOR_TERMINALS, OUTPUT_PHASES } from './points'
 import { CONTACT_TYPES, WIRE_COLOURS, lockTagSchema, pointIdSchema } from './setup'
@@ -69,6 +70,13 @@ export const attemptEventSchema = z.discriminatedUnion('type', [
   z.object({ t, type: z.literal('motor.cableReplaced') }),
   z.object({ t, type: z.literal('keypad.key'), key: z.enum(KEYPAD_KEYS) }),
   z.object({ t, type: z.literal('hint.revealed'), hintId: id }),
+  /** What the apprentice says is wrong, before a repair. No model effect (the grader judges it). */
+  z.object({
+    t,
+    type: z.literal('diagnosis.recorded'),
+    target: diagnosisTargetSchema,
+    finding: z.enum(DIAGNOSIS_FINDINGS),
+  }),
   z.object({ t, type: z.literal('attempt.ended') }),
 ])
 export type AttemptEvent = z.infer<typeof attemptEventSchema>

@@ -18,6 +18,7 @@ import {
 } from '../model'
 import { authoringProblems } from './authoringChecks'
 import type { Objective } from './objectiveSchema'
+import { objectiveKindLabel } from './kindLabels'
 import { plainIssueMessage, problemPlace } from './problemWords'
 import { scenarioSchema, type Scenario, type ScenarioDevice } from './schema'
 
@@ -155,6 +156,8 @@ function semanticProblems(scenario: Scenario): ScenarioProblem[] {
       merged: merged as SettingValues,
     })
   })
+
+  checkTitles(scenario, add)
 
   const total = scenario.objectives.reduce((a, o) => a + o.weight, 0)
   if (scenario.passMark > total) {
@@ -298,6 +301,30 @@ function checkObjective(
         }),
       )
       return
+    case 'diagnosisCorrect': {
+      if ((objective.fault === undefined) === (objective.expect === undefined))
+        return add(
+          [],
+          'give either fault (an injected fault) or expect (a problem built into the start), not both',
+        )
+      const target = objective.expect?.target
+      if (target?.kind === 'wire' && !scenario.start.wires.some((w) => w.id === target.wire))
+        add(['expect', 'target', 'wire'], `no starting wire has the id "${target.wire}"`)
+      if (target?.kind === 'device')
+        needDevice(['expect', 'target', 'device'], target.device, ['pushbutton', 'selector'])
+      if (target?.kind === 'terminal' && !isPoint(target.point))
+        add(
+          ['expect', 'target', 'point'],
+          `${target.point} is not a control terminal of the drive or of a declared device`,
+        )
+      if (objective.fault !== undefined && objective.fault >= scenario.faults.length)
+        add(
+          ['fault'],
+          `there is no injected fault number ${objective.fault} (the scenario has ${scenario.faults.length})`,
+        )
+      return
+    }
+    case 'discriminatingMeasurement':
     case 'faultFoundAndCleared':
       if (objective.fault >= scenario.faults.length) {
         add(
@@ -309,4 +336,49 @@ function checkObjective(
     default:
       return
   }
+}
+
+/**
+ * Words that name a fault: an objective title must say what the apprentice achieves ("Control supply
+ * restored"), never what was injected ("Blown fuse replaced"), or the title gives the diagnosis away.
+ */
+const FAULT_WORDS =
+  /\b(blown|broken|welded|fuse|failed[- ]open|wrong contact|open conductor|open circuit|not landed|missing)\b/i
+
+/** Objective titles of a troubleshooting scenario (one with injected faults) must not name a fault. */
+function checkTitles(scenario: Scenario, add: (path: readonly PropertyKey[], message: string) => void): void {
+  if (scenario.faults.length === 0) return
+  scenario.objectives.forEach((objective, i) => {
+    const word = FAULT_WORDS.exec(objective.title)?.[0]
+    if (word)
+      add(['objectives', i, 'title'], `the title names the fault ("${word}"): say what is achieved instead`)
+  })
+}
+
+/**
+ * The shipped scenarios' rule for troubleshooting (`npm run scenarios:check`; not part of checkScenario, so a
+ * test can grade one objective on a bench with a fault): each injected fault has a diagnosisCorrect and a
+ * discriminatingMeasurement objective, and there is a noNeedlessReplacements objective.
+ */
+export function methodProblems(scenario: Scenario): ScenarioProblem[] {
+  if (scenario.faults.length === 0) return []
+  const problems: ScenarioProblem[] = []
+  const judged = (kind: Objective['kind'], fault: number) =>
+    scenario.objectives.some((o) => o.kind === kind && 'fault' in o && o.fault === fault)
+  scenario.faults.forEach((_fault, i) => {
+    for (const kind of ['diagnosisCorrect', 'discriminatingMeasurement'] as const)
+      if (!judged(kind, i))
+        problems.push({
+          path: jsonPath(['faults', i]),
+          place: problemPlace(['faults', i], scenario),
+          message: `No objective of the kind “${objectiveKindLabel(kind)}” judges this fault`,
+        })
+  })
+  if (!scenario.objectives.some((o) => o.kind === 'noNeedlessReplacements'))
+    problems.push({
+      path: '$.objectives',
+      place: 'Objectives',
+      message: `A troubleshooting scenario needs an objective of the kind “${objectiveKindLabel('noNeedlessReplacements')}”`,
+    })
+  return problems
 }

@@ -1,7 +1,7 @@
 // Public interface of the scenario format and the grading engine (see README.md beside this file).
 export * from './schema'
 export * from './objectiveSchema'
-export { checkScenario, jsonPath, type ScenarioCheck, type ScenarioProblem } from './check'
+export { checkScenario, jsonPath, methodProblems, type ScenarioCheck, type ScenarioProblem } from './check'
 export { toSimulationSetup } from './setup'
 export {
   grade,
@@ -16,3 +16,4 @@ export { createLiveGrader, type LiveGrader } from './liveGrader'
 export { formatTime } from './format'
 export * from './assistance'
 export * from './names'
+export { faultAnswer, readingsDiffer, tellingReading, MATERIAL_VOLTS, type DiagnosisAnswer } from './method'

@@ -19,6 +19,9 @@ const OBJECTIVE_KIND_LABELS: Record<ObjectiveKind, string> = {
   noAlarms: 'No alarms left showing',
   faultFoundAndCleared: 'Fault found and put right',
   finishedWithin: 'Finished in time',
+  diagnosisCorrect: 'Diagnosis correct',
+  discriminatingMeasurement: 'Measured before repairing',
+  noNeedlessReplacements: 'No needless replacements',
 }
 
 export function objectiveKindLabel(kind: ObjectiveKind): string {

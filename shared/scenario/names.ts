@@ -3,15 +3,21 @@
 // How wires and terminals are marked (W4, 13–14, H/W/L) is defined once in shared/schematic/markings.ts.
 // (Kinds of objectives and violations are named in kindLabels.ts, which needs no model.)
 import {
+  DIAGNOSIS_FINDING_SHORT,
+  METER_MODE_LABELS,
   POINT_LABELS,
   PROVER_LABELS,
   inputFunctionKey,
   isSettingKey,
   settingDef,
+  type DiagnosisFinding,
+  type DiagnosisTarget,
   type InputFunction,
+  type MeterReading,
   type OutputPhase,
   type SimState,
 } from '../model'
+import { formatNumber, formatVolts } from './format'
 import { POTENTIOMETER_MARKINGS, contactWords, deviceTerminalLabels, wireNumber } from '../schematic/markings'
 import type { ProbePair } from './proofs'
 import type { Sample } from './samples'
@@ -151,4 +157,51 @@ export function faultName(fault: ScenarioFault, state: SimState): string {
     case 'wrongContactType':
       return `the wrong contact block ${contactTerminals(fault.device, state)} on ${deviceName(fault.device, state)}`
   }
+}
+
+/** The part a diagnosis names, as the panel names it: "wire W3", "Raise", "the control fuse". */
+export function diagnosisTargetName(target: DiagnosisTarget, state: SimState): string {
+  switch (target.kind) {
+    case 'wire': {
+      const wire = wireName(target.wire, state)
+      return wire ? `wire ${wire}` : 'a wire no longer fitted'
+    }
+    case 'device':
+      return deviceName(target.device, state)
+    case 'controlFuse':
+      return 'the control fuse'
+    case 'motorCable':
+      return 'the motor cable'
+    case 'setting':
+      return `the setting ${settingName(target.key)}`
+    case 'terminal':
+      return `terminal ${pointName(target.point, state)}`
+  }
+}
+
+/** A whole diagnosis in words: "wire W3: open circuit". */
+export function diagnosisName(target: DiagnosisTarget, finding: DiagnosisFinding, state: SimState): string {
+  return `${diagnosisTargetName(target, state)}: ${DIAGNOSIS_FINDING_SHORT[finding]}`
+}
+
+/** What the meter's window showed, in words: "24.0 V on V DC", "over-range on Resistance (Ω)". */
+export function meterReadingName(reading: MeterReading): string {
+  const range = METER_MODE_LABELS[reading.mode]
+  switch (reading.shows) {
+    case 'volts':
+      return `${formatVolts(reading.volts ?? 0)} on ${range}`
+    case 'ohms':
+      return `${formatNumber(reading.ohms ?? 0, (reading.ohms ?? 0) >= 100 ? 0 : 1)} Ω on ${range}${reading.tone ? ' (tone)' : ''}`
+    case 'overRange':
+      return `over-range on ${range}`
+    case 'voltagePresent':
+      return `a voltage-present warning on ${range}`
+    case 'blank':
+      return 'nothing (the meter was off)'
+  }
+}
+
+/** The probe points of a reading: "+24 (red) and 0V (black)". */
+export function probePointsName(reading: MeterReading, state: SimState): string {
+  return `${pointName(reading.red, state)} (red) and ${pointName(reading.black, state)} (black)`
 }

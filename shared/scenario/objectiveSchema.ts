@@ -1,5 +1,6 @@
 // The objective kinds a scenario can ask for, as zod schemas (the evaluators live in evaluators/).
 import { z } from 'zod'
+import { DIAGNOSIS_FINDINGS, diagnosisTargetSchema } from '../model/diagnosis'
 
 /** Below this many volts a conductor counts as de-energised: NEC 460.6 (capacitors to 50 V or less). */
 export const SAFE_VOLTS = 50
@@ -150,6 +151,48 @@ export const faultFoundAndClearedSchema = z.strictObject({
   fault: z.number().int().min(0),
 })
 
+/**
+ * The diagnosis recorded last before the repair named the right part and what was wrong with it. Either
+ * for an injected fault (`fault`: the repair is the moment that fault first goes; the right answer comes
+ * from the fault), or for a problem built into the start (`expect`: the repair is the first work on that
+ * part — a wire changed at that terminal, that setting saved, that part replaced).
+ */
+export const diagnosisCorrectSchema = z.strictObject({
+  ...common,
+  kind: z.literal('diagnosisCorrect'),
+  /** Index into the scenario's `faults` (give this or `expect`, not both: checkScenario says so). */
+  fault: z.number().int().min(0).optional(),
+  expect: z
+    .strictObject({
+      target: diagnosisTargetSchema,
+      /** Every finding accepted as right (a loose and a broken conductor read alike on a meter). */
+      findings: z.array(z.enum(DIAGNOSIS_FINDINGS)).min(1),
+    })
+    .optional(),
+})
+
+/**
+ * Before the injected fault `faults[fault]` was first put right, the meter showed something with the fault
+ * present that it would not have shown with that fault alone cleared (same moment, same probes, same
+ * selector): see README "A measurement that tells a fault apart".
+ */
+export const discriminatingMeasurementSchema = z.strictObject({
+  ...common,
+  kind: z.literal('discriminatingMeasurement'),
+  fault: z.number().int().min(0),
+})
+
+/**
+ * No healthy part replaced: a fuse that was not blown, a contact block that was right, a wire taken off
+ * and made again between the same terminals when it was not broken, a healthy motor cable. Each costs
+ * `costEach` points of the weight (never below zero); the evidence names each.
+ */
+export const noNeedlessReplacementsSchema = z.strictObject({
+  ...common,
+  kind: z.literal('noNeedlessReplacements'),
+  costEach: z.number().positive(),
+})
+
 export const finishedWithinSchema = z.strictObject({
   ...common,
   kind: z.literal('finishedWithin'),
@@ -172,6 +215,9 @@ export const objectiveSchema = z.discriminatedUnion('kind', [
   noAlarmsSchema,
   faultFoundAndClearedSchema,
   finishedWithinSchema,
+  diagnosisCorrectSchema,
+  discriminatingMeasurementSchema,
+  noNeedlessReplacementsSchema,
 ])
 
 export type Objective = z.infer<typeof objectiveSchema>
@@ -194,6 +240,9 @@ export const OBJECTIVE_KINDS = [
   'noAlarms',
   'faultFoundAndCleared',
   'finishedWithin',
+  'diagnosisCorrect',
+  'discriminatingMeasurement',
+  'noNeedlessReplacements',
 ] as const satisfies readonly ObjectiveKind[]
 // A compile-time check that the list names every kind of the schema.
 export const OBJECTIVE_KINDS_COMPLETE: [Exclude<ObjectiveKind, (typeof OBJECTIVE_KINDS)[number]>] extends [

@@ -24,7 +24,9 @@ export function scoreAttempt(
       required: objective.required ?? false,
       safety: SAFETY_KINDS.includes(objective.kind),
       met: verdict.met,
-      pointsEarned: verdict.met ? objective.weight : 0,
+      pointsEarned: verdict.met
+        ? objective.weight
+        : Math.max(0, Math.min(objective.weight, verdict.points ?? 0)),
       pointsPossible: objective.weight,
       evidence: verdict.evidence,
     }

@@ -209,3 +209,21 @@ export function raiseLowerCompleteLog(): AttemptEvent[] {
     { t: 80_000, type: 'attempt.ended' },
   ]
 }
+
+/**
+ * Records a diagnosis through the panel's dialog: the part typed into its list and the first match
+ * picked, the finding picked from its list (both by their words on screen).
+ */
+export async function diagnose(page: Page, part: string, finding: string) {
+  await page.getByRole('button', { name: 'Record diagnosis…' }).click()
+  const dialog = page.getByTestId('diagnosis-dialog')
+  await dialog.getByRole('combobox', { name: 'Which part' }).fill(part)
+  await page
+    .getByRole('option', { name: new RegExp(`^${part}`) })
+    .first()
+    .click()
+  await dialog.getByTestId('diagnosis-finding').click()
+  await page.getByRole('option', { name: finding }).click()
+  await dialog.getByRole('button', { name: 'Record diagnosis' }).click()
+  await dialog.waitFor({ state: 'hidden' })
+}

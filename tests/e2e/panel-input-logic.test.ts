@@ -3,7 +3,7 @@
 // run the feeder at 30 Hz with the raise button.
 import { describe, expect, it } from 'vitest'
 import { screenshot } from './support'
-import { openPanel, panelTestBed, submitForGrade } from './panel-fixtures'
+import { diagnose, openPanel, panelTestBed, submitForGrade } from './panel-fixtures'
 
 // 30 Hz on the 6-pole 50 Hz, 970 rpm motor: n = 120·f/p · (1 − s) = 600 · 0.97 = 582 rpm
 // (synchronous speed and slip formulas as quoted in REFERENCES.md).
@@ -17,6 +17,9 @@ describe('inputs that never turn on', () => {
     await panel.waitFor((s) => s.includes('drive ready'))
 
     // The side panel writes the same events as the keypad.
+    // Diagnosed before each change: the input logic set wrong, the input common not connected.
+    await diagnose(page, 'Setting: Input logic', 'Set to the wrong value')
+    await diagnose(page, 'Terminal DIC', 'Loose, or not connected at all')
     await panel.openSheet('Settings')
     await page.getByTestId('setting-inputs.logic').click()
     await page.getByRole('option', { name: /^Sink/ }).click()

@@ -3,7 +3,7 @@
 // block, then prove the pump holds its speed and submit.
 import { describe, expect, it } from 'vitest'
 import { screenshot } from './support'
-import { openPanel, panelTestBed, submitForGrade } from './panel-fixtures'
+import { diagnose, openPanel, panelTestBed, submitForGrade } from './panel-fixtures'
 
 describe('finding and repairing a wrong contact block', () => {
   const bed = panelTestBed({ width: 1600, height: 1000 })
@@ -19,6 +19,7 @@ describe('finding and repairing a wrong contact block', () => {
     await panel.probe('black', 'drive.0v')
     await expect.poll(async () => page.getByTestId('live-meter').textContent()).toMatch(/2\d\.\d+ V/)
     await screenshot(page, 'panel-troubleshoot-01-raise-fed-at-rest')
+    await diagnose(page, 'Raise', 'Wrong contact type fitted')
 
     // Isolate, lock, let the DC bus discharge (time sped up), and prove dead across the line pairs
     // and the DC bus.

@@ -1,6 +1,7 @@
 // One evaluator per objective kind.
 import type { Objective, ObjectiveKind } from '../objectiveSchema'
 import { functionalCheck } from './functional'
+import { diagnosisCorrect, discriminatingMeasurement, noNeedlessReplacements } from './method'
 import { faultFoundAndCleared, finishedWithin, noAlarms, noFaultTrips } from './outcomes'
 import { absenceOfVoltageProved, isolated, lockBeforeWiring, noWiringWhileEnergised } from './safePractice'
 import { settingEquals, settingInRange } from './settings'
@@ -25,6 +26,9 @@ const evaluators: { [K in ObjectiveKind]: Evaluator<K> } = {
   noAlarms,
   faultFoundAndCleared,
   finishedWithin,
+  diagnosisCorrect,
+  discriminatingMeasurement,
+  noNeedlessReplacements,
 }
 
 /** The running judgement of one objective, to be stepped with every sample from the start. */

@@ -11,6 +11,8 @@ export interface Verdict {
   evidence: string
   /** Simulated time (ms) the evidence refers to, when there is one moment. */
   at?: number
+  /** Points earned when not all or nothing (noNeedlessReplacements); else met earns the weight. */
+  points?: number
 }
 
 /** An objective's running judgement: step it with each sample; ask for the verdict at any point. */

@@ -5,7 +5,7 @@ import type { AttemptEvent } from '@shared/model/events'
 import type { Timeline } from '@shared/model/types'
 import type { GradeResult } from '@shared/scenario/grade'
 import type { Scenario } from '@shared/scenario/schema'
-import { eventWords } from '../scene/eventWords'
+import { eventWireId, eventWords } from '../scene/eventWords'
 import type { PanelLayout } from '../scene/types'
 import { wireLabel } from '../scene/wireColours'
 import type { ObjectiveTick } from './PanelTaskPanel.vue'
@@ -18,9 +18,10 @@ export interface TimelineMark {
 
 /** The marker the panel showed on an event's wire: where the wire stood just after it was added, or before it went. */
 function markerOf(event: AttemptEvent, index: number, timeline: Timeline): string | undefined {
-  if (event.type !== 'wire.added' && event.type !== 'wire.removed') return undefined
+  const id = eventWireId(event)
+  if (id === undefined) return undefined
   const wires = timeline.segments[event.type === 'wire.added' ? index + 1 : index]?.state.wires ?? []
-  const at = wires.findIndex((w) => w.id === event.id)
+  const at = wires.findIndex((w) => w.id === id)
   return at >= 0 ? wireLabel(wires[at].id, wires[at].colour, at) : undefined
 }
 

@@ -15,7 +15,7 @@ import {
 import { createCircuitCache } from '../scene/circuitCache'
 import { deriveView } from '../scene/deriveView'
 import { stateWord } from '../scene/driveDisplay'
-import { eventWords } from '../scene/eventWords'
+import { eventWireId, eventWords } from '../scene/eventWords'
 import { actionsFor, nextWireId } from '../scene/intentActions'
 import type { Intent } from '../scene/interaction'
 import { layoutPanel } from '../scene/layout'
@@ -199,8 +199,9 @@ export function useLiveAttempt(target: LiveTarget, options: LiveAttemptOptions =
       if (length <= announced || !layout.value) return
       // Wire markers as the panel prints them now (a removed wire by its id).
       const marker = (e: (typeof log)[number]) => {
-        if (e.type !== 'wire.added' || !sim) return undefined
-        const at = sim.wires.findIndex((w) => w.id === e.id)
+        const id = e.type === 'wire.removed' ? undefined : eventWireId(e)
+        if (id === undefined || !sim) return undefined
+        const at = sim.wires.findIndex((w) => w.id === id)
         return at >= 0 ? wireLabel(sim.wires[at].id, sim.wires[at].colour, at) : undefined
       }
       const words = log.slice(announced, length).map((e) => eventWords(e, layout.value!, marker(e)))

@@ -1,5 +1,6 @@
 // Each attempt event in plain words, naming things as the panel shows them ("Wire W4 BU added from +24
 // to Faster 13", "Meter probes on DI1 and DIC"): the replay's timeline and the live announcements.
+import { DIAGNOSIS_FINDING_SHORT, type DiagnosisFinding, type DiagnosisTarget } from '@shared/model/diagnosis'
 import type { AttemptEvent } from '@shared/model/events'
 import { METER_MODE_LABELS } from '@shared/model/meterModes'
 import { POINT_LABELS } from '@shared/model/points'
@@ -13,6 +14,39 @@ import { wireColour } from './wireColours'
 export function wireName(id: string): string {
   const digits = /(\d+)$/.exec(id)?.[1]
   return digits ? `Wire W${digits}` : 'A wire'
+}
+
+/** The wire an event is about (added, removed, or named by a diagnosis), for its marker. */
+export function eventWireId(event: AttemptEvent): string | undefined {
+  if (event.type === 'wire.added' || event.type === 'wire.removed') return event.id
+  if (event.type === 'diagnosis.recorded' && event.target.kind === 'wire') return event.target.wire
+  return undefined
+}
+
+/** A diagnosis in words, e.g. "wire W3 BU: open circuit", "Raise: wrong contact type". */
+export function diagnosisWords(
+  event: { target: DiagnosisTarget; finding: DiagnosisFinding },
+  layout: PanelLayout,
+  wireMarker?: string,
+): string {
+  const { target } = event
+  const what = (() => {
+    switch (target.kind) {
+      case 'wire':
+        return wireMarker ? `wire ${wireMarker}` : wireName(target.wire).toLowerCase()
+      case 'device':
+        return layout.devices.find((d) => d.id === target.device)?.label ?? 'a device'
+      case 'controlFuse':
+        return 'control fuse'
+      case 'motorCable':
+        return 'motor cable'
+      case 'setting':
+        return `setting ${settingDef(target.key).label}`
+      case 'terminal':
+        return `terminal ${layout.terminals[target.point]?.title ?? 'an unknown point'}`
+    }
+  })()
+  return `${what}: ${DIAGNOSIS_FINDING_SHORT[event.finding]}`
 }
 
 /**
@@ -76,6 +110,8 @@ export function eventWords(event: AttemptEvent, layout: PanelLayout, wireMarker?
       return `Keypad ${KEY_NAMES[event.key]} pressed`
     case 'hint.revealed':
       return 'Hint shown'
+    case 'diagnosis.recorded':
+      return `Diagnosis recorded: ${diagnosisWords(event, layout, wireMarker)}`
     case 'attempt.ended':
       return 'Attempt ended'
   }

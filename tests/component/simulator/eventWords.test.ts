@@ -46,6 +46,32 @@ describe('events in plain words', () => {
     )
   })
 
+  it('names a diagnosis by the part as the panel shows it and the finding in words', () => {
+    const words = (
+      target: Extract<AttemptEvent, { type: 'diagnosis.recorded' }>['target'],
+      marker?: string,
+    ) => eventWords({ t: 0, type: 'diagnosis.recorded', target, finding: 'open' }, layout, marker)
+    expect(words({ kind: 'wire', wire: 'wRunOut' }, 'W3 BU')).toBe(
+      'Diagnosis recorded: wire W3 BU: open circuit',
+    )
+    expect(words({ kind: 'device', device: 'raiseButton' })).toBe('Diagnosis recorded: Faster: open circuit')
+    expect(words({ kind: 'controlFuse' })).toBe('Diagnosis recorded: control fuse: open circuit')
+    expect(words({ kind: 'terminal', point: 'drive.dcom' })).toBe(
+      'Diagnosis recorded: terminal DIC: open circuit',
+    )
+    expect(
+      eventWords(
+        {
+          t: 0,
+          type: 'diagnosis.recorded',
+          target: { kind: 'setting', key: 'inputs.logic' },
+          finding: 'wrongSetting',
+        },
+        layout,
+      ),
+    ).toMatch(/^Diagnosis recorded: setting [A-Z][a-z ]+: set wrong$/)
+  })
+
   it('shows no internal identifier for any event of a real attempt', () => {
     const events = (reference as { events: unknown[] }).events.map((e) => attemptEventSchema.parse(e))
     const ids = [

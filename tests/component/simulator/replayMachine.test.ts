@@ -7,6 +7,8 @@ import { attemptEventSchema, type AttemptEvent } from '@shared/model/events'
 import { scenarioSchema } from '@shared/scenario/schema'
 import scenarioFile from '../../../scenarios/raise-lower-commissioning.json'
 import mistake from '../../fixtures/attempts/raise-lower-commissioning--mistake-released-raise-early.json'
+import deadCircuitFile from '../../../scenarios/dead-control-circuit.json'
+import deadCircuitReference from '../../fixtures/attempts/dead-control-circuit--reference.json'
 import { objectivesAt, replayMarks } from '@/simulator/components/replayMarks'
 import { prepareReplay, replayMachine, REPLAY_TAIL_MS } from '@/simulator/machines/replayMachine'
 import { layoutPanel } from '@/simulator/scene/layout'
@@ -117,5 +119,18 @@ describe('the replay', () => {
     expect(marks.some((m) => m.label === 'Wire W3 BU added from Infeed run / stop 14 to DI1')).toBe(true)
     expect(marks.some((m) => m.kind === 'objective' && m.label.startsWith('Objective met: '))).toBe(true)
     for (const m of marks) expect(m.label).not.toMatch(/\b(wire|meter|device|setting)\.[a-z]+/i)
+  })
+
+  it('lists each diagnosis, naming the wire by the marker the panel printed on it', () => {
+    const dead = scenarioSchema.parse(deadCircuitFile)
+    const events = (deadCircuitReference as { events: unknown[] }).events.map((e) =>
+      attemptEventSchema.parse(e),
+    )
+    const data = prepareReplay({ attempt: attempt(events), scenario: dead })
+    const marks = replayMarks(data.events, data.timeline, data.graded, layoutPanel(dead.start.devices))
+    expect(marks.filter((m) => m.label.startsWith('Diagnosis recorded')).map((m) => m.label)).toEqual([
+      'Diagnosis recorded: control fuse: blown',
+      'Diagnosis recorded: wire W3 BU: open circuit',
+    ])
   })
 })

@@ -4,6 +4,7 @@
 // later (so the DC bus charges and discharges), in every order an apprentice could make them.
 import fc from 'fast-check'
 import {
+  DIAGNOSIS_FINDINGS,
   CONTACT_TYPES,
   DRIVE_CONTROL_POINTS,
   DRIVE_POWER_POINTS,
@@ -135,6 +136,20 @@ export function eventBody(scenario: Scenario): fc.Arbitrary<EventBody> {
         .map((d) => ({ type: 'device.contactFitted', ...d }) as EventBody),
     },
     { weight: 1, arbitrary: fc.constant<EventBody>({ type: 'fuse.replaced' }) },
+    {
+      weight: 1,
+      arbitrary: fc
+        .record({
+          target: fc.oneof(
+            fc.constantFrom(...wireIds).map((wire) => ({ kind: 'wire' as const, wire })),
+            deviceOf(['pushbutton', 'selector']).map((device) => ({ kind: 'device' as const, device })),
+            fc.constant({ kind: 'controlFuse' as const }),
+            fc.constantFrom(...controlPoints).map((point) => ({ kind: 'terminal' as const, point })),
+          ),
+          finding: fc.constantFrom(...DIAGNOSIS_FINDINGS),
+        })
+        .map((d) => ({ type: 'diagnosis.recorded', ...d }) as EventBody),
+    },
     {
       weight: 3,
       arbitrary: fc

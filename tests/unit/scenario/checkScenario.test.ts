@@ -201,7 +201,7 @@ describe('checkScenario rejects bad files', () => {
       }, 'creeping-speed-wrong-contact.json'),
     )
     expect(problems).toMatchObject([
-      { path: '$.objectives[0].fault', message: 'there is no injected fault number 3 (the scenario has 1)' },
+      { path: '$.objectives[2].fault', message: 'there is no injected fault number 3 (the scenario has 1)' },
     ])
   })
 

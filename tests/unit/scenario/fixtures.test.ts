@@ -22,9 +22,17 @@ const fixtures: AttemptFixture[] = readdirSync(attemptsDir)
 function expectedScore(fixture: AttemptFixture): number {
   const scenario = shippedScenario(fixture.scenario)
   const possible = scenario.objectives.reduce((a, o) => a + o.weight, 0)
+  // A missed noNeedlessReplacements objective loses costEach per healthy part replaced, up to its weight.
   const lost = scenario.objectives
     .filter((o) => fixture.misses.includes(o.id))
-    .reduce((a, o) => a + o.weight, 0)
+    .reduce(
+      (a, o) =>
+        a +
+        (o.kind === 'noNeedlessReplacements'
+          ? Math.min(o.weight, o.costEach * (fixture.needless ?? 0))
+          : o.weight),
+      0,
+    )
   const hintIds = new Set(fixture.events.flatMap((e) => (e.type === 'hint.revealed' ? [e.hintId] : [])))
   const hintCost = scenario.hints.filter((h) => hintIds.has(h.id)).reduce((a, h) => a + h.cost, 0)
   return Math.round((100 * Math.max(0, possible - lost - hintCost)) / possible)
@@ -67,6 +75,42 @@ describe('attempt fixtures', () => {
       expect(result.passed).toBe(!requiredMissed && result.points.net >= scenario.passMark)
     },
   )
+
+  const troubleshooting = fixtures.filter((f) => f.name === 'mistake-swapped-parts')
+  it.each(troubleshooting.map((f) => [f.scenario, f] as const))(
+    '%s: swapping parts on a guess, even under lockout, scores below the pass mark',
+    (_id, fixture) => {
+      const scenario = shippedScenario(fixture.scenario)
+      const result = grade(scenario, fixture.events)
+      expect(result.passed).toBe(false)
+      expect(result.points.net).toBeLessThan(scenario.passMark)
+      expect(result.safetyViolations).toEqual([])
+      const needless = result.objectives.find((o) => o.kind === 'noNeedlessReplacements')!
+      expect(needless.met).toBe(false)
+      expect(needless.evidence).toMatch(/^\d healthy parts replaced/)
+    },
+  )
+
+  it('has a swapped-parts log for every troubleshooting scenario', () => {
+    expect(troubleshooting.map((f) => f.scenario).sort()).toEqual([
+      'configuration-conflict-alarm',
+      'creeping-speed-wrong-contact',
+      'dead-control-circuit',
+      'inputs-never-on',
+    ])
+  })
+
+  it.each(
+    fixtures
+      .filter((f) => f.name === 'mistake-diagnosed-without-measuring')
+      .map((f) => [f.scenario, f] as const),
+  )('%s: diagnosing without measuring loses only the measurement objectives', (_id, fixture) => {
+    const result = grade(shippedScenario(fixture.scenario), fixture.events)
+    const missed = result.objectives.filter((o) => !o.met)
+    expect(missed.length).toBeGreaterThan(0)
+    expect(missed.every((o) => o.kind === 'discriminatingMeasurement')).toBe(true)
+    expect(result.objectives.filter((o) => o.kind === 'diagnosisCorrect').every((o) => o.met)).toBe(true)
+  })
 
   it('grades the same log to identical JSON every time', () => {
     const fixture = fixtures.find(

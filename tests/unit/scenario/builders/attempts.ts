@@ -18,6 +18,8 @@ export interface AttemptScript {
   description: string
   /** Objective ids this attempt should miss (empty for a reference solution). */
   misses: string[]
+  /** Healthy parts it replaces: each costs the noNeedlessReplacements objective its costEach. */
+  needless?: number
   build(b: LogBuilder): void
 }
 
@@ -154,11 +156,23 @@ const raiseLowerCommissioning: AttemptScript[] = [
 ]
 
 // ---------- 4. configuration-conflict-alarm ----------
-function clearAlarm(b: LogBuilder, options: { rewireLive?: boolean; save?: boolean }): void {
+function clearAlarm(
+  b: LogBuilder,
+  options: { rewireLive?: boolean; save?: boolean; diagnose?: boolean; swapParts?: boolean },
+): void {
   b.waitUntil((d) => d.power === 'ready', 'the drive becoming ready').wait(3000)
   if (options.rewireLive) {
     b.unwire('wRaiseOut').wait(4000).wire('wRaiseOut2', 'raiseButton.b', 'drive.di2').wait(3000)
   }
+  if (options.swapParts) {
+    // Parts swapped on a guess, safely: every contact block and the control fuse.
+    isolateAndProve(b)
+    for (const device of ['runSwitch', 'raiseButton', 'lowerButton']) b.fitContact(device, 'NO').wait(3000)
+    b.record({ type: 'fuse.replaced' }).wait(3000)
+    restorePower(b)
+  }
+  if (options.diagnose !== false)
+    b.diagnose({ kind: 'setting', key: 'reference.remoteSource' }, 'wrongSetting').wait(2000)
   b.set('reference.remoteSource', 'raiseLower').wait(1000)
   if (options.save !== false) b.save().wait(1000)
   b.switchTo('runSwitch', 1).waitUntil(running, 'reaching minimum speed').wait(2000)
@@ -170,7 +184,7 @@ const configurationConflictAlarm: AttemptScript[] = [
     scenario: 'configuration-conflict-alarm',
     name: 'reference',
     description:
-      'Read the alarm, set the remote reference to raise/lower and saved, then proved RAISE works and holds.',
+      'Read the alarm, diagnosed the remote reference as set wrong, set it to raise/lower and saved, then proved RAISE works and holds.',
     misses: [],
     build: (b) => clearAlarm(b, {}),
   },
@@ -178,17 +192,34 @@ const configurationConflictAlarm: AttemptScript[] = [
     scenario: 'configuration-conflict-alarm',
     name: 'mistake-rewired-live',
     description:
-      'Suspected the wiring and moved the RAISE wire with the drive powered, then fixed the setting.',
-    misses: ['not-energised'],
+      'Suspected the wiring and made the RAISE wire again with the drive powered (a healthy wire: a needless replacement), then fixed the setting.',
+    misses: ['no-needless', 'not-energised'],
+    needless: 1,
     build: (b) => clearAlarm(b, { rewireLive: true }),
   },
   {
     scenario: 'configuration-conflict-alarm',
     name: 'mistake-never-saved',
     description:
-      'Changed the reference source but never saved it, so the alarm stayed and RAISE still did nothing.',
-    misses: ['reference-source', 'alarm-cleared', 'raise-works'],
+      'Changed the reference source but never saved it, so the alarm stayed and RAISE still did nothing (and the diagnosis is never judged).',
+    misses: ['cause-diagnosed', 'reference-source', 'alarm-cleared', 'raise-works'],
     build: (b) => clearAlarm(b, { save: false }),
+  },
+  {
+    scenario: 'configuration-conflict-alarm',
+    name: 'mistake-no-diagnosis',
+    description: 'Fixed the setting straight away without recording a diagnosis first.',
+    misses: ['cause-diagnosed'],
+    build: (b) => clearAlarm(b, { diagnose: false }),
+  },
+  {
+    scenario: 'configuration-conflict-alarm',
+    name: 'mistake-swapped-parts',
+    description:
+      'Swapped every contact block and the control fuse under lockout on a guess, then changed the setting without a diagnosis: below the pass mark.',
+    misses: ['cause-diagnosed', 'no-needless'],
+    needless: 4,
+    build: (b) => clearAlarm(b, { swapParts: true, diagnose: false }),
   },
 ]
 
@@ -232,13 +263,23 @@ const referenceMemory: AttemptScript[] = [
 ]
 
 // ---------- 6. creeping-speed-wrong-contact ----------
-function replaceContact(b: LogBuilder, options: { lock: boolean }): void {
+function replaceContact(
+  b: LogBuilder,
+  options: { lock: boolean; measure?: boolean; diagnose?: boolean; swapParts?: boolean },
+): void {
   b.waitUntil((d) => d.power === 'ready', 'the drive becoming ready').wait(2000)
   b.switchTo('runSwitch', 1).wait(8000) // the reference creeps up on its own
   b.switchTo('runSwitch', 0).waitUntil(standstill, 'the ramp stop').wait(2000)
-  // ~0 V on V DC: closed at rest
-  b.measure('raiseButton.a', 'raiseButton.b', 'dcVolts').wait(3000).probe(null, null).wait(1000)
+  // ~0 V on V DC: closed at rest (a healthy normally-open contact would read the supply)
+  if (options.measure !== false)
+    b.measure('raiseButton.a', 'raiseButton.b', 'dcVolts').wait(3000).probe(null, null).wait(1000)
+  if (options.diagnose !== false)
+    b.diagnose({ kind: 'device', device: 'raiseButton' }, 'wrongContactType').wait(2000)
   isolateAndProve(b, { lock: options.lock })
+  if (options.swapParts) {
+    b.record({ type: 'fuse.replaced' }).wait(3000)
+    b.fitContact('runSwitch', 'NO').wait(3000).fitContact('lowerButton', 'NO').wait(3000)
+  }
   b.fitContact('raiseButton', 'NO').wait(5000)
   restorePower(b)
   b.switchTo('runSwitch', 1).waitUntil(running, 'reaching minimum speed').wait(3000)
@@ -250,7 +291,7 @@ const creepingSpeed: AttemptScript[] = [
     scenario: 'creeping-speed-wrong-contact',
     name: 'reference',
     description:
-      'Saw the creep and the raise input ON at rest, measured ~0 V across the button, isolated, fitted an NO block, verified.',
+      'Saw the creep, measured ~0 V across the released button, diagnosed the wrong contact type, isolated, fitted an NO block, verified.',
     misses: [],
     build: (b) => replaceContact(b, { lock: true }),
   },
@@ -262,14 +303,47 @@ const creepingSpeed: AttemptScript[] = [
     misses: ['locked-first'],
     build: (b) => replaceContact(b, { lock: false }),
   },
+  {
+    scenario: 'creeping-speed-wrong-contact',
+    name: 'mistake-diagnosed-without-measuring',
+    description:
+      'Recorded the right diagnosis from the symptom alone, without a meter reading that tells the fault apart.',
+    misses: ['cause-measured'],
+    build: (b) => replaceContact(b, { lock: true, measure: false }),
+  },
+  {
+    scenario: 'creeping-speed-wrong-contact',
+    name: 'mistake-swapped-parts',
+    description:
+      'No measurement and no diagnosis: under lockout, replaced the control fuse and every contact block on a guess. Below the pass mark.',
+    misses: ['cause-diagnosed', 'cause-measured', 'no-needless'],
+    needless: 3,
+    build: (b) => replaceContact(b, { lock: true, measure: false, diagnose: false, swapParts: true }),
+  },
 ]
 
 // ---------- 7. inputs-never-on ----------
-function fixInputs(b: LogBuilder, options: { proveDead?: boolean; logic?: boolean }): void {
+function fixInputs(
+  b: LogBuilder,
+  options: { proveDead?: boolean; logic?: boolean; diagnose?: boolean; swapParts?: boolean },
+): void {
+  const diagnose = options.diagnose !== false
   b.waitUntil((d) => d.power === 'ready', 'the drive becoming ready').wait(2000)
-  b.switchTo('runSwitch', 1).wait(3000).switchTo('runSwitch', 0).wait(2000) // nothing happens
-  if (options.logic !== false) b.configure({ 'inputs.logic': 'sink' }).wait(1000)
+  b.switchTo('runSwitch', 1).wait(3000)
+  // 0 V from DI1 to DIC with RUN made: no current flows, so no return path through the input common.
+  if (diagnose) b.measure('drive.di1', 'drive.dcom', 'dcVolts').wait(3000).probe(null, null).wait(1000)
+  b.switchTo('runSwitch', 0).wait(2000) // nothing happens
+  if (options.logic !== false) {
+    if (diagnose) b.diagnose({ kind: 'setting', key: 'inputs.logic' }, 'wrongSetting').wait(2000)
+    b.configure({ 'inputs.logic': 'sink' }).wait(1000)
+  }
+  if (diagnose) b.diagnose({ kind: 'terminal', point: 'drive.dcom' }, 'notLanded').wait(2000)
   isolateAndProve(b, { proveDead: options.proveDead ?? true })
+  if (options.swapParts) {
+    b.record({ type: 'fuse.replaced' }).wait(3000)
+    b.fitContact('runSwitch', 'NO').wait(3000).fitContact('raiseButton', 'NO').wait(3000)
+    b.unwire('wRunOut').wait(3000).wire('wRunOut2', 'runSwitch.b', 'drive.di1').wait(3000)
+  }
   b.wire('wCom', 'drive.dcom', 'drive.0v').wait(4000)
   restorePower(b)
   b.switchTo('runSwitch', 1).wait(3000)
@@ -284,7 +358,7 @@ const inputsNeverOn: AttemptScript[] = [
     scenario: 'inputs-never-on',
     name: 'reference',
     description:
-      'Set the input logic to sink, isolated and proved dead, added the missing DIC-0V common, ran at 30 Hz.',
+      'Measured no current path at DI1, diagnosed the input logic set wrong and the input common not connected; set sink logic, isolated and proved dead, added the DIC-0V common, ran at 30 Hz.',
     misses: [],
     build: (b) => fixInputs(b, {}),
   },
@@ -299,9 +373,18 @@ const inputsNeverOn: AttemptScript[] = [
     scenario: 'inputs-never-on',
     name: 'mistake-logic-left-at-source',
     description:
-      'Added the missing common but left the input logic at source: the inputs still never turn on.',
-    misses: ['logic-setting', 'run-on', 'raise-on', 'feeder-speed'],
+      'Diagnosed and added the missing common but never looked at the input logic, left at source: the inputs still never turn on.',
+    misses: ['setting-diagnosed', 'logic-setting', 'run-on', 'raise-on', 'feeder-speed'],
     build: (b) => fixInputs(b, { logic: false }),
+  },
+  {
+    scenario: 'inputs-never-on',
+    name: 'mistake-swapped-parts',
+    description:
+      'No diagnosis: under lockout, replaced the fuse, two contact blocks and the run wire on a guess before adding the common and fixing the logic. Below the pass mark.',
+    misses: ['wiring-diagnosed', 'setting-diagnosed', 'no-needless'],
+    needless: 4,
+    build: (b) => fixInputs(b, { diagnose: false, swapParts: true }),
   },
 ]
 
@@ -424,21 +507,39 @@ const fanRampOrCoast: AttemptScript[] = [
 ]
 
 // ---------- 11. dead-control-circuit ----------
-function repairControlCircuit(b: LogBuilder, options: { lockSecondTime: boolean }): void {
+function repairControlCircuit(
+  b: LogBuilder,
+  options: { lockSecondTime: boolean; measure?: boolean; diagnose?: boolean; swapParts?: boolean },
+): void {
+  const measure = options.measure !== false
+  const diagnose = options.diagnose !== false
   b.waitUntil((d) => d.power === 'ready', 'the drive becoming ready').wait(2000)
   b.switchTo('runSwitch', 1).wait(2000) // nothing happens
   // 0 V on V DC with the display lit: no control supply
-  b.measure('drive.p24', 'drive.0v', 'dcVolts').wait(3000).probe(null, null).wait(1000)
+  if (measure) b.measure('drive.p24', 'drive.0v', 'dcVolts').wait(3000).probe(null, null).wait(1000)
+  if (diagnose) b.diagnose({ kind: 'controlFuse' }, 'blown').wait(2000)
   b.switchTo('runSwitch', 0).wait(1000)
   isolateAndProve(b)
   b.record({ type: 'fuse.replaced' }).wait(5000)
-  restorePower(b)
-  b.switchTo('runSwitch', 1).wait(2000) // still nothing: DI1 stays OFF
-  // Across the run wire: an open conductor should read the supply (see modelGaps.test.ts).
-  b.measure('runSwitch.b', 'drive.di1', 'dcVolts').wait(3000).probe(null, null).wait(1000)
-  b.switchTo('runSwitch', 0).wait(1000)
-  isolateAndProve(b, { lock: options.lockSecondTime })
-  b.unwire('wRunOut').wait(4000).wire('wRunOutNew', 'runSwitch.b', 'drive.di1').wait(4000)
+  if (options.swapParts) {
+    // On a guess, with no measurement: every part of the run circuit replaced in the same lockout.
+    b.fitContact('runSwitch', 'NO').wait(3000)
+    for (const [id, from, to] of [
+      ['wCom', 'drive.dcom', 'drive.0v'],
+      ['wRunFeed', 'drive.p24', 'runSwitch.a'],
+      ['wRunOut', 'runSwitch.b', 'drive.di1'],
+    ] as const)
+      b.unwire(id).wait(3000).wire(`${id}2`, from, to).wait(3000)
+  } else {
+    restorePower(b)
+    b.switchTo('runSwitch', 1).wait(2000) // still nothing: DI1 stays OFF
+    // Across the run wire: an open conductor reads the supply, a healthy one about 0 V (modelGaps.test.ts).
+    if (measure) b.measure('runSwitch.b', 'drive.di1', 'dcVolts').wait(3000).probe(null, null).wait(1000)
+    if (diagnose) b.diagnose({ kind: 'wire', wire: 'wRunOut' }, 'open').wait(2000)
+    b.switchTo('runSwitch', 0).wait(1000)
+    isolateAndProve(b, { lock: options.lockSecondTime })
+    b.unwire('wRunOut').wait(4000).wire('wRunOutNew', 'runSwitch.b', 'drive.di1').wait(4000)
+  }
   restorePower(b)
   b.switchTo('runSwitch', 1).waitUntil(running, 'reaching 40 Hz').wait(8000)
   b.switchTo('runSwitch', 0).waitUntil(standstill, 'the ramp stop').wait(2000)
@@ -448,7 +549,7 @@ const deadControlCircuit: AttemptScript[] = [
     scenario: 'dead-control-circuit',
     name: 'reference',
     description:
-      'Measured 0 V on +24, replaced the fuse under lockout; then measured 24 V across the run wire, replaced it under lockout; ran at 40 Hz.',
+      'Measured 0 V on +24, diagnosed the control fuse blown, replaced it under lockout; then measured 24 V across the run wire, diagnosed it open, replaced it under lockout; ran at 40 Hz.',
     misses: [],
     build: (b) => repairControlCircuit(b, { lockSecondTime: true }),
   },
@@ -459,6 +560,24 @@ const deadControlCircuit: AttemptScript[] = [
       'Locked out for the fuse, but replaced the broken wire with the disconnect off and unlocked.',
     misses: ['locked-first'],
     build: (b) => repairControlCircuit(b, { lockSecondTime: false }),
+  },
+  {
+    scenario: 'dead-control-circuit',
+    name: 'mistake-diagnosed-without-measuring',
+    description:
+      'Recorded both right diagnoses from the symptoms alone, without a meter reading that tells either fault apart.',
+    misses: ['supply-measured', 'run-measured'],
+    build: (b) => repairControlCircuit(b, { lockSecondTime: true, measure: false }),
+  },
+  {
+    scenario: 'dead-control-circuit',
+    name: 'mistake-swapped-parts',
+    description:
+      'No measurement and no diagnosis: in one lockout, replaced the fuse, the selector contact block and every wire on a guess. Runs, but below the pass mark.',
+    misses: ['supply-diagnosed', 'supply-measured', 'run-diagnosed', 'run-measured', 'no-needless'],
+    needless: 3,
+    build: (b) =>
+      repairControlCircuit(b, { lockSecondTime: true, measure: false, diagnose: false, swapParts: true }),
   },
 ]
 

@@ -15,6 +15,8 @@ export interface AttemptFixture {
   name: string
   description: string
   misses: string[]
+  /** How many healthy parts the log replaces (each costs the noNeedlessReplacements objective points). */
+  needless?: number
   events: AttemptEvent[]
 }
 
@@ -38,6 +40,7 @@ export function buildFixture(script: AttemptScript): AttemptFixture {
     name: script.name,
     description: script.description,
     misses: script.misses,
+    ...(script.needless ? { needless: script.needless } : {}),
     events: builder.end(),
   }
 }

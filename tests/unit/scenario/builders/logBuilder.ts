@@ -8,6 +8,8 @@ import {
   readDrive,
   type AttemptEvent,
   type CircuitReading,
+  type DiagnosisFinding,
+  type DiagnosisTarget,
   type DriveReading,
   type KeypadKey,
   type MeterMode,
@@ -167,6 +169,11 @@ export class LogBuilder {
 
   key(key: KeypadKey): this {
     return this.record({ type: 'keypad.key', key })
+  }
+
+  /** Record what is wrong before a repair. */
+  diagnose(target: DiagnosisTarget, finding: DiagnosisFinding): this {
+    return this.record({ type: 'diagnosis.recorded', target, finding })
   }
 
   hint(hintId: string): this {
