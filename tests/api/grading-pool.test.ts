@@ -34,7 +34,8 @@ describe('grading pool', () => {
   let pool: GradingPool
 
   beforeAll(async () => {
-    pool = createGradingPool({ threads: 2 })
+    // Room for every fixture at once (the default, 16 a thread, is what a server uses).
+    pool = createGradingPool({ threads: 2, queueLimit: 128 })
     await pool.warm()
   })
   afterAll(() => pool.close())
