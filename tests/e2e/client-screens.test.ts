@@ -124,12 +124,12 @@ describe('every main screen', () => {
       'Edit scenario',
       'client-scenario-editor',
     )
-    // Live validation by the shared scenario checker: an empty title is reported at once.
+    // Live validation by the shared scenario checker: an empty title is listed at once, in words, and
+    // shown under the field once the author leaves it.
     await page.getByLabel('Title', { exact: true }).fill('')
-    await page
-      .getByText(/problem/)
-      .first()
-      .waitFor()
+    await page.getByText('1 thing to put right').waitFor()
+    await page.getByLabel('Title', { exact: true }).blur()
+    await page.getByText('Write at least 3 characters').first().waitFor()
     await expect(page.getByRole('button', { name: /Save as version/ }).isDisabled()).resolves.toBe(true)
     await screenshot(page, 'client-scenario-editor-problem')
   })

@@ -3,6 +3,7 @@
 // and never cover a terminal's label, which is printed above its screw.
 import { deviceTerminalLabels as terminalLabels } from '@shared/schematic/markings'
 import { METER_MODES } from '@shared/model/meterModes'
+import { PROVER_AC_VOLTS, PROVER_POINTS, PROVER_VOLTS } from '@shared/model/points'
 import type { DeviceSpot, KeySpot, PanelDevice, PanelLayout, PointId, TerminalSpot } from './types'
 
 export const SCENE_WIDTH = 1280
@@ -96,6 +97,22 @@ export function layoutPanel(devices: readonly PanelDevice[]): PanelLayout {
     }
   })
 
+  // The proving unit below the motor's nameplate: three screws the probes can reach, none a wire can.
+  const prover = { x: 1045, y: 400, w: 215, h: 150 }
+  PROVER_POINTS.forEach((id, i) => {
+    const spec = PROVER_TERMINALS[id]
+    terminals[id] = {
+      id,
+      label: spec.label,
+      name: `Meter proving unit terminal ${spec.label} (${spec.what})`,
+      title: `Proving unit ${spec.label}`,
+      x: prover.x + 45 + i * 62,
+      y: prover.y + 112,
+      group: 'prover',
+      wireable: false,
+    }
+  })
+
   const keys: KeySpot[] = KEYPAD.map((k) => ({
     key: k.key,
     label: k.label,
@@ -129,6 +146,7 @@ export function layoutPanel(devices: readonly PanelDevice[]): PanelLayout {
       shaftRadius: 62,
       nameplate: { x: 1045, y: 262, w: 215, h: 118 },
     },
+    prover: { rect: prover },
     meter: {
       rect: { x: 20, y: 300, w: 190, h: 300 },
       display: { x: 38, y: 330, w: 154, h: 70 },
@@ -141,6 +159,13 @@ export function layoutPanel(devices: readonly PanelDevice[]): PanelLayout {
     station,
     wireway: { x: 230, y: 440, w: 790, h: 180 },
   }
+}
+
+/** The proving unit's outputs against its common (shared/model/points.ts: PROVER_POINTS). */
+const PROVER_TERMINALS: Record<(typeof PROVER_POINTS)[number], { label: string; what: string }> = {
+  'prover.pos': { label: '+', what: `${PROVER_VOLTS} V DC output, to check the V DC range` },
+  'prover.ac': { label: '~', what: `${PROVER_AC_VOLTS} V AC output, to check the V AC range` },
+  'prover.neg': { label: 'COM', what: 'common of both outputs' },
 }
 
 function layoutStation(

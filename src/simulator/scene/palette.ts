@@ -40,5 +40,7 @@ export const PALETTE = {
   motor: 0x6f7f8c,
   motorDark: 0x46535e,
   nameplate: 0xe9e3d2,
+  // The proving unit: a plain light grey case (our own).
+  proverBody: 0xd9dcdf,
   selected: 0xff6d00,
 } as const

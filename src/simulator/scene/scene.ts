@@ -1,6 +1,7 @@
 // The panel scene in pixi.js: built once from the layout, then redrawn only where the view changed.
 import { Container, Graphics, Text, type TextStyleOptions } from 'pixi.js'
 import { METER_MODE_KEY_LABELS } from '@shared/model/meterModes'
+import { PROVER_AC_VOLTS, PROVER_VOLTS } from '@shared/model/points'
 import { probeTip } from './hitTest'
 import { PALETTE as C } from './palette'
 import { TERMINAL_LABEL_SIZE, TERMINAL_RADIUS } from './layout'
@@ -82,6 +83,7 @@ export class PanelScene {
     this.drawStation(base)
     this.drawDisconnect(base)
     this.drawMotor(base)
+    this.drawProver(base)
     this.drawMeter(base)
     this.drawTerminals(base)
 
@@ -325,6 +327,22 @@ export class PanelScene {
         { fontSize: 10, fill: C.muted, fontWeight: 'bold' },
         nameplate.x + nameplate.w / 2,
         nameplate.y + 11,
+      ),
+    )
+  }
+
+  /** The proving unit: a battery box with its two outputs and their common, for live–dead–live. */
+  private drawProver(g: Graphics) {
+    const { rect } = this.layout.prover
+    box(g, rect, C.proverBody, C.stationEdge, 8)
+    const mid = rect.x + rect.w / 2
+    this.staticLayer.addChild(
+      text('METER PROVING UNIT', { fontSize: 12, fill: C.text, fontWeight: 'bold' }, mid, rect.y + 16),
+      text(
+        `Known live source (battery)\n${PROVER_VOLTS} V DC  ·  ${PROVER_AC_VOLTS} V AC\nCheck the meter before and after`,
+        { fontSize: 10, fill: C.text, align: 'center' },
+        mid,
+        rect.y + 50,
       ),
     )
   }

@@ -14,7 +14,7 @@ export interface Rect {
   h: number
 }
 
-export type TerminalGroup = 'control' | 'power' | 'device'
+export type TerminalGroup = 'control' | 'power' | 'device' | 'prover'
 
 export interface TerminalSpot {
   id: PointId
@@ -66,6 +66,8 @@ export interface PanelLayout {
   drive: { rect: Rect; display: Rect; keys: KeySpot[]; statusLamp: Vec; controlStrip: Rect; powerStrip: Rect }
   disconnect: { rect: Rect; handle: Rect; lock: Rect }
   motor: { rect: Rect; shaft: Vec; shaftRadius: number; nameplate: Rect }
+  /** The meter proving unit: a known live source for the live–dead–live check (meter only, never wired). */
+  prover: { rect: Rect }
   meter: {
     rect: Rect
     display: Rect

@@ -4,6 +4,7 @@ import {
   DRIVE_CONTROL_POINTS,
   DRIVE_POWER_POINTS,
   POINT_LABELS,
+  PROVER_POINTS,
   controlPointsFor,
 } from '@shared/model/points'
 import { deviceTerminalLabels, layoutPanel } from '@/simulator/scene/layout'
@@ -35,6 +36,22 @@ describe('the panel layout', () => {
     const xs = strip.map((t) => t.x).sort((a, b) => a - b)
     for (let i = 1; i < xs.length; i++) expect(xs[i] - xs[i - 1]).toBeGreaterThanOrEqual(22)
     expect(new Set(strip.map((t) => t.y)).size).toBe(1)
+  })
+
+  it('has the meter proving unit: every output the model knows, reachable by a probe, never by a wire', () => {
+    const { rect } = layout.prover
+    for (const id of PROVER_POINTS) {
+      const t = layout.terminals[id]
+      expect(t?.wireable).toBe(false)
+      expect(t.x).toBeGreaterThan(rect.x)
+      expect(t.x).toBeLessThan(rect.x + rect.w)
+      expect(t.y).toBeGreaterThan(rect.y)
+      expect(t.y).toBeLessThan(rect.y + rect.h)
+      expect(t.name).toMatch(/^Meter proving unit terminal/)
+    }
+    // Clear of the motor's nameplate above it and inside the scene.
+    expect(rect.y).toBeGreaterThan(layout.motor.nameplate.y + layout.motor.nameplate.h)
+    expect(rect.y + rect.h).toBeLessThanOrEqual(layout.height)
   })
 
   it('keeps everything inside the scene', () => {
