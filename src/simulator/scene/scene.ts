@@ -411,7 +411,7 @@ export class PanelScene {
         .lineTo(t.x + 4, t.y + 4)
         .stroke({ width: 1.5, color: C.screwEdge })
       const labelY = t.group === 'power' ? t.y + 22 : t.y - 22
-      const fill = t.group === 'power' ? C.enclosureText : C.stripText
+      const fill = t.group === 'power' ? C.enclosureText : t.group === 'prover' ? C.text : C.stripText
       this.staticLayer.addChild(
         text(t.label, { fontSize: TERMINAL_LABEL_SIZE, fill, fontWeight: 'bold' }, t.x, labelY),
       )
