@@ -27,6 +27,8 @@ export const SAFETY_VIOLATION_KINDS = [
   'workWhileEnergised',
   'workWithoutLock',
   'workWithoutProvingDead',
+  /** The meter on resistance or continuity across a live circuit. */
+  'ohmmeterOnLiveCircuit',
 ] as const
 export const safetyViolationKindSchema = z.enum(SAFETY_VIOLATION_KINDS)
 

@@ -40,6 +40,7 @@ export const SAFETY_VIOLATION_LABELS: Record<string, string> = {
   workWhileEnergised: 'Work on live terminals',
   workWithoutLock: 'Work without a lock applied',
   workWithoutProvingDead: 'Work before proving dead',
+  ohmmeterOnLiveCircuit: 'Resistance or continuity tested on a live circuit',
 }
 
 export const safetyViolationLabel = (kind: string) => SAFETY_VIOLATION_LABELS[kind] ?? 'Unsafe work'

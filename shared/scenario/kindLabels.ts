@@ -32,6 +32,7 @@ const VIOLATION_KIND_LABELS: Record<SafetyViolation['kind'], string> = {
   workWhileEnergised: 'Work on live terminals',
   workWithoutLock: 'Work without a lock',
   workWithoutProvingDead: 'Work before proving dead',
+  ohmmeterOnLiveCircuit: 'Resistance or continuity tested on a live circuit',
 }
 
 export function safetyViolationKindLabel(kind: SafetyViolation['kind']): string {

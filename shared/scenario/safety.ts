@@ -3,9 +3,10 @@
 // the work happens (the panel's warning); the grade lists them all. Facts shared with the
 // safe-practice objectives (energised, the lock in force, where a proof of dead must start) live here.
 import type { SafetyViolation } from '../api/grading'
+import { readMeter } from '../model/meter'
 import { SAFE_VOLTS } from './objectiveSchema'
 import { formatTime, formatVolts } from './format'
-import { describeWork } from './names'
+import { describeWork, probePointsName } from './names'
 import { DEFAULT_DEAD_PAIRS, DeadTestWatcher, type DeadWatch } from './proofs'
 import { isTerminalWorkMoment, type Sample } from './samples'
 
@@ -31,6 +32,31 @@ export function isolationStart(sample: Sample): number {
 
 const NONE: readonly SafetyViolation[] = Object.freeze([])
 
+/**
+ * The meter turned to resistance or continuity with its probes across a voltage (the meter shows its
+ * voltage warning): an ohmmeter injects its own test current and is only for a circuit proved dead
+ * (common practice; a meter's instructions say so, and a live circuit can damage it or its user).
+ * Judged just after each probe move or selector turn, so each such act is one violation.
+ */
+function ohmmeterOnLiveCircuit(sample: Sample): SafetyViolation[] {
+  if (sample.at !== 'after') return []
+  const type = sample.event?.type
+  if (type !== 'meter.probes' && type !== 'meter.mode') return []
+  const { mode } = sample.state.meter
+  if (mode !== 'resistance' && mode !== 'continuity') return []
+  const reading = readMeter(sample.state)
+  if (reading.shows !== 'voltagePresent') return []
+  return [
+    {
+      kind: 'ohmmeterOnLiveCircuit',
+      t: sample.t,
+      text:
+        `Meter on ${mode === 'resistance' ? 'resistance' : 'continuity'} across a live circuit at ${formatTime(sample.t)}, ` +
+        `probes on ${probePointsName(reading, sample.state)}: resistance and continuity are measured only on a circuit proved dead.`,
+    },
+  ]
+}
+
 /** The safety rule over a stream of samples. Its state only grows by the violations it finds. */
 export class SafetyRule {
   readonly #watcher = new DeadTestWatcher(DEFAULT_DEAD_PAIRS, false)
@@ -40,8 +66,11 @@ export class SafetyRule {
   /** Takes the next sample; returns the violations the moment shows (none unless it is terminal work). */
   step(sample: Sample): readonly SafetyViolation[] {
     this.#watch = this.#watcher.step(this.#watch, sample)
-    if (!isTerminalWorkMoment(sample)) return NONE
-    const found = this.#judge(sample)
+    const found = [
+      ...ohmmeterOnLiveCircuit(sample),
+      ...(isTerminalWorkMoment(sample) ? this.#judge(sample) : []),
+    ]
+    if (found.length === 0) return NONE
     this.#violations.push(...found)
     return found
   }

@@ -68,7 +68,10 @@ function expectOneRule(scenario: Scenario, events: readonly AttemptEvent[]): voi
   expect(byEvent.flat()).toEqual(graded)
   byEvent.forEach((found: SafetyViolation[], i) => {
     for (const v of found) expect(v.t).toBe(events[i]!.t)
-    if (found.length > 0) expect(TERMINAL_WORK.has(events[i]!.type)).toBe(true)
+    const work = found.filter((v) => v.kind !== 'ohmmeterOnLiveCircuit')
+    if (work.length > 0) expect(TERMINAL_WORK.has(events[i]!.type)).toBe(true)
+    // The meter's own violation comes only from turning the selector or moving a probe.
+    if (work.length < found.length) expect(events[i]!.type).toMatch(/^meter\./)
   })
   // And every energised terminal work is among them.
   for (const i of energisedWork(scenario, events)) {
@@ -126,6 +129,30 @@ describe('one safety rule', () => {
       ])
       expect(byEvent[i]![0]!.text).toMatch(what)
     }
+  })
+
+  it('records resistance or continuity tried across a live circuit, and not across a dead one', () => {
+    // The fan station starts powered: +24 to 0V carries the control supply (24 V DC).
+    const scenario = shippedScenario('fan-ramp-or-coast')
+    const events: AttemptEvent[] = [
+      { t: 1000, type: 'meter.mode', mode: 'resistance' },
+      { t: 2000, type: 'meter.probes', red: 'drive.p24', black: 'drive.0v' },
+      { t: 3000, type: 'meter.mode', mode: 'continuity' },
+      { t: 4000, type: 'meter.mode', mode: 'dcVolts' },
+      { t: 5000, type: 'meter.probes', red: null, black: null },
+    ]
+    const { byEvent, graded } = warnings(scenario, events)
+    expect(byEvent.map((v) => v.map((x) => x.kind))).toEqual([
+      [],
+      ['ohmmeterOnLiveCircuit'],
+      ['ohmmeterOnLiveCircuit'],
+      [],
+      [],
+    ])
+    expect(byEvent[1]![0]!.text).toMatch(
+      /^Meter on resistance across a live circuit at 00:02\.0, probes on \+24/,
+    )
+    expect(graded.map((v) => v.kind)).toEqual(['ohmmeterOnLiveCircuit', 'ohmmeterOnLiveCircuit'])
   })
 
   it('does not warn for work on an isolated, locked and proved-dead drive', () => {
