@@ -6,9 +6,26 @@ import { describe, expect, it } from 'vitest'
 import type { PanelDriver } from './panel-driver'
 import { diagnose, openPanel, openSignedIn, panelTestBed, submitForGrade } from './panel-fixtures'
 
-async function lockedAndProvedDead(panel: PanelDriver) {
+/**
+ * Live–dead–live (NFPA 70E 120.5(7)): the meter shown working on the bench's proving unit, on each range
+ * the dead test uses (230 V AC and 110 V DC, shared/model/points.ts).
+ */
+async function meterProvedOnKnownSource(page: Page, panel: PanelDriver) {
+  const reading = () => page.getByTestId('live-meter').textContent()
+  await panel.meterMode('acVolts')
+  await panel.probe('red', 'prover.ac')
+  await panel.probe('black', 'prover.neg')
+  await expect.poll(reading).toMatch(/\b2[23]\d(\.\d+)? V/)
+  await panel.meterMode('dcVolts')
+  await panel.probe('red', 'prover.pos')
+  await expect.poll(reading).toMatch(/\b1[01]\d(\.\d+)? V/)
+}
+
+async function lockedAndProvedDead(page: Page, panel: PanelDriver) {
   await panel.isolateAndDischarge()
+  await meterProvedOnKnownSource(page, panel)
   await panel.proveDead()
+  await meterProvedOnKnownSource(page, panel)
 }
 
 async function backOn(panel: PanelDriver) {
@@ -54,7 +71,7 @@ describe('troubleshooting graded on method', () => {
       .poll(async () => page.getByTestId('diagnosis-last').textContent())
       .toMatch(/Last diagnosis: control fuse: blown/)
 
-    await lockedAndProvedDead(panel)
+    await lockedAndProvedDead(page, panel)
     await page.getByRole('button', { name: 'Replace control fuse' }).click()
     await backOn(panel)
     await panel.setSelector('runSwitch', 1) // still nothing: the fan does not start
@@ -66,7 +83,7 @@ describe('troubleshooting graded on method', () => {
     await diagnose(page, 'Wire W3', 'Open circuit')
     await panel.setSelector('runSwitch', 0)
 
-    await lockedAndProvedDead(panel)
+    await lockedAndProvedDead(page, panel)
     await panel.openSheet('Wiring')
     await page.getByRole('button', { name: /^Remove wire W\S* BU from Fan run \/ stop 14 to DI1/ }).click()
     await panel.openSheet('Values')
@@ -83,7 +100,7 @@ describe('troubleshooting graded on method', () => {
   it('fails when parts are swapped on a guess, even under lockout', async () => {
     // Signed in by the test before (tests in a file share the browser).
     const { page, panel } = await openSignedIn(bed.browser.page, bed.app.url, 'dead-control-circuit')
-    await lockedAndProvedDead(panel)
+    await lockedAndProvedDead(page, panel)
     await page.getByRole('button', { name: 'Replace control fuse' }).click()
     await page.getByTestId('repair-device').click()
     await page.getByRole('option', { name: 'Fan run / stop' }).click()
