@@ -78,8 +78,12 @@ export function createGradingPool(options: GradingPoolOptions): GradingPool {
         minThreads: threads,
         maxThreads: threads,
         maxQueue: queueLimit,
-        // Plain JavaScript: no loader flags from the parent (tsx in development) reach the threads.
-        execArgv: [],
+        // Plain JavaScript: no loader flags from the parent (tsx in development) reach the threads. And no
+        // require() of an ES module: Piscina tries require() first, and on Node 20.20 a thread terminated
+        // while require() is instantiating the worker's module aborts the whole process ("FATAL ERROR:
+        // v8::Module::IsGraphAsync … must be used on an instantiated module", seen when a pool closed
+        // straight after it opened). Refused, Piscina falls back to import(), which a termination can stop.
+        execArgv: ['--no-experimental-require-module'],
         // A young generation sized for replays (see thread-limits.ts).
         resourceLimits: GRADING_THREAD_RESOURCE_LIMITS,
         // Threads stay up: starting one costs far more than a grade.
