@@ -20,7 +20,7 @@ import {
 } from './settings'
 import { settle } from './settle'
 import { advancePieces, type BreakpointSink } from './time'
-import type { LockTag } from './setup'
+import type { InjectedFault, LockTag } from './setup'
 import type { BreakpointKind, DeviceState, EventMessage, SimState } from './types'
 
 // Handlers complete a draft made for this event (a fresh copy of the state nobody else holds):
@@ -331,10 +331,45 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
       if (event.key === 'run' || event.key === 'stop' || event.key === 'reset')
         return pressKey(state, event.key)
       return state
+    case 'fault.injected':
+      return injectFault(state, event.fault)
     case 'hint.revealed':
     case 'diagnosis.recorded':
+    case 'message.received':
     case 'attempt.ended':
       return state
+  }
+}
+
+const DEVICE_FAULTS = {
+  contactFailedOpen: 'failedOpen',
+  contactWelded: 'welded',
+  wrongContactType: 'wrongType',
+} as const
+
+/**
+ * An instructor's fault arriving mid-attempt (live classroom): the bench changes as it would had the fault
+ * been there from the start. A target that is not on this bench (a wire since removed) changes nothing.
+ */
+function injectFault(state: SimState, fault: InjectedFault): SimState {
+  switch (fault.kind) {
+    case 'brokenWire':
+      if (state.wires.some((w) => w.id === fault.wireId) && !state.brokenWires.includes(fault.wireId))
+        state.brokenWires = [...state.brokenWires, fault.wireId]
+      return state
+    case 'blownFuse':
+      state.fuseBlown = true
+      return state
+    case 'motorConductorOpen':
+      if (!state.motor.openConductors.includes(fault.conductor))
+        state.motor = { ...state.motor, openConductors: [...state.motor.openConductors, fault.conductor] }
+      return state
+    default: {
+      const device = state.devices[fault.device]
+      if (!device || device.spec.kind === 'potentiometer') return state
+      state.devices = { ...state.devices, [fault.device]: { ...device, fault: DEVICE_FAULTS[fault.kind] } }
+      return state
+    }
   }
 }
 

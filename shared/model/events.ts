@@ -3,7 +3,7 @@ import { z } from 'zod'
 import { DIAGNOSIS_FINDINGS, diagnosisTargetSchema } from './diagnosis'
 import { METER_MODES } from './meterModes'
 import { MOTOR_TERMINALS, OUTPUT_PHASES } from './points'
-import { CONTACT_TYPES, WIRE_COLOURS, lockTagSchema, pointIdSchema } from './setup'
+import { CONTACT_TYPES, WIRE_COLOURS, injectedFaultSchema, lockTagSchema, pointIdSchema } from './setup'
 import { SETTING_KEYS } from './settings'
 
 const t = z
@@ -76,6 +76,27 @@ export const attemptEventSchema = z.discriminatedUnion('type', [
     type: z.literal('diagnosis.recorded'),
     target: diagnosisTargetSchema,
     finding: z.enum(DIAGNOSIS_FINDINGS),
+  }),
+  /**
+   * Live classroom: an instructor put a fault into the running bench. The apprentice's panel appends it when
+   * the server hands it over; the server refuses a log whose injections it did not record. `by` names the
+   * instructor for the replay (a name, never shown as an id).
+   */
+  z.object({
+    t,
+    type: z.literal('fault.injected'),
+    injectionId: z.uuid(),
+    fault: injectedFaultSchema,
+    by: z.object({ id: z.uuid(), name: z.string().min(1).max(120) }),
+  }),
+  /** Live classroom: a hint or message from an instructor, recorded where the apprentice saw it. No model effect. */
+  z.object({
+    t,
+    type: z.literal('message.received'),
+    messageId: z.uuid(),
+    kind: z.enum(['hint', 'message']),
+    text: z.string().min(1).max(1000),
+    from: z.object({ id: z.uuid(), name: z.string().min(1).max(120) }),
   }),
   z.object({ t, type: z.literal('attempt.ended') }),
 ])

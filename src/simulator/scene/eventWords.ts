@@ -112,6 +112,12 @@ export function eventWords(event: AttemptEvent, layout: PanelLayout, wireMarker?
       return 'Hint shown'
     case 'diagnosis.recorded':
       return `Diagnosis recorded: ${diagnosisWords(event, layout, wireMarker)}`
+    case 'fault.injected':
+      // Which fault is for the instructor's views (the live-classroom work words it); the apprentice's
+      // own replay says only that something changed, as a real bench would.
+      return `${event.by.name} changed something on the bench`
+    case 'message.received':
+      return `${event.kind === 'hint' ? 'Hint' : 'Message'} from ${event.from.name}: ${event.text}`
     case 'attempt.ended':
       return 'Attempt ended'
   }
