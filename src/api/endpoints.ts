@@ -71,6 +71,17 @@ export const endpoints = {
     review: (id: string) => `/attempts/${enc(id)}/review`,
     neighbours: (id: string) => `/attempts/${enc(id)}/neighbours`,
   },
+  live: {
+    session: (attemptId: string) => `/live/attempts/${enc(attemptId)}/session`,
+    events: (attemptId: string) => `/live/attempts/${enc(attemptId)}/events`,
+    inbox: (attemptId: string) => `/live/attempts/${enc(attemptId)}/inbox`,
+    attempt: (attemptId: string) => `/live/attempts/${enc(attemptId)}`,
+    watch: (attemptId: string) => `/live/attempts/${enc(attemptId)}/stream`,
+    injections: (attemptId: string) => `/live/attempts/${enc(attemptId)}/injections`,
+    cohort: (cohortId: string) => `/live/cohorts/${enc(cohortId)}`,
+    cohortStream: (cohortId: string) => `/live/cohorts/${enc(cohortId)}/stream`,
+    messages: '/live/messages',
+  },
   centre: '/centre',
   attention: '/attention',
   apprentices: {
