@@ -45,8 +45,14 @@ export interface StreamHandlers<T> {
   lastEventId?: string | null
 }
 
-function stream<T>(path: string, schema: z.ZodType<T>, handlers: StreamHandlers<T>): EventStream {
+function stream<T>(
+  path: string,
+  schema: z.ZodType<T>,
+  handlers: StreamHandlers<T>,
+  dropRepeats = true,
+): EventStream {
   return openEventStream({
+    dropRepeats,
     url: `/api${path}`,
     headers: authorizationHeader,
     lastEventId: handlers.lastEventId ?? null,
@@ -76,6 +82,7 @@ export const liveStreams = {
   classOf: (cohortId: string, handlers: StreamHandlers<LiveClassStreamEvent>) =>
     stream(endpoints.live.cohortStream(cohortId), liveClassStreamEventSchema, handlers),
   watch: (attemptId: string, handlers: StreamHandlers<LiveWatchStreamEvent>) =>
-    stream(endpoints.live.watch(attemptId), liveWatchStreamEventSchema, handlers),
+    // Its ids are log indexes (a row update may repeat one): the handler places events by `from` instead.
+    stream(endpoints.live.watch(attemptId), liveWatchStreamEventSchema, handlers, false),
 }
 export type LiveStreams = typeof liveStreams

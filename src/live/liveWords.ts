@@ -34,3 +34,25 @@ export function powerWords(status: LiveStatus): string {
 export function driveWords(status: LiveStatus): string {
   return status.outputHz ? `${status.driveState}, ${status.outputHz.toFixed(1)} Hz` : status.driveState
 }
+
+/** The connection as the class view says it: "Idle for 3 min", "Disconnected, last seen 1 min ago". */
+export function connectionDetail(
+  row: { connection: LiveConnection; lastActionAt: string | null; lastSeenAt: string },
+  now: number,
+): string {
+  const since = (iso: string | null) => (iso ? elapsedWords(now - Date.parse(iso)) : null)
+  switch (row.connection) {
+    case 'active':
+      return 'Working'
+    case 'idle':
+      return since(row.lastActionAt) ? `Idle for ${since(row.lastActionAt)}` : 'Idle'
+    case 'disconnected':
+      return `Disconnected, last seen ${since(row.lastSeenAt)} ago`
+    case 'ended':
+      return 'Ended'
+  }
+}
+
+export function objectivesWords(status: LiveStatus | null): string {
+  return status ? `${status.objectivesMet} of ${status.objectivesTotal}` : '—'
+}

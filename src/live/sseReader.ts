@@ -26,6 +26,11 @@ export interface EventStreamOptions {
   /** Stop for good on these statuses (403, 404 …): the stream will not come back by retrying. */
   fatal?: (status: number) => boolean
   fetch?: typeof fetch
+  /**
+   * Drop an event whose numeric id is not above the last one handed on (a server resending after a
+   * reconnect). Off for a stream whose ids are not a sequence of events (the watch stream's are log indexes).
+   */
+  dropRepeats?: boolean
   /** Wait before the n-th reconnect (1-based). */
   retryDelayMs?: (tries: number) => number
 }
@@ -105,7 +110,12 @@ export function openEventStream(options: EventStreamOptions): EventStream {
   let timer: ReturnType<typeof setTimeout> | null = null
   // Ids are increasing numbers on our streams; a number not above the last one handed on is a repeat.
   const seen = (id: string | null) =>
-    id !== null && lastId !== null && /^\d+$/.test(id) && /^\d+$/.test(lastId) && Number(id) <= Number(lastId)
+    options.dropRepeats !== false &&
+    id !== null &&
+    lastId !== null &&
+    /^\d+$/.test(id) &&
+    /^\d+$/.test(lastId) &&
+    Number(id) <= Number(lastId)
 
   const state = (s: StreamState, problem: string | null = null) => options.onState?.(s, problem)
 
