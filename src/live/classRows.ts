@@ -7,7 +7,7 @@ export type SortKey = (typeof SORT_KEYS)[number]
 
 export const SORT_LABELS: Record<SortKey, string> = {
   apprentice: 'Apprentice',
-  scenario: 'Scenario',
+  scenario: 'Exercise',
   elapsed: 'Time open',
   state: 'Connection',
   safety: 'Safety violations',
