@@ -7,6 +7,7 @@ import type { AttemptDetail } from '@shared/api/attempts'
 import type { LiveAttempt, LiveRow, LiveWatchStreamEvent } from '@shared/api/live'
 import type { AttemptEvent } from '@shared/model/events'
 import { liveApi, liveStreams, type LiveApi, type LiveStreams } from '@/live/liveApi'
+import { placeBatch } from '@/live/placeBatch'
 import type { EventStream, StreamState } from '@/live/sseReader'
 import { useScenariosStore } from '@/stores/scenarios'
 import type { ReplaySource } from '../machines/replayMachine'
@@ -109,10 +110,10 @@ export function useLiveWatch(attemptId: string, options: LiveWatchOptions = {}) 
       ended.value = true
       return
     }
-    // Place the batch by its index: what the log already holds is skipped, a gap means something was
-    // missed, and the whole log is read again.
-    if (event.from > events.length) return void reload()
-    const fresh = event.events.slice(events.length - event.from)
+    // A gap means something was missed: the whole log is read again.
+    const placed = placeBatch(events.length, event.from, event.events)
+    if (placed.kind === 'gap') return void reload()
+    const fresh = placed.events
     if (!fresh.length) return
     events.push(...fresh)
     count.value = events.length

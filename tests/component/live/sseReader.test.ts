@@ -135,3 +135,15 @@ describe('reconnecting', () => {
     expect(tokens).toEqual(['Bearer old', 'Bearer new'])
   })
 })
+
+describe('placing a watch stream batch in the log held', () => {
+  const ev = (t: number) => ({ t, type: 'meter.mode', mode: 'acVolts' }) as const
+  it('appends only what is new, and calls a batch past the end a gap', async () => {
+    const { placeBatch } = await import('@/live/placeBatch')
+    expect(placeBatch(2, 2, [ev(3), ev(4)])).toEqual({ kind: 'append', events: [ev(3), ev(4)] })
+    // A reconnect resends from index 1: the one already held is skipped, not doubled.
+    expect(placeBatch(2, 1, [ev(2), ev(3)])).toEqual({ kind: 'append', events: [ev(3)] })
+    expect(placeBatch(4, 1, [ev(2), ev(3)])).toEqual({ kind: 'append', events: [] })
+    expect(placeBatch(2, 3, [ev(5)])).toEqual({ kind: 'gap' })
+  })
+})
