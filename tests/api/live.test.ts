@@ -398,4 +398,17 @@ describe('live classroom', () => {
       expect(late.body.error.message).toMatch(/no longer open/)
     })
   })
+
+  // Last: a drain refuses every later request.
+  it('ends its streams when the server drains for a shutdown, so they do not hold it', async () => {
+    const attemptId = await openPanel()
+    const klass = await readSse(`${base}/cohorts/${w.cohortA.id}/stream`, w.instructorA.token)
+    const watch = await readSse(`${base}/attempts/${attemptId}/stream`, w.instructorA.token)
+    const inbox = await readSse(`${base}/attempts/${attemptId}/inbox`, w.apprenticeA1.token)
+    await Promise.all([klass.next(), watch.next(), inbox.next()])
+    expect(api.lifecycle.inFlight).toBeGreaterThanOrEqual(3)
+    expect(await api.lifecycle.drain(5000)).toBe(true)
+    await Promise.all([klass.ended, watch.ended, inbox.ended])
+    expect(api.lifecycle.inFlight).toBe(0)
+  })
 })
