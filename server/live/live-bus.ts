@@ -70,6 +70,7 @@ function createPgChannel(
   let connecting: Promise<pg.Client | null> | null = null
   let closed = false
   let retry: NodeJS.Timeout | undefined
+  let sending: Promise<unknown> = Promise.resolve()
 
   function connect(): Promise<pg.Client | null> {
     if (closed) return Promise.resolve(null)
@@ -116,18 +117,21 @@ function createPgChannel(
       void connect()
     },
     notify(change: LiveChange) {
-      void connect().then((c) =>
-        c
-          ?.query('SELECT pg_notify($1, $2)', [
+      // One query at a time on the connection: notifications go out in the order they were made.
+      sending = sending
+        .then(() => connect())
+        .then((c) =>
+          c?.query('SELECT pg_notify($1, $2)', [
             LIVE_CHANNEL,
             `${instanceId}|${change.attemptId}|${change.what}`,
-          ])
-          .catch((error: unknown) => log.warn({ err: error }, 'live channel: a change could not be sent')),
-      )
+          ]),
+        )
+        .catch((error: unknown) => log.warn({ err: error }, 'live channel: a change could not be sent'))
     },
     async close() {
       closed = true
       clearTimeout(retry)
+      await sending
       const c = client ?? (connecting ? await connecting : null)
       client = null
       await c?.end().catch(() => undefined)

@@ -12,25 +12,14 @@ import {
   liveClassStreamEventSchema,
   liveInboxEventSchema,
   liveWatchStreamEventSchema,
-  type LiveStatus,
 } from '../../shared/api/live'
 import { AuditEntryEntity, LiveCommandEntity } from '../../server/entities'
 import { setClock } from '../../server/infrastructure/clock'
 import { bearer, createTestApi, type TestApi, type TestUser } from '../support/api-harness'
+import { STATUS } from '../support/live-status'
 import { readSse, type SseFrame } from '../support/sse-reader'
 import { buildWorld, type World } from '../support/world'
 
-export const STATUS: LiveStatus = {
-  powerOn: true,
-  ownLock: false,
-  supervisorLock: false,
-  driveState: 'Ready',
-  outputHz: 0,
-  alarms: [],
-  safetyViolations: 0,
-  objectivesMet: 1,
-  objectivesTotal: 5,
-}
 const events = (from: number, n: number) =>
   Array.from({ length: n }, (_, i) => ({ t: 1000 + (from + i) * 100, type: 'lock.removed' as const }))
 
