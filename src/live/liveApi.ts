@@ -32,6 +32,8 @@ export const liveApi = {
     request(endpoints.live.events(attemptId), acceptedSchema, { method: 'POST', body }),
   classOf: (cohortId: string) => request(endpoints.live.cohort(cohortId), liveClassSchema),
   attempt: (attemptId: string) => request(endpoints.live.attempt(attemptId), liveAttemptSchema),
+  /** The panel closed for good (left the page): the class view shows it ended at once. */
+  close: (attemptId: string) => request(endpoints.live.close(attemptId), acceptedSchema, { method: 'POST' }),
   inject: (attemptId: string, body: InjectFaultRequest) =>
     request(endpoints.live.injections(attemptId), injectionSchema, { method: 'POST', body }),
   sendMessage: (body: SendLiveMessageRequest) =>
@@ -45,14 +47,8 @@ export interface StreamHandlers<T> {
   lastEventId?: string | null
 }
 
-function stream<T>(
-  path: string,
-  schema: z.ZodType<T>,
-  handlers: StreamHandlers<T>,
-  dropRepeats = true,
-): EventStream {
+function stream<T>(path: string, schema: z.ZodType<T>, handlers: StreamHandlers<T>): EventStream {
   return openEventStream({
-    dropRepeats,
     url: `/api${path}`,
     headers: authorizationHeader,
     lastEventId: handlers.lastEventId ?? null,
@@ -82,7 +78,6 @@ export const liveStreams = {
   classOf: (cohortId: string, handlers: StreamHandlers<LiveClassStreamEvent>) =>
     stream(endpoints.live.cohortStream(cohortId), liveClassStreamEventSchema, handlers),
   watch: (attemptId: string, handlers: StreamHandlers<LiveWatchStreamEvent>) =>
-    // Its ids are log indexes (a row update may repeat one): the handler places events by `from` instead.
-    stream(endpoints.live.watch(attemptId), liveWatchStreamEventSchema, handlers, false),
+    stream(endpoints.live.watch(attemptId), liveWatchStreamEventSchema, handlers),
 }
 export type LiveStreams = typeof liveStreams

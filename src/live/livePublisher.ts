@@ -26,6 +26,8 @@ export interface PublisherDeps {
   /** What the bench shows now; null while the panel is not ready (nothing is posted then). */
   status: () => LiveStatus | null
   onState?: (state: PublisherState) => void
+  /** The session is open on the server (again): what needs it (the inbox stream) may start. */
+  onOpened?: () => void
   now?: () => number
   setTimer?: (fn: () => void, ms: number) => unknown
   clearTimer?: (handle: unknown) => void
@@ -107,6 +109,7 @@ export function createLivePublisher(deps: PublisherDeps) {
         setState('opening')
         sent = (await deps.open()).eventCount
         opened = true
+        deps.onOpened?.()
       }
       const events = deps.log().slice(sent, sent + LIVE_EVENTS_PER_POST)
       lastPostAt = now()

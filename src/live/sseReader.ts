@@ -1,8 +1,8 @@
 // A Server-Sent Events reader on fetch, because EventSource cannot send the Authorization header every
 // route needs. It parses the text/event-stream format (WHATWG HTML, "Server-sent events" §9.2.6: `event:`,
 // `data:` lines joined by "\n", `id:`, `retry:`, a blank line ends an event), reconnects with back-off and
-// sends `Last-Event-ID` so the server resumes after the last event this reader handed on: nothing missed,
-// and an event id seen before is never handed on twice.
+// sends `Last-Event-ID` so the server resumes after the last event this reader saw: nothing missed. What a
+// repeat is depends on the stream (a log index, an inbox id, a row by attempt), so its consumer drops those.
 
 export type StreamState = 'connecting' | 'open' | 'retrying' | 'closed'
 
@@ -26,11 +26,6 @@ export interface EventStreamOptions {
   /** Stop for good on these statuses (403, 404 …): the stream will not come back by retrying. */
   fatal?: (status: number) => boolean
   fetch?: typeof fetch
-  /**
-   * Drop an event whose numeric id is not above the last one handed on (a server resending after a
-   * reconnect). Off for a stream whose ids are not a sequence of events (the watch stream's are log indexes).
-   */
-  dropRepeats?: boolean
   /** Wait before the n-th reconnect (1-based). */
   retryDelayMs?: (tries: number) => number
 }
@@ -108,14 +103,6 @@ export function openEventStream(options: EventStreamOptions): EventStream {
   let serverDelay: number | null = null
   let controller: AbortController | null = null
   let timer: ReturnType<typeof setTimeout> | null = null
-  // Ids are increasing numbers on our streams; a number not above the last one handed on is a repeat.
-  const seen = (id: string | null) =>
-    options.dropRepeats !== false &&
-    id !== null &&
-    lastId !== null &&
-    /^\d+$/.test(id) &&
-    /^\d+$/.test(lastId) &&
-    Number(id) <= Number(lastId)
 
   const state = (s: StreamState, problem: string | null = null) => options.onState?.(s, problem)
 
@@ -123,7 +110,8 @@ export function openEventStream(options: EventStreamOptions): EventStream {
     if (closed) return
     tries += 1
     state('retrying', problem)
-    timer = setTimeout(connect, serverDelay ?? delayOf(tries))
+    // The server's `retry:` is the shortest wait; a server that stays away is asked less and less often.
+    timer = setTimeout(connect, Math.max(serverDelay ?? 0, delayOf(tries)))
   }
 
   async function connect() {
@@ -134,7 +122,6 @@ export function openEventStream(options: EventStreamOptions): EventStream {
     state('connecting')
     const parser = createSseParser((message) => {
       if (message.retry !== undefined) serverDelay = message.retry
-      if (seen(message.id)) return
       if (message.id !== null) lastId = message.id
       options.onMessage({ event: message.event, data: message.data, id: message.id })
     })

@@ -40,13 +40,24 @@ export function useLiveClass(cohortId: () => string, options: LiveClassOptions =
     } finally {
       loading.value = false
     }
+    let opens = 0
     stream = streams.classOf(cohortId(), {
       onEvent: (event) => (rows.value = applyClassEvent(rows.value, event)),
       onState: (state, problem) => {
         streamState.value = state
         streamProblem.value = problem
+        // The stream starts afresh on each connection and cannot say which rows went while it was away.
+        if (state === 'open' && ++opens > 1) void refresh()
       },
     })
+  }
+
+  async function refresh() {
+    try {
+      rows.value = (await api.classOf(cohortId())).rows
+    } catch {
+      // Keep the rows shown; the stream goes on updating them.
+    }
   }
 
   onBeforeUnmount(() => {

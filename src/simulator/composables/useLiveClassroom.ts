@@ -25,7 +25,7 @@ export interface InstructorMessage {
 export interface LiveClassroomOptions {
   /** Whether to take part (signed in, an attempt the server can hold). */
   enabled: () => boolean
-  api?: Pick<LiveApi, 'openSession' | 'postEvents'>
+  api?: Pick<LiveApi, 'openSession' | 'postEvents' | 'close'>
   streams?: Pick<LiveStreams, 'inbox'>
 }
 
@@ -76,6 +76,8 @@ export function useLiveClassroom(live: LiveAttempt, options: LiveClassroomOption
 
   function stop() {
     publisher?.stop()
+    // Left the page: the instructors' view shows the panel closed at once (best effort).
+    if (attemptId && publisher?.state() === 'live') api.close(attemptId).catch(() => {})
     inbox?.close()
     if (settle) clearTimeout(settle)
     publisher = null
@@ -107,6 +109,8 @@ export function useLiveClassroom(live: LiveAttempt, options: LiveClassroomOption
           assistance: start.assistance,
         }),
       post: (body) => api.postEvents(id, body),
+      // The inbox belongs to the session: read it once the session is open.
+      onOpened: () => openInbox(id),
       log: () => live.actor.getSnapshot().context.log,
       status: () => {
         const now = live.actor.getSnapshot().context
@@ -114,7 +118,6 @@ export function useLiveClassroom(live: LiveAttempt, options: LiveClassroomOption
       },
     })
     publisher.start()
-    openInbox(id)
   }
 
   // A new attempt (first start, start again, a copy kept as new) is a new live session.
