@@ -22,6 +22,8 @@ async function shootAtSizes(page: Page, name: string) {
   const before = page.viewportSize()
   for (const [width, height] of SIZES) {
     await page.setViewportSize({ width, height })
+    // The app bar is fixed: a page left scrolled would draw it over the middle of a full-page shot.
+    await page.evaluate(() => window.scrollTo(0, 0))
     await page.waitForTimeout(600)
     await page.screenshot({ path: `${SHOTS}/${name}-${width}x${height}.png`, fullPage: true })
   }

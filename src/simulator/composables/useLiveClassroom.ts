@@ -76,8 +76,6 @@ export function useLiveClassroom(live: LiveAttempt, options: LiveClassroomOption
 
   function stop() {
     publisher?.stop()
-    // Left the page: the instructors' view shows the panel closed at once (best effort).
-    if (attemptId && publisher?.state() === 'live') api.close(attemptId).catch(() => {})
     inbox?.close()
     if (settle) clearTimeout(settle)
     publisher = null
@@ -171,7 +169,12 @@ export function useLiveClassroom(live: LiveAttempt, options: LiveClassroomOption
     },
   )
 
-  onBeforeUnmount(stop)
+  onBeforeUnmount(() => {
+    // Left the page: the instructors' view shows the panel closed at once (best effort; a refused or
+    // failed submission only pauses the session, so it is not closed then).
+    if (attemptId && publisher?.state() === 'live') api.close(attemptId).catch(() => {})
+    stop()
+  })
 
   return {
     watchers,
