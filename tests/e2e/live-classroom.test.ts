@@ -1,13 +1,13 @@
 // The live classroom with two browsers: the apprentice wires on their panel, the instructor sees the panel
 // in the class view and watches it, puts a broken conductor into the bench and sends a hint; the apprentice
 // sees the hint and that they are watched, and the injection comes back into their log (the watch view's
-// timeline names it). Screenshots of the three screens at three sizes, under test-results/live-shots/.
+// timeline names it); their submission is accepted with both in it, and the watcher sees the attempt end. Screenshots of the three screens at three sizes, under test-results/live-shots/.
 import { mkdirSync } from 'node:fs'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { DEMO_ACCOUNTS, DEMO_COHORTS } from '../../server/demo/demo-accounts'
 import { launchBrowser, startApp, type BrowserSession, type RunningApp } from './support'
-import { APPRENTICE, openPanel, type PanelTestBed } from './panel-fixtures'
+import { APPRENTICE, openPanel, submitForGrade, type PanelTestBed } from './panel-fixtures'
 
 const INSTRUCTOR = DEMO_ACCOUNTS.find((a) => a.role === 'instructor' && a.cohort === APPRENTICE.cohort)!
 const SHOTS = 'test-results/live-shots'
@@ -134,6 +134,15 @@ describe('the live classroom, apprentice and instructor at once', () => {
       .poll(() => i.locator('#workspace-sheet').textContent(), { timeout: 20_000 })
       .toContain(`${INSTRUCTOR.name} put in a fault: ${label}`)
     await shootAtSizes(i, 'watch-view')
+
+    // The apprentice submits: the server takes the log with the instructor's fault and hint in it (it refuses
+    // one that lacks an injection it holds), grades it, and the watcher sees the attempt end.
+    await a.setViewportSize({ width: 1366, height: 768 })
+    const grade = await submitForGrade(a, 'live-classroom-submitted')
+    expect(grade).toMatch(/\d+ \/ 100/)
+    await expect
+      .poll(() => i.getByTestId('watch-state').textContent(), { timeout: 20_000 })
+      .toContain('has ended')
     expect(pageErrors).toEqual([])
   }, 180_000)
 })
