@@ -63,6 +63,10 @@ function serve(snapshot: { status?: number; body: unknown }) {
   let id = 0
   return {
     sentMessages,
+    /** The connection drops (the server restarted, say). */
+    drop() {
+      feed?.close()
+    },
     push(event: unknown) {
       id += 1
       feed?.enqueue(encoder.encode(`id: ${id}\nevent: x\ndata: ${JSON.stringify(event)}\n\n`))
@@ -144,6 +148,27 @@ describe('the class view', () => {
     server.push({ type: 'gone', attemptId: uuid(2) })
     await settle()
     expect(names(wrapper)).toEqual(['Cal Brennick', 'Wren Maddox'])
+  })
+
+  it('shows the stream lost in words, and reads the rows again when it is back', async () => {
+    const snapshot = {
+      body: {
+        cohort: { id: cohortId, name: 'Evening intake' },
+        rows: [row(1, 'Wren Maddox'), row(2, 'Ash Tolley')],
+      },
+    }
+    const server = serve(snapshot)
+    const wrapper = await mountView()
+    expect(names(wrapper)).toEqual(['Ash Tolley', 'Wren Maddox'])
+    // While the stream is away Ash closes the panel; the new connection cannot say so, the rows read again do.
+    snapshot.body = { ...snapshot.body, rows: [row(1, 'Wren Maddox')] }
+    server.drop()
+    await settle()
+    expect(wrapper.get('[data-testid="live-stream"]').text()).toContain('Live updates lost; trying again')
+    await wrapper.get('[data-testid="live-reconnect"]').trigger('click')
+    await settle()
+    expect(wrapper.get('[data-testid="live-stream"]').text()).toContain('Live: updates arrive')
+    expect(names(wrapper)).toEqual(['Wren Maddox'])
   })
 
   it('sorts by the column chosen, and reverses on a second click', async () => {
