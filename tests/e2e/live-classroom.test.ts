@@ -3,6 +3,7 @@
 // sees the hint and that they are watched, and the injection comes back into their log (the watch view's
 // timeline names it); their submission is accepted with both in it, and the watcher sees the attempt end. Screenshots of the three screens at three sizes, under test-results/live-shots/.
 import { mkdirSync } from 'node:fs'
+import AxeBuilder from '@axe-core/playwright'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { DEMO_ACCOUNTS, DEMO_COHORTS } from '../../server/demo/demo-accounts'
@@ -28,6 +29,17 @@ async function shootAtSizes(page: Page, name: string) {
     await page.screenshot({ path: `${SHOTS}/${name}-${width}x${height}.png`, fullPage: true })
   }
   if (before) await page.setViewportSize(before)
+}
+
+/** Serious or critical WCAG 2.1 A/AA findings on the page (the canvas is tested elsewhere), as rule: selector. */
+async function accessibilityProblems(page: Page): Promise<string[]> {
+  const result = await new AxeBuilder({ page })
+    .withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'])
+    .exclude('canvas')
+    .analyze()
+  return result.violations
+    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+    .map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`)
 }
 
 async function signIn(page: Page, url: string, who: { email: string; password: string }) {
@@ -91,6 +103,7 @@ describe('the live classroom, apprentice and instructor at once', () => {
     await expect.poll(() => i.getByTestId('live-stream').textContent()).toContain('Live: updates arrive')
     await expect.poll(() => row.textContent(), { timeout: 20_000 }).toContain('Working')
     await shootAtSizes(i, 'class-view')
+    expect(await accessibilityProblems(i)).toEqual([])
 
     // Watch: the two wires are in the timeline the watcher sees.
     await row
@@ -126,6 +139,7 @@ describe('the live classroom, apprentice and instructor at once', () => {
     // Never told what changed: the fault's words are nowhere on the apprentice's page.
     expect(await a.locator('body').textContent()).not.toContain(label)
     await shootAtSizes(a, 'apprentice-panel')
+    expect(await accessibilityProblems(a)).toEqual([])
 
     // The injection went into the apprentice's log and back to the watcher: the timeline names it.
     await i.getByTestId('toggle-sheet').click()
@@ -134,6 +148,7 @@ describe('the live classroom, apprentice and instructor at once', () => {
       .poll(() => i.locator('#workspace-sheet').textContent(), { timeout: 20_000 })
       .toContain(`${INSTRUCTOR.name} put in a fault: ${label}`)
     await shootAtSizes(i, 'watch-view')
+    expect(await accessibilityProblems(i)).toEqual([])
 
     // The apprentice submits: the server takes the log with the instructor's fault and hint in it (it refuses
     // one that lacks an injection it holds), grades it, and the watcher sees the attempt end.
