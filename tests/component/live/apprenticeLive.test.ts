@@ -35,7 +35,9 @@ vi.mock('@/simulator/services', () => ({
     })),
     loadServerCopy: fromPromise(async () => Promise.reject(new Error('offline'))),
     saveProgress: fromPromise(async () => Promise.reject(new Error('offline'))),
-    submitAttempt: fromPromise(async () => Promise.reject(new Error('offline'))),
+    submitAttempt: fromPromise(async ({ input }: { input: { id: string; events: { type: string }[] } }) =>
+      live.submit(input),
+    ),
     liveGrading: fromCallback(() => () => {}),
   }),
   replayActors: () => ({}),
@@ -47,6 +49,11 @@ const live = vi.hoisted(() => ({
   posts: [] as PostLiveEventsRequest[],
   inboxOpenedAfterSession: null as boolean | null,
   deliver: null as ((event: LiveInboxEvent) => void) | null,
+  inboxOpens: 0,
+  submitted: [] as string[][],
+  submit: async (input: { id: string; events: { type: string }[] }): Promise<unknown> => {
+    throw Object.assign(new Error(`offline ${input.id}`), { status: 0 })
+  },
 }))
 vi.mock('@/live/liveApi', () => ({
   liveApi: {
@@ -63,6 +70,7 @@ vi.mock('@/live/liveApi', () => ({
   liveStreams: {
     inbox: (_id: string, handlers: { onEvent: (e: LiveInboxEvent) => void }) => {
       live.inboxOpenedAfterSession = live.opened.length > 0
+      live.inboxOpens += 1
       live.deliver = handlers.onEvent
       return { close: () => {}, reconnect: () => {}, lastEventId: () => null }
     },
@@ -115,7 +123,14 @@ describe('the apprentice’s panel, live', () => {
   beforeEach(() => {
     resetPixiState()
     localStorage.clear()
-    Object.assign(live, { opened: [], posts: [], inboxOpenedAfterSession: null, deliver: null })
+    Object.assign(live, {
+      opened: [],
+      posts: [],
+      inboxOpenedAfterSession: null,
+      deliver: null,
+      inboxOpens: 0,
+      submitted: [],
+    })
   })
   afterEach(() => {
     localStorage.clear()
@@ -159,6 +174,33 @@ describe('the apprentice’s panel, live', () => {
     // Never told what the fault is (the panel's own "Replace control fuse" repair is always there).
     expect(document.body.textContent).not.toMatch(/blown|blow the|fault was put|fuse has/i)
     expect(document.body.textContent).toContain('Idris Penhallow changed something on the bench')
+    wrapper.unmount()
+  })
+
+  it('reads the inbox again and submits again when the server holds a fault the log lacks', async () => {
+    live.submit = async (input) => {
+      const types = input.events.map((e) => e.type)
+      live.submitted.push(types)
+      if (!types.includes('fault.injected'))
+        throw Object.assign(new Error('An instructor changed the bench'), {
+          status: 409,
+          code: 'injection_pending',
+        })
+      return { id: input.id, status: 'submitted', eventCount: types.length, grade: null }
+    }
+    const wrapper = mountPanel('apprentice')
+    await settle()
+    expect(live.inboxOpens).toBe(1)
+    await wrapper.get('[data-testid="submit-from-bar"]').trigger('click')
+    await settle()
+    document.querySelector<HTMLElement>('[data-testid="confirm-submit-button"]')!.click()
+    await settle()
+    // Refused: the inbox is opened again from its start, and its backlog goes into the log.
+    expect(live.inboxOpens).toBe(2)
+    live.deliver!(injection)
+    await settle(700)
+    expect(live.submitted).toEqual([['attempt.ended'], ['fault.injected', 'attempt.ended']])
+    expect(saved()).toBeNull()
     wrapper.unmount()
   })
 
