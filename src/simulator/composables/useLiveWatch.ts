@@ -157,8 +157,22 @@ export function useLiveWatch(attemptId: string, options: LiveWatchOptions = {}) 
   const ready = computed(() => replay.snapshot.value.matches('ready'))
   watch(ready, (now) => {
     if (!now) return
+    if (ended.value) {
+      // Opened after it ended: its last moment, still; nothing more will come.
+      following.value = false
+      replay.send({ type: 'SEEK', t: liveTime() })
+      return
+    }
     backToLive()
     openStream()
+  })
+
+  // Ended: the playhead stops on the last moment instead of running on past it.
+  watch(ended, (now) => {
+    if (!now || !ready.value) return
+    following.value = false
+    replay.send({ type: 'PAUSE' })
+    replay.send({ type: 'SEEK', t: liveTime() })
   })
 
   function backToLive() {
