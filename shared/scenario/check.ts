@@ -13,6 +13,7 @@ import {
   nameplateProblems,
   RESERVED_DEVICE_IDS,
   settingDef,
+  inputFunctionKey,
   validateSetting,
   type SettingValues,
 } from '../model'
@@ -125,6 +126,24 @@ function semanticProblems(scenario: Scenario): ScenarioProblem[] {
     if (fault.kind === 'brokenWire') {
       if (!wireIds.has(fault.wireId))
         add(['faults', i, 'wireId'], `no starting wire has the id "${fault.wireId}"`)
+    } else if (fault.kind === 'inputUnresponsive') {
+      const fn = merged[inputFunctionKey(fault.input)]
+      if (fn === 'none')
+        add(
+          ['faults', i, 'input'],
+          `DI${fault.input} has no function at the start, so its fault would show nothing`,
+        )
+    } else if (fault.kind === 'settingChanged') {
+      const check = validateSetting(fault.key, fault.value)
+      if (!check.ok) add(['faults', i, 'value'], check.message)
+      else if (check.value === merged[fault.key])
+        add(['faults', i, 'value'], 'the starting settings already have this value, so nothing would change')
+      else {
+        const clash = crossCheckSettings({ ...merged, [fault.key]: check.value } as SettingValues)[0]
+        if (clash) add(['faults', i, 'value'], clash.message)
+      }
+      if (scenario.faults.some((f, j) => j < i && f.kind === 'settingChanged' && f.key === fault.key))
+        add(['faults', i, 'key'], 'another fault already changes this setting')
     } else if (fault.kind !== 'blownFuse' && fault.kind !== 'motorConductorOpen') {
       const device = devices.get(fault.device)
       if (!device) add(['faults', i, 'device'], `no device has the id "${fault.device}"`)

@@ -105,6 +105,16 @@ export const diagnosisCorrect: Evaluator<'diagnosisCorrect'> = (objective, { sce
   )
 }
 
+/** The diagnosis names a part with something wrong: the scenario's, or one an instructor put a fault in by then. */
+function namesPartAtFault(
+  d: DiagnosisWatch['diagnoses'][number],
+  atFault: readonly DiagnosisTarget[],
+): boolean {
+  const { target } = d.event
+  if (atFault.some((p) => sameDiagnosisTarget(p, target))) return true
+  return (d.state.injected ?? []).some((f) => sameDiagnosisTarget(faultAnswer(f).target, target))
+}
+
 function judgeDiagnosis(
   answer: DiagnosisAnswer,
   atFault: readonly DiagnosisTarget[],
@@ -133,7 +143,7 @@ function judgeDiagnosis(
       at: last.event.t,
     }
   }
-  const healthy = diagnoses.filter((d) => !atFault.some((p) => sameDiagnosisTarget(p, d.event.target)))
+  const healthy = diagnoses.filter((d) => !namesPartAtFault(d, atFault))
   if (healthy.length > 0) {
     return {
       met: false,
@@ -185,10 +195,11 @@ export const discriminatingMeasurement: Evaluator<'discriminatingMeasurement'> =
         }
       }
       if (found) {
-        const { reading, healthy } = found.telling
+        const { reading, healthy, because } = found.telling
+        const tells = because ?? `a healthy circuit would read ${meterReadingName(healthy)}`
         return {
           met: true,
-          evidence: `At ${formatTime(found.t)} the meter on ${probePointsName(reading, found.state)} read ${meterReadingName(reading)}; a healthy circuit would read ${meterReadingName(healthy)}.`,
+          evidence: `At ${formatTime(found.t)} the meter on ${probePointsName(reading, found.state)} read ${meterReadingName(reading)}; ${tells}.`,
           at: found.t,
         }
       }

@@ -82,6 +82,49 @@ describe('injectableFaults', () => {
     ).toHaveLength(3)
   })
 
+  it('offers each input that has a function, and settings changes the drive would take now', () => {
+    const list = injectableFaults(conveyor())
+    expect(list.filter((f) => f.group === INJECTABLE_GROUPS.inputs).map((f) => f.label)).toEqual([
+      'Make input DI1 stop responding (it is "Run (maintained contact)" now)',
+      'Make input DI2 stop responding (it is "Raise speed" now)',
+      'Make input DI3 stop responding (it is "Lower speed" now)',
+    ])
+    const settings = list.filter((f) => f.group === INJECTABLE_GROUPS.settings)
+    expect(settings.map((f) => f.label)).toContain('Change "Maximum speed" from 50 Hz to 25 Hz')
+    expect(settings.map((f) => f.fault)).toContainEqual({
+      kind: 'settingChanged',
+      key: 'di2.function',
+      value: 'none',
+    })
+    // Nothing offered changes a setting to the value it has.
+    for (const { fault } of settings)
+      if (fault.kind === 'settingChanged') expect(conveyor().settings.active[fault.key]).not.toBe(fault.value)
+  })
+
+  it('does not offer a dead input or a setting already changed behind their back', () => {
+    const by = { id: '00000000-0000-4000-8000-000000000001', name: 'Rhoswen Tally' }
+    const s = run(conveyor(), [
+      {
+        t: 1000,
+        type: 'fault.injected',
+        injectionId: '00000000-0000-4000-8000-000000000003',
+        fault: { kind: 'inputUnresponsive', input: 2 },
+        by,
+      },
+      {
+        t: 1000,
+        type: 'fault.injected',
+        injectionId: '00000000-0000-4000-8000-000000000004',
+        fault: { kind: 'settingChanged', key: 'speed.max', value: 25 },
+        by,
+      },
+    ])
+    const faults = injectableFaults(s).map((f) => f.fault)
+    expect(faults).not.toContainEqual({ kind: 'inputUnresponsive', input: 2 })
+    expect(faults).toContainEqual({ kind: 'inputUnresponsive', input: 3 })
+    expect(faults.some((f) => f.kind === 'settingChanged' && f.key === 'speed.max')).toBe(false)
+  })
+
   it('never shows an internal id in a label', () => {
     for (const s of [conveyor(), deadFan()]) {
       for (const { label } of injectableFaults(s)) {
