@@ -93,7 +93,7 @@ export const diagnosisCorrect: Evaluator<'diagnosisCorrect'> = (objective, { sce
       return watch
     },
     ({ diagnoses, repairedAt }, end) => {
-      const verdict = judgeDiagnosis(answer, atFault, diagnoses, repairedAt, end)
+      const verdict = judgeDiagnosis(answer, atFault, diagnoses, repairedAt, end, start.state)
       // Judged only once the repair is made, so a live tick never confirms a guess before the repair.
       if (repairedAt !== undefined) return verdict
       return {
@@ -121,9 +121,11 @@ function judgeDiagnosis(
   diagnoses: DiagnosisWatch['diagnoses'],
   repairedAt: number | undefined,
   end: Sample,
+  /** The moment the part is named in: the start, when the part at fault was still fitted (a wire replaced is gone at the end). */
+  namedIn: SimState,
 ): Verdict {
   const findings = answer.findings.map((f) => DIAGNOSIS_FINDING_SHORT[f])
-  const right = `${diagnosisTargetName(answer.target, end.state)}: ${findings.length > 1 ? `${findings.slice(0, -1).join(', ')}, or ${findings.at(-1)}` : findings[0]}`
+  const right = `${diagnosisTargetName(answer.target, namedIn)}: ${findings.length > 1 ? `${findings.slice(0, -1).join(', ')}, or ${findings.at(-1)}` : findings[0]}`
   const when =
     repairedAt === undefined
       ? `by the end (${formatTime(end.t)})`
