@@ -5,15 +5,34 @@ import type { AttemptEvent } from '@shared/model/events'
 import type { Timeline } from '@shared/model/types'
 import type { GradeResult } from '@shared/scenario/grade'
 import type { Scenario } from '@shared/scenario/schema'
-import { eventWireId, eventWords } from '../scene/eventWords'
+import { eventWireId, eventWords, injectionWords } from '../scene/eventWords'
 import type { PanelLayout } from '../scene/types'
 import { wireLabel } from '../scene/wireColours'
 import type { ObjectiveTick } from './PanelTaskPanel.vue'
 
 export interface TimelineMark {
   t: number
-  kind: 'event' | 'violation' | 'objective'
+  /** `injection`: a fault an instructor put in; `message`: a hint or message from an instructor. */
+  kind: 'event' | 'violation' | 'objective' | 'injection' | 'message'
   label: string
+}
+
+/** Who the replay is for: the apprentice's own replay never names an injected fault; an instructor's does. */
+export type ReplayAudience = 'apprentice' | 'instructor'
+
+function eventMark(
+  event: AttemptEvent,
+  layout: PanelLayout,
+  marker: string | undefined,
+  audience: ReplayAudience,
+): TimelineMark {
+  if (event.type === 'fault.injected') {
+    const label =
+      audience === 'instructor' ? injectionWords(event, layout, marker) : eventWords(event, layout, marker)
+    return { t: event.t, kind: 'injection', label }
+  }
+  const kind = event.type === 'message.received' ? 'message' : 'event'
+  return { t: event.t, kind, label: eventWords(event, layout, marker) }
 }
 
 /** The marker the panel showed on an event's wire: where the wire stood just after it was added, or before it went. */
@@ -30,13 +49,10 @@ export function replayMarks(
   timeline: Timeline,
   graded: GradeResult | null,
   layout: PanelLayout,
+  audience: ReplayAudience = 'apprentice',
 ): TimelineMark[] {
   return [
-    ...events.map((e, i) => ({
-      t: e.t,
-      kind: 'event' as const,
-      label: eventWords(e, layout, markerOf(e, i, timeline)),
-    })),
+    ...events.map((e, i) => eventMark(e, layout, markerOf(e, i, timeline), audience)),
     ...(graded?.safetyViolations ?? []).map((v) => ({ t: v.t, kind: 'violation' as const, label: v.text })),
     ...(graded?.objectives ?? [])
       .filter((o) => o.met && o.at !== undefined)
@@ -54,7 +70,10 @@ export function objectivesAt(
   position: number,
   attemptEnd: number,
 ): ObjectiveTick[] {
-  return scenario.objectives.map((o) => {
+  // A fault an instructor put in brings its objectives at the moment it went in.
+  const injected = (graded?.objectives ?? []).filter((o) => o.injection && position >= o.injection.at)
+  const own = scenario.objectives.map((o) => ({ ...o, required: !!o.required }))
+  return [...own, ...injected].map((o) => {
     const r = graded?.objectives.find((x) => x.id === o.id)
     const metAt = r?.met ? (r.at ?? attemptEnd) : null
     const state =
@@ -66,7 +85,7 @@ export function objectivesAt(
     return {
       id: o.id,
       title: o.title,
-      required: !!o.required,
+      required: o.required,
       state,
       evidence: state === 'open' ? undefined : r?.evidence,
     }
