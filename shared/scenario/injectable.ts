@@ -40,6 +40,7 @@ export const INJECTABLE_GROUPS = {
   motorCable: 'Motor cable',
   inputs: 'Drive inputs',
   settings: 'Settings',
+  external: 'External fault',
 } as const
 
 function wireFaults(state: SimState): InjectableFault[] {
@@ -50,6 +51,26 @@ function wireFaults(state: SimState): InjectableFault[] {
     const label = `Break wire ${number} (${pointName(wire.from, state)} to ${pointName(wire.to, state)})`
     return [{ fault, label, group: INJECTABLE_GROUPS.wiring }]
   })
+}
+
+/**
+ * The input assigned the external-fault function that this device's contact is wired straight to, if any.
+ * An external fault is the monitoring contact of outside equipment opening (the drive trips while that
+ * input is OFF): on this bench that is the contact wired to that input failing open, so the catalogue
+ * offers it under its own name only where such a contact is fitted. A bench without one has no way to
+ * show an external fault truthfully, and none is offered.
+ */
+function externalFaultInput(state: SimState, deviceId: string): number | undefined {
+  const contact = [`${deviceId}.a`, `${deviceId}.b`]
+  for (const input of DIGITAL_INPUT_NUMBERS) {
+    if (state.settings.active[inputFunctionKey(input)] !== 'externalFault') continue
+    const point = `drive.di${input}`
+    const wired = state.wires.some(
+      (w) => (contact.includes(w.from) && w.to === point) || (contact.includes(w.to) && w.from === point),
+    )
+    if (wired) return input
+  }
+  return undefined
 }
 
 /** A device is offered only while none of the contact faults is on it (nor a block other than its label's). */
@@ -63,8 +84,15 @@ function deviceFaults(state: SimState): InjectableFault[] {
     const labelled = device.spec.contact ?? 'NO'
     const inside = labelled === 'NO' ? 'NC' : 'NO'
     const group = INJECTABLE_GROUPS.devices
+    const external = externalFaultInput(state, id)
     return [
-      { fault: open, label: `Fail the contact open: ${name}`, group },
+      external
+        ? {
+            fault: open,
+            label: `Trip the external interlock: ${name} opens (it feeds ${pointName(`drive.di${external}`, state)}, "${inputFunctionName('externalFault')}")`,
+            group: INJECTABLE_GROUPS.external,
+          }
+        : { fault: open, label: `Fail the contact open: ${name}`, group },
       { fault: { kind: 'contactWelded', device: id }, label: `Weld the contact closed: ${name}`, group },
       {
         fault: { kind: 'wrongContactType', device: id },
