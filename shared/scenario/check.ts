@@ -377,15 +377,20 @@ function checkTitles(scenario: Scenario, add: (path: readonly PropertyKey[], mes
 /**
  * The shipped scenarios' rule for troubleshooting (`npm run scenarios:check`; not part of checkScenario, so a
  * test can grade one objective on a bench with a fault): each injected fault has a diagnosisCorrect and a
- * discriminatingMeasurement objective, and there is a noNeedlessReplacements objective.
+ * discriminatingMeasurement objective (a changed setting is read on the keypad, not measured: none for it),
+ * and there is a noNeedlessReplacements objective.
  */
 export function methodProblems(scenario: Scenario): ScenarioProblem[] {
   if (scenario.faults.length === 0) return []
   const problems: ScenarioProblem[] = []
   const judged = (kind: Objective['kind'], fault: number) =>
     scenario.objectives.some((o) => o.kind === kind && 'fault' in o && o.fault === fault)
-  scenario.faults.forEach((_fault, i) => {
-    for (const kind of ['diagnosisCorrect', 'discriminatingMeasurement'] as const)
+  scenario.faults.forEach((fault, i) => {
+    const kinds =
+      fault.kind === 'settingChanged'
+        ? (['diagnosisCorrect'] as const)
+        : (['diagnosisCorrect', 'discriminatingMeasurement'] as const)
+    for (const kind of kinds)
       if (!judged(kind, i))
         problems.push({
           path: jsonPath(['faults', i]),
