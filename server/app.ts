@@ -30,6 +30,8 @@ import { createPasswordHasher, type PasswordHasher } from './infrastructure/secu
 import { createAccessTokens } from './infrastructure/security/tokens'
 import { invitationsRouter } from './invitations/invitations.router'
 import { framingFor } from './lti/framing'
+import { createLiveHub, type LiveHub } from './live/live-hub'
+import { liveRouter } from './live/live.router'
 import { ltiRouter } from './lti/lti.router'
 import type { LtiOptions } from './lti/runtime'
 import { apiNotFound, errorHandler } from './middleware/errors'
@@ -53,6 +55,8 @@ export interface AppDeps {
   clientDir?: string
   /** Learning-platform (LTI) settings for tests: key-set cache and grade retry timings. */
   lti?: LtiOptions
+  /** The live classroom's hub (default: one made here; whoever passes one closes it). */
+  live?: LiveHub
 }
 
 export const DEFAULT_CLIENT_DIR = CLIENT_DIR
@@ -86,6 +90,11 @@ export function createApp(deps: AppDeps): Express {
     grading,
     metrics,
     lifecycle,
+    live:
+      deps.live ??
+      createLiveHub(deps.dataSource, log, {
+        postgresUrl: deps.config.database.driver === 'postgres' ? deps.config.database.url : undefined,
+      }),
   }
   const app = express()
   app.disable('x-powered-by')
@@ -142,6 +151,7 @@ export function createApp(deps: AppDeps): Express {
   app.use('/api/attempts', attemptsRouter(ctx))
   app.use('/api', assignmentsRouter(ctx))
   app.use('/api/lti', ltiRouter(ctx, deps.lti))
+  app.use('/api/live', liveRouter(ctx))
   app.use('/api', recordsRouter(ctx))
   app.use('/api', practiceRouter(ctx))
   app.use('/api', insightRouter(ctx))

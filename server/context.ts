@@ -6,6 +6,7 @@ import type { Limiters } from './middleware/rate-limit'
 import type { GradebookCache } from './gradebook/gradebook-cache'
 import type { GradingPool } from './infrastructure/grading/grading-pool'
 import type { Lifecycle } from './infrastructure/http/lifecycle'
+import type { LiveHub } from './live/live-hub'
 import type { Metrics } from './infrastructure/metrics'
 import type { PasswordHasher } from './infrastructure/security/passwords'
 import type { AccessTokens } from './infrastructure/security/tokens'
@@ -25,6 +26,8 @@ export interface AppContext {
   metrics: Metrics
   /** Requests in flight, and whether the server is draining for a shutdown. */
   lifecycle: Lifecycle
+  /** Live classroom: the change bus (in-process; LISTEN/NOTIFY across instances on PostgreSQL) and its rows. */
+  live: LiveHub
 }
 
 /** A link into the client, from the configured public base URL. */

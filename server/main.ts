@@ -11,6 +11,7 @@ import { createGradingPool } from './infrastructure/grading/grading-pool'
 import { createLifecycle } from './infrastructure/http/lifecycle'
 import { createMetrics } from './infrastructure/metrics'
 import { createLogger } from './infrastructure/logging'
+import { createLiveHub } from './live/live-hub'
 import { prepareDatabase, startupNotices } from './prepare-database'
 import { createPasswordHasher } from './infrastructure/security/passwords'
 import { SCENARIOS_DIR } from './infrastructure/paths'
@@ -61,7 +62,10 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
   // Listen only once the threads answer, so the first submissions do not wait for them to load.
   await grading.warm()
   const lifecycle = createLifecycle()
-  const app = createApp({ dataSource, config, jwtSecret, log, passwords, grading, metrics, lifecycle })
+  const live = createLiveHub(dataSource, log, {
+    postgresUrl: config.database.driver === 'postgres' ? config.database.url : undefined,
+  })
+  const app = createApp({ dataSource, config, jwtSecret, log, passwords, grading, metrics, lifecycle, live })
 
   const server: Server = await new Promise((resolve, reject) => {
     const s = app.listen(config.port, config.host, () => resolve(s))
@@ -93,6 +97,7 @@ export async function startServer({ mode = 'api', env = process.env }: StartOpti
     // Queued mail lives in the database: what is not sent now is sent by the next start.
     await jobs.close(3000)
     await grading.close()
+    await live.close()
     await dataSource.destroy()
     clearTimeout(force)
     process.exit(0)

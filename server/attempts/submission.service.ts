@@ -26,6 +26,8 @@ import type { ReadSubmission } from '../infrastructure/grading/grading-pool'
 import type { SubmissionHeader } from '../infrastructure/grading/grading-worker'
 import { queueMail } from '../infrastructure/mail/mail-job'
 import { attemptReviewedMail } from '../infrastructure/mail/templates'
+import { checkLiveRecords } from '../live/live-checks'
+import { endSession } from '../live/live-sessions.service'
 import { queueScorePost } from '../lti/score-post-job'
 import { apprenticeFacts, assignmentTerms } from '../gradebook/standings'
 import { assertPracticeOpen } from '../practice/practice.service'
@@ -174,6 +176,8 @@ async function storeSubmission(
   }
   refuseHintsInAssessment(assistanceLevel, submission.hintRevealed, assignment !== null)
   const submitting = body.status === 'submitted'
+  // Live classroom: only what instructors really sent, and on submission everything they injected.
+  await checkLiveRecords(ds, body.id, submission.live, submitting)
   const grade = submitting ? await ctx.grading.grade(scenario, eventsJson, assistanceLevel) : null
   const row: AttemptRow = {
     id: body.id,
@@ -257,6 +261,12 @@ async function storeSubmission(
     if (winner?.userId === user.id && (error instanceof LostRace || !existing))
       return { created: false, attempt: winner }
     throw error
+  }
+  // A submitted attempt's live session is over: watchers see it end, the class view lets it go.
+  if (submitting) {
+    await endSession(ctx, row.id).catch((error: unknown) =>
+      ctx.log.warn({ err: error, attemptId: row.id }, 'the live session of a submitted attempt did not end'),
+    )
   }
   return { created: !existing || submitting, attempt: row }
 }

@@ -11,6 +11,7 @@ import { EnrollmentEntity } from './enrollment'
 import { FeedbackEntity } from './feedback'
 import { InvitationEntity } from './invitation'
 import { JobEntity } from './job'
+import { liveEntities } from './live'
 import { ltiEntities } from './lti'
 import { MailMessageEntity } from './mail-message'
 import { OutcomeSignOffEntity } from './outcome-sign-off'
@@ -34,6 +35,7 @@ export * from './enrollment'
 export * from './feedback'
 export * from './invitation'
 export * from './job'
+export * from './live'
 export * from './lti'
 export * from './mail-message'
 export * from './outcome-sign-off'
@@ -68,4 +70,5 @@ export const entities = [
   AssignmentExceptionEntity,
   AssignmentRecipientEntity,
   CohortInstructorEntity,
+  ...liveEntities,
 ]

@@ -10,6 +10,7 @@ import { InstructorWeek1765300000000 } from './1765300000000-instructor-week'
 import { MailPreferences1765400000000 } from './1765400000000-mail-preferences'
 import { SignOffWithdrawals1765600000000 } from './1765600000000-sign-off-withdrawals'
 import { AssistanceLevels1765700000000 } from './1765700000000-assistance-levels'
+import { LiveClassroom1765800000000 } from './1765800000000-live-classroom'
 
 export const migrations = [
   InitialSchema1764600000000,
@@ -23,4 +24,5 @@ export const migrations = [
   MailPreferences1765400000000,
   SignOffWithdrawals1765600000000,
   AssistanceLevels1765700000000,
+  LiveClassroom1765800000000,
 ]

@@ -135,6 +135,16 @@ export const liveWatchStreamEventSchema = z.discriminatedUnion('type', [
 ])
 export type LiveWatchStreamEvent = z.infer<typeof liveWatchStreamEventSchema>
 
+/** A stream's query: where a reconnect resumes, as an alternative to the Last-Event-ID header. */
+export const liveStreamQuerySchema = z.object({
+  after: z.coerce
+    .number({ error: 'Must be a whole number' })
+    .int()
+    .min(0)
+    .max(Number.MAX_SAFE_INTEGER)
+    .optional(),
+})
+
 const personSchema = z.object({ id: idSchema, name: z.string() })
 
 /**

@@ -3,12 +3,15 @@
 // owns cohort A, "otherInstructor" owns cohort B.
 import { randomUUID } from 'node:crypto'
 import { readFileSync } from 'node:fs'
+import type { Server } from 'node:http'
+import type { AddressInfo } from 'node:net'
 import supertest from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import {
   CohortEntity,
   CohortInstructorEntity,
   EnrollmentEntity,
+  LiveSessionEntity,
   OutcomeSignOffEntity,
   OutcomeSignOffWithdrawalEntity,
 } from '../../server/entities'
@@ -36,6 +39,8 @@ interface Route {
   expect: Expect
   /** The call ends the caller's sessions; sign them in again afterwards. */
   endsSessions?: boolean
+  /** An event stream: the status is read from a real server, then the stream is dropped. */
+  stream?: true
   /** Puts back what a successful call changes, so every role meets the same state. Runs before and after. */
   restore?: (w: World, api: TestApi) => Promise<void>
 }
@@ -60,6 +65,32 @@ const future = (days: number) => new Date(Date.now() + days * 86_400_000).toISOS
 const FAKE_TOKEN = 'x'.repeat(43)
 const NO_SUCH_ID = '00000000-0000-4000-8000-000000000000'
 const MATRIX_SIGN_OFF = '00000000-0000-4000-8000-00000000051f'
+/** Ada's open live panel on assignment A (opened in beforeAll). */
+const LIVE_ATTEMPT = '00000000-0000-4000-8000-0000000011fe'
+const LIVE_STATUS = {
+  powerOn: false,
+  ownLock: true,
+  supervisorLock: false,
+  driveState: 'Dark',
+  outputHz: 0,
+  alarms: [],
+  safetyViolations: 0,
+  objectivesMet: 0,
+  objectivesTotal: 4,
+}
+const liveSession = (w: World) => ({
+  scenarioVersionId: w.scenario.id,
+  assignmentId: w.assignmentA.id,
+  assistance: 'standard',
+})
+/** Only the apprentice whose panel it is; no instructor or admin posts for them. */
+const ownPanel = (ok: number): Expect => ({
+  none: 401,
+  apprentice: ok,
+  peer: 403,
+  instructor: 403,
+  admin: 403,
+})
 
 const ROUTES: Route[] = [
   { method: 'get', path: () => '/api/health', expect: everyone(200) },
@@ -534,6 +565,62 @@ const ROUTES: Route[] = [
     path: (w) => `/api/lti/cohorts/${w.cohortA.id}/score-sync/retry`,
     expect: ownCohortStaff(200),
   },
+  // live classroom: the apprentice's own panel; the cohort's instructors (and admins) watch and command it
+  {
+    method: 'post',
+    path: () => `/api/live/attempts/${LIVE_ATTEMPT}/session`,
+    body: liveSession,
+    // A classmate reusing the id: 409; Bea is not set the assignment: 403.
+    expect: { ...ownPanel(200), peer: 409, outsider: 403 },
+  },
+  {
+    method: 'post',
+    path: () => `/api/live/attempts/${LIVE_ATTEMPT}/events`,
+    body: () => ({ from: 0, events: [], status: LIVE_STATUS }),
+    expect: ownPanel(200),
+  },
+  {
+    method: 'post',
+    path: () => `/api/live/attempts/${LIVE_ATTEMPT}/close`,
+    expect: ownPanel(204),
+    restore: async (_w, api) => {
+      await api.dataSource
+        .getRepository(LiveSessionEntity)
+        .update({ attemptId: LIVE_ATTEMPT }, { endedAt: null })
+    },
+  },
+  {
+    method: 'get',
+    path: () => `/api/live/attempts/${LIVE_ATTEMPT}/inbox`,
+    stream: true,
+    expect: ownPanel(200),
+  },
+  { method: 'get', path: (w) => `/api/live/cohorts/${w.cohortA.id}/class`, expect: ownCohortStaff(200) },
+  {
+    method: 'get',
+    path: (w) => `/api/live/cohorts/${w.cohortA.id}/stream`,
+    stream: true,
+    expect: ownCohortStaff(200),
+  },
+  { method: 'get', path: () => `/api/live/attempts/${LIVE_ATTEMPT}`, expect: ownCohortStaff(200) },
+  {
+    method: 'get',
+    path: () => `/api/live/attempts/${LIVE_ATTEMPT}/stream`,
+    stream: true,
+    expect: ownCohortStaff(200),
+  },
+  {
+    method: 'post',
+    path: () => `/api/live/attempts/${LIVE_ATTEMPT}/injections`,
+    body: () => ({ fault: { kind: 'blownFuse' } }),
+    expect: ownCohortStaff(201),
+  },
+  {
+    method: 'post',
+    path: () => '/api/live/messages',
+    body: (w) => ({ cohortId: w.cohortA.id, kind: 'hint', text: 'Prove it dead before you touch it' }),
+    expect: ownCohortStaff(200),
+  },
 ]
 
 function expected(e: Expect, who: Who): number {
@@ -563,11 +650,36 @@ describe('access matrix: every route × every role', () => {
       admin: w.admin,
     }) as Record<Exclude<Who, 'none'>, TestUser>
 
+  let server: Server
   beforeAll(async () => {
     api = await createTestApi()
     w = await buildWorld(api)
+    const opened = await supertest(api.app)
+      .post(`/api/live/attempts/${LIVE_ATTEMPT}/session`)
+      .set('Authorization', `Bearer ${w.apprenticeA1.token}`)
+      .send(liveSession(w))
+    expect(opened.status).toBe(201)
+    server = api.app.listen(0, '127.0.0.1')
+    await new Promise((resolve) => server.once('listening', resolve))
   })
-  afterAll(() => api.close())
+  afterAll(async () => {
+    server.closeAllConnections()
+    await new Promise((resolve) => server.close(resolve))
+    await api.close()
+  })
+
+  /** A stream's status and (refused) body from a real server; an accepted stream is dropped at once. */
+  async function streamStatus(path: string, token: string | undefined) {
+    const abort = new AbortController()
+    const url = `http://127.0.0.1:${(server.address() as AddressInfo).port}${path}`
+    const response = await fetch(url, {
+      headers: token ? { Authorization: `Bearer ${token}` } : {},
+      signal: abort.signal,
+    })
+    const body = response.ok ? {} : ((await response.json()) as { error?: { code: string } })
+    abort.abort()
+    return { status: response.status, body, text: '' }
+  }
 
   const cases = ROUTES.flatMap((route) =>
     WHO.map((who) => ({ route, who, status: expected(route.expect, who) })),
@@ -587,8 +699,14 @@ describe('access matrix: every route × every role', () => {
     ),
   )('%s', async (_name, { route, who, status }) => {
     await route.restore?.(w, api)
-    let request = supertest(api.app)[route.method](route.path(w))
     const user = who === 'none' ? undefined : users()[who]
+    if (route.stream) {
+      const response = await streamStatus(route.path(w), user?.token)
+      expect(response.status).toBe(status)
+      if (status >= 400) expect(response.body.error?.code, 'error body').toEqual(expect.any(String))
+      return
+    }
+    let request = supertest(api.app)[route.method](route.path(w))
     if (user) request = request.set('Authorization', `Bearer ${user.token}`)
     if (route.attach) {
       request = request.attach(route.attach.field, Buffer.from(route.attach.content(w)), {

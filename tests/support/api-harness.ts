@@ -28,6 +28,7 @@ import { createLifecycle, type Lifecycle } from '../../server/infrastructure/htt
 import { createMetrics } from '../../server/infrastructure/metrics'
 import type { OutboxSmtp } from '../../server/infrastructure/mail/outbox-smtp'
 import { createPasswordHasher, type PasswordHasher } from '../../server/infrastructure/security/passwords'
+import { createLiveHub, type LiveHub, type LiveHubOptions } from '../../server/live/live-hub'
 import { importShippedScenarios } from '../../server/scenarios/scenarios.service'
 import { createTestDatabase } from './test-database'
 
@@ -53,6 +54,8 @@ export interface TestApiOptions {
   log?: Logger
   /** Learning-platform timings (key-set cache, grade retries). */
   lti?: AppDeps['lti']
+  /** Live classroom timings (sweep, idle and disconnected thresholds, stream heartbeat). */
+  live?: LiveHubOptions
 }
 
 export interface TestUser {
@@ -72,6 +75,8 @@ export interface TestApi {
   grading: GradingPool
   /** Requests in flight; drain() starts a shutdown's 503s. */
   lifecycle: Lifecycle
+  /** The live classroom's bus and rows. */
+  live: LiveHub
   passwords: PasswordHasher
   outbox: OutboxSmtp
   dataDir: string
@@ -114,7 +119,12 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     options.grading ??
     createGradingPool({ threads: 1, queueLimit: config.gradingQueueLimit, onTask: metrics.gradingTask })
   const lifecycle = createLifecycle()
+  const live = createLiveHub(dataSource, log, {
+    ...options.live,
+    postgresUrl: config.database.driver === 'postgres' ? config.database.url : undefined,
+  })
   const app = createApp({
+    live,
     dataSource,
     config,
     jwtSecret: TEST_JWT_SECRET,
@@ -168,6 +178,7 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     jobs,
     grading,
     lifecycle,
+    live,
     passwords,
     outbox,
     dataDir,
@@ -179,6 +190,7 @@ export async function createTestApi(options: TestApiOptions = {}): Promise<TestA
     },
     async close() {
       await grading.close()
+      await live.close()
       await jobs.close()
       await dataSource.destroy()
       await database.drop()

@@ -5,7 +5,13 @@ import { Piscina } from 'piscina'
 import type { AssistanceLevel } from '@shared/scenario/assistance'
 import { HttpError } from '../../http-error'
 import { unreplayableLog } from './grading'
-import type { GradingTask, LogGradeReport, ReadReport, SubmissionHeader } from './grading-worker'
+import type {
+  GradingTask,
+  LiveRecordsInLog,
+  LogGradeReport,
+  ReadReport,
+  SubmissionHeader,
+} from './grading-worker'
 import { workerFile } from '../worker-file'
 import { GRADING_THREAD_RESOURCE_LIMITS } from './thread-limits'
 
@@ -16,6 +22,7 @@ export interface ReadSubmission {
   eventsJson: string
   eventCount: number
   hintRevealed: boolean
+  live: LiveRecordsInLog
 }
 
 /** A grade as the attempt row stores it. */

@@ -40,8 +40,16 @@ export type ReadReport =
       eventsJson: string
       eventCount: number
       hintRevealed: boolean
+      /** What the live classroom put in the log, for the submission to check against its records. */
+      live: LiveRecordsInLog
     }
   | { ok: false; code: 'invalid_json' | 'validation_failed'; message: string; details?: unknown }
+
+/** The log's `fault.injected` and `message.received` events (few), without the rest of the log. */
+export interface LiveRecordsInLog {
+  injections: Extract<AttemptEvent, { type: 'fault.injected' }>[]
+  messages: Extract<AttemptEvent, { type: 'message.received' }>[]
+}
 
 // Scenario versions are parsed once per thread; the document is compared so an edited draft is re-read.
 const parsed = new Map<string, { document: string; scenario: Scenario }>()
@@ -90,6 +98,10 @@ export function readSubmission(body: Uint8Array | null): ReadReport {
     eventsJson: JSON.stringify(events),
     eventCount: events.length,
     hintRevealed: events.some((e) => e.type === 'hint.revealed'),
+    live: {
+      injections: events.filter((e) => e.type === 'fault.injected'),
+      messages: events.filter((e) => e.type === 'message.received'),
+    },
   }
 }
 

@@ -10,6 +10,11 @@ export interface Lifecycle {
   middleware: RequestHandler
   /** From now on new requests get 503; resolves when none is in flight (true) or after timeoutMs (false). */
   drain(timeoutMs: number): Promise<boolean>
+  /**
+   * Called once when draining begins: long-lived responses (event streams) end themselves here, so they do
+   * not hold the shutdown until its timeout. Returns the way to unregister.
+   */
+  onDrain(listener: () => void): () => void
 }
 
 /** Still answered while draining: the process is alive (it is /api/ready that turns 503). */
@@ -19,6 +24,7 @@ export function createLifecycle(): Lifecycle {
   let draining = false
   const inFlight = new Set<Response>()
   let idle: (() => void) | undefined
+  const drainListeners = new Set<() => void>()
 
   return {
     get draining() {
@@ -60,8 +66,14 @@ export function createLifecycle(): Lifecycle {
       res.once('close', done)
       next()
     },
+    onDrain(listener) {
+      drainListeners.add(listener)
+      return () => drainListeners.delete(listener)
+    },
     drain(timeoutMs) {
       draining = true
+      for (const listener of [...drainListeners]) listener()
+      drainListeners.clear()
       // Answers still to come close their connections too, so no client sends on one that is about to go.
       for (const res of inFlight) if (!res.headersSent) res.setHeader('Connection', 'close')
       if (inFlight.size === 0) return Promise.resolve(true)
