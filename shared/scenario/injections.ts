@@ -79,11 +79,10 @@ export class InjectionTrack {
     // gone when it is taken off, but its replacement is fitted after): all of it must be done isolated.
     const unsafe = violations.filter((v) => WORK_KINDS.includes(v.kind))
     if (unsafe.length > 0) this.#unsafe = [...this.#unsafe, ...unsafe]
-    if (
-      sample.at === 'after' &&
-      sample.event?.type === 'power.on' &&
-      !faultPresent(sample.state, this.#event.fault)
-    )
+    // A setting is put right on the keypad: no terminal work, so the repair ends when it is saved back.
+    const { fault } = this.#event
+    const restored = sample.at === 'after' && !faultPresent(sample.state, fault)
+    if (restored && (fault.kind === 'settingChanged' || sample.event?.type === 'power.on'))
       this.#closed = true
   }
 

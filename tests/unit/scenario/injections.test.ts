@@ -151,6 +151,18 @@ describe('grading a fault an instructor put in', () => {
     ])
   })
 
+  it('does not hold later unrelated work against a setting already saved back', () => {
+    const b = new LogBuilder(toSimulationSetup(scenario))
+    b.waitUntil((d) => d.power === 'ready', 'ready').wait(2000)
+    b.record(injection({ kind: 'settingChanged', key: 'stop.mode', value: 'coast' }, 5)).wait(2000)
+    b.set('stop.mode', 'ramp').save().wait(2000)
+    // Later, a wire taken off with the supply on: a safety violation of the attempt, not of this repair.
+    b.unwire('wLowerOut').wait(2000)
+    const result = grade(scenario, b.end())
+    expect(result.safetyViolations.length).toBeGreaterThan(0)
+    expect(result.objectives.find((o) => o.injection && o.kind === 'faultFoundAndCleared')?.met).toBe(true)
+  })
+
   it('finds a dead input by the voltage on its terminal while the drive shows it OFF', () => {
     const b = new LogBuilder(toSimulationSetup(scenario))
     b.waitUntil((d) => d.power === 'ready', 'ready').wait(2000)
