@@ -152,6 +152,31 @@ describe('the older kinds injected mid-attempt', () => {
     expect(faultPresent(s, fault)).toBe(true)
   })
 
+  it('blows the control fuse mid-run (the drive loses +24 V and its inputs) until the fuse is replaced', () => {
+    const fault: InjectedFault = { kind: 'blownFuse' }
+    const s = run(start(), [switchRun(500, 1), inject(5000, fault)])
+    expect(s.fuseBlown).toBe(true)
+    expect(s.inputs[0]).toBe(false)
+    expect(faultPresent(s, fault)).toBe(true)
+    const repaired = run(s, [
+      { t: 6000, type: 'power.off' },
+      { t: 7000, type: 'fuse.replaced' },
+    ])
+    expect(faultPresent(repaired, fault)).toBe(false)
+  })
+
+  it('breaks a motor-cable conductor mid-attempt until the cable is replaced', () => {
+    const fault: InjectedFault = { kind: 'motorConductorOpen', conductor: 'v' }
+    const s = run(start(), [inject(1000, fault)])
+    expect(s.motor.openConductors).toEqual(['v'])
+    expect(withFaultCleared(s, fault).motor.openConductors).toEqual([])
+    const repaired = run(s, [
+      { t: 2000, type: 'power.off' },
+      { t: 3000, type: 'motor.cableReplaced' },
+    ])
+    expect(faultPresent(repaired, fault)).toBe(false)
+  })
+
   it('changes nothing for a target the bench does not have, but records the injection', () => {
     const before = run(start(), [switchRun(500, 1)])
     const s = run(before, [inject(1000, { kind: 'brokenWire', wireId: 'gone' })])
