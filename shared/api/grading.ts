@@ -20,6 +20,13 @@ export const objectiveResultSchema = z.object({
   evidence: z.string(),
   /** Simulated ms the evidence refers to, when it is one moment. */
   at: z.number().min(0).optional(),
+  /**
+   * Live classroom: the objective belongs to a fault an instructor put in (which one in order, from 0;
+   * when, in simulated ms; the instructor's name). Absent for the scenario's own objectives.
+   */
+  injection: z
+    .object({ id: z.string(), index: z.number().int().min(0), at: z.number().min(0), by: z.string() })
+    .optional(),
 })
 export type ObjectiveResult = z.infer<typeof objectiveResultSchema>
 

@@ -20,7 +20,8 @@ import {
 } from './settings'
 import { settle } from './settle'
 import { advancePieces, type BreakpointSink } from './time'
-import type { InjectedFault, LockTag } from './setup'
+import { forgetRestoredSettings, injectFault } from './injection'
+import type { LockTag } from './setup'
 import type { BreakpointKind, DeviceState, EventMessage, SimState } from './types'
 
 // Handlers complete a draft made for this event (a fresh copy of the state nobody else holds):
@@ -274,7 +275,7 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
       state.settings = { ...state.settings, pending: { ...state.settings.pending, [event.key]: event.value } }
       return state
     case 'settings.saved':
-      return saveSettings(state)
+      return forgetRestoredSettings(saveSettings(state))
     case 'power.on':
       return powerOn(state)
     case 'power.off':
@@ -332,6 +333,8 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
         return pressKey(state, event.key)
       return state
     case 'fault.injected':
+      // Recorded whether or not it took, so the grader knows every part an instructor touched.
+      state.injected = [...(state.injected ?? []), event.fault]
       return injectFault(state, event.fault)
     case 'hint.revealed':
     case 'diagnosis.recorded':
@@ -341,43 +344,12 @@ function applyToState(state: SimState, event: AttemptEvent): SimState {
   }
 }
 
-const DEVICE_FAULTS = {
-  contactFailedOpen: 'failedOpen',
-  contactWelded: 'welded',
-  wrongContactType: 'wrongType',
-} as const
-
-/**
- * An instructor's fault arriving mid-attempt (live classroom): the bench changes as it would had the fault
- * been there from the start. A target that is not on this bench (a wire since removed) changes nothing.
- */
-function injectFault(state: SimState, fault: InjectedFault): SimState {
-  switch (fault.kind) {
-    case 'brokenWire':
-      if (state.wires.some((w) => w.id === fault.wireId) && !state.brokenWires.includes(fault.wireId))
-        state.brokenWires = [...state.brokenWires, fault.wireId]
-      return state
-    case 'blownFuse':
-      state.fuseBlown = true
-      return state
-    case 'motorConductorOpen':
-      if (!state.motor.openConductors.includes(fault.conductor))
-        state.motor = { ...state.motor, openConductors: [...state.motor.openConductors, fault.conductor] }
-      return state
-    default: {
-      const device = state.devices[fault.device]
-      if (!device || device.spec.kind === 'potentiometer') return state
-      state.devices = { ...state.devices, [fault.device]: { ...device, fault: DEVICE_FAULTS[fault.kind] } }
-      return state
-    }
-  }
-}
-
 function needsSettling(before: SimState, after: SimState): boolean {
   return (
     before.devices !== after.devices ||
     before.wires !== after.wires ||
     before.brokenWires !== after.brokenWires ||
+    before.deadInputs !== after.deadInputs ||
     before.fuseBlown !== after.fuseBlown ||
     before.settings.active !== after.settings.active ||
     before.drive !== after.drive ||

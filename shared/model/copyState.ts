@@ -3,7 +3,7 @@
 import type { SimState } from './types'
 
 export function copyState(s: SimState): SimState {
-  return {
+  const copy: SimState = {
     t: s.t,
     devices: s.devices,
     deviceOrder: s.deviceOrder,
@@ -25,4 +25,9 @@ export function copyState(s: SimState): SimState {
     reference: s.reference,
     messages: s.messages,
   }
+  // Fields only a bench with those faults has: absent otherwise, so other states keep their shape.
+  if (s.deadInputs) copy.deadInputs = s.deadInputs
+  if (s.settingsBefore) copy.settingsBefore = s.settingsBefore
+  if (s.injected) copy.injected = s.injected
+  return copy
 }

@@ -5,6 +5,7 @@ import { initialDrive, sendDrive } from './driveTransitions'
 import { ModelInputError } from './errors'
 import { driveConfig } from './functions'
 import { STRAIGHT_CABLE } from './motorCable'
+import { deviceFaultOf, injectFault } from './injection'
 import { nameplateFromSettings, nameplateProblems } from './nameplate'
 import { crossCheckSettings, DEFAULT_SETTINGS, validateSetting, type SettingValues } from './settings'
 import { simulationSetupSchema, type SimulationSetup } from './setup'
@@ -48,6 +49,12 @@ function checkSetup(setup: SimulationSetup): SettingValues {
         fail(`The ${f.kind} fault needs a device with a contact, not "${f.device}".`)
     }
   }
+  const changed = new Set<string>()
+  for (const f of setup.faults) {
+    if (f.kind !== 'settingChanged') continue
+    if (changed.has(f.key)) fail(`Two setting faults change "${f.key}".`)
+    changed.add(f.key)
+  }
   if (setup.power.on && setup.power.locked) fail('The disconnect cannot be locked while it is on.')
   if (setup.power.on && setup.power.supervisorLock)
     fail(`The disconnect cannot carry ${setup.power.supervisorLock.name}'s lock while it is on.`)
@@ -63,6 +70,15 @@ function checkSetup(setup: SimulationSetup): SettingValues {
   }
   const problems = crossCheckSettings(active as SettingValues)
   if (problems.length > 0) fail(`Starting settings: ${problems[0].message}`)
+  for (const f of setup.faults) {
+    if (f.kind !== 'settingChanged') continue
+    const check = validateSetting(f.key, f.value)
+    if (!check.ok) fail(`The setting fault on ${f.key}: ${check.message}`)
+    if (check.value === active[f.key])
+      fail(`The setting fault on ${f.key} changes nothing: it is already ${String(check.value)}.`)
+    const clash = crossCheckSettings({ ...active, [f.key]: check.value } as SettingValues)[0]
+    if (clash) fail(`The setting fault on ${f.key}: ${clash.message}`)
+  }
   return active as SettingValues
 }
 
@@ -79,14 +95,7 @@ export function createSimulation(setup: SimulationSetup): SimState {
       contact: spec.contact ?? 'NO',
       pressed: false,
       position: spec.position ?? 0,
-      fault:
-        fault?.kind === 'contactFailedOpen'
-          ? 'failedOpen'
-          : fault?.kind === 'contactWelded'
-            ? 'welded'
-            : fault?.kind === 'wrongContactType'
-              ? 'wrongType'
-              : 'none',
+      fault: fault && 'device' in fault ? deviceFaultOf(fault.kind) : 'none',
     }
   }
   const lineVolts = valid.lineVolts ?? DEFAULT_LINE_VOLTS
@@ -125,6 +134,11 @@ export function createSimulation(setup: SimulationSetup): SimState {
     speed: { mode: 'still', since: 0, hz: 0, slope: 0, targetHz: 0, targetSlope: 0 },
     reference: { since: 0, hz: active['speed.min'], slope: 0 },
     messages: [],
+  }
+  // Faults held outside the circuit (a dead input, a setting changed from the intended one) go in as an
+  // instructor's would; the motor's nameplate above still matches the intended settings.
+  for (const fault of valid.faults) {
+    if (fault.kind === 'inputUnresponsive' || fault.kind === 'settingChanged') injectFault(state, fault)
   }
   if (valid.power.on) {
     // Powered at the start: as if switched on long ago (bus charged, electronics awake).

@@ -28,6 +28,8 @@ export const DIAGNOSIS_FINDINGS = [
   'shorted',
   'wrongTerminal',
   'wrongSetting',
+  /** A drive input that does not see what its terminal is given (the input stage inside the drive). */
+  'notResponding',
 ] as const
 export type DiagnosisFinding = (typeof DIAGNOSIS_FINDINGS)[number]
 
@@ -41,6 +43,7 @@ export const DIAGNOSIS_FINDING_LABELS: Record<DiagnosisFinding, string> = {
   shorted: 'Short circuit to another conductor',
   wrongTerminal: 'Landed on the wrong terminal',
   wrongSetting: 'Set to the wrong value',
+  notResponding: 'Input does not respond: the drive shows it OFF while its terminal is switched ON',
 }
 
 /** The same in a few words, for lists and evidence ("open circuit"). */
@@ -53,6 +56,7 @@ export const DIAGNOSIS_FINDING_SHORT: Record<DiagnosisFinding, string> = {
   shorted: 'short circuit',
   wrongTerminal: 'on the wrong terminal',
   wrongSetting: 'set wrong',
+  notResponding: 'input not responding',
 }
 
 export function sameDiagnosisTarget(a: DiagnosisTarget, b: DiagnosisTarget): boolean {

@@ -38,3 +38,4 @@ export { STRAIGHT_CABLE, phaseOpen, phaseOrderReversed, conductorOn } from './mo
 export { INPUT_OHMS_AT_24V } from './circuit/constants'
 export { ModelInputError } from './errors'
 export { faultPresent, withFaultCleared } from './faults'
+export { settingChangeRefusal } from './injection'

@@ -62,8 +62,23 @@ interface CircuitSources {
 /** What each circuit summary was computed from, to skip rebuilding an unchanged configuration. */
 const sourcesOf = new WeakMap<SimState['circuit'], CircuitSources>()
 
-/** Re-solves the control network if its configuration changed; updates inputs (with hysteresis). */
+/**
+ * Re-solves the control network if its configuration changed; updates inputs (with hysteresis). An input
+ * that stopped responding reads OFF whatever its terminal sees (the terminal's voltage is unchanged).
+ */
 function refreshCircuit(draft: SimState): void {
+  solveCircuit(draft)
+  if (draft.deadInputs) silenceDeadInputs(draft, draft.deadInputs)
+}
+
+function silenceDeadInputs(draft: SimState, dead: readonly number[]): void {
+  if (!dead.some((n) => draft.inputs[n - 1])) return
+  const inputs = [...draft.inputs]
+  for (const n of dead) inputs[n - 1] = false
+  draft.inputs = inputs
+}
+
+function solveCircuit(draft: SimState): void {
   const controlOn = draft.bus.controlOn
   const relay = controlOn && relayCondition(draft.drive.value, draft.settings.active['relay.function'])
   const last = sourcesOf.get(draft.circuit)

@@ -1,6 +1,6 @@
 // The starting state of a simulation (from a scenario), as zod schemas with the inferred types.
 import { z } from 'zod'
-import { DEVICE_KINDS, MOTOR_TERMINALS, OUTPUT_PHASES } from './points'
+import { DEVICE_KINDS, DIGITAL_INPUT_NUMBERS, MOTOR_TERMINALS, OUTPUT_PHASES } from './points'
 import { SETTING_KEYS } from './settings'
 
 export const CONTACT_TYPES = ['NO', 'NC'] as const
@@ -70,6 +70,20 @@ export const injectedFaultSchema = z.discriminatedUnion('kind', [
   z.object({ kind: z.literal('blownFuse') }),
   /** One conductor of the motor cable broken inside (open from drive terminal to motor terminal). */
   z.object({ kind: z.literal('motorConductorOpen'), conductor: z.enum(OUTPUT_PHASES) }),
+  /**
+   * A drive input that stops responding (its input stage damaged): the drive reads it OFF whatever its
+   * terminal sees. Cleared when its function is moved to a working input (faults.ts says why).
+   */
+  z.object({ kind: z.literal('inputUnresponsive'), input: z.literal(DIGITAL_INPUT_NUMBERS) }),
+  /**
+   * A setting changed behind the apprentice's back: the active value becomes `value`, as if keyed in and
+   * saved. Cleared when the setting is saved back to the value it had before.
+   */
+  z.object({
+    kind: z.literal('settingChanged'),
+    key: z.enum(SETTING_KEYS),
+    value: z.union([z.number(), z.string().max(80), z.boolean()]),
+  }),
 ])
 export type InjectedFault = z.infer<typeof injectedFaultSchema>
 

@@ -5,6 +5,7 @@ import type { InputFunction, SettingKey, SettingValue, SettingValues } from './s
 import type {
   ContactType,
   DeviceSpec,
+  InjectedFault,
   LockTag,
   MachineLoad,
   MotorCable,
@@ -180,6 +181,18 @@ export interface SimState {
   reference: ReferencePiece
   /** Messages from the last event applied (refusals, save results). */
   messages: EventMessage[]
+  /**
+   * Drive inputs that stopped responding (an injected fault): read OFF whatever their terminal sees. They
+   * stay dead (the damage is in the drive); absent on a bench without one.
+   */
+  deadInputs?: readonly DigitalInputNumber[]
+  /**
+   * Settings changed behind the apprentice's back (an injected fault), with the value each had before;
+   * a key leaves when the setting is saved back to that value. Absent on a bench without one.
+   */
+  settingsBefore?: Partial<Record<SettingKey, SettingValue>>
+  /** Faults an instructor put in mid-attempt (live classroom), in order; absent before the first. */
+  injected?: readonly InjectedFault[]
 }
 
 export interface InputReading {

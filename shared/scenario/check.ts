@@ -13,6 +13,7 @@ import {
   nameplateProblems,
   RESERVED_DEVICE_IDS,
   settingDef,
+  inputFunctionKey,
   validateSetting,
   type SettingValues,
 } from '../model'
@@ -125,6 +126,24 @@ function semanticProblems(scenario: Scenario): ScenarioProblem[] {
     if (fault.kind === 'brokenWire') {
       if (!wireIds.has(fault.wireId))
         add(['faults', i, 'wireId'], `no starting wire has the id "${fault.wireId}"`)
+    } else if (fault.kind === 'inputUnresponsive') {
+      const fn = merged[inputFunctionKey(fault.input)]
+      if (fn === 'none')
+        add(
+          ['faults', i, 'input'],
+          `DI${fault.input} has no function at the start, so its fault would show nothing`,
+        )
+    } else if (fault.kind === 'settingChanged') {
+      const check = validateSetting(fault.key, fault.value)
+      if (!check.ok) add(['faults', i, 'value'], check.message)
+      else if (check.value === merged[fault.key])
+        add(['faults', i, 'value'], 'the starting settings already have this value, so nothing would change')
+      else {
+        const clash = crossCheckSettings({ ...merged, [fault.key]: check.value } as SettingValues)[0]
+        if (clash) add(['faults', i, 'value'], clash.message)
+      }
+      if (scenario.faults.some((f, j) => j < i && f.kind === 'settingChanged' && f.key === fault.key))
+        add(['faults', i, 'key'], 'another fault already changes this setting')
     } else if (fault.kind !== 'blownFuse' && fault.kind !== 'motorConductorOpen') {
       const device = devices.get(fault.device)
       if (!device) add(['faults', i, 'device'], `no device has the id "${fault.device}"`)
@@ -358,15 +377,20 @@ function checkTitles(scenario: Scenario, add: (path: readonly PropertyKey[], mes
 /**
  * The shipped scenarios' rule for troubleshooting (`npm run scenarios:check`; not part of checkScenario, so a
  * test can grade one objective on a bench with a fault): each injected fault has a diagnosisCorrect and a
- * discriminatingMeasurement objective, and there is a noNeedlessReplacements objective.
+ * discriminatingMeasurement objective (a changed setting is read on the keypad, not measured: none for it),
+ * and there is a noNeedlessReplacements objective.
  */
 export function methodProblems(scenario: Scenario): ScenarioProblem[] {
   if (scenario.faults.length === 0) return []
   const problems: ScenarioProblem[] = []
   const judged = (kind: Objective['kind'], fault: number) =>
     scenario.objectives.some((o) => o.kind === kind && 'fault' in o && o.fault === fault)
-  scenario.faults.forEach((_fault, i) => {
-    for (const kind of ['diagnosisCorrect', 'discriminatingMeasurement'] as const)
+  scenario.faults.forEach((fault, i) => {
+    const kinds =
+      fault.kind === 'settingChanged'
+        ? (['diagnosisCorrect'] as const)
+        : (['diagnosisCorrect', 'discriminatingMeasurement'] as const)
+    for (const kind of kinds)
       if (!judged(kind, i))
         problems.push({
           path: jsonPath(['faults', i]),

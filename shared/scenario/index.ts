@@ -13,6 +13,7 @@ export {
   type SafetyViolation,
 } from './grade'
 export { createLiveGrader, type LiveGrader } from './liveGrader'
+export { INJECTION_POINTS, injectionTitle } from './injections'
 export { formatTime } from './format'
 export * from './assistance'
 export * from './names'

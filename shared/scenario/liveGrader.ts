@@ -1,10 +1,11 @@
 // The incremental grader: each event is folded into running objective state as it arrives, so
 // handling one more event costs the same at the end of a long attempt as at its start. The batch
 // grade() is this grader fed the whole log, so live ticks and the server's grade cannot disagree.
-import { ModelInputError, type AttemptEvent } from '../model'
+import { faultPresent, ModelInputError, type AttemptEvent } from '../model'
 import type { GradeResult, HintUse, SafetyViolation } from '../api/grading'
 import { DEFAULT_ASSISTANCE_LEVEL, hintCostAt, type AssistanceLevel } from './assistance'
 import { startObjective, type Folding } from './evaluators'
+import { InjectionTrack, type Injection } from './injections'
 import { SafetyRule } from './safety'
 import { AttemptSampler, type Sample } from './samples'
 import type { Scenario } from './schema'
@@ -58,6 +59,8 @@ class IncrementalGrader implements LiveGrader {
   readonly #objectives: Folding[]
   readonly #safety = new SafetyRule()
   readonly #hintsUsed: HintUse[] = []
+  /** Faults an instructor put in (live classroom), each with its own objectives from that moment on. */
+  readonly #injections: { id: string; track: InjectionTrack | undefined }[] = []
   /** The last sample stepped (the objectives compare a moment with the one before it). */
   #previous: Sample | undefined
   #eventCount = 0
@@ -107,7 +110,17 @@ class IncrementalGrader implements LiveGrader {
       }
       return objective.verdict(end)
     })
-    return scoreAttempt(this.#scenario, verdicts, [...this.#safety.violations], [...this.#hintsUsed], end.t)
+    const injected = this.#injections.flatMap(({ track }) =>
+      track ? track.results(tail, this.#previous, end) : [],
+    )
+    return scoreAttempt(
+      this.#scenario,
+      verdicts,
+      [...this.#safety.violations],
+      [...this.#hintsUsed],
+      end.t,
+      injected,
+    )
   }
 
   #take(sample: Sample): readonly SafetyViolation[] {
@@ -115,7 +128,27 @@ class IncrementalGrader implements LiveGrader {
     const previous = this.#previous
     for (let i = 0; i < objectives.length; i++) objectives[i] = objectives[i]!.step(sample, previous)
     this.#previous = sample
-    return this.#safety.step(sample)
+    const violations = this.#safety.step(sample)
+    for (const { track } of this.#injections) track?.step(sample, previous, violations)
+    if (sample.at === 'after' && sample.event?.type === 'fault.injected')
+      this.#injected(sample.event, sample, previous)
+    return violations
+  }
+
+  /**
+   * An instructor's fault: its objectives start at this moment. One that changed nothing (the part was
+   * gone, or already faulted) gets none; the same injection sent twice counts once.
+   */
+  #injected(event: Injection, sample: Sample, previous: Sample | undefined): void {
+    if (this.#injections.some((i) => i.id === event.injectionId)) return
+    if (!faultPresent(sample.state, event.fault)) {
+      this.#injections.push({ id: event.injectionId, track: undefined })
+      return
+    }
+    const index = this.#injections.filter((i) => i.track).length
+    const track = new InjectionTrack(this.#scenario, event, index, sample)
+    track.step(sample, previous, [])
+    this.#injections.push({ id: event.injectionId, track })
   }
 
   /** Each known hint counts once, at its first reveal, at its cost at this level; unknown hint ids cost nothing. */

@@ -1,7 +1,11 @@
 // Troubleshooting by method: what the right diagnosis of a fault is, and when a meter reading tells a
 // fault apart. The grader's method objectives (evaluators/method.ts) and checkScenario read these.
+import { TYPE1_LIMITS } from '../model/circuit/inputThresholds'
 import {
+  POINT_LABELS,
+  readCircuit,
   readMeter,
+  type DigitalInputNumber,
   withFaultCleared,
   type DiagnosisFinding,
   type DiagnosisTarget,
@@ -34,6 +38,10 @@ export function faultAnswer(fault: ScenarioFault): DiagnosisAnswer {
       return { target: { kind: 'device', device: fault.device }, findings: ['stuckClosed'] }
     case 'wrongContactType':
       return { target: { kind: 'device', device: fault.device }, findings: ['wrongContactType'] }
+    case 'inputUnresponsive':
+      return { target: { kind: 'terminal', point: `drive.di${fault.input}` }, findings: ['notResponding'] }
+    case 'settingChanged':
+      return { target: { kind: 'setting', key: fault.key }, findings: ['wrongSetting'] }
   }
 }
 
@@ -70,6 +78,8 @@ export interface TellingReading {
   reading: MeterReading
   /** What the same meter, probes and selector would show at this moment with the fault put right. */
   healthy: MeterReading
+  /** Why the reading tells the fault apart when the healthy bench reads the same (a dead input). */
+  because?: string
 }
 
 /**
@@ -80,7 +90,27 @@ export interface TellingReading {
 export function tellingReading(state: SimState, fault: ScenarioFault): TellingReading | undefined {
   const { red, black, mode } = state.meter
   if (mode === 'off' || red === null || black === null) return undefined
+  if (fault.kind === 'inputUnresponsive') return deadInputReading(state, fault.input)
   const reading = readMeter(state)
   const healthy = readMeter(withFaultCleared(state, fault))
   return readingsDiffer(reading, healthy) ? { reading, healthy } : undefined
+}
+
+/**
+ * A dead input reads the same on the meter as a healthy one: what tells it apart is the meter showing
+ * the terminal switched ON (at least the IEC 61131-2 type 1 ON voltage, 15 V, across it or to a supply
+ * rail) while the drive's input display shows it OFF. Undefined unless a probe is on that input and the
+ * input really sees an ON signal at this moment.
+ */
+function deadInputReading(state: SimState, input: DigitalInputNumber): TellingReading | undefined {
+  const point = `drive.di${input}`
+  if (state.meter.red !== point && state.meter.black !== point) return undefined
+  if (readCircuit(state).inputs[input - 1]?.region !== 'on') return undefined
+  const reading = readMeter(state)
+  if (reading.shows !== 'volts' || Math.abs(reading.volts ?? 0) < TYPE1_LIMITS.onMinVolts) return undefined
+  return {
+    reading,
+    healthy: reading,
+    because: `enough to switch the input ON, while the drive showed ${POINT_LABELS[point as 'drive.di1']} OFF`,
+  }
 }

@@ -156,6 +156,13 @@ export function faultName(fault: ScenarioFault, state: SimState): string {
       return `the welded contact ${contactTerminals(fault.device, state)} on ${deviceName(fault.device, state)}`
     case 'wrongContactType':
       return `the wrong contact block ${contactTerminals(fault.device, state)} on ${deviceName(fault.device, state)}`
+    case 'inputUnresponsive':
+      return `the drive's input ${pointName(`drive.di${fault.input}`, state)}, which stopped responding`
+    case 'settingChanged': {
+      const before = state.settingsBefore?.[fault.key]
+      const was = before === undefined ? '' : ` (it was ${settingValueName(fault.key, before)})`
+      return `the setting ${settingName(fault.key)} changed to ${settingValueName(fault.key, fault.value)}${was}`
+    }
   }
 }
 

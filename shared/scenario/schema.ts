@@ -1,6 +1,7 @@
 // The scenario file format: the zod schema every scenario file (shipped or uploaded) must satisfy.
 import { z } from 'zod'
-import { OUTPUT_PHASES } from '../model/points'
+import { DIGITAL_INPUT_NUMBERS, OUTPUT_PHASES } from '../model/points'
+import { SETTING_KEYS } from '../model/settings'
 import {
   CONTACT_TYPES,
   LOAD_KINDS,
@@ -65,6 +66,14 @@ export const injectedFaultSchema = z.discriminatedUnion('kind', [
   z.strictObject({ kind: z.literal('wrongContactType'), device: idSchema }),
   z.strictObject({ kind: z.literal('blownFuse') }),
   z.strictObject({ kind: z.literal('motorConductorOpen'), conductor: z.enum(OUTPUT_PHASES) }),
+  /** The drive reads this input (1–6) OFF whatever its terminal sees (model: setup.ts). */
+  z.strictObject({ kind: z.literal('inputUnresponsive'), input: z.literal(DIGITAL_INPUT_NUMBERS) }),
+  /** The setting starts at `value` instead of the starting settings' value (changed behind their back). */
+  z.strictObject({
+    kind: z.literal('settingChanged'),
+    key: z.enum(SETTING_KEYS),
+    value: z.union([z.number(), z.string().max(80), z.boolean()]),
+  }),
 ])
 
 export const settingValueSchema = z.union([z.string(), z.number(), z.boolean()])

@@ -146,7 +146,7 @@ describe('the live classroom, apprentice and instructor at once', () => {
     await i.getByRole('tab', { name: 'Timeline', exact: true }).click()
     await expect
       .poll(() => i.locator('#workspace-sheet').textContent(), { timeout: 20_000 })
-      .toContain(`${INSTRUCTOR.name} put in a fault: ${label}`)
+      .toMatch(new RegExp(`${INSTRUCTOR.name} put in a fault: broke wire W\\d`))
     await shootAtSizes(i, 'watch-view')
     expect(await accessibilityProblems(i)).toEqual([])
 

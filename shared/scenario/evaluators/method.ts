@@ -93,7 +93,7 @@ export const diagnosisCorrect: Evaluator<'diagnosisCorrect'> = (objective, { sce
       return watch
     },
     ({ diagnoses, repairedAt }, end) => {
-      const verdict = judgeDiagnosis(answer, atFault, diagnoses, repairedAt, end)
+      const verdict = judgeDiagnosis(answer, atFault, diagnoses, repairedAt, end, start.state)
       // Judged only once the repair is made, so a live tick never confirms a guess before the repair.
       if (repairedAt !== undefined) return verdict
       return {
@@ -105,15 +105,27 @@ export const diagnosisCorrect: Evaluator<'diagnosisCorrect'> = (objective, { sce
   )
 }
 
+/** The diagnosis names a part with something wrong: the scenario's, or one an instructor put a fault in by then. */
+function namesPartAtFault(
+  d: DiagnosisWatch['diagnoses'][number],
+  atFault: readonly DiagnosisTarget[],
+): boolean {
+  const { target } = d.event
+  if (atFault.some((p) => sameDiagnosisTarget(p, target))) return true
+  return (d.state.injected ?? []).some((f) => sameDiagnosisTarget(faultAnswer(f).target, target))
+}
+
 function judgeDiagnosis(
   answer: DiagnosisAnswer,
   atFault: readonly DiagnosisTarget[],
   diagnoses: DiagnosisWatch['diagnoses'],
   repairedAt: number | undefined,
   end: Sample,
+  /** The moment the part is named in: the start, when the part at fault was still fitted (a wire replaced is gone at the end). */
+  namedIn: SimState,
 ): Verdict {
   const findings = answer.findings.map((f) => DIAGNOSIS_FINDING_SHORT[f])
-  const right = `${diagnosisTargetName(answer.target, end.state)}: ${findings.length > 1 ? `${findings.slice(0, -1).join(', ')}, or ${findings.at(-1)}` : findings[0]}`
+  const right = `${diagnosisTargetName(answer.target, namedIn)}: ${findings.length > 1 ? `${findings.slice(0, -1).join(', ')}, or ${findings.at(-1)}` : findings[0]}`
   const when =
     repairedAt === undefined
       ? `by the end (${formatTime(end.t)})`
@@ -133,7 +145,7 @@ function judgeDiagnosis(
       at: last.event.t,
     }
   }
-  const healthy = diagnoses.filter((d) => !atFault.some((p) => sameDiagnosisTarget(p, d.event.target)))
+  const healthy = diagnoses.filter((d) => !namesPartAtFault(d, atFault))
   if (healthy.length > 0) {
     return {
       met: false,
@@ -185,10 +197,11 @@ export const discriminatingMeasurement: Evaluator<'discriminatingMeasurement'> =
         }
       }
       if (found) {
-        const { reading, healthy } = found.telling
+        const { reading, healthy, because } = found.telling
+        const tells = because ?? `a healthy circuit would read ${meterReadingName(healthy)}`
         return {
           met: true,
-          evidence: `At ${formatTime(found.t)} the meter on ${probePointsName(reading, found.state)} read ${meterReadingName(reading)}; a healthy circuit would read ${meterReadingName(healthy)}.`,
+          evidence: `At ${formatTime(found.t)} the meter on ${probePointsName(reading, found.state)} read ${meterReadingName(reading)}; ${tells}.`,
           at: found.t,
         }
       }

@@ -4,17 +4,35 @@
 import type { AttemptEvent } from '@shared/model/events'
 import type { Timeline } from '@shared/model/types'
 import type { GradeResult } from '@shared/scenario/grade'
-import { injectableFaults } from '@shared/scenario/injectable'
 import type { Scenario } from '@shared/scenario/schema'
-import { eventWireId, eventWords } from '../scene/eventWords'
+import { eventWireId, eventWords, injectionWords } from '../scene/eventWords'
 import type { PanelLayout } from '../scene/types'
 import { wireLabel } from '../scene/wireColours'
 import type { ObjectiveTick } from './PanelTaskPanel.vue'
 
 export interface TimelineMark {
   t: number
-  kind: 'event' | 'violation' | 'objective'
+  /** `injection`: a fault an instructor put in; `message`: a hint or message from an instructor. */
+  kind: 'event' | 'violation' | 'objective' | 'injection' | 'message'
   label: string
+}
+
+/** Who the replay is for: the apprentice's own replay never names an injected fault; an instructor's does. */
+export type ReplayAudience = 'apprentice' | 'instructor'
+
+function eventMark(
+  event: AttemptEvent,
+  layout: PanelLayout,
+  marker: string | undefined,
+  audience: ReplayAudience,
+): TimelineMark {
+  if (event.type === 'fault.injected') {
+    const label =
+      audience === 'instructor' ? injectionWords(event, layout, marker) : eventWords(event, layout, marker)
+    return { t: event.t, kind: 'injection', label }
+  }
+  const kind = event.type === 'message.received' ? 'message' : 'event'
+  return { t: event.t, kind, label: eventWords(event, layout, marker) }
 }
 
 /** The marker the panel showed on an event's wire: where the wire stood just after it was added, or before it went. */
@@ -26,35 +44,15 @@ function markerOf(event: AttemptEvent, index: number, timeline: Timeline): strin
   return at >= 0 ? wireLabel(wires[at].id, wires[at].colour, at) : undefined
 }
 
-/**
- * An instructor's fault in words for the instructors' views: who, and what from the catalogue of the bench
- * just before it (the apprentice's own views say only that something changed, as a real bench would).
- */
-function injectionWords(
-  event: Extract<AttemptEvent, { type: 'fault.injected' }>,
-  before: Timeline['segments'][number],
-) {
-  const wanted = JSON.stringify(event.fault)
-  const label = injectableFaults(before.state).find((o) => JSON.stringify(o.fault) === wanted)?.label
-  return `${event.by.name} put in a fault${label ? `: ${label}` : ''}`
-}
-
 export function replayMarks(
   events: readonly AttemptEvent[],
   timeline: Timeline,
   graded: GradeResult | null,
   layout: PanelLayout,
-  options: { nameInjections?: boolean } = {},
+  audience: ReplayAudience = 'apprentice',
 ): TimelineMark[] {
   return [
-    ...events.map((e, i) => ({
-      t: e.t,
-      kind: 'event' as const,
-      label:
-        e.type === 'fault.injected' && options.nameInjections && timeline.segments[i]
-          ? injectionWords(e, timeline.segments[i])
-          : eventWords(e, layout, markerOf(e, i, timeline)),
-    })),
+    ...events.map((e, i) => eventMark(e, layout, markerOf(e, i, timeline), audience)),
     ...(graded?.safetyViolations ?? []).map((v) => ({ t: v.t, kind: 'violation' as const, label: v.text })),
     ...(graded?.objectives ?? [])
       .filter((o) => o.met && o.at !== undefined)
@@ -72,7 +70,10 @@ export function objectivesAt(
   position: number,
   attemptEnd: number,
 ): ObjectiveTick[] {
-  return scenario.objectives.map((o) => {
+  // A fault an instructor put in brings its objectives at the moment it went in.
+  const injected = (graded?.objectives ?? []).filter((o) => o.injection && position >= o.injection.at)
+  const own = scenario.objectives.map((o) => ({ ...o, required: !!o.required }))
+  return [...own, ...injected].map((o) => {
     const r = graded?.objectives.find((x) => x.id === o.id)
     const metAt = r?.met ? (r.at ?? attemptEnd) : null
     const state =
@@ -84,7 +85,7 @@ export function objectivesAt(
     return {
       id: o.id,
       title: o.title,
-      required: !!o.required,
+      required: o.required,
       state,
       evidence: state === 'open' ? undefined : r?.evidence,
     }

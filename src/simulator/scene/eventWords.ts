@@ -2,6 +2,7 @@
 // to Faster 13", "Meter probes on DI1 and DIC"): the replay's timeline and the live announcements.
 import { DIAGNOSIS_FINDING_SHORT, type DiagnosisFinding, type DiagnosisTarget } from '@shared/model/diagnosis'
 import type { AttemptEvent } from '@shared/model/events'
+import type { InjectedFault } from '@shared/model/setup'
 import { METER_MODE_LABELS } from '@shared/model/meterModes'
 import { POINT_LABELS } from '@shared/model/points'
 import { conductorName } from '@shared/scenario/names'
@@ -20,6 +21,7 @@ export function wireName(id: string): string {
 export function eventWireId(event: AttemptEvent): string | undefined {
   if (event.type === 'wire.added' || event.type === 'wire.removed') return event.id
   if (event.type === 'diagnosis.recorded' && event.target.kind === 'wire') return event.target.wire
+  if (event.type === 'fault.injected' && event.fault.kind === 'brokenWire') return event.fault.wireId
   return undefined
 }
 
@@ -121,4 +123,41 @@ export function eventWords(event: AttemptEvent, layout: PanelLayout, wireMarker?
     case 'attempt.ended':
       return 'Attempt ended'
   }
+}
+
+/** What an instructor's fault did, in words, e.g. "broke wire W3 BU", "changed Maximum speed to 25 Hz". */
+export function injectedFaultWords(fault: InjectedFault, layout: PanelLayout, wireMarker?: string): string {
+  const device = (id: string) => layout.devices.find((d) => d.id === id)?.label ?? 'a device'
+  switch (fault.kind) {
+    case 'brokenWire':
+      return `broke ${wireMarker ? `wire ${wireMarker}` : wireName(fault.wireId).toLowerCase()}`
+    case 'blownFuse':
+      return 'blew the control fuse'
+    case 'motorConductorOpen':
+      return `broke conductor ${conductorName(fault.conductor)} inside the motor cable`
+    case 'contactFailedOpen':
+      return `made the contact of ${device(fault.device)} fail open`
+    case 'contactWelded':
+      return `welded the contact of ${device(fault.device)} closed`
+    case 'wrongContactType':
+      return `fitted a wrong contact block to ${device(fault.device)}`
+    case 'inputUnresponsive':
+      return `made input ${POINT_LABELS[`drive.di${fault.input}`]} stop responding`
+    case 'settingChanged': {
+      const def = settingDef(fault.key)
+      return `changed ${def.label} to ${formatSettingValue(def, fault.value as SettingValue)}`
+    }
+  }
+}
+
+/**
+ * An injection as the instructor's views show it, naming the fault ("Ottilie Marsh put in a fault: broke
+ * wire W3 BU"); the apprentice's replay uses eventWords, which does not.
+ */
+export function injectionWords(
+  event: Extract<AttemptEvent, { type: 'fault.injected' }>,
+  layout: PanelLayout,
+  wireMarker?: string,
+): string {
+  return `${event.by.name} put in a fault: ${injectedFaultWords(event.fault, layout, wireMarker)}`
 }

@@ -5,6 +5,7 @@
 import fc from 'fast-check'
 import {
   DIAGNOSIS_FINDINGS,
+  DIGITAL_INPUT_NUMBERS,
   CONTACT_TYPES,
   DRIVE_CONTROL_POINTS,
   DRIVE_POWER_POINTS,
@@ -171,8 +172,58 @@ export function eventBody(scenario: Scenario): fc.Arbitrary<EventBody> {
         .constantFrom(...hintIds)
         .map((hintId) => ({ type: 'hint.revealed', hintId }) as EventBody),
     },
+    // Live classroom: an instructor's fault (some on parts the bench does not have) and messages.
+    {
+      weight: 1,
+      arbitrary: fc
+        .record({
+          injectionId: fc.uuid({ version: 4 }),
+          fault: fc.oneof(
+            fc.constantFrom(...wireIds).map((wireId) => ({ kind: 'brokenWire' as const, wireId })),
+            deviceOf(['pushbutton', 'selector']).chain((device) =>
+              fc.constantFrom(
+                { kind: 'contactFailedOpen' as const, device },
+                { kind: 'contactWelded' as const, device },
+                { kind: 'wrongContactType' as const, device },
+              ),
+            ),
+            fc.constant({ kind: 'blownFuse' as const }),
+            fc
+              .constantFrom(...OUTPUT_PHASES)
+              .map((conductor) => ({ kind: 'motorConductorOpen' as const, conductor })),
+            fc
+              .constantFrom(...DIGITAL_INPUT_NUMBERS)
+              .map((input) => ({ kind: 'inputUnresponsive' as const, input })),
+            fc
+              .constantFrom(...settings)
+              .chain((def) =>
+                settingValue(def).map((value) => ({ kind: 'settingChanged' as const, key: def.key, value })),
+              ),
+          ),
+        })
+        .map((i) => ({ type: 'fault.injected', ...i, by: INSTRUCTOR }) as EventBody),
+    },
+    {
+      weight: 1,
+      arbitrary: fc
+        .record({
+          messageId: fc.uuid({ version: 4 }),
+          kind: fc.constantFrom('hint' as const, 'message' as const),
+        })
+        .map(
+          (m) =>
+            ({
+              type: 'message.received',
+              ...m,
+              text: 'Look again at the inputs.',
+              from: INSTRUCTOR,
+            }) as EventBody,
+        ),
+    },
   )
 }
+
+const INSTRUCTOR = { id: '00000000-0000-4000-8000-0000000000f1', name: 'Ottilie Marsh' }
 
 /** A gap between two events (ms): the same moment, a moment later, seconds, or minutes. */
 export const gap: fc.Arbitrary<number> = fc.oneof(

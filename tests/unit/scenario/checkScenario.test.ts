@@ -257,6 +257,36 @@ describe('checkScenario on the motor, its cable and the bench points', () => {
     )
   })
 
+  it('accepts a dead input and a changed setting as injected faults, and refuses ones that would show nothing', () => {
+    const on = (faults: Scenario['faults']) =>
+      problemsOf(variant((s) => (s.faults = faults), 'reference-memory.json'))
+    expect(
+      on([
+        { kind: 'inputUnresponsive', input: 2 },
+        { kind: 'settingChanged', key: 'stop.mode', value: 'coast' },
+      ]),
+    ).toEqual([])
+    expect(on([{ kind: 'inputUnresponsive', input: 5 }])).toMatchObject([
+      {
+        path: '$.faults[0].input',
+        message: 'DI5 has no function at the start, so its fault would show nothing',
+      },
+    ])
+    expect(on([{ kind: 'settingChanged', key: 'speed.max', value: 50 }])).toMatchObject([
+      {
+        path: '$.faults[0].value',
+        message: 'the starting settings already have this value, so nothing would change',
+      },
+    ])
+    expect(on([{ kind: 'settingChanged', key: 'speed.max', value: 900 }])[0]?.path).toBe('$.faults[0].value')
+    expect(
+      on([
+        { kind: 'settingChanged', key: 'speed.max', value: 40 },
+        { kind: 'settingChanged', key: 'speed.max', value: 30 },
+      ]),
+    ).toMatchObject([{ path: '$.faults[1].key', message: 'another fault already changes this setting' }])
+  })
+
   it('keeps the bench names motor and prover for the bench itself', () => {
     const problems = problemsOf(variant((s) => (s.start.devices[0].id = 'motor')))
     expect(problems.some((p) => p.path === '$.start.devices[0].id' && /reserved/.test(p.message))).toBe(true)

@@ -1,7 +1,7 @@
 // The catalogue an instructor picks from in the live classroom: what is on this bench now, in words, and
 // nothing already faulted.
 import { describe, expect, it } from 'vitest'
-import { applyEvent, createSimulation, type AttemptEvent, type SimState } from '@shared/model'
+import { applyEvent, createSimulation, readDrive, type AttemptEvent, type SimState } from '@shared/model'
 import { INJECTABLE_GROUPS, injectableFaults, toSimulationSetup } from '@shared/scenario'
 import { shippedScenario } from './helpers'
 
@@ -80,6 +80,81 @@ describe('injectableFaults', () => {
     expect(
       injectableFaults(repaired).filter((f) => 'device' in f.fault && f.fault.device === 'raiseButton'),
     ).toHaveLength(3)
+  })
+
+  it('offers each input that has a function, and settings changes the drive would take now', () => {
+    const list = injectableFaults(conveyor())
+    expect(list.filter((f) => f.group === INJECTABLE_GROUPS.inputs).map((f) => f.label)).toEqual([
+      'Make input DI1 stop responding (it is "Run (maintained contact)" now)',
+      'Make input DI2 stop responding (it is "Raise speed" now)',
+      'Make input DI3 stop responding (it is "Lower speed" now)',
+    ])
+    const settings = list.filter((f) => f.group === INJECTABLE_GROUPS.settings)
+    expect(settings.map((f) => f.label)).toContain('Change "Maximum speed" from 50 Hz to 25 Hz')
+    expect(settings.map((f) => f.fault)).toContainEqual({
+      kind: 'settingChanged',
+      key: 'di2.function',
+      value: 'none',
+    })
+    // Nothing offered changes a setting to the value it has.
+    for (const { fault } of settings)
+      if (fault.kind === 'settingChanged') expect(conveyor().settings.active[fault.key]).not.toBe(fault.value)
+  })
+
+  it('does not offer a dead input or a setting already changed behind their back', () => {
+    const by = { id: '00000000-0000-4000-8000-000000000001', name: 'Rhoswen Tally' }
+    const s = run(conveyor(), [
+      {
+        t: 1000,
+        type: 'fault.injected',
+        injectionId: '00000000-0000-4000-8000-000000000003',
+        fault: { kind: 'inputUnresponsive', input: 2 },
+        by,
+      },
+      {
+        t: 1000,
+        type: 'fault.injected',
+        injectionId: '00000000-0000-4000-8000-000000000004',
+        fault: { kind: 'settingChanged', key: 'speed.max', value: 25 },
+        by,
+      },
+    ])
+    const faults = injectableFaults(s).map((f) => f.fault)
+    expect(faults).not.toContainEqual({ kind: 'inputUnresponsive', input: 2 })
+    expect(faults).toContainEqual({ kind: 'inputUnresponsive', input: 3 })
+    expect(faults.some((f) => f.kind === 'settingChanged' && f.key === 'speed.max')).toBe(false)
+  })
+
+  it('offers an external fault only where a contact feeds the external-fault input, and it trips the drive', () => {
+    const setup = toSimulationSetup(shippedScenario('reference-memory'))
+    setup.devices.push({ id: 'guardSwitch', kind: 'selector', label: 'Guard closed', contact: 'NC' })
+    setup.wires.push(
+      { id: 'wGuardFeed', from: 'drive.p24', to: 'guardSwitch.a', colour: 'blue' },
+      { id: 'wGuardOut', from: 'guardSwitch.b', to: 'drive.di4', colour: 'blue' },
+    )
+    setup.settings['di4.function'] = 'externalFault'
+    const s = createSimulation(setup)
+    const external = injectableFaults(s).filter((f) => f.group === INJECTABLE_GROUPS.external)
+    expect(external).toEqual([
+      {
+        fault: { kind: 'contactFailedOpen', device: 'guardSwitch' },
+        label:
+          'Trip the external interlock: Guard closed, contact 11–12 opens (it feeds DI4, "External fault (normally closed: opening trips)")',
+        group: 'External fault',
+      },
+    ])
+    expect(injectableFaults(conveyor()).some((f) => f.group === INJECTABLE_GROUPS.external)).toBe(false)
+    const tripped = run(s, [
+      {
+        t: 1000,
+        type: 'fault.injected',
+        injectionId: '00000000-0000-4000-8000-000000000005',
+        fault: external[0]!.fault,
+        by: { id: '00000000-0000-4000-8000-000000000001', name: 'Rhoswen Tally' },
+      },
+    ])
+    expect(readDrive(s).tripped).toBe(false)
+    expect(readDrive(tripped).tripped).toBe(true)
   })
 
   it('never shows an internal id in a label', () => {
