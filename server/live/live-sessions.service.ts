@@ -134,15 +134,13 @@ export async function postEvents(
         throw new OutOfStep(held?.eventCount ?? 0)
       }
       if (body.events.length) {
-        await manager
-          .getRepository(LiveEventEntity)
-          .insert(
-            body.events.map((event, i) => ({
-              attemptId,
-              eventIndex: body.from + i,
-              event: JSON.stringify(event),
-            })),
-          )
+        await manager.getRepository(LiveEventEntity).insert(
+          body.events.map((event, i) => ({
+            attemptId,
+            eventIndex: body.from + i,
+            event: JSON.stringify(event),
+          })),
+        )
       }
     })
   } catch (error) {

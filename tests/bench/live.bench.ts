@@ -106,7 +106,7 @@ async function drive(
   servers: ServerProcess[],
   room: Classroom,
   seconds: number,
-  stream?: { frames: Map<string, number> },
+  stream?: { frames: Map<string, { count: number; at: number }[]> },
 ): Promise<RunFigures> {
   const sentAt = new Map<string, number>()
   const postTimes: number[] = []
@@ -163,9 +163,12 @@ async function drive(
   if (failures) throw new Error(`${failures} posts failed`)
   const delays: number[] = []
   if (stream) {
+    // A row carries the count of events held: a row that arrives with a higher count delivers this post too
+    // (the stream reads the row once per change, so posts close together may arrive as one row).
     for (const [key, t0] of sentAt) {
-      const received = stream.frames.get(key)
-      if (received !== undefined) delays.push(received - t0)
+      const [attemptId, count] = key.split(':') as [string, string]
+      const received = stream.frames.get(attemptId)?.find((f) => f.count >= Number(count))
+      if (received !== undefined) delays.push(received.at - t0)
     }
   }
   return {
@@ -189,15 +192,17 @@ async function measure(label: string, post: ServerProcess, read: ServerProcess, 
   const room = await openClassroom(post, read)
   // Baseline: the same posting with nobody reading the class view.
   const withoutStream = await drive(post, servers, room, Math.max(5, SECONDS / 2))
-  const frames = new Map<string, number>()
+  const frames = new Map<string, { count: number; at: number }[]>()
   const stream = await readSse(
     `${read.url}/api/live/cohorts/${room.cohortId}/stream`,
     room.instructorToken,
     {},
     (frame: SseFrame) => {
       const row = (frame.data as { row?: { attemptId: string; eventCount: number } }).row
-      const key = row && `${row.attemptId}:${row.eventCount}`
-      if (key && !frames.has(key)) frames.set(key, frame.at)
+      if (!row) return
+      const list = frames.get(row.attemptId) ?? []
+      list.push({ count: row.eventCount, at: frame.at })
+      frames.set(row.attemptId, list)
     },
   )
   if (stream.status !== 200) throw new Error(`class stream refused: ${stream.status}`)
