@@ -18,7 +18,7 @@ import { setClock } from '../../server/infrastructure/clock'
 import { bearer, createTestApi, type TestApi, type TestUser } from '../support/api-harness'
 import { STATUS } from '../support/live-status'
 import { readSse, type SseFrame } from '../support/sse-reader'
-import { buildWorld, type World } from '../support/world'
+import { buildWorld, submit, type World } from '../support/world'
 
 const events = (from: number, n: number) =>
   Array.from({ length: n }, (_, i) => ({ t: 1000 + (from + i) * 100, type: 'lock.removed' as const }))
@@ -90,6 +90,22 @@ describe('live classroom', () => {
       })
       expect(submitted.status).toBe(409)
       expect(submitted.body.error.message).toMatch(/already submitted/)
+      // A practice attempt saved in progress cannot come back as the assignment's.
+      const practiceId = randomUUID()
+      const saved = await submit(api, w.apprenticeA1, {
+        id: practiceId,
+        scenarioId: w.scenario.id,
+        status: 'inProgress',
+        events: [{ t: 100, type: 'lock.removed' }],
+      })
+      expect(saved.status).toBe(201)
+      const moved = await post(w.apprenticeA1, `/attempts/${practiceId}/session`, {
+        scenarioVersionId: w.scenario.id,
+        assignmentId: w.assignmentA.id,
+        assistance: 'standard',
+      })
+      expect(moved.status).toBe(409)
+      expect(moved.body.error.message).toMatch(/different assignment/)
       const theirs = await openPanel(w.apprenticeA1)
       const taken = await post(w.apprenticeA2, `/attempts/${theirs}/session`, {
         scenarioVersionId: w.scenario.id,
