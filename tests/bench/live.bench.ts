@@ -9,7 +9,7 @@
 // the panels post to instance A, the class stream is read from instance B.
 // Run alone: npx tsx --tsconfig tsconfig.node.json tests/bench/live.bench.ts (BENCH_LIVE_SECONDS sets the length)
 import { randomUUID } from 'node:crypto'
-import { mkdtempSync, readFileSync, rmSync } from 'node:fs'
+import { mkdtempSync, rmSync } from 'node:fs'
 import { loadavg, tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { pathToFileURL } from 'node:url'
@@ -19,22 +19,12 @@ import { STATUS } from '../support/live-status'
 import { startServerProcess, startSlipway, type ServerProcess } from '../support/server-process'
 import { readSse, type SseFrame } from '../support/sse-reader'
 import { createPostgresTestDatabase, onPostgres } from '../support/test-database'
+import { processCpuMs } from './api.bench'
 import { formatTable, type BenchRow } from './table'
 
 const PANELS = 30
 const INTERVAL_MS = 500
 const SECONDS = Number(process.env.BENCH_LIVE_SECONDS ?? 20)
-/** USER_HZ: 100 on Linux (sysconf(_SC_CLK_TCK); common practice). */
-const CLOCK_TICKS_PER_SECOND = 100
-
-function processCpuMs(pid: number | undefined): number {
-  try {
-    const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ')
-    return ((Number(fields[11]) + Number(fields[12])) * 1000) / CLOCK_TICKS_PER_SECOND
-  } catch {
-    return Number.NaN
-  }
-}
 const cpuOf = (servers: ServerProcess[]) => servers.reduce((sum, s) => sum + processCpuMs(s.child.pid), 0)
 
 const percentile = (values: number[], p: number) => {
