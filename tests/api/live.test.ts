@@ -263,6 +263,25 @@ describe('live classroom', () => {
       inbox.close()
     })
 
+    it('drops a watcher whose stream stopped refreshing it (its instance went away), on the sweep', async () => {
+      const attemptId = await openPanel()
+      const inbox = await readSse(`${base}/attempts/${attemptId}/inbox`, w.apprenticeA1.token)
+      const watch = await readSse(`${base}/attempts/${attemptId}/stream`, w.instructorA.token)
+      await inbox.next((f) => (f.data as { watchers?: unknown[] }).watchers?.length === 1)
+      const start = Date.now()
+      try {
+        // The heartbeat (a minute in these tests) has not refreshed the row for longer than a watcher lasts.
+        setClock(() => start + 50_000)
+        await api.live.sweep()
+        const dropped = await inbox.next((f) => f.event === 'watchers')
+        expect(dropped.data).toEqual({ type: 'watchers', watchers: [] })
+      } finally {
+        setClock(null)
+        watch.close()
+        inbox.close()
+      }
+    })
+
     it('resumes after a reconnect with Last-Event-ID (or ?after=): nothing missed, nothing doubled', async () => {
       const attemptId = await openPanel()
       await send(attemptId, 0, 3)
