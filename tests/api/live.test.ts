@@ -389,6 +389,35 @@ describe('live classroom', () => {
         fault: { kind: 'gremlins' },
       })
       expect(badFault.status).toBe(400)
+      // Well formed, but not on this bench: a wire it does not have; a fault it already has.
+      const noSuchWire = await post(w.instructorA, `/attempts/${attemptId}/injections`, {
+        fault: { kind: 'brokenWire', wireId: randomUUID() },
+      })
+      expect(noSuchWire.status).toBe(400)
+      expect(noSuchWire.body.error.details.fields.fault).toEqual(['Not on this bench, or already faulted'])
+      const first = await post(w.instructorA, `/attempts/${attemptId}/injections`, {
+        fault: { kind: 'blownFuse' },
+      })
+      expect(first.status).toBe(201)
+      const applied = await post(w.apprenticeA1, `/attempts/${attemptId}/events`, {
+        from: 0,
+        events: [
+          {
+            t: 100,
+            type: 'fault.injected',
+            injectionId: first.body.injectionId,
+            fault: { kind: 'blownFuse' },
+            by: { id: w.instructorA.user.id, name: w.instructorA.user.name },
+          },
+        ],
+        status: STATUS,
+      })
+      expect(applied.status).toBe(200)
+      const twice = await post(w.instructorA, `/attempts/${attemptId}/injections`, {
+        fault: { kind: 'blownFuse' },
+      })
+      expect(twice.status).toBe(400)
+      expect(twice.body.error.message).toMatch(/does not offer that fault now/)
       const empty = await post(w.instructorA, '/messages', {
         cohortId: w.cohortA.id,
         kind: 'hint',
