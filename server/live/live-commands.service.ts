@@ -71,6 +71,17 @@ async function assertInjectable(ctx: AppContext, session: LiveSessionRow, fault:
   const scenario = await findById(ctx.dataSource, ScenarioEntity, session.scenarioId)
   if (!scenario) throw new Error(`live session ${session.attemptId} names a missing scenario version`)
   const events = await eventsFrom(ctx, session.attemptId, 0)
+  // One already sent that the panel has not brought in yet counts as there (two instructors, one fuse).
+  const applied = new Set(events.flatMap((e) => (e.type === 'fault.injected' ? [e.injectionId] : [])))
+  const sent = await ctx.dataSource
+    .getRepository(LiveCommandEntity)
+    .findBy({ attemptId: session.attemptId, kind: 'injection' })
+  if (sent.some((row) => !applied.has(row.id) && isDeepStrictEqual(JSON.parse(row.payload), fault))) {
+    throw conflict(
+      'injection_pending',
+      'That fault is already on its way to this bench; nothing more was injected',
+    )
+  }
   const offered = await ctx.grading.injectable(scenario, JSON.stringify(events))
   if (!offered.some((candidate) => isDeepStrictEqual(candidate, fault))) {
     throw new HttpError(

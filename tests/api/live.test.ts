@@ -399,6 +399,11 @@ describe('live classroom', () => {
         fault: { kind: 'blownFuse' },
       })
       expect(first.status).toBe(201)
+      const again = await post(w.instructorA, `/attempts/${attemptId}/injections`, {
+        fault: { kind: 'blownFuse' },
+      })
+      expect(again.status).toBe(409)
+      expect(again.body.error.message).toMatch(/already on its way/)
       const applied = await post(w.apprenticeA1, `/attempts/${attemptId}/events`, {
         from: 0,
         events: [
