@@ -15,6 +15,7 @@ import { join } from 'node:path'
 import { pathToFileURL } from 'node:url'
 import type { AttemptEvent } from '../../shared/model/events'
 import { DEMO_ACCOUNTS } from '../../server/demo/demo-accounts'
+import { jsonCall } from '../support/json-call'
 import { STATUS } from '../support/live-status'
 import { startServerProcess, startSlipway, type ServerProcess } from '../support/server-process'
 import { readSse, type SseFrame } from '../support/sse-reader'
@@ -33,17 +34,9 @@ const percentile = (values: number[], p: number) => {
 }
 
 async function api(server: ServerProcess, method: string, path: string, token?: string, body?: unknown) {
-  const response = await fetch(server.url + path, {
-    method,
-    headers: {
-      ...(token ? { Authorization: `Bearer ${token}` } : {}),
-      ...(body === undefined ? {} : { 'Content-Type': 'application/json' }),
-    },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  })
-  const text = await response.text()
-  if (!response.ok) throw new Error(`${method} ${path}: ${response.status} ${text}`)
-  return (text ? JSON.parse(text) : {}) as Record<string, unknown>
+  const reply = await jsonCall(server, method, path, token, body)
+  if (reply.status >= 300) throw new Error(`${method} ${path}: ${reply.status} ${JSON.stringify(reply.body)}`)
+  return reply.body
 }
 
 interface Classroom {
@@ -261,14 +254,14 @@ export function liveRows(results: LiveBenchResult[]): BenchRow[] {
     return [
       {
         group,
-        name: `post → row on the class stream, p50 (${withStream.delivered} of ${withStream.posted} timed)`,
+        name: `action → row on the class stream, p50 (${withStream.delivered} of ${withStream.posted} timed)`,
         value: withStream.delayP50,
         unit: 'ms',
         baseline: { name: 'the post’s own round trip p50', value: withStream.postP50 },
       },
       {
         group,
-        name: 'post → row on the class stream, p95',
+        name: 'action → row on the class stream, p95',
         value: withStream.delayP95,
         unit: 'ms',
         baseline: { name: 'the post’s own round trip p95', value: withStream.postP95 },
