@@ -20,6 +20,13 @@ export function connectAuth(next: AuthBridge) {
   bridge = next
 }
 
+/** For readers that fetch on their own (event streams): the header every route needs, and one refresh. */
+export function authorizationHeader(): Record<string, string> {
+  const token = bridge.accessToken()
+  return token ? { Authorization: `Bearer ${token}` } : {}
+}
+export const refreshAccess = () => refreshOnce()
+
 const base = ofetch.create({
   baseURL: '/api',
   credentials: 'include',

@@ -71,6 +71,18 @@ export const endpoints = {
     review: (id: string) => `/attempts/${enc(id)}/review`,
     neighbours: (id: string) => `/attempts/${enc(id)}/neighbours`,
   },
+  live: {
+    session: (attemptId: string) => `/live/attempts/${enc(attemptId)}/session`,
+    events: (attemptId: string) => `/live/attempts/${enc(attemptId)}/events`,
+    inbox: (attemptId: string) => `/live/attempts/${enc(attemptId)}/inbox`,
+    attempt: (attemptId: string) => `/live/attempts/${enc(attemptId)}`,
+    watch: (attemptId: string) => `/live/attempts/${enc(attemptId)}/stream`,
+    injections: (attemptId: string) => `/live/attempts/${enc(attemptId)}/injections`,
+    close: (attemptId: string) => `/live/attempts/${enc(attemptId)}/close`,
+    cohort: (cohortId: string) => `/live/cohorts/${enc(cohortId)}/class`,
+    cohortStream: (cohortId: string) => `/live/cohorts/${enc(cohortId)}/stream`,
+    messages: '/live/messages',
+  },
   centre: '/centre',
   attention: '/attention',
   apprentices: {

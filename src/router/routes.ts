@@ -124,6 +124,18 @@ export const routes: RouteRecordRaw[] = [
     meta: { roles: STAFF, title: 'Cohort' },
   },
   {
+    path: '/teach/cohorts/:id/live',
+    name: 'live-class',
+    component: () => import('@/views/LiveClassView.vue'),
+    meta: { roles: STAFF, title: 'Live class' },
+  },
+  {
+    path: '/teach/live/attempts/:id',
+    name: 'live-watch',
+    component: () => import('@/views/LiveWatchView.vue'),
+    meta: { roles: STAFF, title: 'Watching a panel', workspace: true },
+  },
+  {
     path: '/teach/cohorts/:id/assign',
     name: 'assign-scenario',
     component: () => import('@/views/AssignScenarioView.vue'),

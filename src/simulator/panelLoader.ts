@@ -9,3 +9,9 @@ export const SimulatorPanel = defineAsyncComponent({
 
 /** What the route asks the simulator to open: ids only; the simulator's machines load the rest. */
 export type SimulatorRequest = { kind: 'replay'; attemptId: string } | { kind: 'live'; target: LiveTarget }
+
+/** Watching a panel live (instructors): the same chunk's renderer, through the replay machine. */
+export const WatchPanel = defineAsyncComponent({
+  loader: () => import('./components/WatchSession.vue'),
+  timeout: 30_000,
+})

@@ -4,6 +4,7 @@
 import type { AttemptEvent } from '@shared/model/events'
 import type { Timeline } from '@shared/model/types'
 import type { GradeResult } from '@shared/scenario/grade'
+import { injectableFaults } from '@shared/scenario/injectable'
 import type { Scenario } from '@shared/scenario/schema'
 import { eventWireId, eventWords } from '../scene/eventWords'
 import type { PanelLayout } from '../scene/types'
@@ -25,17 +26,34 @@ function markerOf(event: AttemptEvent, index: number, timeline: Timeline): strin
   return at >= 0 ? wireLabel(wires[at].id, wires[at].colour, at) : undefined
 }
 
+/**
+ * An instructor's fault in words for the instructors' views: who, and what from the catalogue of the bench
+ * just before it (the apprentice's own views say only that something changed, as a real bench would).
+ */
+function injectionWords(
+  event: Extract<AttemptEvent, { type: 'fault.injected' }>,
+  before: Timeline['segments'][number],
+) {
+  const wanted = JSON.stringify(event.fault)
+  const label = injectableFaults(before.state).find((o) => JSON.stringify(o.fault) === wanted)?.label
+  return `${event.by.name} put in a fault${label ? `: ${label}` : ''}`
+}
+
 export function replayMarks(
   events: readonly AttemptEvent[],
   timeline: Timeline,
   graded: GradeResult | null,
   layout: PanelLayout,
+  options: { nameInjections?: boolean } = {},
 ): TimelineMark[] {
   return [
     ...events.map((e, i) => ({
       t: e.t,
       kind: 'event' as const,
-      label: eventWords(e, layout, markerOf(e, i, timeline)),
+      label:
+        e.type === 'fault.injected' && options.nameInjections && timeline.segments[i]
+          ? injectionWords(e, timeline.segments[i])
+          : eventWords(e, layout, markerOf(e, i, timeline)),
     })),
     ...(graded?.safetyViolations ?? []).map((v) => ({ t: v.t, kind: 'violation' as const, label: v.text })),
     ...(graded?.objectives ?? [])

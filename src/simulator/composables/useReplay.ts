@@ -15,8 +15,16 @@ const PUBLISH_MS = 200
 const TREND_STEP_MS = 1000
 const TREND_MS = 60_000
 
-export function useReplay(attemptId: string) {
-  const actor = useActorRef(replayMachine.provide({ actors: replayActors() }), { input: { attemptId } })
+export interface ReplayOptions {
+  /** Where the attempt comes from (the live watch view gives its own loader). */
+  actors?: ReturnType<typeof replayActors>
+  tailMs?: number
+}
+
+export function useReplay(attemptId: string, options: ReplayOptions = {}) {
+  const actor = useActorRef(replayMachine.provide({ actors: options.actors ?? replayActors() }), {
+    input: { attemptId, tailMs: options.tailMs },
+  })
   const send = (event: ReplayEvent) => actor.send(event)
   // The playhead moves every frame; screens follow the rest of the state and a throttled sample.
   const snapshot = useSelector(

@@ -96,8 +96,15 @@ export interface LiveAttemptContext {
   result: AttemptSummary | null
 }
 
+/** What the live classroom's inbox hands the panel: an instructor's fault or message, for the log. */
+export type InboxAction = Extract<PanelAction, { type: 'fault.injected' | 'message.received' }>
+
 export type LiveAttemptEvent =
   | { type: 'RECORD'; action: PanelAction; t: number }
+  /** Appended at the current simulated time, like an action; one already in the log is ignored. */
+  | { type: 'INBOX'; action: InboxAction }
+  /** The inbox has been read again after a submission was refused for a pending injection. */
+  | { type: 'INBOX_READY' }
   | { type: 'TICK'; t: number }
   | { type: 'CHOOSE'; choice: number }
   | { type: 'SUBMIT' }
@@ -111,6 +118,7 @@ export type LiveAttemptEvent =
   | { type: 'KEEP_AS_NEW' }
   | FromLiveGrading
 
+export const INJECTION_PENDING = 'injection_pending'
 export const AUTOSAVE_MS = 30_000
 export const REGRADE_MS = 3_000
 const KEEP_WARNINGS = 5
@@ -121,6 +129,15 @@ function errorMessage(error: unknown): string {
 
 function isDiverged(error: unknown): boolean {
   return (error as { code?: string } | null)?.code === ATTEMPT_DIVERGED
+}
+
+/** Whether the log already holds this injection or message (the inbox may deliver one twice). */
+export function inLog(log: readonly AttemptEvent[], action: InboxAction): boolean {
+  return log.some((e) =>
+    action.type === 'fault.injected'
+      ? e.type === 'fault.injected' && e.injectionId === action.injectionId
+      : e.type === 'message.received' && e.messageId === action.messageId,
+  )
 }
 
 function requestBody(
@@ -219,6 +236,8 @@ export const liveAttemptMachine = setup({
     laterTick: ({ context, event }) =>
       event.type === 'TICK' && context.sim !== null && Number.isInteger(event.t) && event.t > context.sim.t,
     diverged: ({ event }) => isDiverged((event as { error?: unknown }).error),
+    injectionPending: ({ event }) =>
+      (event as { error?: { code?: string } }).error?.code === INJECTION_PENDING,
     retryable: ({ event }) => isRetryable((event as { error?: unknown }).error),
     submittedElsewhere: ({ event }) => (event as { output?: AttemptSummary }).output?.status === 'submitted',
   },
@@ -278,8 +297,10 @@ export const liveAttemptMachine = setup({
       return { sim: advance(context.sim, event.t - context.sim.t) }
     }),
     record: enqueueActions(({ context, event, enqueue }) => {
-      if (event.type !== 'RECORD' || !context.sim) return
-      const t = Math.max(event.t, context.sim.t)
+      if ((event.type !== 'RECORD' && event.type !== 'INBOX') || !context.sim) return
+      if (event.type === 'INBOX' && inLog(context.log, event.action)) return
+      // The inbox's events happen now, on the apprentice's clock, like an action.
+      const t = event.type === 'RECORD' ? Math.max(event.t, context.sim.t) : context.sim.t
       const parsed = attemptEventSchema.safeParse({ ...event.action, t })
       if (!parsed.success) {
         enqueue.assign({ actionError: `That action was not recorded: ${parsed.error.issues[0]?.message}` })
@@ -299,6 +320,15 @@ export const liveAttemptMachine = setup({
       enqueue.sendTo('grader', { type: 'grading.grade', endAt: sim.t })
       enqueue.assign({ sim, menu: step.menu, logLength: context.log.length, actionError: null })
       enqueue(() => context.start?.store.append(context.attemptId, context.log))
+    }),
+    /** While submitting (no grader running): the inbox's event goes into the model and the log only. */
+    appendInbox: assign(({ context, event }) => {
+      if (event.type !== 'INBOX' || !context.sim || inLog(context.log, event.action)) return {}
+      const parsed = attemptEventSchema.safeParse({ ...event.action, t: context.sim.t })
+      if (!parsed.success) return {}
+      context.log.push(parsed.data)
+      context.start?.store.append(context.attemptId, context.log)
+      return { sim: applyEvent(context.sim, parsed.data), logLength: context.log.length }
     }),
     askForGrade: sendTo('grader', ({ context }) => ({ type: 'grading.grade', endAt: context.sim?.t ?? 0 })),
     keepGrade: assign(({ event }) => (event.type === 'grading.result' ? { grade: event.result } : {})),
@@ -393,6 +423,7 @@ export const liveAttemptMachine = setup({
       on: {
         TICK: { guard: 'laterTick', actions: 'advanceClock' },
         RECORD: { actions: 'record' },
+        INBOX: { actions: 'record' },
         'grading.result': { actions: 'keepGrade' },
         'grading.violations': { actions: 'keepWarnings' },
       },
@@ -473,12 +504,18 @@ export const liveAttemptMachine = setup({
             onDone: { target: '#liveAttempt.submitted', actions: ['acceptResult', 'forgetLocalCopy'] },
             onError: [
               { guard: 'diverged', target: '#liveAttempt.conflict', actions: 'noteConflict' },
+              // An instructor's fault the server holds but this log lacks: read the inbox, then send again.
+              { guard: 'injectionPending', target: 'readingInbox', actions: 'noteTry' },
               { guard: 'retryable', target: 'waiting', actions: 'noteTry' },
               { target: '#liveAttempt.refused', actions: 'noteTry' },
             ],
           },
         },
         waiting: { after: { retry: 'sending' } },
+        readingInbox: {
+          on: { INBOX: { actions: 'appendInbox' }, INBOX_READY: 'sending' },
+          after: { retry: 'sending' },
+        },
       },
     },
     refused: {

@@ -1,6 +1,8 @@
 // Playback of a recorded attempt: loads the attempt (once) and its scenario version, replays the log
 // once into a timeline, grades it once, and folds the keypad's menu through it; then play, pause,
-// 1×/4×/16× and scrubbing move a playhead over the timeline (a jump is one segment lookup).
+// 1×/4×/16× and scrubbing move a playhead over the timeline (a jump is one segment lookup). Watching a
+// panel live uses the same machine: `FEED` brings the log as it grows, and the tail past the last event is
+// long, so the playhead can run on with the apprentice's time.
 import { assign, fromPromise, setup } from 'xstate'
 import type { AttemptDetail } from '@shared/api/attempts'
 import { replay } from '@shared/model'
@@ -38,6 +40,8 @@ export interface ReplayContext {
   position: number
   rate: ReplayRate
   problem: string | null
+  /** Shown past the last event (a live panel's time runs on after it). */
+  tailMs: number
 }
 
 export type ReplayEvent =
@@ -47,9 +51,11 @@ export type ReplayEvent =
   | { type: 'RATE'; rate: ReplayRate }
   | { type: 'FRAME'; wallDtMs: number }
   | { type: 'RETRY' }
+  /** Live watching: the log so far (it only grows); the playhead stays where it is. */
+  | { type: 'FEED'; events: readonly AttemptEvent[] }
 
 /** Everything derived from the log, computed once when the replay opens. */
-export function prepareReplay({ attempt, scenario }: ReplaySource): ReplayData {
+export function prepareReplay({ attempt, scenario }: ReplaySource, tailMs = REPLAY_TAIL_MS): ReplayData {
   const events = attempt.events
   const timeline = replay(toSimulationSetup(scenario), events)
   const menus: KeypadMenu[] = [STATUS_SCREEN]
@@ -62,7 +68,7 @@ export function prepareReplay({ attempt, scenario }: ReplaySource): ReplayData {
   } catch {
     graded = null
   }
-  return { attempt, scenario, events, timeline, menus, graded, end: timeline.end + REPLAY_TAIL_MS }
+  return { attempt, scenario, events, timeline, menus, graded, end: timeline.end + tailMs }
 }
 
 const clamp = (t: number, end: number) => Math.max(0, Math.min(end, Math.round(t)))
@@ -71,7 +77,7 @@ export const replayMachine = setup({
   types: {
     context: {} as ReplayContext,
     events: {} as ReplayEvent,
-    input: {} as { attemptId: string },
+    input: {} as { attemptId: string; tailMs?: number },
   },
   actors: {
     loadReplay: fromPromise<ReplaySource, { attemptId: string }>(async () => {
@@ -82,8 +88,8 @@ export const replayMachine = setup({
     atEnd: ({ context }) => !!context.data && context.position >= context.data.end,
   },
   actions: {
-    prepare: assign(({ event }) => ({
-      data: prepareReplay((event as unknown as { output: ReplaySource }).output),
+    prepare: assign(({ context, event }) => ({
+      data: prepareReplay((event as unknown as { output: ReplaySource }).output, context.tailMs),
       position: 0,
       problem: null,
     })),
@@ -101,11 +107,24 @@ export const replayMachine = setup({
     rewindIfAtEnd: assign(({ context }) =>
       context.data && context.position >= context.data.end ? { position: 0 } : {},
     ),
+    feed: assign(({ context, event }) => {
+      if (event.type !== 'FEED' || !context.data || event.events.length <= context.data.events.length)
+        return {}
+      const attempt = { ...context.data.attempt, events: [...event.events] }
+      return { data: prepareReplay({ attempt, scenario: context.data.scenario }, context.tailMs) }
+    }),
     setRate: assign(({ event }) => (event.type === 'RATE' ? { rate: event.rate } : {})),
   },
 }).createMachine({
   id: 'replay',
-  context: ({ input }) => ({ attemptId: input.attemptId, data: null, position: 0, rate: 1, problem: null }),
+  context: ({ input }) => ({
+    attemptId: input.attemptId,
+    data: null,
+    position: 0,
+    rate: 1,
+    problem: null,
+    tailMs: input.tailMs ?? REPLAY_TAIL_MS,
+  }),
   initial: 'loading',
   states: {
     loading: {
@@ -119,7 +138,7 @@ export const replayMachine = setup({
     failed: { on: { RETRY: 'loading' } },
     ready: {
       initial: 'paused',
-      on: { SEEK: { actions: 'seek' }, RATE: { actions: 'setRate' } },
+      on: { SEEK: { actions: 'seek' }, RATE: { actions: 'setRate' }, FEED: { actions: 'feed' } },
       states: {
         paused: { on: { PLAY: { target: 'playing', actions: 'rewindIfAtEnd' } } },
         playing: {
