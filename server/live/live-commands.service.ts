@@ -2,13 +2,23 @@
 // row in the apprentice's inbox (in order) and an audit entry, in one transaction; the panel appends it to its
 // log, and the submission checks it against these rows (live-checks.ts).
 import { randomUUID } from 'node:crypto'
+import { isDeepStrictEqual } from 'node:util'
 import type { InjectFaultRequest, SendLiveMessageRequest } from '@shared/api/live'
+import type { InjectedFault } from '@shared/model/setup'
 import type { EntityManager } from 'typeorm'
 import type { AppContext } from '../context'
-import { AuditEntryEntity, LiveCommandEntity, type LiveCommandKind, type UserRow } from '../entities'
+import {
+  AuditEntryEntity,
+  LiveCommandEntity,
+  ScenarioEntity,
+  type LiveCommandKind,
+  type LiveSessionRow,
+  type UserRow,
+} from '../entities'
 import { HttpError, conflict } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
-import { classCohort, classRows, watchableSession } from './live-class.service'
+import { findById } from '../infrastructure/database/lookups'
+import { classCohort, classRows, eventsFrom, watchableSession } from './live-class.service'
 
 async function record(
   manager: EntityManager,
@@ -52,6 +62,39 @@ async function withRetry<T>(work: () => Promise<T>): Promise<T> {
   }
 }
 
+/**
+ * Only a fault this bench offers now (what is on it, not already faulted — the instructor's catalogue): a fault
+ * naming a wire that is not there would add an objective nobody could meet. The live log is replayed in a
+ * grading thread, as a submission is.
+ */
+async function assertInjectable(ctx: AppContext, session: LiveSessionRow, fault: InjectedFault) {
+  const scenario = await findById(ctx.dataSource, ScenarioEntity, session.scenarioId)
+  if (!scenario) throw new Error(`live session ${session.attemptId} names a missing scenario version`)
+  const events = await eventsFrom(ctx, session.attemptId, 0)
+  // One already sent that the panel has not brought in yet counts as there (two instructors, one fuse).
+  const applied = new Set(events.flatMap((e) => (e.type === 'fault.injected' ? [e.injectionId] : [])))
+  const sent = await ctx.dataSource
+    .getRepository(LiveCommandEntity)
+    .findBy({ attemptId: session.attemptId, kind: 'injection' })
+  if (sent.some((row) => !applied.has(row.id) && isDeepStrictEqual(JSON.parse(row.payload), fault))) {
+    throw conflict(
+      'injection_pending',
+      'That fault is already on its way to this bench; nothing more was injected',
+    )
+  }
+  const offered = await ctx.grading.injectable(scenario, JSON.stringify(events))
+  if (!offered.some((candidate) => isDeepStrictEqual(candidate, fault))) {
+    throw new HttpError(
+      400,
+      'validation_failed',
+      'This bench does not offer that fault now; nothing was injected',
+      {
+        fields: { fault: ['Not on this bench, or already faulted'] },
+      },
+    )
+  }
+}
+
 export async function injectFault(
   ctx: AppContext,
   user: UserRow,
@@ -60,6 +103,7 @@ export async function injectFault(
 ): Promise<{ injectionId: string; at: string }> {
   const { session } = await watchableSession(ctx, user, attemptId)
   if (session.endedAt) throw conflict('conflict', 'This panel is no longer open; nothing was injected')
+  await assertInjectable(ctx, session, body.fault)
   const at = nowIso()
   const injectionId = await withRetry(() =>
     ctx.dataSource.transaction((manager) =>

@@ -4,12 +4,23 @@
 import { LIVE_DISCONNECTED_AFTER_MS, LIVE_IDLE_AFTER_MS } from '@shared/api/live'
 import type { DataSource } from 'typeorm'
 import { In, LessThan } from 'typeorm'
-import { LiveWatcherEntity } from '../entities'
+import { LiveSessionEntity, LiveWatcherEntity } from '../entities'
+import { findById } from '../infrastructure/database/lookups'
 import { nowMs } from '../infrastructure/clock'
 import type { Logger } from '../infrastructure/logging'
 import { createLiveBus, type LiveBus, type LiveChange } from './live-bus'
 import { connectionOf, type LiveThresholds } from './live.presenter'
-import { loadSession, openSessions, WATCHER_STALE_MS, type LoadedSession } from './live-rows'
+import {
+  openSessions,
+  steadyFactsOf,
+  watchersOf,
+  WATCHER_STALE_MS,
+  type LoadedSession,
+  type SteadyFacts,
+} from './live-rows'
+
+/** Names, titles and cohorts of a session are read again after this long (a rename, a new enrolment). */
+const STEADY_FACTS_MS = 60_000
 
 export interface LiveHubOptions extends Partial<LiveThresholds> {
   /** How often the sweep runs (default 5 s). */
@@ -41,12 +52,47 @@ export function createLiveHub(
     idleAfterMs: options.idleAfterMs ?? LIVE_IDLE_AFTER_MS,
     disconnectedAfterMs: options.disconnectedAfterMs ?? LIVE_DISCONNECTED_AFTER_MS,
   }
+  // Per change only the session's row is read again; who is watching when that changes; the rest now and then.
   const cache = new Map<string, Promise<LoadedSession | null>>()
+  const watching = new Map<string, Promise<LoadedSession['facts']['watchers']>>()
+  const steady = new Map<string, { readAt: number; facts: Promise<SteadyFacts> }>()
   // Registered first, so a stream reading after a change never gets the row from before it.
   bus.subscribe((change) => {
-    if (change.what === 'resync') cache.clear()
-    else cache.delete(change.attemptId)
+    if (change.what === 'resync') {
+      cache.clear()
+      watching.clear()
+      steady.clear()
+      return
+    }
+    cache.delete(change.attemptId)
+    if (change.what === 'watchers') watching.delete(change.attemptId)
   })
+  const remembered = <T>(map: Map<string, Promise<T>>, key: string, read: () => Promise<T>) => {
+    let entry = map.get(key)
+    if (!entry) {
+      entry = read()
+      map.set(key, entry)
+      entry.catch(() => map.delete(key))
+      if (map.size > 5000) map.clear()
+    }
+    return entry
+  }
+  async function load(attemptId: string): Promise<LoadedSession | null> {
+    const session = await findById(ds, LiveSessionEntity, attemptId)
+    if (!session) return null
+    let facts = steady.get(attemptId)
+    if (!facts || nowMs() - facts.readAt > STEADY_FACTS_MS) {
+      facts = { readAt: nowMs(), facts: steadyFactsOf(ds, session) }
+      steady.set(attemptId, facts)
+      facts.facts.catch(() => steady.delete(attemptId))
+      if (steady.size > 5000) steady.clear()
+    }
+    const [{ cohortIds, ...shown }, watchers] = await Promise.all([
+      facts.facts,
+      remembered(watching, attemptId, () => watchersOf(ds, attemptId, nowMs())),
+    ])
+    return { session, cohortIds, facts: { ...shown, watchers } }
+  }
   let listeners = 0
   const lastWord = new Map<string, string>()
 
@@ -96,20 +142,17 @@ export function createLiveHub(
       }
     },
     loaded(attemptId) {
-      let entry = cache.get(attemptId)
-      if (!entry) {
-        entry = loadSession(ds, attemptId, nowMs())
-        cache.set(attemptId, entry)
-        // A failed read is not kept; a missing session is read again next time (it may be opened).
-        entry.then((v) => v ?? cache.delete(attemptId)).catch(() => cache.delete(attemptId))
-        if (cache.size > 5000) cache.clear()
-      }
+      const entry = remembered(cache, attemptId, () => load(attemptId))
+      // A missing session is read again next time (it may be opened meanwhile).
+      void entry.then((loaded) => loaded ?? cache.delete(attemptId)).catch(() => undefined)
       return entry
     },
     sweep,
     async close() {
       clearInterval(timer)
       cache.clear()
+      watching.clear()
+      steady.clear()
       await bus.close()
     },
   }

@@ -68,14 +68,6 @@ async function activeCohortsOf(ds: DataSource, apprenticeId: string): Promise<st
   return cohorts.map((c) => c.id)
 }
 
-export async function sessionCohortIds(ds: DataSource, session: LiveSessionRow): Promise<string[]> {
-  if (session.assignmentId) {
-    const assignment = await findById(ds, AssignmentEntity, session.assignmentId)
-    return assignment ? [assignment.cohortId] : []
-  }
-  return activeCohortsOf(ds, session.apprenticeId)
-}
-
 /** Facts of several sessions at once. */
 async function factsOf(
   ds: DataSource,
@@ -120,15 +112,35 @@ async function factsOf(
   return facts
 }
 
-export async function loadSession(
-  ds: DataSource,
-  attemptId: string,
-  nowMs: number,
-): Promise<LoadedSession | null> {
-  const session = await findById(ds, LiveSessionEntity, attemptId)
-  if (!session) return null
-  const facts = (await factsOf(ds, [session], nowMs)).get(attemptId)!
-  return { session, facts, cohortIds: await sessionCohortIds(ds, session) }
+/** What a session's row shows that hardly ever changes while it is open: names, titles, its cohorts. */
+export interface SteadyFacts {
+  apprentice: Person
+  scenario: RowFacts['scenario']
+  assignmentTitle: string | null
+  cohortIds: string[]
+}
+
+export async function steadyFactsOf(ds: DataSource, session: LiveSessionRow): Promise<SteadyFacts> {
+  const [apprentice, scenario, assignment] = await Promise.all([
+    findById(ds, UserEntity, session.apprenticeId),
+    findById(ds, ScenarioEntity, session.scenarioId),
+    session.assignmentId ? findById(ds, AssignmentEntity, session.assignmentId) : null,
+  ])
+  return {
+    apprentice: { id: session.apprenticeId, name: apprentice?.name ?? '' },
+    scenario: { key: scenario?.key ?? '', title: scenario?.title ?? '', versionId: session.scenarioId },
+    assignmentTitle: assignment?.title ?? null,
+    cohortIds: session.assignmentId
+      ? assignment
+        ? [assignment.cohortId]
+        : []
+      : await activeCohortsOf(ds, session.apprenticeId),
+  }
+}
+
+/** Who is watching one session now. */
+export async function watchersOf(ds: DataSource, attemptId: string, nowMs: number): Promise<Person[]> {
+  return (await watchersByAttempt(ds, [attemptId], nowMs)).get(attemptId) ?? []
 }
 
 /** The sessions a cohort's class view shows: open, not forgotten, of its assignments or its members' practice. */

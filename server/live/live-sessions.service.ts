@@ -46,6 +46,8 @@ export async function openSession(
     throw conflict('attempt_conflict', 'This attempt id is already in use')
   if (attempt?.status === 'submitted')
     throw conflict('attempt_conflict', 'This attempt is already submitted; start a new one to work live')
+  if (attempt && attempt.assignmentId !== body.assignmentId)
+    throw conflict('attempt_conflict', 'This attempt belongs to a different assignment')
   const scenario = await findById(ds, ScenarioEntity, body.scenarioVersionId)
   if (!scenario) {
     throw new HttpError(400, 'validation_failed', 'No such scenario version', {
@@ -134,15 +136,13 @@ export async function postEvents(
         throw new OutOfStep(held?.eventCount ?? 0)
       }
       if (body.events.length) {
-        await manager
-          .getRepository(LiveEventEntity)
-          .insert(
-            body.events.map((event, i) => ({
-              attemptId,
-              eventIndex: body.from + i,
-              event: JSON.stringify(event),
-            })),
-          )
+        await manager.getRepository(LiveEventEntity).insert(
+          body.events.map((event, i) => ({
+            attemptId,
+            eventIndex: body.from + i,
+            event: JSON.stringify(event),
+          })),
+        )
       }
     })
   } catch (error) {

@@ -11,6 +11,7 @@ import {
   CohortEntity,
   CohortInstructorEntity,
   EnrollmentEntity,
+  LiveCommandEntity,
   LiveSessionEntity,
   OutcomeSignOffEntity,
   OutcomeSignOffWithdrawalEntity,
@@ -614,6 +615,12 @@ const ROUTES: Route[] = [
     path: () => `/api/live/attempts/${LIVE_ATTEMPT}/injections`,
     body: () => ({ fault: { kind: 'blownFuse' } }),
     expect: ownCohortStaff(201),
+    // A fault already on its way is not sent twice: each role meets a bench without one.
+    restore: async (_w, api) => {
+      await api.dataSource
+        .getRepository(LiveCommandEntity)
+        .delete({ attemptId: LIVE_ATTEMPT, kind: 'injection' })
+    },
   },
   {
     method: 'post',

@@ -139,6 +139,13 @@ const BODY_ROUTES: BodyRoute[] = [
     schema: contract.updateUserRequestSchema,
   },
   { method: 'post', path: () => '/api/admin/invitations', schema: contract.inviteRequestSchema },
+  // Live classroom: an admin may inject and message (the panel's own routes are the apprentice's alone).
+  {
+    method: 'post',
+    path: () => '/api/live/attempts/00000000-0000-4000-8000-0000000011fe/injections',
+    schema: contract.injectFaultRequestSchema,
+  },
+  { method: 'post', path: () => '/api/live/messages', schema: contract.sendLiveMessageRequestSchema },
 ]
 
 /** Stands in for the world in test titles. */

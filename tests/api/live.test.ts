@@ -18,7 +18,7 @@ import { setClock } from '../../server/infrastructure/clock'
 import { bearer, createTestApi, type TestApi, type TestUser } from '../support/api-harness'
 import { STATUS } from '../support/live-status'
 import { readSse, type SseFrame } from '../support/sse-reader'
-import { buildWorld, type World } from '../support/world'
+import { buildWorld, submit, type World } from '../support/world'
 
 const events = (from: number, n: number) =>
   Array.from({ length: n }, (_, i) => ({ t: 1000 + (from + i) * 100, type: 'lock.removed' as const }))
@@ -90,6 +90,22 @@ describe('live classroom', () => {
       })
       expect(submitted.status).toBe(409)
       expect(submitted.body.error.message).toMatch(/already submitted/)
+      // A practice attempt saved in progress cannot come back as the assignment's.
+      const practiceId = randomUUID()
+      const saved = await submit(api, w.apprenticeA1, {
+        id: practiceId,
+        scenarioId: w.scenario.id,
+        status: 'inProgress',
+        events: [{ t: 100, type: 'lock.removed' }],
+      })
+      expect(saved.status).toBe(201)
+      const moved = await post(w.apprenticeA1, `/attempts/${practiceId}/session`, {
+        scenarioVersionId: w.scenario.id,
+        assignmentId: w.assignmentA.id,
+        assistance: 'standard',
+      })
+      expect(moved.status).toBe(409)
+      expect(moved.body.error.message).toMatch(/different assignment/)
       const theirs = await openPanel(w.apprenticeA1)
       const taken = await post(w.apprenticeA2, `/attempts/${theirs}/session`, {
         scenarioVersionId: w.scenario.id,
@@ -247,6 +263,25 @@ describe('live classroom', () => {
       inbox.close()
     })
 
+    it('drops a watcher whose stream stopped refreshing it (its instance went away), on the sweep', async () => {
+      const attemptId = await openPanel()
+      const inbox = await readSse(`${base}/attempts/${attemptId}/inbox`, w.apprenticeA1.token)
+      const watch = await readSse(`${base}/attempts/${attemptId}/stream`, w.instructorA.token)
+      await inbox.next((f) => (f.data as { watchers?: unknown[] }).watchers?.length === 1)
+      const start = Date.now()
+      try {
+        // The heartbeat (a minute in these tests) has not refreshed the row for longer than a watcher lasts.
+        setClock(() => start + 50_000)
+        await api.live.sweep()
+        const dropped = await inbox.next((f) => f.event === 'watchers')
+        expect(dropped.data).toEqual({ type: 'watchers', watchers: [] })
+      } finally {
+        setClock(null)
+        watch.close()
+        inbox.close()
+      }
+    })
+
     it('resumes after a reconnect with Last-Event-ID (or ?after=): nothing missed, nothing doubled', async () => {
       const attemptId = await openPanel()
       await send(attemptId, 0, 3)
@@ -354,6 +389,40 @@ describe('live classroom', () => {
         fault: { kind: 'gremlins' },
       })
       expect(badFault.status).toBe(400)
+      // Well formed, but not on this bench: a wire it does not have; a fault it already has.
+      const noSuchWire = await post(w.instructorA, `/attempts/${attemptId}/injections`, {
+        fault: { kind: 'brokenWire', wireId: randomUUID() },
+      })
+      expect(noSuchWire.status).toBe(400)
+      expect(noSuchWire.body.error.details.fields.fault).toEqual(['Not on this bench, or already faulted'])
+      const first = await post(w.instructorA, `/attempts/${attemptId}/injections`, {
+        fault: { kind: 'blownFuse' },
+      })
+      expect(first.status).toBe(201)
+      const again = await post(w.instructorA, `/attempts/${attemptId}/injections`, {
+        fault: { kind: 'blownFuse' },
+      })
+      expect(again.status).toBe(409)
+      expect(again.body.error.message).toMatch(/already on its way/)
+      const applied = await post(w.apprenticeA1, `/attempts/${attemptId}/events`, {
+        from: 0,
+        events: [
+          {
+            t: 100,
+            type: 'fault.injected',
+            injectionId: first.body.injectionId,
+            fault: { kind: 'blownFuse' },
+            by: { id: w.instructorA.user.id, name: w.instructorA.user.name },
+          },
+        ],
+        status: STATUS,
+      })
+      expect(applied.status).toBe(200)
+      const twice = await post(w.instructorA, `/attempts/${attemptId}/injections`, {
+        fault: { kind: 'blownFuse' },
+      })
+      expect(twice.status).toBe(400)
+      expect(twice.body.error.message).toMatch(/does not offer that fault now/)
       const empty = await post(w.instructorA, '/messages', {
         cohortId: w.cohortA.id,
         kind: 'hint',

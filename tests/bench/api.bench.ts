@@ -50,7 +50,7 @@ export interface LoadFigures {
 }
 
 /** CPU time (user + system, all threads) a process has used so far, in ms; NaN without /proc. */
-function processCpuMs(pid: number | undefined): number {
+export function processCpuMs(pid: number | undefined): number {
   try {
     const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ')
     // utime and stime are fields 14 and 15 of stat (11 and 12 after the command name), in clock ticks.

@@ -1,4 +1,4 @@
-// `npm run bench`: every benchmark in one table. BENCH_ONLY=bundle,model,grade,live-grade,api,frame picks some.
+// `npm run bench`: every benchmark in one table. BENCH_ONLY=bundle,model,grade,live-grade,api,live,frame picks some.
 // Needs the production build for bundle and frame (npm run build:client).
 import { cpus, loadavg } from 'node:os'
 import { runApiBench } from './api.bench'
@@ -6,6 +6,7 @@ import { runBundleBench } from './bundle.bench'
 import { runFrameBench } from './frame.bench'
 import { runGradeBenchmark, type GradeBenchResult } from './grade.bench'
 import { runLiveGradeBenchmark, type LiveGradeBenchResult } from './live-grade.bench'
+import { runLiveBench } from './live.bench'
 import { GRADING_THREAD_RESOURCE_LIMITS } from '../../server/infrastructure/grading/thread-limits'
 import { bundleFromSource } from '../../scripts/build'
 import { type ModelBenchResult } from './model.bench'
@@ -132,6 +133,7 @@ const BENCHES: Record<string, () => BenchRow[] | Promise<BenchRow[]>> = {
   grade: () => gradeRows(runGradeBenchmark()),
   'live-grade': () => liveGradeRows(runLiveGradeBenchmark()),
   api: runApiBench,
+  live: runLiveBench,
   frame: runFrameBench,
 }
 

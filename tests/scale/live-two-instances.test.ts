@@ -3,6 +3,7 @@
 import { randomUUID } from 'node:crypto'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_ACCOUNTS } from '../../server/demo/demo-accounts'
+import { jsonCall } from '../support/json-call'
 import { STATUS } from '../support/live-status'
 import { readSse, type SseFrame } from '../support/sse-reader'
 import { createPostgresTestDatabase, onPostgres, type TestDatabase } from '../support/test-database'
@@ -13,18 +14,7 @@ const JWT_SECRET = 'live-scale-shared-secret-'.padEnd(48, 'z')
 const instructor = DEMO_ACCOUNTS.find((a) => a.role === 'instructor' && a.cohort === 0)!
 const apprentice = DEMO_ACCOUNTS.find((a) => a.role === 'apprentice' && a.cohort === 0)!
 
-async function call(server: ServerProcess, method: string, path: string, token?: string, body?: unknown) {
-  const response = await fetch(server.url + path, {
-    method,
-    headers: {
-      ...(token ? { Authorization: `Bearer ${token}` } : {}),
-      ...(body === undefined ? {} : { 'Content-Type': 'application/json' }),
-    },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  })
-  const text = await response.text()
-  return { status: response.status, body: (text ? JSON.parse(text) : {}) as Record<string, unknown> }
-}
+const call = jsonCall
 
 async function signIn(server: ServerProcess, who: { email: string; password: string }) {
   const reply = await call(server, 'POST', '/api/auth/sign-in', undefined, {

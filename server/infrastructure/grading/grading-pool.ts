@@ -2,11 +2,13 @@
 // and grades their logs, so a long attempt never holds up other requests. The queue in front of the threads
 // is bounded: when it is full the submission is refused with 503 and Retry-After before anything is stored.
 import { Piscina } from 'piscina'
+import type { InjectedFault } from '@shared/model'
 import type { AssistanceLevel } from '@shared/scenario/assistance'
 import { HttpError } from '../../http-error'
 import { unreplayableLog } from './grading'
 import type {
   GradingTask,
+  InjectableReport,
   LiveRecordsInLog,
   LogGradeReport,
   ReadReport,
@@ -54,6 +56,8 @@ export interface GradingPool {
     eventsJson: string,
     assistance?: AssistanceLevel,
   ): Promise<StoredGrade>
+  /** Live classroom: the faults the bench offers as a live log leaves it (shared/scenario/injectable.ts). */
+  injectable(scenario: { id: string; document: string }, eventsJson: string): Promise<InjectedFault[]>
   /** Resolves once the threads have started and answered a first task (readiness). */
   warm(): Promise<void>
   stats(): GradingPoolStats
@@ -152,6 +156,16 @@ export function createGradingPool(options: GradingPoolOptions): GradingPool {
       if (!report.ok) throw unreplayableLog(report.inputError)
       const { ok: _ok, ...grade } = report
       return grade
+    },
+    async injectable(scenario, eventsJson) {
+      const report = await run<InjectableReport>({
+        kind: 'injectable',
+        scenarioId: scenario.id,
+        document: scenario.document,
+        eventsJson,
+      })
+      if (!report.ok) throw unreplayableLog(report.inputError)
+      return report.faults
     },
     async warm() {
       const threadsReady = await pool

@@ -1,10 +1,19 @@
 // Runs in a grading thread (see grading-pool.ts), bundled as its own entry (dist/server/grading-worker.js).
-// Two tasks, so that nothing proportional to a log's size runs on the event loop:
+// Three tasks, so that nothing proportional to a log's size runs on the event loop:
 // - `read`: a submission's raw body → JSON parse, zod validation (the shared request schema), the
 //   validated log serialised as the row stores it;
-// - `grade`: a validated log replayed against a scenario version.
+// - `grade`: a validated log replayed against a scenario version;
+// - `injectable`: a live log replayed to the bench as it is now, and the faults it offers an instructor.
 import { submitAttemptRequestSchema, type SubmitAttemptRequest } from '@shared/api/attempts'
-import type { AttemptEvent } from '@shared/model'
+import {
+  applyEvent,
+  createSimulation,
+  ModelInputError,
+  type AttemptEvent,
+  type InjectedFault,
+} from '@shared/model'
+import { injectableFaults } from '@shared/scenario/injectable'
+import { toSimulationSetup } from '@shared/scenario/setup'
 import type { AssistanceLevel } from '@shared/scenario/assistance'
 import type { Scenario } from '@shared/scenario/schema'
 import { INVALID_JSON_MESSAGE, VALIDATION_MESSAGE, zodDetails } from '../../http-error'
@@ -27,7 +36,16 @@ export interface GradeTask {
   assistance?: AssistanceLevel
 }
 
-export type GradingTask = ReadTask | GradeTask
+/** Live classroom: the faults an instructor may inject into a bench as its live log leaves it now. */
+export interface InjectableTask {
+  kind: 'injectable'
+  scenarioId: string
+  document: string
+  /** The live copy of the log so far, as JSON text. */
+  eventsJson: string
+}
+
+export type GradingTask = ReadTask | GradeTask | InjectableTask
 
 /** A submission as validated, without its log (which travels as text). */
 export type SubmissionHeader = Omit<SubmitAttemptRequest, 'events'>
@@ -116,6 +134,21 @@ export function gradeLog(task: Omit<GradeTask, 'kind'>): LogGradeReport {
   return { ok: true, score, passed, evidenceJson: JSON.stringify(evidence) }
 }
 
-export default function runTask(task: GradingTask): ReadReport | LogGradeReport {
-  return task.kind === 'read' ? readSubmission(task.body) : gradeLog(task)
+export type InjectableReport = { ok: true; faults: InjectedFault[] } | { ok: false; inputError: string }
+
+/** The bench as the log leaves it, and the catalogue of faults it offers (shared/scenario/injectable.ts). */
+export function injectableNow(task: Omit<InjectableTask, 'kind'>): InjectableReport {
+  try {
+    let state = createSimulation(toSimulationSetup(scenarioOf(task)))
+    for (const event of JSON.parse(task.eventsJson) as AttemptEvent[]) state = applyEvent(state, event)
+    return { ok: true, faults: injectableFaults(state).map((entry) => entry.fault) }
+  } catch (error) {
+    if (error instanceof ModelInputError) return { ok: false, inputError: error.message }
+    throw error
+  }
+}
+
+export default function runTask(task: GradingTask): ReadReport | LogGradeReport | InjectableReport {
+  if (task.kind === 'read') return readSubmission(task.body)
+  return task.kind === 'grade' ? gradeLog(task) : injectableNow(task)
 }
