@@ -38,8 +38,26 @@ async function shootAtSizes(page: Page, name: string) {
     await page.evaluate(() => window.scrollTo(0, 0))
     await page.waitForTimeout(600)
     await page.screenshot({ path: `${SHOTS}/${name}-${width}x${height}.png`, fullPage: true })
+    expect(await overTheEdge(page), `${name} at ${width}×${height}`).toEqual([])
   }
   if (before) await page.setViewportSize(before)
+}
+
+/** What reaches past the window's right edge (a page that scrolls sideways), as tag.class: right edge. */
+async function overTheEdge(page: Page): Promise<string[]> {
+  return page.evaluate(() => {
+    const width = document.documentElement.clientWidth
+    if (document.documentElement.scrollWidth <= width) return []
+    const over = [...document.querySelectorAll('body *')].filter(
+      (e) => e.getBoundingClientRect().right > width,
+    )
+    return over
+      .filter((e) => !over.some((o) => o !== e && e.contains(o)))
+      .map(
+        (e) =>
+          `${e.tagName.toLowerCase()}.${String(e.className)}: ${Math.round(e.getBoundingClientRect().right)}`,
+      )
+  })
 }
 
 /** Serious or critical WCAG 2.1 A/AA findings on the page (the canvas is tested elsewhere), as rule: selector. */
@@ -154,6 +172,23 @@ describe('the live classroom, apprentice and instructor at once', () => {
     expect(await a.locator('body').textContent()).not.toContain(label)
     await shootAtSizes(a, 'apprentice-panel')
     expect(await accessibilityProblems(a)).toEqual([])
+    // The task sheet lists what the fault brought, from the live grader, in words that do not name it.
+    await panel.openSheet('Task')
+    await expect
+      .poll(() => a.getByTestId('objectives').textContent(), { timeout: 20_000 })
+      .toContain('The fault your instructor put in: found by measurement')
+    // The window with the list's end scrolled into view, in the sheet and on the page, at each size.
+    for (const [width, height] of SIZES) {
+      await a.setViewportSize({ width, height })
+      await a.waitForTimeout(400)
+      await a
+        .getByTestId('objectives')
+        .locator('li')
+        .last()
+        .evaluate((li) => li.scrollIntoView({ block: 'center' }))
+      await a.screenshot({ path: `${SHOTS}/apprentice-task-${width}x${height}.png` })
+      expect(await overTheEdge(a), `the task sheet at ${width}×${height}`).toEqual([])
+    }
 
     // The injection went into the apprentice's log and back to the watcher: the timeline names it.
     await i.getByTestId('toggle-sheet').click()
