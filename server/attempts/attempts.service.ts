@@ -178,8 +178,9 @@ async function overviewOf(ctx: AppContext, attempt: AttemptRow): Promise<Attempt
   const feedback = await ds
     .getRepository(FeedbackEntity)
     .find({ where: { attemptId: attempt.id }, order: { createdAt: 'ASC' } })
+  // The grade's own trail: the attempt's other audit entries (a live fault put in, a hint) are not grades.
   const audit = await ds.getRepository(AuditEntryEntity).find({
-    where: { entityType: 'attempt', entityId: attempt.id },
+    where: { entityType: 'attempt', entityId: attempt.id, action: In(['grade.graded', 'grade.overridden']) },
     order: { createdAt: 'ASC' },
   })
   return presentAttemptOverview(

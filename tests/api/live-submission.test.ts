@@ -6,6 +6,7 @@ import type { Server } from 'node:http'
 import type { AddressInfo } from 'node:net'
 import supertest from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { attemptOverviewSchema } from '../../shared/api/attempts'
 import type { AttemptEvent } from '../../shared/model/events'
 import { AttemptEntity } from '../../server/entities'
 import { bearer, createTestApi, type TestApi } from '../support/api-harness'
@@ -139,6 +140,25 @@ describe('submissions and the live classroom', () => {
       .set(bearer(w.apprenticeA2.token))
       .send({ scenarioVersionId: w.scenario.id, assignmentId: w.assignmentA.id, assistance: 'standard' })
     expect(session.status).toBe(409)
+  })
+
+  it("keeps the live audit entries out of the attempt's grade trail (the review page reads it)", async () => {
+    const attemptId = await livePanel()
+    const injectionId = await inject(attemptId)
+    const text = 'Measure before you replace anything.'
+    const messageId = await hint(attemptId, text)
+    const done = await send(
+      attemptId,
+      'submitted',
+      log(injectedEvent(injectionId), hintEvent(messageId, text)),
+    )
+    expect(done.status, done.text).toBe(201)
+    const overview = await supertest(api.app)
+      .get(`/api/attempts/${attemptId}/overview`)
+      .set(bearer(w.instructorA.token))
+    expect(overview.status).toBe(200)
+    const parsed = attemptOverviewSchema.parse(overview.body)
+    expect(parsed.audit.map((a) => a.action)).toEqual(['graded'])
   })
 
   it('leaves attempts without a live session as they were', async () => {

@@ -1,14 +1,25 @@
 // The live classroom with two browsers: the apprentice wires on their panel, the instructor sees the panel
 // in the class view and watches it, puts a broken conductor into the bench and sends a hint; the apprentice
 // sees the hint and that they are watched, and the injection comes back into their log (the watch view's
-// timeline names it); their submission is accepted with both in it, and the watcher sees the attempt end. Screenshots of the three screens at three sizes, under test-results/live-shots/.
+// timeline names it). The apprentice finds the wire by measurement, diagnoses it, repairs it under lockout
+// and submits: the grade has the injected fault's objectives met, the instructor's replay names the fault.
+// The watcher sees the attempt end. Screenshots of the three screens at three sizes, under test-results/live-shots/.
 import { mkdirSync } from 'node:fs'
 import AxeBuilder from '@axe-core/playwright'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { Page } from 'playwright-core'
 import { DEMO_ACCOUNTS, DEMO_COHORTS } from '../../server/demo/demo-accounts'
 import { launchBrowser, startApp, type BrowserSession, type RunningApp } from './support'
-import { APPRENTICE, openPanel, submitForGrade, type PanelTestBed } from './panel-fixtures'
+import type { ObjectiveResult } from '../../shared/api/grading'
+import {
+  APPRENTICE,
+  apiToken,
+  diagnose,
+  openPanel,
+  submitForGrade,
+  type PanelTestBed,
+} from './panel-fixtures'
+import { backOn, lockedAndProvedDead } from './panel-isolation'
 
 const INSTRUCTOR = DEMO_ACCOUNTS.find((a) => a.role === 'instructor' && a.cohort === APPRENTICE.cohort)!
 const SHOTS = 'test-results/live-shots'
@@ -27,8 +38,26 @@ async function shootAtSizes(page: Page, name: string) {
     await page.evaluate(() => window.scrollTo(0, 0))
     await page.waitForTimeout(600)
     await page.screenshot({ path: `${SHOTS}/${name}-${width}x${height}.png`, fullPage: true })
+    expect(await overTheEdge(page), `${name} at ${width}×${height}`).toEqual([])
   }
   if (before) await page.setViewportSize(before)
+}
+
+/** What reaches past the window's right edge (a page that scrolls sideways), as tag.class: right edge. */
+async function overTheEdge(page: Page): Promise<string[]> {
+  return page.evaluate(() => {
+    const width = document.documentElement.clientWidth
+    if (document.documentElement.scrollWidth <= width) return []
+    const over = [...document.querySelectorAll('body *')].filter(
+      (e) => e.getBoundingClientRect().right > width,
+    )
+    return over
+      .filter((e) => !over.some((o) => o !== e && e.contains(o)))
+      .map(
+        (e) =>
+          `${e.tagName.toLowerCase()}.${String(e.className)}: ${Math.round(e.getBoundingClientRect().right)}`,
+      )
+  })
 }
 
 /** Serious or critical WCAG 2.1 A/AA findings on the page (the canvas is tested elsewhere), as rule: selector. */
@@ -88,11 +117,13 @@ describe('the live classroom, apprentice and instructor at once', () => {
     await app?.stop()
   })
 
-  it('the instructor sees the wiring, puts in a broken wire and sends a hint; the apprentice sees both', async () => {
+  it('the instructor puts in a broken wire and a hint; the apprentice finds it, repairs it under lockout and is graded on it', async () => {
     const bed: PanelTestBed = { app, browser: apprentice }
     const { page: a, panel, pageErrors } = await openPanel(bed, 'raise-lower-commissioning')
     await panel.wire('drive.p24', 'runSwitch.a', 'taps')
     await panel.wire('runSwitch.b', 'drive.di1', 'taps')
+    // The input's common to 0 V: without it the run circuit has no return, and no measurement tells.
+    await panel.wire('drive.dcom', 'drive.0v', 'taps')
 
     const cohortId = await cohortIdOf(app.url)
     const i = instructor.page
@@ -105,7 +136,7 @@ describe('the live classroom, apprentice and instructor at once', () => {
     await shootAtSizes(i, 'class-view')
     expect(await accessibilityProblems(i)).toEqual([])
 
-    // Watch: the two wires are in the timeline the watcher sees.
+    // Watch: the wires are in the timeline the watcher sees.
     await row
       .getByRole('link', { name: new RegExp(`Watch ${APPRENTICE.name}|Watch`) })
       .first()
@@ -118,9 +149,10 @@ describe('the live classroom, apprentice and instructor at once', () => {
     await i.getByTestId('watch-inject').click()
     const option = i
       .getByTestId('inject-option')
-      .filter({ hasText: /^Break wire/ })
+      .filter({ hasText: /^Break wire W\d+ .*DI1/ })
       .first()
     const label = ((await option.textContent()) ?? '').trim()
+    const broken = /^Break wire (W\d+)/.exec(label)![1]!
     await option.click()
     await i.getByTestId('inject-next').click()
     expect(await i.getByTestId('inject-confirm-text').textContent()).toContain(APPRENTICE.name)
@@ -140,6 +172,23 @@ describe('the live classroom, apprentice and instructor at once', () => {
     expect(await a.locator('body').textContent()).not.toContain(label)
     await shootAtSizes(a, 'apprentice-panel')
     expect(await accessibilityProblems(a)).toEqual([])
+    // The task sheet lists what the fault brought, from the live grader, in words that do not name it.
+    await panel.openSheet('Task')
+    await expect
+      .poll(() => a.getByTestId('objectives').textContent(), { timeout: 20_000 })
+      .toContain('The fault your instructor put in: found by measurement')
+    // The window with the list's end scrolled into view, in the sheet and on the page, at each size.
+    for (const [width, height] of SIZES) {
+      await a.setViewportSize({ width, height })
+      await a.waitForTimeout(400)
+      await a
+        .getByTestId('objectives')
+        .locator('li')
+        .last()
+        .evaluate((li) => li.scrollIntoView({ block: 'center' }))
+      await a.screenshot({ path: `${SHOTS}/apprentice-task-${width}x${height}.png` })
+      expect(await overTheEdge(a), `the task sheet at ${width}×${height}`).toEqual([])
+    }
 
     // The injection went into the apprentice's log and back to the watcher: the timeline names it.
     await i.getByTestId('toggle-sheet').click()
@@ -150,14 +199,65 @@ describe('the live classroom, apprentice and instructor at once', () => {
     await shootAtSizes(i, 'watch-view')
     expect(await accessibilityProblems(i)).toEqual([])
 
-    // The apprentice submits: the server takes the log with the instructor's fault and hint in it (it refuses
-    // one that lacks an injection it holds), grades it, and the watcher sees the attempt end.
-    await a.setViewportSize({ width: 1366, height: 768 })
+    // The apprentice finds it by measurement: live, run made, the meter across the wire's two ends reads
+    // the supply where a sound conductor reads about 0 V (common practice); then a diagnosis naming it.
+    // A wide window, as the method test uses: the sheet stays beside the panel, clear of the proving unit.
+    await a.setViewportSize({ width: 1600, height: 1000 })
+    await message.getByRole('button', { name: 'Close the message' }).click()
+    await panel.askSupervisorToUnlock()
+    await panel.switchDisconnect('on')
+    await panel.waitFor((s) => s.includes('drive ready'))
+    await panel.setSelector('runSwitch', 1)
+    await panel.openSheet('Values')
+    await panel.meterMode('dcVolts')
+    await panel.probe('red', 'runSwitch.b')
+    await panel.probe('black', 'drive.di1')
+    await expect.poll(() => a.getByTestId('live-meter').textContent()).toMatch(/2\d\.\d+ V/)
+    await diagnose(a, `Wire ${broken}`, 'Open circuit')
+    await panel.setSelector('runSwitch', 0)
+
+    // Repaired under lockout: off, own lock, proved dead live–dead–live, the wire run again, back on.
+    await lockedAndProvedDead(a, panel)
+    await panel.openSheet('Wiring')
+    await a.getByRole('button', { name: new RegExp(`^Remove wire ${broken} `) }).click()
+    await panel.openSheet('Values')
+    await panel.wire('runSwitch.b', 'drive.di1')
+    await backOn(panel)
+
+    // The submission: the server takes the log with the instructor's fault and hint in it (it refuses one
+    // that lacks an injection it holds), grades it, and the watcher sees the attempt end.
+    const attemptId = new URL(i.url()).pathname.split('/').pop()!
     const grade = await submitForGrade(a, 'live-classroom-submitted')
     expect(grade).toMatch(/\d+ \/ 100/)
     await expect
       .poll(() => i.getByTestId('watch-state').textContent(), { timeout: 20_000 })
       .toContain('has ended')
     expect(pageErrors).toEqual([])
+
+    // The grade holds the injected fault's objectives, every one met.
+    const token = await apiToken(app.url)
+    const attempt = (await (
+      await fetch(`${app.url}/api/attempts/${attemptId}`, { headers: { authorization: `Bearer ${token}` } })
+    ).json()) as { grade: { evidence: { objectives: ObjectiveResult[] } } }
+    const injected = attempt.grade.evidence.objectives.filter((o) => o.injection)
+    expect(injected.map((o) => [o.title, o.met])).toEqual([
+      ['The fault your instructor put in: put right, working safely', true],
+      ['The fault your instructor put in: diagnosed correctly', true],
+      ['The fault your instructor put in: found by measurement', true],
+    ])
+
+    // The instructor's review opens the replay, whose timeline names the injection.
+    await i.goto(`${app.url}/teach/attempts/${attemptId}`)
+    await expect
+      .poll(() => i.locator('main').textContent(), { timeout: 20_000 })
+      .toContain('The fault your instructor put in: found by measurement')
+    await i.getByRole('link', { name: 'Open the replay' }).click()
+    await i.getByTestId('replay-slider').waitFor({ timeout: 30_000 })
+    const sheet = i.getByTestId('toggle-sheet')
+    if ((await sheet.getAttribute('aria-expanded')) !== 'true') await sheet.click()
+    await i.getByRole('tab', { name: 'Timeline', exact: true }).click()
+    await expect
+      .poll(() => i.locator('#workspace-sheet').textContent(), { timeout: 20_000 })
+      .toContain(`${INSTRUCTOR.name} put in a fault: broke wire ${broken}`)
   }, 180_000)
 })

@@ -88,6 +88,7 @@ export function objectivesAt(
       required: o.required,
       state,
       evidence: state === 'open' ? undefined : r?.evidence,
+      points: r?.injection ? r.pointsPossible : undefined,
     }
   })
 }
