@@ -43,9 +43,9 @@ describe('the live task sheet after an instructor puts a fault in', () => {
     expect(listed).toHaveLength(scenario.objectives.length + 3)
     const added = listed.slice(scenario.objectives.length)
     expect(added).toEqual([
-      '○The fault your instructor put in: put right, working safely (not met yet)· 10 pts',
-      '○The fault your instructor put in: diagnosed correctly (not met yet)· 5 pts',
-      '○The fault your instructor put in: found by measurement (not met yet)· 5 pts',
+      '○The fault your instructor put in: put right, working safely (not met yet)\u00a0· 10 pts',
+      '○The fault your instructor put in: diagnosed correctly (not met yet)\u00a0· 5 pts',
+      '○The fault your instructor put in: found by measurement (not met yet)\u00a0· 5 pts',
     ])
     expect(added.join(' ')).not.toMatch(/wire|W2|broke/i)
   })
