@@ -21,6 +21,7 @@ import { mailJob, withoutBody } from './infrastructure/mail/mail-job'
 import { createMailDelivery, type SmtpTarget } from './infrastructure/mail/mailer'
 import { pruneOutbox, startOutboxSmtp, type OutboxSmtp } from './infrastructure/mail/outbox-smtp'
 import { sweepUploads, sweepUploadsJob } from './infrastructure/storage/upload-sweep'
+import { LIVE_COPY_RETENTION_DAYS, pruneLiveCopies } from './live/live-retention'
 import { registerReminderJobs } from './reminders/reminder-jobs'
 
 /** Sent mail and finished jobs are kept this long (the admin outbox lists them), then deleted. */
@@ -91,6 +92,11 @@ export async function startBackgroundJobs({
     const jobs = await pruneDoneJobs(dataSource, before)
     const messages = await pruneOutbox(dataSource, before)
     if (jobs || messages) log.info({ jobs, messages }, 'finished jobs and outbox messages pruned')
+    const liveEvents = await pruneLiveCopies(
+      dataSource,
+      new Date(Date.now() - LIVE_COPY_RETENTION_DAYS * 86_400_000),
+    )
+    if (liveEvents) log.info({ liveEvents }, 'live copies of closed panels pruned')
   })
   worker.schedule({ name: 'uploads.sweep', cron: '17 * * * *', job: sweepUploadsJob, payload: {} })
   worker.schedule({ name: 'housekeeping', cron: '40 3 * * *', job: housekeepingJob, payload: {} })
