@@ -1,6 +1,7 @@
 // Steps the client's browser tests share: signing in as a demo user, waiting for a screen to settle.
 import type { Page } from 'playwright-core'
 import { DEMO_ACCOUNTS, type DemoAccount } from '../../server/demo/demo-accounts'
+import { networkQuiet } from './support/browser'
 
 export function demo(role: DemoAccount['role'], index = 0): DemoAccount {
   const account = DEMO_ACCOUNTS.filter((a) => a.role === role)[index]
@@ -18,7 +19,9 @@ export async function signIn(page: Page, baseUrl: string, account: DemoAccount) 
 
 /** Waits until no spinner is showing, so screenshots show data, not loading states. */
 export async function settled(page: Page) {
-  await page.waitForLoadState('networkidle')
+  // Not Playwright's `networkidle`: the live classroom's event streams never end (see networkQuiet).
+  await page.waitForLoadState('load')
+  await networkQuiet(page)
   await page
     .locator('[role="status"] .v-progress-circular')
     .first()

@@ -2,7 +2,7 @@
 import { mkdtempSync, mkdirSync, rmSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join, resolve } from 'node:path'
-import { chromium, type BrowserContext, type Page } from 'playwright-core'
+import { chromium, type BrowserContext, type Page, type Request } from 'playwright-core'
 import { chromiumPath } from './chromium'
 
 // Flags measured on this machine: the closed network refuses Chromium's background
@@ -45,6 +45,7 @@ export async function launchBrowser(
     colorScheme: options.colorScheme ?? 'light',
     hasTouch: options.hasTouch ?? false,
   })
+  trackRequests(context)
   const page = context.pages()[0] ?? (await context.newPage())
   return {
     context,
@@ -62,4 +63,47 @@ export async function screenshot(page: Page, name: string): Promise<string> {
   const path = join(SCREENSHOT_DIR, name.endsWith('.png') ? name : `${name}.png`)
   await page.screenshot({ path, fullPage: true })
   return path
+}
+
+/**
+ * The live classroom's event streams (an apprentice's inbox, the class and watch streams) stay open as long
+ * as their page does, so Playwright's `networkidle` never comes on those pages. Requests are counted here
+ * instead, streams left out, and `networkQuiet` waits for the rest.
+ */
+const LONG_LIVED = /\/api\/live\/.+\/(inbox|stream)(\?|$)/
+const inFlight = new WeakMap<Page, Set<Request>>()
+
+function pageOf(request: Request): Page | null {
+  try {
+    return request.frame().page()
+  } catch {
+    return null // a service worker's request has no frame
+  }
+}
+
+function trackRequests(context: BrowserContext) {
+  const settle = (request: Request) => {
+    const page = pageOf(request)
+    if (page) inFlight.get(page)?.delete(request)
+  }
+  context.on('request', (request) => {
+    const page = pageOf(request)
+    if (!page || LONG_LIVED.test(request.url())) return
+    const open = inFlight.get(page) ?? new Set<Request>()
+    inFlight.set(page, open.add(request))
+  })
+  context.on('requestfinished', settle)
+  context.on('requestfailed', settle)
+}
+
+/** Resolves once the page has had no request in flight, event streams aside, for `quietMs`. */
+export async function networkQuiet(page: Page, { quietMs = 500, timeoutMs = 30_000 } = {}): Promise<void> {
+  const deadline = Date.now() + timeoutMs
+  let quietSince = Date.now()
+  while (Date.now() < deadline) {
+    if ((inFlight.get(page)?.size ?? 0) > 0) quietSince = Date.now()
+    else if (Date.now() - quietSince >= quietMs) return
+    await page.waitForTimeout(50)
+  }
+  throw new Error(`The page still had requests in flight after ${timeoutMs} ms`)
 }
