@@ -17,6 +17,7 @@ import {
   OutcomeSignOffWithdrawalEntity,
 } from '../../server/entities'
 import { createTestApi, type TestApi, type TestUser } from '../support/api-harness'
+import { STATUS } from '../support/live-status'
 import { buildWorld, EMPTY_LOG, type World } from '../support/world'
 
 type Who = 'none' | 'apprentice' | 'peer' | 'outsider' | 'instructor' | 'otherInstructor' | 'admin'
@@ -68,17 +69,6 @@ const NO_SUCH_ID = '00000000-0000-4000-8000-000000000000'
 const MATRIX_SIGN_OFF = '00000000-0000-4000-8000-00000000051f'
 /** Ada's open live panel on assignment A (opened in beforeAll). */
 const LIVE_ATTEMPT = '00000000-0000-4000-8000-0000000011fe'
-const LIVE_STATUS = {
-  powerOn: false,
-  ownLock: true,
-  supervisorLock: false,
-  driveState: 'Dark',
-  outputHz: 0,
-  alarms: [],
-  safetyViolations: 0,
-  objectivesMet: 0,
-  objectivesTotal: 4,
-}
 const liveSession = (w: World) => ({
   scenarioVersionId: w.scenario.id,
   assignmentId: w.assignmentA.id,
@@ -577,7 +567,7 @@ const ROUTES: Route[] = [
   {
     method: 'post',
     path: () => `/api/live/attempts/${LIVE_ATTEMPT}/events`,
-    body: () => ({ from: 0, events: [], status: LIVE_STATUS }),
+    body: () => ({ from: 0, events: [], status: STATUS }),
     expect: ownPanel(200),
   },
   {
