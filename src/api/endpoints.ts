@@ -51,6 +51,11 @@ export const endpoints = {
     duplicate: (key: string) => `/scenarios/${enc(key)}/duplicate`,
     retire: (key: string) => `/scenarios/${enc(key)}/retire`,
     restore: (key: string) => `/scenarios/${enc(key)}/restore`,
+    drafts: '/scenarios/drafts',
+    draft: (key: string) => `/scenarios/${enc(key)}/draft`,
+    draftReference: (key: string) => `/scenarios/${enc(key)}/draft/reference`,
+    draftPublish: (key: string) => `/scenarios/${enc(key)}/draft/publish`,
+    exportPack: '/scenarios/export',
   },
   assignments: {
     list: '/assignments',
