@@ -11,13 +11,16 @@ import type { StartingState } from './schema'
 
 const sameCable = (a: MotorCable, b: MotorCable) => a.u === b.u && a.v === b.v && a.w === b.w
 
-function deviceSpec(state: SimState, id: string): DeviceSpec {
+type StartDevice = StartingState['devices'][number]
+
+function deviceSpec(state: SimState, id: string): StartDevice {
   const device = state.devices[id]!
   const spec: DeviceSpec = { ...device.spec }
-  // A contact block the author fitted; a faulty block (an injected fault) is not part of the start.
+  // A contact block the author fitted (the model keeps a faulty block apart, as a fault).
   if (device.contact !== (spec.contact ?? 'NO')) spec.contact = device.contact
   if (device.position !== (spec.position ?? 0)) spec.position = device.position
-  return spec
+  // The model checked the spec against the scenario's own device rules when the simulation was made.
+  return spec as StartDevice
 }
 
 /**
