@@ -4,7 +4,7 @@
 // recording the reference sends the run's log and shows what the server says it misses.
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import { flushPromises, mount } from '@vue/test-utils'
-import { h } from 'vue'
+import { defineComponent, h } from 'vue'
 import { RouterView } from 'vue-router'
 import type { ReferenceResult, ScenarioDraft } from '@shared/api/scenarioAuthoring'
 import { STAFF } from '@/router/roles'
@@ -44,8 +44,11 @@ function draftBody(document: Record<string, unknown>, result: ReferenceResult | 
   }
 }
 
-const blank = () => h('div', { 'data-testid': 'elsewhere' })
-const App = () => h(RouterView)
+// Two tiny components: the page elsewhere, and the app's router view around the page under test.
+// eslint-disable-next-line vue/one-component-per-file
+const blank = defineComponent({ render: () => h('div', { 'data-testid': 'elsewhere' }) })
+// eslint-disable-next-line vue/one-component-per-file
+const App = defineComponent({ render: () => h(RouterView) })
 
 async function settle(rounds = 2) {
   for (let i = 0; i < rounds; i++) {
