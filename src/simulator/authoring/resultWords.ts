@@ -12,9 +12,20 @@ export interface ResultWords {
 
 const plural = (n: number, one: string, many: string) => `${n} ${n === 1 ? one : many}`
 
+/** Objectives named one by one in the bar; the task sheet lists every one. */
+export const MISSED_SHOWN = 4
+
 /** The panel's own grade of a finished run on the draft. */
 export function runGradeWords(grade: GradeResult): ResultWords {
-  const missed = grade.objectives.filter((o) => !o.met).map((o) => `Not met: ${o.title}`)
+  const notMet = grade.objectives.filter((o) => !o.met).map((o) => `Not met: ${o.title}`)
+  const more = notMet.length - MISSED_SHOWN
+  const missed =
+    more > 0
+      ? [
+          ...notMet.slice(0, MISSED_SHOWN),
+          `…and ${plural(more, 'more objective', 'more objectives')} not met`,
+        ]
+      : notMet
   const unsafe = grade.safetyViolations.length
   return {
     title: `Graded: ${grade.score} / 100 — ${grade.passed ? 'passed' : 'not passed'}`,

@@ -6,7 +6,8 @@ import { toSimulationSetup } from '@shared/scenario/setup'
 import { scenarioSchema } from '@shared/scenario/schema'
 import scenarioFile from '../../../scenarios/two-wire-run-stop.json'
 import { checkDraftForPanel, setupRefusal, startInWords } from '@/simulator/authoring/draftRun'
-import { referenceWords } from '@/simulator/authoring/resultWords'
+import { MISSED_SHOWN, referenceWords, runGradeWords } from '@/simulator/authoring/resultWords'
+import { grade } from '@shared/scenario/grade'
 import { STATUS_SCREEN } from '@/simulator/scene/keypadMenu'
 
 const doc = () => structuredClone(scenarioFile) as unknown as Record<string, unknown>
@@ -83,5 +84,18 @@ describe('words', () => {
     expect(missing.good).toBe(false)
     expect(missing.lines).toContain('Misses: Ramp set')
     expect(missing.lines.join(' ')).toContain('2 safety violations')
+  })
+
+  it('names the first objectives a tried run missed and counts the rest', () => {
+    const scenario = scenarioSchema.parse(scenarioFile)
+    const result = grade(scenario, [{ t: 10, type: 'attempt.ended' }])
+    const notMet = result.objectives.filter((o) => !o.met)
+    const words = runGradeWords(result)
+    expect(words.title).toBe(`Graded: ${result.score} / 100 — not passed`)
+    expect(words.lines[0]).toBe(`Not met: ${notMet[0]!.title}`)
+    if (notMet.length > MISSED_SHOWN)
+      expect(words.lines).toContain(
+        `…and ${notMet.length - MISSED_SHOWN} more objective${notMet.length - MISSED_SHOWN === 1 ? '' : 's'} not met`,
+      )
   })
 })
