@@ -88,7 +88,8 @@ export function setupRefusal(sim: SimState, menu: KeypadMenu, drawingWire: boole
 
 /** What an apprentice will find at the start, in one sentence (shown in the set-up bar). */
 export function startInWords(power: { on: boolean; locked: boolean; supervisorLock?: unknown }): string {
-  if (power.on) return 'Apprentices will find the disconnect ON and the panel live.'
+  if (power.on)
+    return 'Apprentices will find the disconnect ON and the panel live: let the story say so, so that isolating comes first.'
   const locks = [
     power.locked ? 'their own lock on it' : '',
     power.supervisorLock ? "a supervisor's lock" : '',
