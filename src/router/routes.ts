@@ -189,6 +189,25 @@ export const routes: RouteRecordRaw[] = [
     component: () => import('@/views/ScenarioEditorView.vue'),
     meta: { roles: STAFF, title: 'Edit scenario' },
   },
+  // A scenario's draft on the panel (#17): one view, three purposes (src/simulator/authoring/).
+  {
+    path: '/scenarios/:id/draft/set-up',
+    name: 'scenario-draft-setup',
+    component: () => import('@/views/ScenarioDraftPanelView.vue'),
+    meta: { roles: STAFF, title: 'Set up the start', workspace: true },
+  },
+  {
+    path: '/scenarios/:id/draft/try',
+    name: 'scenario-draft-try',
+    component: () => import('@/views/ScenarioDraftPanelView.vue'),
+    meta: { roles: STAFF, title: 'Try the draft', workspace: true },
+  },
+  {
+    path: '/scenarios/:id/draft/reference',
+    name: 'scenario-draft-reference',
+    component: () => import('@/views/ScenarioDraftPanelView.vue'),
+    meta: { roles: STAFF, title: 'Record the reference solution', workspace: true },
+  },
 
   // Admin
   {
