@@ -6,6 +6,7 @@ import { flushPromises, mount } from '@vue/test-utils'
 import ScenarioDetailView from '@/views/ScenarioDetailView.vue'
 import ScenarioCompareView from '@/views/ScenarioCompareView.vue'
 import UploadPackDialog from '@/components/scenarios/UploadPackDialog.vue'
+import ScenarioLibraryView from '@/views/ScenarioLibraryView.vue'
 import { stubFetch, testPlugins, type StubCall } from './helpers'
 import {
   KEY,
@@ -218,6 +219,77 @@ describe('the draft card on the scenario page', () => {
     expect(wrapper.get('[data-testid="draft-status"]').text()).toContain('never published')
     expect(wrapper.get('[data-testid="draft-publish"]').text()).toContain('Publish as version 1')
     expect(wrapper.find('[role="alert"]').exists()).toBe(false)
+  })
+})
+
+describe('editing and the library', () => {
+  it('starts a draft when Edit is pressed on a scenario without one, then opens the editor', async () => {
+    let started = false
+    const calls = stubFetch((call) => {
+      const p = path(call)
+      if (p.endsWith('/draft')) {
+        if (call.method === 'POST') started = true
+        return started ? { body: draftBody() } : notFound
+      }
+      if (p.endsWith('/versions')) return { body: { items: [versionRow(2)] } }
+      return { body: detail(2) }
+    })
+    const { router } = await mountAt(ScenarioDetailView, `/scenarios/${KEY}`, '/scenarios/:id')
+    expect(document.body.querySelector('[data-testid="draft-card"]')).toBeNull()
+    button('Edit')!.click()
+    await settle()
+    expect(calls.filter((c) => c.method === 'POST').map(path)).toEqual([`/api/scenarios/${KEY}/draft`])
+    expect(router.currentRoute.value.fullPath).toBe(`/scenarios/${KEY}/edit`)
+  })
+
+  it('lists drafts of keys never published, and exports the scenarios ticked', async () => {
+    const summary = (d: ReturnType<typeof draftBody>) => ({
+      key: d.key,
+      title: d.title,
+      baseVersion: d.baseVersion,
+      nextVersion: d.nextVersion,
+      updatedAt: d.updatedAt,
+      updatedByName: d.updatedByName,
+      publishable: d.publishable,
+    })
+    const calls = stubFetch((call) => {
+      const p = path(call)
+      if (p === '/api/scenarios/drafts')
+        return {
+          body: {
+            items: [
+              summary(
+                draftBody({
+                  key: 'night-shift-pump',
+                  title: 'Night-shift pump',
+                  baseVersion: null,
+                  nextVersion: 1,
+                }),
+              ),
+              summary(draftBody()),
+            ],
+          },
+        }
+      if (p === '/api/scenarios/export') return { body: { format: 'slipway-scenario-pack' } }
+      return { body: { items: [{ ...versionRow(2), origin: 'shipped', learningOutcomes: [] }] } }
+    })
+    // The download itself needs a browser; the request is what is checked here.
+    URL.createObjectURL = vi.fn(() => 'blob:pack')
+    URL.revokeObjectURL = vi.fn()
+    const { wrapper } = await mountAt(ScenarioLibraryView, '/scenarios', '/scenarios')
+    const drafts = wrapper.get('[data-testid="library-drafts"]')
+    expect(drafts.text()).toContain('Night-shift pump')
+    expect(drafts.findAll('a')).toHaveLength(1)
+    expect(drafts.get('a').attributes('href')).toBe('/scenarios/night-shift-pump')
+    expect(wrapper.text()).toContain('Draft in progress')
+    button('Export a pack')!.click()
+    await settle()
+    expect(wrapper.get('[data-testid="export-download"]').attributes('disabled')).toBeDefined()
+    await wrapper.get('[data-testid="export-choice"] input').setValue(true)
+    await wrapper.get('[data-testid="export-download"]').trigger('click')
+    await settle()
+    const exported = calls.find((c) => path(c) === '/api/scenarios/export')
+    expect(new URL(exported!.url, 'http://x').searchParams.get('keys')).toBe(KEY)
   })
 })
 
