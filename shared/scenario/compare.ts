@@ -225,11 +225,13 @@ function machineChanges(a: Doc, b: Doc): string[] {
 
 function faultWords(fault: Item, state: SimState): string {
   try {
-    return faultName(fault as unknown as ScenarioFault, state)
+    // A kind names.ts does not know falls through its switch (a draft may hold anything).
+    return faultName(fault as unknown as ScenarioFault, state) ?? UNKNOWN_FAULT
   } catch {
-    return 'a fault of a kind the simulator does not have'
+    return UNKNOWN_FAULT
   }
 }
+const UNKNOWN_FAULT = 'a fault of a kind the simulator does not have'
 
 function faultChanges(a: Doc, b: Doc, stateA: SimState, stateB: SimState): string[] {
   const was = asItems(a.faults)
@@ -349,7 +351,7 @@ function objectiveFieldWords(o: Item, doc: Doc, state: SimState): Record<string,
     const expect = asDoc(o.expect)
     put('part named', expect.target, (v) => {
       try {
-        return diagnosisTargetName(v as DiagnosisTarget, state)
+        return diagnosisTargetName(v as DiagnosisTarget, state) ?? 'a part the panel does not have'
       } catch {
         return 'a part the panel does not have'
       }

@@ -171,6 +171,11 @@ describe('compareScenarios', () => {
     expect(texts(changes)).toContain(`Title: “${a.title}” → “Half written”`)
     expect(texts(changes).some((t) => t.startsWith('Objective removed'))).toBe(true)
     expect(compareScenarios({}, {})).toEqual([])
+    // Kinds no list knows (a draft may hold anything) still read as words.
+    const odd = { ...a, faults: [{ kind: 'gremlin' }] }
+    const words = texts(compareScenarios(a, odd)).join('\n')
+    expect(words).toContain('Fault added: a fault of a kind the simulator does not have')
+    expect(words).not.toMatch(/undefined|gremlin|\[object/)
     expectNoLeaks(changes, a)
   })
 })
