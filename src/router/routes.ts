@@ -184,6 +184,12 @@ export const routes: RouteRecordRaw[] = [
     meta: { roles: STAFF, title: 'Scenario' },
   },
   {
+    path: '/scenarios/:id/compare',
+    name: 'scenario-compare',
+    component: () => import('@/views/ScenarioCompareView.vue'),
+    meta: { roles: STAFF, title: 'Compare versions' },
+  },
+  {
     path: '/scenarios/:id/edit',
     name: 'scenario-edit',
     component: () => import('@/views/ScenarioEditorView.vue'),

@@ -101,7 +101,11 @@ export function checkDraft(d: ScenarioDraft): DraftCheck {
     technical = parsed as Doc
   } catch (e) {
     const message = `The technical part is not valid JSON: ${(e as Error).message}`
-    return { scenario: null, problems: [{ path: '$', place: 'Technical part', message }], byField: { technical: message } }
+    return {
+      scenario: null,
+      problems: [{ path: '$', place: 'Technical part', message }],
+      byField: { technical: message },
+    }
   }
   const document: Doc = {
     id: d.id,
