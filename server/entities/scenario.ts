@@ -1,6 +1,15 @@
 // One stored version of a scenario; (key, version) is unique and a version is never edited.
 import { EntitySchema, type EntitySchemaOptions } from 'typeorm'
-import { integer, nullableText, nullableUuid, text, timestamp, uuidPrimary, varchar, belongsTo } from './columns'
+import {
+  integer,
+  nullableText,
+  nullableUuid,
+  text,
+  timestamp,
+  uuidPrimary,
+  varchar,
+  belongsTo,
+} from './columns'
 
 export interface ScenarioRow {
   id: string

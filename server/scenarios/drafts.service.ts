@@ -65,7 +65,9 @@ async function draftOrThrow(db: Db, key: string): Promise<ScenarioDraftRow> {
 /** The problems of a draft, in words; the checked scenario when there are none. */
 function checkDraft(row: ScenarioDraftRow): { problems: ScenarioProblem[]; scenario: Scenario | null } {
   const result = checkScenario(JSON.parse(row.document))
-  return result.ok ? { problems: [], scenario: result.scenario } : { problems: result.problems, scenario: null }
+  return result.ok
+    ? { problems: [], scenario: result.scenario }
+    : { problems: result.problems, scenario: null }
 }
 
 /** "The draft has 2 problems: Title: …; Objective 3 (…): …" */
@@ -177,9 +179,14 @@ export async function createDraft(
 ): Promise<ScenarioDraft> {
   const row = await ctx.dataSource.transaction(async (m) => {
     if ((await latestVersion(m, key)) || (await findDraft(m, key)))
-      throw new HttpError(409, 'conflict', 'A scenario or draft already uses this short name; choose another', {
-        fields: { key: ['Already in use'] },
-      })
+      throw new HttpError(
+        409,
+        'conflict',
+        'A scenario or draft already uses this short name; choose another',
+        {
+          fields: { key: ['Already in use'] },
+        },
+      )
     // A solution left from an earlier, discarded draft of this key belongs to nothing now.
     await m.getRepository(ScenarioReferenceSolutionEntity).delete({ key })
     return writeDraft(m, key, document, user.id)
@@ -287,9 +294,14 @@ export async function duplicateToDraft(
     const source = await latestVersion(m, key)
     if (!source) throw notFound('Scenario')
     if ((await latestVersion(m, newKey)) || (await findDraft(m, newKey)))
-      throw new HttpError(409, 'conflict', 'A scenario or draft already uses this short name; choose another', {
-        fields: { newKey: ['Already in use'] },
-      })
+      throw new HttpError(
+        409,
+        'conflict',
+        'A scenario or draft already uses this short name; choose another',
+        {
+          fields: { newKey: ['Already in use'] },
+        },
+      )
     const document = JSON.parse(source.document) as ScenarioDraftDocument
     document.title = title ?? `${source.title} (copy)`.slice(0, 120)
     const solutions = m.getRepository(ScenarioReferenceSolutionEntity)

@@ -11,11 +11,7 @@ import {
   type ReferenceResult,
   type ScenarioPackFile,
 } from '@shared/api/scenarioAuthoring'
-import {
-  SCENARIO_PACK_FIELD,
-  SCENARIO_PACK_MAX_BYTES,
-  scenarioPackSchema,
-} from '@shared/api/scenarios'
+import { SCENARIO_PACK_FIELD, SCENARIO_PACK_MAX_BYTES, scenarioPackSchema } from '@shared/api/scenarios'
 import { referenceShortfall } from '@shared/scenario/reference'
 import type { AppContext } from '../context'
 import { ScenarioReferenceSolutionEntity, type UserRow } from '../entities'
@@ -53,7 +49,12 @@ export async function exportPack(
   const exportedAt = nowIso()
   return {
     fileName: `slipway-scenarios-${exportedAt.slice(0, 10)}.json`,
-    pack: { format: SCENARIO_PACK_FORMAT, formatVersion: SCENARIO_PACK_FORMAT_VERSION, exportedAt, scenarios },
+    pack: {
+      format: SCENARIO_PACK_FORMAT,
+      formatVersion: SCENARIO_PACK_FORMAT_VERSION,
+      exportedAt,
+      scenarios,
+    },
   }
 }
 
@@ -65,7 +66,10 @@ function packEntriesOf(json: unknown): { entries: PackEntry[]; prefix: (index: n
     return { entries: parse(scenarioPackFileSchema).scenarios, prefix: (i) => `.scenarios[${i}].document` }
   if (Array.isArray(json))
     return {
-      entries: parse(scenarioPackSchema.options[1]).map((document) => ({ document, referenceSolution: null })),
+      entries: parse(scenarioPackSchema.options[1]).map((document) => ({
+        document,
+        referenceSolution: null,
+      })),
       prefix: (i) => `[${i}]`,
     }
   return {

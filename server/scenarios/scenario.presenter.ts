@@ -1,9 +1,6 @@
 // A stored scenario version → the API's summary (lists) or detail (with its document).
 import type { ScenarioDetail, ScenarioLibraryItem, ScenarioSummary } from '@shared/api/scenarios'
-import {
-  referenceResultSchema,
-  type ScenarioVersionWithReference,
-} from '@shared/api/scenarioAuthoring'
+import { referenceResultSchema, type ScenarioVersionWithReference } from '@shared/api/scenarioAuthoring'
 import type { ScenarioRow } from '../entities'
 
 export function presentScenario(row: ScenarioRow): ScenarioSummary {

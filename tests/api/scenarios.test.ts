@@ -110,9 +110,9 @@ describe('scenarios', () => {
     document.start.wires = [{ id: 'w1', from: 'drive.di1', to: 'ghost.a', colour: 'blue' }]
     const response = await as(instructor).post('/api/scenarios/drafts', { key: 'dangling-wire', document })
     expect(response.status).toBe(201)
-    expect(
-      response.body.problems.some((p: { path: string }) => p.path.startsWith('$.start.wires[0]')),
-    ).toBe(true)
+    expect(response.body.problems.some((p: { path: string }) => p.path.startsWith('$.start.wires[0]'))).toBe(
+      true,
+    )
     expect((await as(instructor).post('/api/scenarios/dangling-wire/draft/publish')).status).toBe(409)
     expect(await api.dataSource.getRepository(ScenarioEntity).countBy({ key: 'dangling-wire' })).toBe(0)
   })

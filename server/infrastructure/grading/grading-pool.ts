@@ -106,7 +106,8 @@ export function createGradingPool(options: GradingPoolOptions): GradingPool {
   )
   // Keep the rejection handled until someone awaits it (a missing worker build surfaces on first use).
   pool.catch(() => {})
-  let current: Piscina<GradingTask, ReadReport | LogGradeReport | InjectableReport | ReferenceResult> | undefined
+  let current:
+    Piscina<GradingTask, ReadReport | LogGradeReport | InjectableReport | ReferenceResult> | undefined
   void pool.then((p) => (current = p))
 
   /** Mean task time, for the Retry-After estimate. */

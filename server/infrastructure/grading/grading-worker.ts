@@ -163,6 +163,9 @@ export default function runTask(
 ): ReadReport | LogGradeReport | InjectableReport | ReferenceResult {
   if (task.kind === 'read') return readSubmission(task.body)
   if (task.kind === 'reference')
-    return referenceResult(JSON.parse(task.document) as Scenario, JSON.parse(task.eventsJson) as AttemptEvent[])
+    return referenceResult(
+      JSON.parse(task.document) as Scenario,
+      JSON.parse(task.eventsJson) as AttemptEvent[],
+    )
   return task.kind === 'grade' ? gradeLog(task) : injectableNow(task)
 }

@@ -28,9 +28,7 @@ describe('the shipped reference solutions', () => {
 
   it.each(scenarioIds)('%s is the reference fixture as npm run fixtures:build writes it', (id) => {
     const text = readFileSync(resolve(solutionsDir, `${id}.json`), 'utf8')
-    expect(JSON.parse(text)).toEqual(
-      JSON.parse(serialiseReferenceSolution(fixture(id, 'reference').events)),
-    )
+    expect(JSON.parse(text)).toEqual(JSON.parse(serialiseReferenceSolution(fixture(id, 'reference').events)))
   })
 })
 
