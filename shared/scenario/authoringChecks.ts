@@ -70,7 +70,7 @@ export function tooManyInputFunctions(scenario: Scenario): AuthoringProblem[] {
   ]
 }
 
-/** A hint no objective lists in its `hints` is offered beside nothing on the panel's task sheet. */
+/** A hint no objective lists in its `hints` helps with nothing the scenario asks for. */
 export function unattachedHints(scenario: Scenario): AuthoringProblem[] {
   const offered = new Set(scenario.objectives.flatMap((o) => o.hints ?? []))
   return scenario.hints.flatMap((hint, i) =>
@@ -79,9 +79,7 @@ export function unattachedHints(scenario: Scenario): AuthoringProblem[] {
       : [
           {
             path: ['hints', i],
-            message:
-              'No objective lists this hint, so it is offered beside nothing: attach it to the objective ' +
-              'it helps with, or remove it.',
+            message: 'No objective lists this hint: attach it to the objective it helps with, or remove it.',
           },
         ],
   )
