@@ -111,6 +111,9 @@ describe('scenario authoring', () => {
       // The shipped reference solution came with the scenario, so it can be published as it is.
       expect(started.body.reference.result).toMatchObject({ fullMarks: true, missed: [] })
       expect(started.body.publishable).toBe(true)
+      // Version 1 was imported with how that solution fared on it.
+      const [shippedVersion] = await versionsOf('safe-isolation')
+      expect(shippedVersion.reference).toMatchObject({ fullMarks: true, score: 100 })
       const again = await as.post('/api/scenarios/safe-isolation/draft')
       expect(again.status).toBe(200)
       expect(again.body.createdAt).toBe(started.body.createdAt)
