@@ -3,13 +3,13 @@
 // form; records a reference solution on the panel; publishes it and assigns it to their cohort. An
 // apprentice, in a browser of their own, opens the assignment, repairs the fault under lockout and is
 // graded by the server. Screenshots of each editor step go to test-results/screenshots/ (not in CI).
-import type { Page } from 'playwright-core'
+import type { Locator, Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { AttemptSummary } from '../../shared/api/attempts'
 import type { PanelDevice, PointId } from '../../src/simulator/scene/types'
 import { demo, signIn } from './client-steps'
 import { PanelDriver } from './panel-driver'
-import { diagnose, dismissSafetyNotice, skipTour, submitForGrade } from './panel-fixtures'
+import { diagnose, submitForGrade } from './panel-fixtures'
 import { launchBrowser, screenshot, startApp, type BrowserSession, type RunningApp } from './support'
 import { networkQuiet } from './support/browser'
 
@@ -60,20 +60,34 @@ class CountingPanelDriver extends PanelDriver {
   }
 }
 
-/** Waits for a panel page (a draft's or an attempt's) to start, past the safety notice and the tour. */
-async function panelOn(page: Page, tour: boolean): Promise<CountingPanelDriver> {
-  await dismissSafetyNotice(page)
+/**
+ * Waits for a panel page (a draft's or an attempt's) to start. The first-run safety notice and the tour
+ * show once per browser: the caller says which to expect, so that nothing waits for what will not come.
+ */
+async function panelOn(page: Page, shows: { notice: boolean; tour: boolean }): Promise<CountingPanelDriver> {
+  if (shows.notice) await acknowledge(page.getByTestId('safety-understood'))
   const panel = new CountingPanelDriver(page, [RUN_SWITCH])
   await panel.ready()
-  if (tour) await skipTour(page)
+  if (shows.tour) await acknowledge(page.getByTestId('tour-skip'))
   return panel
 }
 
+async function acknowledge(button: Locator) {
+  await button.click({ timeout: 30_000 })
+  await button.waitFor({ state: 'hidden', timeout: 15_000 })
+}
+
 /** The repair as a fault-finder makes it, already isolated and locked: diagnose, prove dead, re-run the wire. */
+const T0 = Date.now()
+const lap = (what: string) => console.log(`LAP ${what} ${((Date.now() - T0) / 1000).toFixed(1)}`)
 async function repairRunWire(page: Page, panel: CountingPanelDriver) {
+  lap('repair start')
   await diagnose(page, 'Wire W2', 'Open circuit')
+  lap('diagnosed')
   await panel.proveDead()
+  lap('proved dead')
   await panel.remakeRunWire()
+  lap('remade')
 }
 
 async function apiToken(url: string, who: { email: string; password: string }): Promise<string> {
@@ -139,7 +153,7 @@ describe('authoring a troubleshooting exercise without JSON, then assigning and 
   it('sets up the starting wiring on the panel, off and locked', async () => {
     const { page } = instructor
     await page.goto(`${app.url}/scenarios/${KEY}/draft/set-up`)
-    const panel = await panelOn(page, false)
+    const panel = await panelOn(page, { notice: true, tour: false })
     // As the shipped dead-control-circuit scenario wires its run selector (sink logic on DI1).
     await panel.wire('drive.p24', 'runSwitch.a')
     await panel.wire('runSwitch.b', 'drive.di1')
@@ -177,7 +191,7 @@ describe('authoring a troubleshooting exercise without JSON, then assigning and 
   it('records a reference solution that earns full marks', async () => {
     const { page } = instructor
     await page.goto(`${app.url}/scenarios/${KEY}/draft/reference`)
-    const panel = await panelOn(page, true)
+    const panel = await panelOn(page, { notice: false, tour: true })
     await repairRunWire(page, panel)
     await page.getByTestId('reference-save').click()
     const result = page.getByTestId('reference-result')
@@ -208,7 +222,7 @@ describe('authoring a troubleshooting exercise without JSON, then assigning and 
     await page.waitForURL((u) => u.pathname === '/learn')
     const card = page.locator('.v-card', { hasText: TITLE })
     await card.getByRole('link', { name: 'Start' }).click()
-    const panel = await panelOn(page, true)
+    const panel = await panelOn(page, { notice: true, tour: true })
     await repairRunWire(page, panel)
     const grade = await submitForGrade(page, 'authoring-6-apprentice-graded')
     expect(grade).toMatch(/Graded: 100 \/ 100 — passed/)
