@@ -6,6 +6,7 @@
 import type { Locator, Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { AttemptSummary } from '../../shared/api/attempts'
+import type { Scenario } from '../../shared/scenario/schema'
 import type { PanelDevice, PointId } from '../../src/simulator/scene/types'
 import { demo, signIn } from './client-steps'
 import { PanelDriver } from './panel-driver'
@@ -22,14 +23,79 @@ const RUN_SWITCH: PanelDevice = {
   kind: 'selector',
   label: 'Run switch',
   contact: 'NO',
-  position: 0,
 }
+const STORY =
+  'The circulation fan of kiln 2 at Harrowmere Timber Kilns will not start from its run switch since a ' +
+  'forklift caught the cable tray. Bryony Castellane has isolated the kiln and put your lock on it. Find ' +
+  'the fault, record your diagnosis, and repair it under lockout.'
+const OUTCOME = 'Find a broken conductor in a run circuit and repair it under lockout'
+const SAFETY_NOTE =
+  'Work on the terminals only under your own lock, after proving absence of voltage; local codes and the ' +
+  "equipment's instructions come first."
+const HINT = 'With the switch made, measure across each conductor of the run circuit in turn.'
+/** Names in the scenario format that must never reach the author's screen. */
+const FILE_FORMAT_NAMES = [
+  /\brunSwitch\b/,
+  /\b(drive|runSwitch)\.[a-z0-9]+\b/,
+  /\b(hint|objective)-\d+\b/,
+  /\b(brokenWire|faultFoundAndCleared|diagnosisCorrect|lockBeforeWiring|wireId|passMark)\b/,
+]
+
 /** The run wire's removal button in the Wiring tab (its marker and colour come from the panel). */
 const REMOVE_RUN_WIRE = /^Remove wire \S+ \S+ from Run switch 14 to DI1/
 
+/** Picks an option from a select or autocomplete field by its words. */
+async function choose(page: Page, field: Locator, option: string | RegExp) {
+  await field.click()
+  await page.getByRole('option', { name: option, exact: typeof option === 'string' }).click()
+}
+
+/** Adds an objective from the catalogue and fills in its fields (the newest is open below the others). */
+async function addObjective(
+  page: Page,
+  kind: string,
+  title: string,
+  points: number,
+  with_: { fault?: boolean; hint?: boolean; required?: boolean },
+) {
+  await choose(page, page.getByRole('combobox', { name: 'Add an objective' }), kind)
+  const item = page.getByTestId('objective-item').last()
+  await item.getByLabel('Title the apprentice sees').fill(title)
+  await item.getByLabel('Points', { exact: true }).fill(String(points))
+  if (with_.fault)
+    await choose(page, item.getByRole('combobox', { name: 'Fault', exact: true }), /^Fault 1: /)
+  if (with_.hint) {
+    await choose(page, item.getByRole('combobox', { name: 'Hints offered beside it' }), HINT.slice(0, 60))
+    await page.keyboard.press('Escape') // a list of several choices stays open
+  }
+  if (with_.required) await item.getByLabel('Must be met to pass, whatever the score').check()
+}
+
+/**
+ * What the author sees (the page's text and the text typed into its fields, not the values a select keeps
+ * out of sight) holds no file format: no braces, no JSON paths, no internal names or ids.
+ */
+async function noFileFormat(page: Page, ids: readonly string[] = []) {
+  const shown = await page.evaluate(() =>
+    [
+      document.body.innerText,
+      ...[...document.querySelectorAll<HTMLInputElement | HTMLTextAreaElement>('input, textarea')]
+        .filter((e) => e.type !== 'hidden' && !e.closest('.v-select, .v-autocomplete'))
+        .map((e) => e.value),
+    ].join('\n'),
+  )
+  expect(shown).not.toContain('{')
+  expect(shown).not.toContain('$.')
+  const names = [...FILE_FORMAT_NAMES, ...ids.map((id) => new RegExp(`\\b${id}\\b`))]
+  expect(names.filter((name) => name.test(shown)).map(String)).toEqual([])
+}
+
 /** Editor screenshots are for people looking at the screens; CI skips them (a few seconds saved). */
 async function shot(page: Page, name: string) {
-  if (!process.env.CI) await screenshot(page, `authoring-${name}`)
+  if (process.env.CI) return
+  // The app bar is fixed: a page left scrolled would draw it over the middle of a full-page shot.
+  await page.evaluate(() => window.scrollTo(0, 0))
+  await screenshot(page, `authoring-${name}`)
 }
 
 /**
@@ -78,16 +144,10 @@ async function acknowledge(button: Locator) {
 }
 
 /** The repair as a fault-finder makes it, already isolated and locked: diagnose, prove dead, re-run the wire. */
-const T0 = Date.now()
-const lap = (what: string) => console.log(`LAP ${what} ${((Date.now() - T0) / 1000).toFixed(1)}`)
 async function repairRunWire(page: Page, panel: CountingPanelDriver) {
-  lap('repair start')
   await diagnose(page, 'Wire W2', 'Open circuit')
-  lap('diagnosed')
   await panel.proveDead()
-  lap('proved dead')
   await panel.remakeRunWire()
-  lap('remade')
 }
 
 async function apiToken(url: string, who: { email: string; password: string }): Promise<string> {
@@ -113,9 +173,11 @@ describe('authoring a troubleshooting exercise without JSON, then assigning and 
   let app: RunningApp
   let instructor: BrowserSession
   let apprentice: BrowserSession
+  let instructorToken: string
   beforeAll(async () => {
     app = await startApp()
     instructor = await launchBrowser({ width: 1600, height: 1000 })
+    instructorToken = await apiToken(app.url, INSTRUCTOR)
   })
   afterAll(async () => {
     await apprentice?.close()
@@ -123,36 +185,53 @@ describe('authoring a troubleshooting exercise without JSON, then assigning and 
     await app?.stop()
   })
 
+  /** Every id in the saved draft: the author must never see one. */
+  async function draftIds(): Promise<string[]> {
+    const { document: d } = await api<{ document: Scenario }>(
+      app.url,
+      instructorToken,
+      `/scenarios/${KEY}/draft`,
+    )
+    return [
+      ...d.start.devices.map((x) => x.id),
+      ...(d.start.wires ?? []).map((x) => x.id),
+      ...d.hints.map((x) => x.id),
+      ...d.objectives.map((x) => x.id),
+    ]
+  }
+
   it('builds the story and a device in the form', async () => {
     const { page } = instructor
     await signIn(page, app.url, INSTRUCTOR)
-    // INTERIM: the form editor lands with branch author-form; until then the draft is made by the API.
-    const token = await apiToken(app.url, INSTRUCTOR)
-    await api(app.url, token, '/scenarios/drafts', {
-      method: 'POST',
-      body: JSON.stringify({
-        key: KEY,
-        document: {
-          title: TITLE,
-          site: { name: 'Harrowmere Timber Kilns', machine: 'Kiln 2 circulation fan', people: [] },
-          story: 'x'.repeat(40),
-          learningOutcomes: ['Find a broken conductor in a run circuit and repair it under lockout'],
-          difficulty: 'introductory',
-          estimatedMinutes: 15,
-          start: { devices: [RUN_SWITCH], wires: [], settings: {}, power: { on: false, locked: false } },
-          faults: [],
-          hints: [],
-          safetyNotes: ['Repair only under your own lock, with absence of voltage proved.'],
-          objectives: [],
-          passMark: 0,
-        },
-      }),
-    })
+    await page.goto(`${app.url}/scenarios/new`)
+    await page.getByTestId('story-title').getByRole('textbox').fill(TITLE)
+    await page.getByLabel('Name in links').fill(KEY)
+    await page.getByLabel('Site (invented)').fill('Harrowmere Timber Kilns')
+    await page.getByLabel('Machine', { exact: true }).fill('Kiln 2 circulation fan')
+    await page.getByLabel('People in the story').fill('Bryony Castellane, kiln supervisor\nyou, apprentice')
+    await page.getByLabel('Story', { exact: true }).fill(STORY)
+    await page.getByLabel('Learning outcomes').fill(OUTCOME)
+    await page.getByLabel('Safety notes').fill(SAFETY_NOTE)
+    await choose(page, page.getByRole('combobox', { name: 'Difficulty' }), 'Intermediate')
+    await page.getByLabel('Estimated time').fill('15')
+
+    await choose(page, page.getByRole('combobox', { name: 'Kind of device' }), 'Selector switch')
+    await page.getByTestId('add-device').click()
+    const device = page.getByTestId('device-item')
+    await device.getByLabel('Label on the panel').fill(RUN_SWITCH.label)
+    await expect.poll(() => device.textContent()).toContain('Normally open')
+    await shot(page, '1-story-and-device')
+    await noFileFormat(page)
+
+    await page.getByTestId('save-draft').click()
+    await page.waitForURL((u) => u.pathname === `/scenarios/${KEY}/edit`)
+    await page.getByTestId('saved').waitFor()
   }, 60_000)
 
   it('sets up the starting wiring on the panel, off and locked', async () => {
     const { page } = instructor
-    await page.goto(`${app.url}/scenarios/${KEY}/draft/set-up`)
+    await page.getByTestId('set-up-on-panel').click()
+    await page.waitForURL((u) => u.pathname === `/scenarios/${KEY}/draft/set-up`)
     const panel = await panelOn(page, { notice: true, tour: false })
     // As the shipped dead-control-circuit scenario wires its run selector (sink logic on DI1).
     await panel.wire('drive.p24', 'runSwitch.a')
@@ -163,29 +242,67 @@ describe('authoring a troubleshooting exercise without JSON, then assigning and 
       .poll(() => page.getByTestId('setup-power').textContent())
       .toMatch(/disconnect OFF, with their own lock on it/)
     await page.getByTestId('setup-save').click()
+
+    // Back in the editor: the wiring in words, the power off and the apprentice's lock on.
     await page.waitForURL((u) => u.pathname === `/scenarios/${KEY}/edit`)
+    const wires = page.getByTestId('start-wires').locator('li')
+    await expect.poll(() => wires.allTextContents()).toHaveLength(3)
+    expect((await wires.allTextContents()).join('\n')).toMatch(/Run switch 14 to DI1/)
+    await expect(page.getByLabel('Power on at the start').isChecked()).resolves.toBe(false)
+    await expect(page.getByLabel("The apprentice's own lock is already on").isChecked()).resolves.toBe(true)
+    await shot(page, '2-start-set-on-the-panel')
+    await noFileFormat(page, await draftIds())
   }, 90_000)
 
   it('adds a fault, objectives and a hint in the form, with no JSON on screen', async () => {
     const { page } = instructor
-    // INTERIM: saved through the API until the form lands.
-    const token = await apiToken(app.url, INSTRUCTOR)
-    const draft = await api<{ document: Record<string, any> }>(app.url, token, `/scenarios/${KEY}/draft`)
-    const doc = draft.document
-    const runWire = (doc.start.wires as { id: string; from: string; to: string }[]).find(
-      (w) => w.from === 'runSwitch.b' && w.to === 'drive.di1',
-    )!
-    doc.faults = [{ kind: 'brokenWire', wireId: runWire.id }]
-    doc.hints = [{ id: 'hint-1', text: 'Measure across each conductor with the switch made.', cost: 5 }]
-    doc.objectives = [
-      { id: 'o1', kind: 'faultFoundAndCleared', title: 'Run wire put right', weight: 40, fault: 0, hints: ['hint-1'] },
-      { id: 'o2', kind: 'diagnosisCorrect', title: 'Diagnosis recorded before the repair', weight: 30, fault: 0 },
-      { id: 'o3', kind: 'lockBeforeWiring', title: 'Locked off before work', weight: 30, required: true },
-    ]
-    doc.passMark = 70
-    await api(app.url, token, `/scenarios/${KEY}/draft`, { method: 'PUT', body: JSON.stringify({ document: doc }) })
-    await page.goto(`${app.url}/scenarios/${KEY}`)
-    await networkQuiet(page)
+    await choose(
+      page,
+      page.getByRole('combobox', { name: 'Add a fault' }),
+      'A wire broken inside its insulation',
+    )
+    const fault = page.getByTestId('fault-item')
+    await choose(page, fault.getByRole('combobox', { name: 'Which wire' }), /Run switch 14 to DI1/)
+
+    await page.getByTestId('add-hint').click()
+    const hint = page.getByTestId('hint-item')
+    await hint.getByLabel('What the hint says').fill(HINT)
+    await hint.getByLabel('Costs').fill('5')
+
+    await addObjective(page, 'Fault found and put right', 'The run wire made whole again', 40, {
+      fault: true,
+      hint: true,
+    })
+    await addObjective(page, 'Diagnosis correct', 'The broken wire diagnosed before its repair', 30, {
+      fault: true,
+    })
+    await addObjective(page, 'Locked off before work', 'Locked off before touching a terminal', 30, {
+      required: true,
+    })
+    await page.getByLabel('Pass mark').fill('70')
+    await expect
+      .poll(() => page.getByTestId('pass-mark-summary').textContent())
+      .toMatch(/Pass mark 70 of 100 points/)
+
+    await page.getByTestId('save-draft').click()
+    await page.getByTestId('saved').waitFor()
+    await expect.poll(() => page.getByTestId('scenario-checker').textContent()).toMatch(/No problems found/)
+    await shot(page, '3-fault-objectives-hint')
+    await noFileFormat(page, await draftIds())
+    // The draft holds what the form chose, by the ids the author never saw.
+    const { document } = await api<{ document: Scenario }>(
+      app.url,
+      instructorToken,
+      `/scenarios/${KEY}/draft`,
+    )
+    const runWire = document.start.wires!.find((w) => w.from === 'runSwitch.b' && w.to === 'drive.di1')
+    expect(document.faults).toEqual([{ kind: 'brokenWire', wireId: runWire?.id }])
+    expect(document.objectives.map((o) => [o.kind, o.weight, o.required ?? false])).toEqual([
+      ['faultFoundAndCleared', 40, false],
+      ['diagnosisCorrect', 30, false],
+      ['lockBeforeWiring', 30, true],
+    ])
+    expect(document.objectives[0]!.hints).toEqual([document.hints[0]!.id])
   }, 60_000)
 
   it('records a reference solution that earns full marks', async () => {
