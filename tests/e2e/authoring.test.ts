@@ -3,6 +3,8 @@
 // form; records a reference solution on the panel; publishes it and assigns it to their cohort. An
 // apprentice, in a browser of their own, opens the assignment, repairs the fault under lockout and is
 // graded by the server. Screenshots of each editor step go to test-results/screenshots/ (not in CI).
+import { mkdirSync } from 'node:fs'
+import { join } from 'node:path'
 import type { Locator, Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import type { AttemptSummary } from '../../shared/api/attempts'
@@ -11,7 +13,7 @@ import type { PanelDevice, PointId } from '../../src/simulator/scene/types'
 import { demo, signIn } from './client-steps'
 import { PanelDriver } from './panel-driver'
 import { diagnose, submitForGrade } from './panel-fixtures'
-import { launchBrowser, screenshot, startApp, type BrowserSession, type RunningApp } from './support'
+import { launchBrowser, startApp, SCREENSHOT_DIR, type BrowserSession, type RunningApp } from './support'
 import { networkQuiet } from './support/browser'
 
 const INSTRUCTOR = demo('instructor')
@@ -44,9 +46,13 @@ const FILE_FORMAT_NAMES = [
 /** The run wire's removal button in the Wiring tab (its marker and colour come from the panel). */
 const REMOVE_RUN_WIRE = /^Remove wire \S+ \S+ from Run switch 14 to DI1/
 
-/** Picks an option from a select or autocomplete field by its words. */
+/**
+ * Picks an option from a select field by its words. The list is opened from the keyboard: a click can land
+ * on the form's sticky save bar or the app bar, which lie over a field scrolled to the window's edge.
+ */
 async function choose(page: Page, field: Locator, option: string | RegExp) {
-  await field.click()
+  await field.focus()
+  await page.keyboard.press('Enter')
   await page.getByRole('option', { name: option, exact: typeof option === 'string' }).click()
 }
 
@@ -58,7 +64,9 @@ async function addObjective(
   points: number,
   with_: { fault?: boolean; hint?: boolean; required?: boolean },
 ) {
-  await choose(page, page.getByRole('combobox', { name: 'Add an objective' }), kind)
+  // A search field: the kind typed, then picked from what is left.
+  await page.getByRole('combobox', { name: 'Add an objective' }).fill(kind)
+  await page.getByRole('option', { name: kind, exact: true }).click()
   const item = page.getByTestId('objective-item').last()
   await item.getByLabel('Title the apprentice sees').fill(title)
   await item.getByLabel('Points', { exact: true }).fill(String(points))
@@ -90,12 +98,19 @@ async function noFileFormat(page: Page, ids: readonly string[] = []) {
   expect(names.filter((name) => name.test(shown)).map(String)).toEqual([])
 }
 
-/** Editor screenshots are for people looking at the screens; CI skips them (a few seconds saved). */
-async function shot(page: Page, name: string) {
+/**
+ * A screenshot of what the window shows with a part of the page scrolled into it (the editor's save bar
+ * and checker stay in place, so a full-page shot would draw them across the form). For people looking at
+ * the screens: CI skips them.
+ */
+async function shot(page: Page, name: string, part?: Locator) {
   if (process.env.CI) return
-  // The app bar is fixed: a page left scrolled would draw it over the middle of a full-page shot.
-  await page.evaluate(() => window.scrollTo(0, 0))
-  await screenshot(page, `authoring-${name}`)
+  // Just below the app bar, which is fixed over the top of the window.
+  if (part)
+    await part.evaluate((e) => window.scrollTo(0, e.getBoundingClientRect().top + window.scrollY - 72))
+  else await page.evaluate(() => window.scrollTo(0, 0))
+  mkdirSync(SCREENSHOT_DIR, { recursive: true })
+  await page.screenshot({ path: join(SCREENSHOT_DIR, `authoring-${name}.png`) })
 }
 
 /**
@@ -220,7 +235,8 @@ describe('authoring a troubleshooting exercise without JSON, then assigning and 
     const device = page.getByTestId('device-item')
     await device.getByLabel('Label on the panel').fill(RUN_SWITCH.label)
     await expect.poll(() => device.textContent()).toContain('Normally open')
-    await shot(page, '1-story-and-device')
+    await shot(page, '1a-story')
+    await shot(page, '1b-device', page.getByTestId('section-devices'))
     await noFileFormat(page)
 
     await page.getByTestId('save-draft').click()
@@ -247,10 +263,10 @@ describe('authoring a troubleshooting exercise without JSON, then assigning and 
     await page.waitForURL((u) => u.pathname === `/scenarios/${KEY}/edit`)
     const wires = page.getByTestId('start-wires').locator('li')
     await expect.poll(() => wires.allTextContents()).toHaveLength(3)
-    expect((await wires.allTextContents()).join('\n')).toMatch(/Run switch 14 to DI1/)
+    expect((await wires.allTextContents()).join('\n')).toMatch(/Run switch terminal 14 to DI1/)
     await expect(page.getByLabel('Power on at the start').isChecked()).resolves.toBe(false)
     await expect(page.getByLabel("The apprentice's own lock is already on").isChecked()).resolves.toBe(true)
-    await shot(page, '2-start-set-on-the-panel')
+    await shot(page, '2-start-set-on-the-panel', page.getByTestId('section-start'))
     await noFileFormat(page, await draftIds())
   }, 90_000)
 
@@ -262,18 +278,18 @@ describe('authoring a troubleshooting exercise without JSON, then assigning and 
       'A wire broken inside its insulation',
     )
     const fault = page.getByTestId('fault-item')
-    await choose(page, fault.getByRole('combobox', { name: 'Which wire' }), /Run switch 14 to DI1/)
+    await choose(page, fault.getByRole('combobox', { name: 'Which wire' }), /Run switch terminal 14 to DI1/)
 
     await page.getByTestId('add-hint').click()
     const hint = page.getByTestId('hint-item')
     await hint.getByLabel('What the hint says').fill(HINT)
     await hint.getByLabel('Costs').fill('5')
 
-    await addObjective(page, 'Fault found and put right', 'The run wire made whole again', 40, {
+    await addObjective(page, 'Fault found and put right', 'The run circuit working again', 40, {
       fault: true,
       hint: true,
     })
-    await addObjective(page, 'Diagnosis correct', 'The broken wire diagnosed before its repair', 30, {
+    await addObjective(page, 'Diagnosis correct', 'The fault diagnosed before its repair', 30, {
       fault: true,
     })
     await addObjective(page, 'Locked off before work', 'Locked off before touching a terminal', 30, {
@@ -287,7 +303,8 @@ describe('authoring a troubleshooting exercise without JSON, then assigning and 
     await page.getByTestId('save-draft').click()
     await page.getByTestId('saved').waitFor()
     await expect.poll(() => page.getByTestId('scenario-checker').textContent()).toMatch(/No problems found/)
-    await shot(page, '3-fault-objectives-hint')
+    await shot(page, '3a-fault-and-hint', page.getByTestId('section-faults'))
+    await shot(page, '3b-objectives', page.getByTestId('section-objectives'))
     await noFileFormat(page, await draftIds())
     // The draft holds what the form chose, by the ids the author never saw.
     const { document } = await api<{ document: Scenario }>(
