@@ -34,6 +34,9 @@ export default defineConfig({
         test: {
           name: 'unit',
           environment: 'node',
+          // Vitest's default on a 2-core machine is one worker (cores − 1), leaving a core idle while
+          // files start and import; the vitest parent itself is nearly idle.
+          maxWorkers: 2,
           include: ['tests/unit/**/*.test.ts'],
         },
       },
@@ -42,6 +45,7 @@ export default defineConfig({
         test: {
           name: 'api',
           environment: 'node',
+          maxWorkers: 2,
           include: ['tests/api/**/*.test.ts', 'tests/api-pg/**/*.test.ts'],
           // Each file gets its own temporary database; argon2 hashing makes tests CPU-bound.
           testTimeout: 30_000,
@@ -54,6 +58,7 @@ export default defineConfig({
         test: {
           name: 'component',
           environment: 'happy-dom',
+          maxWorkers: 2,
           include: ['tests/component/**/*.test.ts'],
           setupFiles: ['tests/component/setup.ts'],
           // Mounting the Pixi panel under happy-dom takes seconds on a busy 2-core machine; a hang still fails.

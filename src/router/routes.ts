@@ -184,10 +184,35 @@ export const routes: RouteRecordRaw[] = [
     meta: { roles: STAFF, title: 'Scenario' },
   },
   {
+    path: '/scenarios/:id/compare',
+    name: 'scenario-compare',
+    component: () => import('@/views/ScenarioCompareView.vue'),
+    meta: { roles: STAFF, title: 'Compare versions' },
+  },
+  {
     path: '/scenarios/:id/edit',
     name: 'scenario-edit',
     component: () => import('@/views/ScenarioEditorView.vue'),
     meta: { roles: STAFF, title: 'Edit scenario' },
+  },
+  // A scenario's draft on the panel (#17): one view, three purposes (src/simulator/authoring/).
+  {
+    path: '/scenarios/:id/draft/set-up',
+    name: 'scenario-draft-setup',
+    component: () => import('@/views/ScenarioDraftPanelView.vue'),
+    meta: { roles: STAFF, title: 'Set up the start', workspace: true },
+  },
+  {
+    path: '/scenarios/:id/draft/try',
+    name: 'scenario-draft-try',
+    component: () => import('@/views/ScenarioDraftPanelView.vue'),
+    meta: { roles: STAFF, title: 'Try the draft', workspace: true },
+  },
+  {
+    path: '/scenarios/:id/draft/reference',
+    name: 'scenario-draft-reference',
+    component: () => import('@/views/ScenarioDraftPanelView.vue'),
+    meta: { roles: STAFF, title: 'Record the reference solution', workspace: true },
   },
 
   // Admin

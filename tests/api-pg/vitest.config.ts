@@ -26,6 +26,8 @@ export default defineConfig({
           environment: 'node',
           include: ['tests/api/**/*.test.ts', 'tests/api-pg/**/*.test.ts'],
           exclude: ['tests/api/database.test.ts'],
+          // Two files at a time (Vitest's default on 2 cores is one): the database server works meanwhile.
+          maxWorkers: 2,
           testTimeout: 30_000,
           hookTimeout: 60_000,
         },

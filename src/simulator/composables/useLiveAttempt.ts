@@ -67,10 +67,15 @@ function today(): string {
 export interface LiveAttemptOptions {
   /** The name the apprentice writes on their lock's tag (the signed-in user's). */
   tagName?: () => string | null
+  /** The machine's effects, when not the app's own (a draft on the panel: src/simulator/authoring/). */
+  actors?: LiveAttemptActors
 }
 
+type LiveAttemptActors = ReturnType<typeof liveAttemptActors>
+
 export function useLiveAttempt(target: LiveTarget, options: LiveAttemptOptions = {}) {
-  const actor = useActorRef(liveAttemptMachine.provide({ actors: liveAttemptActors() }), {
+  const actors = options.actors ?? liveAttemptActors()
+  const actor = useActorRef(liveAttemptMachine.provide({ actors }), {
     input: { target },
   })
   const snapshot = useSelector(actor, (s) => s, sameScreen)
@@ -86,6 +91,8 @@ export function useLiveAttempt(target: LiveTarget, options: LiveAttemptOptions =
     speed: 1 as number,
     /** Asking "remove your lock?" before the lock comes off. */
     confirmingUnlock: false,
+    /** A wire being drawn: the terminal it started from (the panel is mid-gesture). */
+    wireFrom: null as string | null,
   })
   const clock = createSimClock(0)
   const circuits = createCircuitCache()
@@ -160,6 +167,8 @@ export function useLiveAttempt(target: LiveTarget, options: LiveAttemptOptions =
       }
       return
     }
+    if (i.type === 'wire.start') ui.wireFrom = i.from
+    if (i.type === 'wire.cancel' || i.type === 'wire.add') ui.wireFrom = null
     if (i.type === 'wire.start') {
       announce(
         `Wire started at ${title(i.from)}: tap the terminal it goes to. Tap it again or press Escape to let go.`,

@@ -8,7 +8,7 @@ import { advance, applyEvent, createSimulation } from '@shared/model'
 import { attemptEventSchema, type AttemptEvent } from '@shared/model/events'
 import type { SimulationSetup } from '@shared/model/setup'
 import type { SimState } from '@shared/model/types'
-import type { GradeResult } from '@shared/scenario/grade'
+import { grade, type GradeResult } from '@shared/scenario/grade'
 import type { AssistanceLevel } from '@shared/scenario/assistance'
 import type { Scenario } from '@shared/scenario/schema'
 import { toSimulationSetup } from '@shared/scenario/setup'
@@ -21,8 +21,17 @@ import { isRetryable, retryDelayMs } from './retry'
 
 export type { PanelAction }
 
+/**
+ * A scenario's draft on the panel (#17, src/simulator/authoring/): the author sets up its start, tries
+ * it, or records its reference solution. Nothing is saved as an attempt; the page does the saving.
+ */
+export type DraftPurpose = 'setup' | 'try' | 'reference'
+
 export interface LiveTarget {
-  mode: 'practice' | 'assignment'
+  /** draft: an author's run on a draft, never saved to the server as an attempt nor counted. */
+  mode: 'practice' | 'assignment' | 'draft'
+  /** With mode draft: what the run is for. */
+  draftPurpose?: DraftPurpose
   scenarioKey: string
   /** A particular version; the latest when absent. */
   scenarioVersion?: number
@@ -108,6 +117,8 @@ export type LiveAttemptEvent =
   | { type: 'TICK'; t: number }
   | { type: 'CHOOSE'; choice: number }
   | { type: 'SUBMIT' }
+  /** A draft's run ends here, graded on the panel (nothing is sent). */
+  | { type: 'FINISH' }
   | { type: 'SAVE_NOW' }
   | { type: 'START_AGAIN' }
   | { type: 'CONFIRM' }
@@ -231,8 +242,11 @@ export const liveAttemptMachine = setup({
   },
   guards: {
     mustAsk: ({ context }) => context.decision?.kind === 'ask',
-    isPractice: ({ context }) => context.target.mode === 'practice',
-    hasUnsavedEvents: ({ context }) => context.logLength > context.serverSaved,
+    mayStartAgain: ({ context }) => context.target.mode !== 'assignment',
+    isDraft: ({ context }) => context.target.mode === 'draft',
+    // A draft's run is never saved as an attempt.
+    hasUnsavedEvents: ({ context }) =>
+      context.target.mode !== 'draft' && context.logLength > context.serverSaved,
     laterTick: ({ context, event }) =>
       event.type === 'TICK' && context.sim !== null && Number.isInteger(event.t) && event.t > context.sim.t,
     diverged: ({ event }) => isDiverged((event as { error?: unknown }).error),
@@ -273,7 +287,8 @@ export const liveAttemptMachine = setup({
     }),
     startAfresh: assign(({ context }) => ({
       ...begin(context, [], context.newAttemptId(), false),
-      notice: 'A new attempt has started.',
+      notice:
+        context.target.mode === 'draft' ? 'The panel is back at the start.' : 'A new attempt has started.',
     })),
     /** After (re)starting from a copy: the browser holds exactly that copy, whatever it held before. */
     replaceLocalCopy: ({ context }) => {
@@ -365,6 +380,20 @@ export const liveAttemptMachine = setup({
       notice: 'This attempt was submitted from another computer.',
     })),
     resetTries: assign({ tries: 0, problem: null }),
+    /** A draft's run ends: the log is closed and graded here, as the server would grade it. */
+    finishRun: assign(({ context }) => {
+      const ended = submittedLog(context)
+      context.log.push(...ended.slice(context.log.length))
+      try {
+        const result = grade(context.start!.scenario, context.log, { assistance: context.start!.assistance })
+        return { grade: result, logLength: context.log.length, problem: null }
+      } catch (error) {
+        return {
+          logLength: context.log.length,
+          problem: `The run could not be graded: ${errorMessage(error)}`,
+        }
+      }
+    }),
   },
 }).createMachine({
   id: 'liveAttempt',
@@ -434,7 +463,8 @@ export const liveAttemptMachine = setup({
             closed: {
               on: {
                 SUBMIT: 'confirmingSubmit',
-                START_AGAIN: { guard: 'isPractice', target: 'confirmingRestart' },
+                FINISH: { guard: 'isDraft', target: '#liveAttempt.finished', actions: 'finishRun' },
+                START_AGAIN: { guard: 'mayStartAgain', target: 'confirmingRestart' },
               },
             },
             confirmingSubmit: {
@@ -538,9 +568,15 @@ export const liveAttemptMachine = setup({
         onError: { target: 'conflict', actions: 'noteConflict' },
       },
     },
+    /** A draft's run, ended and graded on the panel; the page may save its log (reference solution). */
+    finished: {
+      on: {
+        START_AGAIN: { target: 'live', actions: ['startAfresh', 'replaceLocalCopy'] },
+      },
+    },
     submitted: {
       on: {
-        START_AGAIN: { guard: 'isPractice', target: 'live', actions: ['startAfresh', 'replaceLocalCopy'] },
+        START_AGAIN: { guard: 'mayStartAgain', target: 'live', actions: ['startAfresh', 'replaceLocalCopy'] },
       },
     },
   },

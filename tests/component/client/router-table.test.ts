@@ -16,6 +16,7 @@ describe('the route table', () => {
     ['gradebook', ['instructor', 'admin']],
     ['cohort-detail', ['instructor', 'admin']],
     ['scenario-edit', ['instructor', 'admin']],
+    ['scenario-compare', ['instructor', 'admin']],
     ['admin-outbox', ['admin']],
     ['admin-backup', ['admin']],
     ['attempt-history', ['apprentice']],
