@@ -107,7 +107,9 @@ export function idFromLabel(label: string, taken: Iterable<string>, fallback = '
     .trim()
     .split(' ')
     .filter(Boolean)
-  let base = words.map((w, i) => (i === 0 ? w.toLowerCase() : w[0]!.toUpperCase() + w.slice(1).toLowerCase())).join('')
+  let base = words
+    .map((w, i) => (i === 0 ? w.toLowerCase() : w[0]!.toUpperCase() + w.slice(1).toLowerCase()))
+    .join('')
   if (!/^[a-zA-Z]/.test(base)) base = `${fallback}${base}`
   if (RESERVED.has(base)) base = `${base}Device`
   const used = new Set(taken)
@@ -177,7 +179,8 @@ export const CONTROL_POINT_CHOICES = (
 export function deviceUses(doc: EditorDocument, deviceId: string): string[] {
   const uses: string[] = []
   doc.start.wires.forEach((w, i) => {
-    if (w.from.startsWith(`${deviceId}.`) || w.to.startsWith(`${deviceId}.`)) uses.push(`wire ${wireNumber(w.id, i)}`)
+    if (w.from.startsWith(`${deviceId}.`) || w.to.startsWith(`${deviceId}.`))
+      uses.push(`wire ${wireNumber(w.id, i)}`)
   })
   doc.faults.forEach((f, i) => {
     if ('device' in f && f.device === deviceId) uses.push(`fault ${i + 1}`)

@@ -13,7 +13,12 @@ import {
 } from '@/components/scenarios/scenarioDraft'
 
 describe('the scenario editor draft', () => {
-  const shipped = () => editorDocument(structuredClone(raiseLower) as Record<string, unknown>, raiseLower.id, raiseLower.version + 1)
+  const shipped = () =>
+    editorDocument(
+      structuredClone(raiseLower) as Record<string, unknown>,
+      raiseLower.id,
+      raiseLower.version + 1,
+    )
 
   it('finds no problem in a shipped scenario opened for editing', () => {
     const check = checkDraft(shipped())
@@ -32,7 +37,7 @@ describe('the scenario editor draft', () => {
   it('drops blank lines from text lists when saving', () => {
     const doc = shipped()
     doc.safetyNotes = ['Lock off first', '', '  ']
-    expect((documentToSave(doc).safetyNotes as string[])).toEqual(['Lock off first'])
+    expect(documentToSave(doc).safetyNotes as string[]).toEqual(['Lock off first'])
   })
 
   it('starts a new scenario with something to fill in, in words', () => {

@@ -43,25 +43,35 @@ async function mountEditor(path: string, arrange: (store: Store) => void = () =>
   ]
   const { router, pinia, vuetify } = testPlugins(routes)
   const store = useScenariosStore()
-  store.getDraft = vi.fn(async (key: string) => draftReply(key, structuredClone(deadControl), 3)) as Store['getDraft']
+  store.getDraft = vi.fn(async (key: string) =>
+    draftReply(key, structuredClone(deadControl), 3),
+  ) as Store['getDraft']
   store.startDraft = vi.fn() as unknown as Store['startDraft']
-  store.saveDraft = vi.fn(async (key: string, document: Record<string, unknown>) => draftReply(key, document, 3)) as Store['saveDraft']
-  store.createDraft = vi.fn(async (key: string, document: Record<string, unknown>) => draftReply(key, document)) as Store['createDraft']
+  store.saveDraft = vi.fn(async (key: string, document: Record<string, unknown>) =>
+    draftReply(key, document, 3),
+  ) as Store['saveDraft']
+  store.createDraft = vi.fn(async (key: string, document: Record<string, unknown>) =>
+    draftReply(key, document),
+  ) as Store['createDraft']
   arrange(store)
   await router.push(path)
-  const wrapper = mount({ template: '<router-view />' }, {
-    global: { plugins: [pinia, router, vuetify] },
-    attachTo: document.body,
-  })
+  const wrapper = mount(
+    { template: '<router-view />' },
+    {
+      global: { plugins: [pinia, router, vuetify] },
+      attachTo: document.body,
+    },
+  )
   await settle()
   return { wrapper, router, store }
 }
 
 function selectLabelled(wrapper: VueWrapper, label: string): Wrapped[] {
-  const all = [...wrapper.findAllComponents(VSelect), ...wrapper.findAllComponents(VAutocomplete)] as unknown as Wrapped[]
-  const found = all.filter(
-    (s) => s.props('label') === label,
-  )
+  const all = [
+    ...wrapper.findAllComponents(VSelect),
+    ...wrapper.findAllComponents(VAutocomplete),
+  ] as unknown as Wrapped[]
+  const found = all.filter((s) => s.props('label') === label)
   return found
 }
 const field = (wrapper: VueWrapper, label: string) =>
@@ -119,7 +129,9 @@ describe('the scenario editor', () => {
     expect(items.length).toBe(before + 1)
     // The new objective opens at once.
     expect(items[before]!.text()).toContain('Drive setting')
-    const pickers = (wrapper.findAllComponents(VAutocomplete) as unknown as Wrapped[]).filter((p) => p.props('label') === 'Setting')
+    const pickers = (wrapper.findAllComponents(VAutocomplete) as unknown as Wrapped[]).filter(
+      (p) => p.props('label') === 'Setting',
+    )
     const picker = pickers[pickers.length - 1]!
     const choices = picker.props('items') as { value: string; title: string }[]
     expect(choices.find((c) => c.value === 'speed.max')?.title).toBe('Maximum speed')
@@ -173,7 +185,9 @@ describe('the scenario editor', () => {
       s.getDraft = vi.fn(async () => {
         throw new ApiError(404, 'not_found', 'No draft')
       }) as Store['getDraft']
-      s.startDraft = vi.fn(async (key: string) => draftReply(key, structuredClone(deadControl), 3)) as Store['startDraft']
+      s.startDraft = vi.fn(async (key: string) =>
+        draftReply(key, structuredClone(deadControl), 3),
+      ) as Store['startDraft']
     })
     expect(store.startDraft).toHaveBeenCalledWith('dead-control-circuit')
   })

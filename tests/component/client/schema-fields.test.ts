@@ -49,7 +49,8 @@ describe('schemaFields', () => {
     for (const kind of OBJECTIVE_KINDS)
       for (const field of objectiveFields(kind))
         if (field.type === 'choice')
-          for (const choice of field.choices) expect(CHOICE_WORDS[String(choice.value)], `${kind}.${field.key}`).toBeTruthy()
+          for (const choice of field.choices)
+            expect(CHOICE_WORDS[String(choice.value)], `${kind}.${field.key}`).toBeTruthy()
   })
 
   it('marks the fields that name a setting, a device, a fault or hints for a picker', () => {
@@ -76,7 +77,16 @@ describe('schemaFields', () => {
       z.object({ count: z.number().int().min(1).max(9).optional(), on: z.boolean(), odd: z.date() }),
     )
     expect(fields).toEqual([
-      { key: 'count', label: 'Count', optional: true, type: 'number', min: 1, max: 9, minExclusive: false, integer: true },
+      {
+        key: 'count',
+        label: 'Count',
+        optional: true,
+        type: 'number',
+        min: 1,
+        max: 9,
+        minExclusive: false,
+        integer: true,
+      },
       { key: 'on', label: 'On', optional: false, type: 'boolean' },
     ])
     expect(unsupported).toEqual(['odd'])
@@ -88,6 +98,8 @@ describe('schemaFields', () => {
     expect(objectiveSchema.safeParse(objective).success).toBe(true)
     const speed = newObjective('speedHeld', 'objective2', 'Held at 40 Hz')
     expect(objectiveSchema.safeParse(speed).success).toBe(false)
-    expect(objectiveSchema.safeParse({ ...speed, target: 40, tolerance: 1, holdSeconds: 5 }).success).toBe(true)
+    expect(objectiveSchema.safeParse({ ...speed, target: 40, tolerance: 1, holdSeconds: 5 }).success).toBe(
+      true,
+    )
   })
 })

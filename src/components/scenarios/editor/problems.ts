@@ -19,7 +19,11 @@ const KEY: InjectionKey<ProblemContext> = Symbol('scenario-problems')
 
 /** True when `problemPath` is the field's own path or a place inside it. */
 function within(problemPath: string, fieldPath: string) {
-  return problemPath === fieldPath || problemPath.startsWith(`${fieldPath}.`) || problemPath.startsWith(`${fieldPath}[`)
+  return (
+    problemPath === fieldPath ||
+    problemPath.startsWith(`${fieldPath}.`) ||
+    problemPath.startsWith(`${fieldPath}[`)
+  )
 }
 
 export function provideProblems(problems: Ref<ScenarioProblem[]>): ProblemContext {

@@ -112,7 +112,9 @@ function fieldLabel(key: string): string {
 
 function numberBounds(schema: z.ZodNumber) {
   const checks = (schema.def.checks ?? []) as { _zod: { def: { check: string; inclusive?: boolean } } }[]
-  const exclusiveMin = checks.some((c) => c._zod.def.check === 'greater_than' && c._zod.def.inclusive === false)
+  const exclusiveMin = checks.some(
+    (c) => c._zod.def.check === 'greater_than' && c._zod.def.inclusive === false,
+  )
   const min = Number.isFinite(schema.minValue) ? (schema.minValue as number) : undefined
   const max = Number.isFinite(schema.maxValue) ? (schema.maxValue as number) : undefined
   return { min, max, minExclusive: exclusiveMin, integer: schema.isInt }
@@ -124,23 +126,35 @@ function describe(kind: string, key: string, raw: z.ZodType): FieldDescription |
   const base = { key, label: fieldLabel(key), optional }
   const picker = PICKERS[`${kind}.${key}`] ?? PICKERS[key]
   if (picker) return { ...base, type: 'picker', picker }
-  if (schema instanceof z.ZodString) return { ...base, type: 'text', minLength: schema.minLength ?? undefined }
+  if (schema instanceof z.ZodString)
+    return { ...base, type: 'text', minLength: schema.minLength ?? undefined }
   if (schema instanceof z.ZodNumber) return { ...base, type: 'number', ...numberBounds(schema) }
   if (schema instanceof z.ZodBoolean) return { ...base, type: 'boolean' }
   if (schema instanceof z.ZodEnum) {
     const values = schema.options as (string | number)[]
-    return { ...base, type: 'choice', choices: values.map((v) => ({ value: v, title: CHOICE_WORDS[String(v)] ?? String(v) })) }
+    return {
+      ...base,
+      type: 'choice',
+      choices: values.map((v) => ({ value: v, title: CHOICE_WORDS[String(v)] ?? String(v) })),
+    }
   }
   if (schema instanceof z.ZodLiteral) {
     const values = [...schema.values] as (string | number | boolean)[]
-    return { ...base, type: 'choice', choices: values.map((v) => ({ value: v, title: CHOICE_WORDS[String(v)] ?? String(v) })) }
+    return {
+      ...base,
+      type: 'choice',
+      choices: values.map((v) => ({ value: v, title: CHOICE_WORDS[String(v)] ?? String(v) })),
+    }
   }
   // A shape the form has no field for: the caller lists it as not yet in the form.
   return null
 }
 
 /** The fields of one object schema, in its order; `unsupported` names the fields it could not describe. */
-export function schemaFields(kind: string, schema: z.ZodObject): { fields: FieldDescription[]; unsupported: string[] } {
+export function schemaFields(
+  kind: string,
+  schema: z.ZodObject,
+): { fields: FieldDescription[]; unsupported: string[] } {
   const fields: FieldDescription[] = []
   const unsupported: string[] = []
   for (const [key, field] of Object.entries(schema.shape)) {
@@ -178,7 +192,8 @@ export function newObjective(kind: ObjectiveKind, id: string, title: string): Re
     if (field.type === 'boolean') objective[field.key] = false
     else if (field.type === 'choice') objective[field.key] = field.choices[0]?.value
     else if (field.type === 'picker' && field.picker === 'deviceCondition') objective[field.key] = {}
-    else if (field.type === 'picker' && field.picker === 'inputSelector') objective[field.key] = { function: '' }
+    else if (field.type === 'picker' && field.picker === 'inputSelector')
+      objective[field.key] = { function: '' }
     else if (field.type === 'picker' && field.picker === 'wiringExpect') objective[field.key] = 'on'
   }
   return objective
