@@ -121,7 +121,7 @@ describe('every main screen', () => {
     await visit(
       page,
       `${app.url}/scenarios/raise-lower-commissioning/edit`,
-      /Edit draft/,
+      'Edit scenario',
       'client-scenario-editor',
     )
     // Live validation by the shared scenario checker: an empty title is listed at once, in words, and
