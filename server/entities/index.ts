@@ -20,6 +20,7 @@ import { PasswordResetEntity } from './password-reset'
 import { RateLimitCounterEntity } from './rate-limit-counter'
 import { RefreshTokenEntity } from './refresh-token'
 import { ScenarioEntity } from './scenario'
+import { ScenarioDraftEntity, ScenarioReferenceSolutionEntity } from './scenario-draft'
 import { UploadEntity } from './upload'
 import { UserEntity } from './user'
 
@@ -44,6 +45,7 @@ export * from './password-reset'
 export * from './rate-limit-counter'
 export * from './refresh-token'
 export * from './scenario'
+export * from './scenario-draft'
 export * from './upload'
 export * from './user'
 
@@ -71,4 +73,6 @@ export const entities = [
   AssignmentRecipientEntity,
   CohortInstructorEntity,
   ...liveEntities,
+  ScenarioDraftEntity,
+  ScenarioReferenceSolutionEntity,
 ]

@@ -1,6 +1,15 @@
 // One stored version of a scenario; (key, version) is unique and a version is never edited.
 import { EntitySchema, type EntitySchemaOptions } from 'typeorm'
-import { integer, nullableUuid, text, timestamp, uuidPrimary, varchar, belongsTo } from './columns'
+import {
+  integer,
+  nullableText,
+  nullableUuid,
+  text,
+  timestamp,
+  uuidPrimary,
+  varchar,
+  belongsTo,
+} from './columns'
 
 export interface ScenarioRow {
   id: string
@@ -12,6 +21,8 @@ export interface ScenarioRow {
   document: string
   createdById: string | null
   createdAt: string
+  /** How the key's reference solution fared on this version (ReferenceResult JSON); null before #17. */
+  referenceResult?: string | null
 }
 
 export const ScenarioEntity = new EntitySchema<ScenarioRow>({
@@ -26,6 +37,7 @@ export const ScenarioEntity = new EntitySchema<ScenarioRow>({
     document: text,
     createdById: nullableUuid,
     createdAt: timestamp,
+    referenceResult: nullableText,
   },
   uniques: [{ name: 'uq_scenarios_key_version', columns: ['key', 'version'] }],
   relations: {

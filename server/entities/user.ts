@@ -1,6 +1,15 @@
 import { EntitySchema } from 'typeorm'
 import type { Role } from '@shared/api/auth'
-import { bool, integer, nullableBool, nullableTimestamp, text, timestamp, uuidPrimary, varchar } from './columns'
+import {
+  bool,
+  integer,
+  nullableBool,
+  nullableTimestamp,
+  text,
+  timestamp,
+  uuidPrimary,
+  varchar,
+} from './columns'
 
 export interface UserRow {
   id: string

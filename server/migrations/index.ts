@@ -11,6 +11,7 @@ import { MailPreferences1765400000000 } from './1765400000000-mail-preferences'
 import { SignOffWithdrawals1765600000000 } from './1765600000000-sign-off-withdrawals'
 import { AssistanceLevels1765700000000 } from './1765700000000-assistance-levels'
 import { LiveClassroom1765800000000 } from './1765800000000-live-classroom'
+import { ScenarioAuthoring1765900000000 } from './1765900000000-scenario-authoring'
 
 export const migrations = [
   InitialSchema1764600000000,
@@ -25,4 +26,5 @@ export const migrations = [
   SignOffWithdrawals1765600000000,
   AssistanceLevels1765700000000,
   LiveClassroom1765800000000,
+  ScenarioAuthoring1765900000000,
 ]

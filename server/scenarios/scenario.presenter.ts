@@ -1,5 +1,6 @@
 // A stored scenario version → the API's summary (lists) or detail (with its document).
 import type { ScenarioDetail, ScenarioLibraryItem, ScenarioSummary } from '@shared/api/scenarios'
+import { referenceResultSchema, type ScenarioVersionWithReference } from '@shared/api/scenarioAuthoring'
 import type { ScenarioRow } from '../entities'
 
 export function presentScenario(row: ScenarioRow): ScenarioSummary {
@@ -35,4 +36,10 @@ export function presentLibraryItem(row: ScenarioRow, firstVersion: ScenarioRow):
     origin: firstVersion.createdById === null ? 'shipped' : 'centre',
     learningOutcomes: document.learningOutcomes ?? [],
   }
+}
+
+/** A version in the version list, with how the key's reference solution fared on it (null before #17). */
+export function presentVersionWithReference(row: ScenarioRow): ScenarioVersionWithReference {
+  const stored = row.referenceResult ? referenceResultSchema.safeParse(JSON.parse(row.referenceResult)) : null
+  return { ...presentScenario(row), reference: stored?.success ? stored.data : null }
 }

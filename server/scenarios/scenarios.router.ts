@@ -1,30 +1,42 @@
-// /api/scenarios: read (everyone signed in); create, new version, duplicate, retire, upload a pack (staff).
+// /api/scenarios: read (everyone signed in); drafts, reference solutions, publish, duplicate, retire,
+// export and import packs (staff). The authoring rules are in shared/api/scenarioAuthoring.ts.
 import { Router } from 'express'
 import { idParamsSchema } from '@shared/api/common'
 import {
-  createScenarioRequestSchema,
+  createDraftRequestSchema,
+  exportPackQuerySchema,
+  recordReferenceRequestSchema,
+  saveDraftRequestSchema,
+} from '@shared/api/scenarioAuthoring'
+import {
   duplicateScenarioRequestSchema,
   scenarioKeyParamsSchema,
   scenarioListQuerySchema,
   scenarioVersionParamsSchema,
-  updateScenarioRequestSchema,
 } from '@shared/api/scenarios'
 import type { AppContext } from '../context'
 import { uploadMiddleware } from '../infrastructure/storage/uploads'
 import { authenticate, currentUser, requireRole } from '../middleware/auth'
 import { validate } from '../middleware/validate'
 import {
-  createScenario,
-  duplicateScenario,
+  createDraft,
+  discardDraft,
+  duplicateToDraft,
+  getDraft,
+  listDrafts,
+  publishDraft,
+  recordReference,
+  saveDraft,
+  startDraft,
+} from './drafts.service'
+import { exportPack, importPack, PACK_UPLOAD } from './packs.service'
+import {
   getLatestScenario,
   getScenarioVersion,
   getScenarioVersionById,
   listScenarios,
   listScenarioVersions,
-  PACK_UPLOAD,
   setScenarioStatus,
-  updateScenario,
-  uploadScenarioPack,
 } from './scenarios.service'
 
 export function scenariosRouter(ctx: AppContext): Router {
@@ -36,26 +48,28 @@ export function scenariosRouter(ctx: AppContext): Router {
     res.json({ items: await listScenarios(ctx, currentUser(req), req.query) })
   })
 
-  router.post('/', staff, validate({ body: createScenarioRequestSchema }), async (req, res) => {
-    res.status(201).json(await createScenario(ctx, currentUser(req), req.body))
+  // Fixed paths before /:key.
+  router.get('/drafts', staff, async (_req, res) => {
+    res.json({ items: await listDrafts(ctx) })
+  })
+
+  router.post('/drafts', staff, validate({ body: createDraftRequestSchema }), async (req, res) => {
+    res.status(201).json(await createDraft(ctx, currentUser(req), req.body))
+  })
+
+  router.get('/export', staff, validate({ query: exportPackQuerySchema }), async (req, res) => {
+    const { fileName, pack } = await exportPack(ctx, req.query.keys)
+    res.setHeader('Content-Disposition', `attachment; filename="${fileName}"`)
+    res.json(pack)
   })
 
   router.post('/upload', staff, uploadMiddleware(PACK_UPLOAD), async (req, res) => {
-    res.status(201).json({ items: await uploadScenarioPack(ctx, currentUser(req), req.file) })
+    res.status(201).json({ items: await importPack(ctx, currentUser(req), req.file) })
   })
 
   router.get('/:key', validate({ params: scenarioKeyParamsSchema }), async (req, res) => {
     res.json(await getLatestScenario(ctx, currentUser(req), req.params.key))
   })
-
-  router.put(
-    '/:key',
-    staff,
-    validate({ params: scenarioKeyParamsSchema, body: updateScenarioRequestSchema }),
-    async (req, res) => {
-      res.status(201).json(await updateScenario(ctx, currentUser(req), req.params.key, req.body))
-    },
-  )
 
   router.get('/:key/versions', staff, validate({ params: scenarioKeyParamsSchema }), async (req, res) => {
     res.json({ items: await listScenarioVersions(ctx, req.params.key) })
@@ -69,12 +83,49 @@ export function scenariosRouter(ctx: AppContext): Router {
     },
   )
 
+  const keyParams = validate({ params: scenarioKeyParamsSchema })
+  router.get('/:key/draft', staff, keyParams, async (req, res) => {
+    res.json(await getDraft(ctx, req.params.key))
+  })
+
+  router.post('/:key/draft', staff, keyParams, async (req, res) => {
+    const { draft, created } = await startDraft(ctx, currentUser(req), req.params.key)
+    res.status(created ? 201 : 200).json(draft)
+  })
+
+  router.put(
+    '/:key/draft',
+    staff,
+    validate({ params: scenarioKeyParamsSchema, body: saveDraftRequestSchema }),
+    async (req, res) => {
+      res.json(await saveDraft(ctx, currentUser(req), req.params.key, req.body.document))
+    },
+  )
+
+  router.delete('/:key/draft', staff, keyParams, async (req, res) => {
+    await discardDraft(ctx, req.params.key)
+    res.status(204).end()
+  })
+
+  router.put(
+    '/:key/draft/reference',
+    staff,
+    validate({ params: scenarioKeyParamsSchema, body: recordReferenceRequestSchema }),
+    async (req, res) => {
+      res.json(await recordReference(ctx, currentUser(req), req.params.key, req.body.events))
+    },
+  )
+
+  router.post('/:key/draft/publish', staff, keyParams, async (req, res) => {
+    res.status(201).json(await publishDraft(ctx, currentUser(req), req.params.key))
+  })
+
   router.post(
     '/:key/duplicate',
     staff,
     validate({ params: scenarioKeyParamsSchema, body: duplicateScenarioRequestSchema }),
     async (req, res) => {
-      res.status(201).json(await duplicateScenario(ctx, currentUser(req), req.params.key, req.body))
+      res.status(201).json(await duplicateToDraft(ctx, currentUser(req), req.params.key, req.body))
     },
   )
 
@@ -82,7 +133,7 @@ export function scenariosRouter(ctx: AppContext): Router {
     ['retire', 'retired'],
     ['restore', 'active'],
   ] as const) {
-    router.post(`/:key/${action}`, staff, validate({ params: scenarioKeyParamsSchema }), async (req, res) => {
+    router.post(`/:key/${action}`, staff, keyParams, async (req, res) => {
       res.json(await setScenarioStatus(ctx, req.params.key, status))
     })
   }

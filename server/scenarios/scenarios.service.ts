@@ -1,38 +1,37 @@
-// Scenarios and their versions: a new key starts at version 1; an update is the next version, never an
-// edit. Everyone signed in reads; staff create, update, duplicate, retire and upload packs.
+// Scenarios and their versions: a new key starts at version 1; each publish is the next version, never an
+// edit. Everyone signed in reads; staff retire and restore. Drafts and publishing: drafts.service.ts;
+// packs: packs.service.ts.
 import { randomUUID } from 'node:crypto'
-import { readdirSync, readFileSync } from 'node:fs'
+import { existsSync, readdirSync, readFileSync } from 'node:fs'
 import { join } from 'node:path'
 import type { DataSource, EntityManager } from 'typeorm'
-import type { z } from 'zod'
+import { z } from 'zod'
 import {
-  SCENARIO_PACK_FIELD,
-  SCENARIO_PACK_MAX_BYTES,
-  scenarioPackSchema,
-  type DuplicateScenarioRequest,
   type ScenarioDetail,
   type ScenarioLibraryItem,
   type ScenarioStatus,
   type ScenarioSummary,
   type scenarioListQuerySchema,
 } from '@shared/api/scenarios'
+import type { ReferenceResult, ScenarioVersionWithReference } from '@shared/api/scenarioAuthoring'
+import { attemptLogSchema, type AttemptEvent } from '@shared/model/events'
+import { referenceResult } from '@shared/scenario/reference'
 import { scenarioSchema, type Scenario } from '@shared/scenario/schema'
 import type { AppContext } from '../context'
-import { ScenarioEntity, type ScenarioRow, type UserRow } from '../entities'
+import { ScenarioEntity, ScenarioReferenceSolutionEntity, type ScenarioRow, type UserRow } from '../entities'
 import { HttpError, notFound } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
-import { inTransactionWithUpload, uploadedText, type UploadKind } from '../infrastructure/storage/uploads'
-import { presentLibraryItem, presentScenario, presentScenarioDetail } from './scenario.presenter'
+import {
+  presentLibraryItem,
+  presentScenario,
+  presentScenarioDetail,
+  presentVersionWithReference,
+} from './scenario.presenter'
 import { checkScenarioDocument } from './scenario-check'
 
-export const PACK_UPLOAD: UploadKind = {
-  purpose: 'scenarioPack',
-  field: SCENARIO_PACK_FIELD,
-  maxBytes: SCENARIO_PACK_MAX_BYTES,
-  extensions: ['.json'],
-  mimeTypes: ['application/json', 'text/json', 'text/plain'],
-  label: 'scenario pack',
-}
+/** Beside the shipped scenarios: `<key>.json` holds `{ events }`, the key's reference solution. */
+export const REFERENCE_SOLUTIONS_FOLDER = 'reference-solutions'
+const referenceSolutionFileSchema = z.object({ events: attemptLogSchema })
 
 type ScenarioListQuery = z.output<typeof scenarioListQuerySchema>
 
@@ -50,6 +49,7 @@ export async function storeScenarioVersion(
   createdById: string | null,
   expect: 'new' | 'existing' | 'either',
   problemPathPrefix = '',
+  referenceResult: ReferenceResult | null = null,
 ): Promise<{ row: ScenarioRow; created: boolean }> {
   checkScenarioDocument(document, problemPathPrefix)
   const previous = await latestVersion(manager, document.id)
@@ -74,6 +74,7 @@ export async function storeScenarioVersion(
     document: JSON.stringify({ ...document, version }),
     createdById,
     createdAt: nowIso(),
+    referenceResult: referenceResult ? JSON.stringify(referenceResult) : null,
   }
   await manager.getRepository(ScenarioEntity).insert(row)
   return { row, created: !previous }
@@ -81,7 +82,10 @@ export async function storeScenarioVersion(
 
 /**
  * The scenarios shipped in scenarios/*.json; each key missing from the database is added as version 1.
- * A file that fails its checks is skipped and reported, so one bad file cannot stop the server.
+ * scenarios/reference-solutions/<key>.json is the key's reference solution (npm run fixtures:build writes
+ * it), stored when the key has none so a shipped scenario can be edited and published without recording
+ * one; version 1 keeps how it fared. A file that fails its checks is skipped and reported, so one bad file
+ * cannot stop the server.
  */
 export async function importShippedScenarios(
   dataSource: DataSource,
@@ -95,9 +99,22 @@ export async function importShippedScenarios(
   for (const file of files) {
     try {
       const document = scenarioSchema.parse(JSON.parse(readFileSync(join(dir, file), 'utf8')))
+      const solution = shippedReferenceSolution(dir, document.id)
       await dataSource.transaction(async (manager) => {
-        if (await latestVersion(manager, document.id)) return
-        await storeScenarioVersion(manager, document, null, 'new')
+        const solutions = manager.getRepository(ScenarioReferenceSolutionEntity)
+        const existing = await latestVersion(manager, document.id)
+        const storeSolution = solution && !(await solutions.existsBy({ key: document.id }))
+        if (storeSolution)
+          await solutions.insert({
+            key: document.id,
+            events: JSON.stringify(solution),
+            recordedAt: nowIso(),
+            recordedById: null,
+          })
+        if (existing) return
+        // Graded on this thread: start-up, before any request is served.
+        const result = solution ? referenceResult(document, solution) : null
+        await storeScenarioVersion(manager, document, null, 'new', '', result)
         added++
       })
     } catch (error) {
@@ -106,6 +123,13 @@ export async function importShippedScenarios(
     }
   }
   return { added, skipped }
+}
+
+/** The shipped reference solution of a key, or null when there is none. */
+export function shippedReferenceSolution(dir: string, key: string): AttemptEvent[] | null {
+  const file = join(dir, REFERENCE_SOLUTIONS_FOLDER, `${key}.json`)
+  if (!existsSync(file)) return null
+  return referenceSolutionFileSchema.parse(JSON.parse(readFileSync(file, 'utf8'))).events
 }
 
 async function latestOrThrow(ctx: AppContext, key: string): Promise<ScenarioRow> {
@@ -140,43 +164,6 @@ export async function listScenarios(
 
 const byTitle = new Intl.Collator('en', { sensitivity: 'base', numeric: true })
 
-export async function createScenario(
-  ctx: AppContext,
-  user: UserRow,
-  document: Scenario,
-): Promise<ScenarioDetail> {
-  const { row } = await ctx.dataSource.transaction((m) => storeScenarioVersion(m, document, user.id, 'new'))
-  return presentScenarioDetail(row)
-}
-
-/** A pack of one document or an array of them: each a new key or the next version; all or nothing. */
-export async function uploadScenarioPack(
-  ctx: AppContext,
-  user: UserRow,
-  upload: Express.Multer.File | undefined,
-): Promise<{ scenario: ScenarioSummary; created: boolean }[]> {
-  const { file, text } = uploadedText({ file: upload }, PACK_UPLOAD)
-  let json: unknown
-  try {
-    json = JSON.parse(text)
-  } catch {
-    throw new HttpError(415, 'unsupported_media_type', 'The scenario pack is not valid JSON')
-  }
-  // Parse by the shape given, so an error names its place: `1.id` is the second scenario's id.
-  const documents = Array.isArray(json)
-    ? scenarioPackSchema.options[1].parse(json)
-    : [scenarioPackSchema.options[0].parse(json)]
-  const items = await inTransactionWithUpload(ctx, user.id, PACK_UPLOAD, file, async (manager) => {
-    const stored = []
-    for (const [index, document] of documents.entries()) {
-      const prefix = Array.isArray(json) ? `[${index}]` : ''
-      stored.push(await storeScenarioVersion(manager, document, user.id, 'either', prefix))
-    }
-    return stored
-  })
-  return items.map(({ row, created }) => ({ scenario: presentScenario(row), created }))
-}
-
 export async function getLatestScenario(
   ctx: AppContext,
   user: UserRow,
@@ -187,30 +174,15 @@ export async function getLatestScenario(
   return presentScenarioDetail(row)
 }
 
-/** The document becomes the key's next version. */
-export async function updateScenario(
+export async function listScenarioVersions(
   ctx: AppContext,
-  user: UserRow,
   key: string,
-  document: Scenario,
-): Promise<ScenarioDetail> {
-  if (document.id !== key) {
-    throw new HttpError(400, 'validation_failed', 'The document id must match the scenario being updated', {
-      fields: { id: [`Must be “${key}”`] },
-    })
-  }
-  const { row } = await ctx.dataSource.transaction((m) =>
-    storeScenarioVersion(m, document, user.id, 'existing'),
-  )
-  return presentScenarioDetail(row)
-}
-
-export async function listScenarioVersions(ctx: AppContext, key: string): Promise<ScenarioSummary[]> {
+): Promise<ScenarioVersionWithReference[]> {
   const rows = await ctx.dataSource
     .getRepository(ScenarioEntity)
     .find({ where: { key }, order: { version: 'DESC' } })
   if (rows.length === 0) throw notFound('Scenario')
-  return rows.map(presentScenario)
+  return rows.map(presentVersionWithReference)
 }
 
 export async function getScenarioVersion(
@@ -227,21 +199,6 @@ export async function getScenarioVersion(
 export async function getScenarioVersionById(ctx: AppContext, id: string): Promise<ScenarioDetail> {
   const row = await ctx.dataSource.getRepository(ScenarioEntity).findOneBy({ id })
   if (!row) throw notFound('Scenario version')
-  return presentScenarioDetail(row)
-}
-
-/** Version 1 of a new key, from the latest version of another. */
-export async function duplicateScenario(
-  ctx: AppContext,
-  user: UserRow,
-  key: string,
-  { newKey, title }: DuplicateScenarioRequest,
-): Promise<ScenarioDetail> {
-  const source = await latestOrThrow(ctx, key)
-  const document = { ...(JSON.parse(source.document) as Scenario), id: newKey, version: 1 }
-  if (title) document.title = title
-  else document.title = `${document.title} (copy)`.slice(0, 120)
-  const { row } = await ctx.dataSource.transaction((m) => storeScenarioVersion(m, document, user.id, 'new'))
   return presentScenarioDetail(row)
 }
 

@@ -15,6 +15,8 @@ import {
   LiveSessionEntity,
   OutcomeSignOffEntity,
   OutcomeSignOffWithdrawalEntity,
+  ScenarioDraftEntity,
+  ScenarioEntity,
 } from '../../server/entities'
 import { createTestApi, type TestApi, type TestUser } from '../support/api-harness'
 import { STATUS } from '../support/live-status'
@@ -48,6 +50,26 @@ interface Route {
 }
 
 const shipped = (name: string) => JSON.parse(readFileSync(`scenarios/${name}.json`, 'utf8'))
+const referenceSolution = (key: string) =>
+  JSON.parse(readFileSync(`scenarios/reference-solutions/${key}.json`, 'utf8')).events
+
+/** A draft of the key, from its latest version, unless there is one already. */
+async function ensureDraft(api: TestApi, key: string): Promise<void> {
+  const drafts = api.dataSource.getRepository(ScenarioDraftEntity)
+  if (await drafts.existsBy({ key })) return
+  const latest = await api.dataSource
+    .getRepository(ScenarioEntity)
+    .findOneOrFail({ where: { key }, order: { version: 'DESC' } })
+  const now = new Date().toISOString()
+  await drafts.insert({
+    key,
+    document: latest.document,
+    baseVersion: latest.version,
+    createdAt: now,
+    updatedAt: now,
+    updatedById: null,
+  })
+}
 const everyone = (status: number): Expect => ({
   none: status,
   apprentice: status,
@@ -266,17 +288,58 @@ const ROUTES: Route[] = [
   { method: 'get', path: () => '/api/scenarios/safe-isolation/versions', expect: staffOnly(200) },
   { method: 'get', path: () => '/api/scenarios/safe-isolation/versions/1', expect: signedIn(200) },
   { method: 'get', path: (w) => `/api/scenario-versions/${w.scenario.id}`, expect: signedIn(200) },
+  { method: 'get', path: () => '/api/scenarios/drafts', expect: staffOnly(200) },
   {
     method: 'post',
-    path: () => '/api/scenarios',
-    body: () => ({ ...shipped('safe-isolation'), id: `matrix-${randomUUID().slice(0, 8)}` }),
+    path: () => '/api/scenarios/drafts',
+    body: () => ({ key: `matrix-${randomUUID().slice(0, 8)}`, document: { title: 'Matrix draft' } }),
     expect: staffOnly(201),
+  },
+  // A draft of potentiometer-reference: started, read, saved, its reference recorded, published and
+  // discarded; each row's restore puts the draft there (or not) as the call needs.
+  {
+    method: 'post',
+    path: () => '/api/scenarios/potentiometer-reference/draft',
+    expect: staffOnly(201),
+    restore: async (_w, api) => {
+      await api.dataSource.getRepository(ScenarioDraftEntity).delete({ key: 'potentiometer-reference' })
+    },
+  },
+  {
+    method: 'get',
+    path: () => '/api/scenarios/potentiometer-reference/draft',
+    expect: staffOnly(200),
+    restore: (_w, api) => ensureDraft(api, 'potentiometer-reference'),
   },
   {
     method: 'put',
-    path: () => '/api/scenarios/potentiometer-reference',
-    body: () => shipped('potentiometer-reference'),
+    path: () => '/api/scenarios/potentiometer-reference/draft',
+    body: () => ({ document: shipped('potentiometer-reference') }),
+    expect: staffOnly(200),
+  },
+  {
+    method: 'put',
+    path: () => '/api/scenarios/potentiometer-reference/draft/reference',
+    body: () => ({ events: referenceSolution('potentiometer-reference') }),
+    expect: staffOnly(200),
+    restore: (_w, api) => ensureDraft(api, 'potentiometer-reference'),
+  },
+  {
+    method: 'post',
+    path: () => '/api/scenarios/potentiometer-reference/draft/publish',
     expect: staffOnly(201),
+    restore: (_w, api) => ensureDraft(api, 'potentiometer-reference'),
+  },
+  {
+    method: 'delete',
+    path: () => '/api/scenarios/potentiometer-reference/draft',
+    expect: staffOnly(204),
+    restore: (_w, api) => ensureDraft(api, 'potentiometer-reference'),
+  },
+  {
+    method: 'get',
+    path: () => '/api/scenarios/export?keys=safe-isolation,two-wire-run-stop',
+    expect: staffOnly(200),
   },
   {
     method: 'post',

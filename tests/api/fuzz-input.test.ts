@@ -111,11 +111,16 @@ const BODY_ROUTES: BodyRoute[] = [
     path: (w) => `/api/assignments/${w.assignmentA.id}`,
     schema: contract.updateAssignmentRequestSchema,
   },
-  { method: 'post', path: () => '/api/scenarios', schema: contract.createScenarioRequestSchema },
+  { method: 'post', path: () => '/api/scenarios/drafts', schema: contract.createDraftRequestSchema },
   {
     method: 'put',
-    path: (w) => `/api/scenarios/${w.scenario.key}`,
-    schema: contract.updateScenarioRequestSchema,
+    path: (w) => `/api/scenarios/${w.scenario.key}/draft`,
+    schema: contract.saveDraftRequestSchema,
+  },
+  {
+    method: 'put',
+    path: (w) => `/api/scenarios/${w.scenario.key}/draft/reference`,
+    schema: contract.recordReferenceRequestSchema,
   },
   {
     method: 'post',

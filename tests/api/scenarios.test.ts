@@ -1,5 +1,6 @@
-// Scenarios: shipped ones listed for everyone; new versions instead of edits; duplicate, retire;
-// scenario packs uploaded and checked by the shared schema and checkScenario with per-field errors.
+// Scenarios: shipped ones listed for everyone; new versions (published drafts) instead of edits; duplicate,
+// retire; scenario packs uploaded and checked by the shared schema and checkScenario with per-field errors.
+// The authoring routes themselves (drafts, the publish gate, packs with solutions): scenario-authoring.test.ts.
 import { readFileSync } from 'node:fs'
 import supertest from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -10,6 +11,8 @@ import { readdirSync } from 'node:fs'
 import { createCohort, submit } from '../support/world'
 
 const shipped = (name: string) => JSON.parse(readFileSync(`scenarios/${name}.json`, 'utf8'))
+const solution = (name: string) =>
+  JSON.parse(readFileSync(`scenarios/reference-solutions/${name}.json`, 'utf8')).events
 
 describe('scenarios', () => {
   let api: TestApi
@@ -38,21 +41,28 @@ describe('scenarios', () => {
     expect(keys.sort()).toEqual(files.sort())
   })
 
-  it('creates a scenario and stores an update as a new version, keeping the old one', async () => {
+  it('publishes a new scenario and stores an update as a new version, keeping the old one', async () => {
     const document = {
       ...shipped('two-wire-run-stop'),
       id: 'bakery-fan-variant',
       title: 'Bakery fan, variant A',
     }
-    const created = await as(instructor).post('/api/scenarios', document)
-    expect(created.status).toBe(201)
+    const key = 'bakery-fan-variant'
+    expect((await as(instructor).post('/api/scenarios/drafts', { key, document })).status).toBe(201)
+    const recorded = await as(instructor).put(`/api/scenarios/${key}/draft/reference`, {
+      events: solution('two-wire-run-stop'),
+    })
+    expect(recorded.status, recorded.text).toBe(200)
+    const created = await as(instructor).post(`/api/scenarios/${key}/draft/publish`)
+    expect(created.status, created.text).toBe(201)
     expect(scenarioDetailSchema.parse(created.body)).toMatchObject({ key: 'bakery-fan-variant', version: 1 })
 
-    const updated = await as(instructor).put('/api/scenarios/bakery-fan-variant', {
-      ...document,
-      title: 'Bakery fan, variant B',
+    const saved = await as(instructor).put(`/api/scenarios/${key}/draft`, {
+      document: { ...document, title: 'Bakery fan, variant B' },
     })
-    expect(updated.status).toBe(201)
+    expect(saved.status).toBe(200)
+    const updated = await as(instructor).post(`/api/scenarios/${key}/draft/publish`)
+    expect(updated.status, updated.text).toBe(201)
     expect(updated.body).toMatchObject({ version: 2, title: 'Bakery fan, variant B' })
     expect(updated.body.document.version).toBe(2)
 
@@ -77,41 +87,46 @@ describe('scenarios', () => {
     expect(fan.learningOutcomes).toEqual(shipped('two-wire-run-stop').learningOutcomes)
   })
 
-  it('refuses to create a key that exists', async () => {
-    const response = await as(instructor).post('/api/scenarios', shipped('two-wire-run-stop'))
+  it('refuses a draft of a key that exists', async () => {
+    const response = await as(instructor).post('/api/scenarios/drafts', {
+      key: 'two-wire-run-stop',
+      document: shipped('two-wire-run-stop'),
+    })
     expect(response.status).toBe(409)
   })
 
-  it('names the field of a document that breaks the schema', async () => {
-    const response = await as(instructor).post('/api/scenarios', {
-      ...shipped('two-wire-run-stop'),
-      id: 'broken-one',
-      passMark: 'high',
+  it('keeps a draft that breaks the schema, naming the field among its problems', async () => {
+    const response = await as(instructor).post('/api/scenarios/drafts', {
+      key: 'broken-one',
+      document: { ...shipped('two-wire-run-stop'), passMark: 'high' },
     })
-    expect(response.status).toBe(400)
-    expect(response.body.error.details.fields).toHaveProperty('passMark')
+    expect(response.status).toBe(201)
+    expect(response.body.problems.map((p: { path: string }) => p.path)).toContain('$.passMark')
+    expect(response.body.publishable).toBe(false)
   })
 
   it('reports a semantic problem (a wire to a terminal that does not exist) by JSON path', async () => {
     const document = shipped('two-wire-run-stop')
-    document.id = 'dangling-wire'
     document.start.wires = [{ id: 'w1', from: 'drive.di1', to: 'ghost.a', colour: 'blue' }]
-    const response = await as(instructor).post('/api/scenarios', document)
-    expect(response.status).toBe(400)
-    expect(response.body.error.code).toBe('scenario_invalid')
-    expect(
-      Object.keys(response.body.error.details.fields).some((k) => k.startsWith('$.start.wires[0]')),
-    ).toBe(true)
+    const response = await as(instructor).post('/api/scenarios/drafts', { key: 'dangling-wire', document })
+    expect(response.status).toBe(201)
+    expect(response.body.problems.some((p: { path: string }) => p.path.startsWith('$.start.wires[0]'))).toBe(
+      true,
+    )
+    expect((await as(instructor).post('/api/scenarios/dangling-wire/draft/publish')).status).toBe(409)
     expect(await api.dataSource.getRepository(ScenarioEntity).countBy({ key: 'dangling-wire' })).toBe(0)
   })
 
-  it('duplicates a scenario under a new key', async () => {
+  it('duplicates a scenario as a draft of a new key, which publishes as version 1', async () => {
     const response = await as(instructor).post('/api/scenarios/safe-isolation/duplicate', {
       newKey: 'safe-isolation-night-shift',
     })
     expect(response.status).toBe(201)
-    expect(response.body).toMatchObject({ key: 'safe-isolation-night-shift', version: 1 })
+    expect(response.body).toMatchObject({ key: 'safe-isolation-night-shift', nextVersion: 1 })
     expect(response.body.title).toMatch(/\(copy\)$/)
+    const published = await as(instructor).post('/api/scenarios/safe-isolation-night-shift/draft/publish')
+    expect(published.status, published.text).toBe(201)
+    expect(published.body).toMatchObject({ key: 'safe-isolation-night-shift', version: 1 })
   })
 
   it('retires a scenario: hidden from apprentices, refused for new assignments and practice', async () => {
@@ -139,9 +154,9 @@ describe('scenarios', () => {
   })
 
   it('does not let an apprentice create scenarios', async () => {
-    const response = await as(apprentice).post('/api/scenarios', {
-      ...shipped('two-wire-run-stop'),
-      id: 'sneaky',
+    const response = await as(apprentice).post('/api/scenarios/drafts', {
+      key: 'sneaky',
+      document: shipped('two-wire-run-stop'),
     })
     expect(response.status).toBe(403)
   })
@@ -153,7 +168,7 @@ describe('scenarios', () => {
         .set(bearer(instructor.token))
         .attach('pack', Buffer.from(content), { filename, contentType })
 
-    it('stores every scenario of a valid pack', async () => {
+    it('keeps every bare document of a valid pack as a draft (they carry no reference solution)', async () => {
       const pack = [
         { ...shipped('fan-ramp-or-coast'), id: 'pack-fan-one' },
         { ...shipped('fan-ramp-or-coast'), id: 'fan-ramp-or-coast' },
@@ -161,14 +176,18 @@ describe('scenarios', () => {
       const response = await upload(JSON.stringify(pack))
       expect(response.status).toBe(201)
       expect(
-        response.body.items.map((i: { created: boolean; scenario: { version: number } }) => [
-          i.created,
-          i.scenario.version,
+        response.body.items.map((i: { key: string; outcome: string; version: number | null }) => [
+          i.key,
+          i.outcome,
+          i.version,
         ]),
       ).toEqual([
-        [true, 1],
-        [false, 2],
+        ['pack-fan-one', 'draft', null],
+        ['fan-ramp-or-coast', 'draft', null],
       ])
+      const draft = await as(instructor).get('/api/scenarios/fan-ramp-or-coast/draft')
+      expect(draft.body).toMatchObject({ baseVersion: 1, nextVersion: 2 })
+      expect((await as(instructor).get('/api/scenarios/pack-fan-one/draft')).body.nextVersion).toBe(1)
     })
 
     it('names the field in error, by position in the pack, and stores nothing', async () => {

@@ -97,9 +97,13 @@ describe('response headers and uploaded files', () => {
         expect(response.text, path).not.toContain(marker)
       }
     }
-    // Where the uploaded text does come back (the scenario it became), it is JSON that browsers must not sniff.
-    const read = await supertest(api.app).get('/api/scenarios/uploaded-copy').set(bearer(world.admin.token))
+    // Where the uploaded text does come back (the draft it became: a bare document has no reference solution),
+    // it is JSON that browsers must not sniff.
+    const read = await supertest(api.app)
+      .get('/api/scenarios/uploaded-copy/draft')
+      .set(bearer(world.admin.token))
     expect(read.status).toBe(200)
+    expect(read.text).toContain(marker)
     expect(read.headers['content-type']).toMatch(/^application\/json/)
     expect(read.headers['x-content-type-options']).toBe('nosniff')
   })

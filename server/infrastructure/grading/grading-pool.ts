@@ -3,6 +3,7 @@
 // is bounded: when it is full the submission is refused with 503 and Retry-After before anything is stored.
 import { Piscina } from 'piscina'
 import type { InjectedFault } from '@shared/model'
+import type { ReferenceResult } from '@shared/api/scenarioAuthoring'
 import type { AssistanceLevel } from '@shared/scenario/assistance'
 import { HttpError } from '../../http-error'
 import { unreplayableLog } from './grading'
@@ -58,6 +59,8 @@ export interface GradingPool {
   ): Promise<StoredGrade>
   /** Live classroom: the faults the bench offers as a live log leaves it (shared/scenario/injectable.ts). */
   injectable(scenario: { id: string; document: string }, eventsJson: string): Promise<InjectedFault[]>
+  /** Authoring: a reference run against a checked document (an unreplayable run is reported, not thrown). */
+  reference(document: string, eventsJson: string): Promise<ReferenceResult>
   /** Resolves once the threads have started and answered a first task (readiness). */
   warm(): Promise<void>
   stats(): GradingPoolStats
@@ -84,7 +87,7 @@ export function createGradingPool(options: GradingPoolOptions): GradingPool {
   const queueLimit = options.queueLimit ?? threads * 16
   const pool = (options.workerFile ? Promise.resolve(options.workerFile) : workerFile('grading-worker')).then(
     (filename) =>
-      new Piscina<GradingTask, ReadReport | LogGradeReport>({
+      new Piscina<GradingTask, ReadReport | LogGradeReport | InjectableReport | ReferenceResult>({
         filename,
         minThreads: threads,
         maxThreads: threads,
@@ -103,7 +106,8 @@ export function createGradingPool(options: GradingPoolOptions): GradingPool {
   )
   // Keep the rejection handled until someone awaits it (a missing worker build surfaces on first use).
   pool.catch(() => {})
-  let current: Piscina<GradingTask, ReadReport | LogGradeReport> | undefined
+  let current:
+    Piscina<GradingTask, ReadReport | LogGradeReport | InjectableReport | ReferenceResult> | undefined
   void pool.then((p) => (current = p))
 
   /** Mean task time, for the Retry-After estimate. */
@@ -167,6 +171,7 @@ export function createGradingPool(options: GradingPoolOptions): GradingPool {
       if (!report.ok) throw unreplayableLog(report.inputError)
       return report.faults
     },
+    reference: (document, eventsJson) => run<ReferenceResult>({ kind: 'reference', document, eventsJson }),
     async warm() {
       const threadsReady = await pool
       // One tiny task per thread: each answers only once it has loaded the grader.

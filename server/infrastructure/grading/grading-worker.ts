@@ -12,7 +12,9 @@ import {
   type AttemptEvent,
   type InjectedFault,
 } from '@shared/model'
+import type { ReferenceResult } from '@shared/api/scenarioAuthoring'
 import { injectableFaults } from '@shared/scenario/injectable'
+import { referenceResult } from '@shared/scenario/reference'
 import { toSimulationSetup } from '@shared/scenario/setup'
 import type { AssistanceLevel } from '@shared/scenario/assistance'
 import type { Scenario } from '@shared/scenario/schema'
@@ -45,7 +47,15 @@ export interface InjectableTask {
   eventsJson: string
 }
 
-export type GradingTask = ReadTask | GradeTask | InjectableTask
+/** Authoring: an author's reference run graded against a draft or a version (shared/scenario/reference.ts). */
+export interface ReferenceTask {
+  kind: 'reference'
+  /** A scenario document that passed its checks, as JSON text. */
+  document: string
+  eventsJson: string
+}
+
+export type GradingTask = ReadTask | GradeTask | InjectableTask | ReferenceTask
 
 /** A submission as validated, without its log (which travels as text). */
 export type SubmissionHeader = Omit<SubmitAttemptRequest, 'events'>
@@ -148,7 +158,14 @@ export function injectableNow(task: Omit<InjectableTask, 'kind'>): InjectableRep
   }
 }
 
-export default function runTask(task: GradingTask): ReadReport | LogGradeReport | InjectableReport {
+export default function runTask(
+  task: GradingTask,
+): ReadReport | LogGradeReport | InjectableReport | ReferenceResult {
   if (task.kind === 'read') return readSubmission(task.body)
+  if (task.kind === 'reference')
+    return referenceResult(
+      JSON.parse(task.document) as Scenario,
+      JSON.parse(task.eventsJson) as AttemptEvent[],
+    )
   return task.kind === 'grade' ? gradeLog(task) : injectableNow(task)
 }

@@ -3,7 +3,12 @@
 import { describe, expect, it } from 'vitest'
 import { DIGITAL_INPUT_NUMBERS } from '@shared/model/points'
 import { checkScenario, type Scenario } from '@shared/scenario'
-import { objectivesMetAtStart, tooManyInputFunctions } from '@shared/scenario/authoringChecks'
+import {
+  impossibleObjectives,
+  objectivesMetAtStart,
+  tooManyInputFunctions,
+  unattachedHints,
+} from '@shared/scenario/authoringChecks'
 import { parseJsonPath, plainIssueMessage, problemPlace } from '@shared/scenario/problemWords'
 import { shippedScenario } from './helpers'
 
@@ -80,6 +85,131 @@ describe('more input functions than inputs', () => {
 
   it('is not reported for a shipped scenario', () => {
     expect(tooManyInputFunctions(shippedScenario('raise-lower-commissioning'))).toEqual([])
+  })
+})
+
+describe('a hint attached to nothing', () => {
+  it('is reported when no objective lists the hint, and named in words', () => {
+    const scenario = structuredClone(shippedScenario('two-wire-run-stop'))
+    scenario.hints.push({ id: 'hint-extra', text: 'Check the common.', cost: 2 })
+    const problems = unattachedHints(scenario)
+    expect(problems).toEqual([
+      {
+        path: ['hints', scenario.hints.length - 1],
+        message: expect.stringMatching(/attach it to the objective/),
+      },
+    ])
+    expect(problemsOf(scenario).map((p) => p.place)).toEqual([
+      `Hint ${scenario.hints.length} (Check the common.)`,
+    ])
+  })
+
+  it('is not reported once an objective lists it', () => {
+    const scenario = structuredClone(shippedScenario('two-wire-run-stop'))
+    scenario.hints.push({ id: 'hint-extra', text: 'Check the common.', cost: 2 })
+    scenario.objectives[0].hints = ['hint-extra']
+    expect(unattachedHints(scenario)).toEqual([])
+  })
+
+  it.each(['two-wire-run-stop', 'safe-isolation', 'fan-ramp-or-coast'])(
+    'is not reported for the shipped %s',
+    (id) => {
+      expect(unattachedHints(shippedScenario(id))).toEqual([])
+    },
+  )
+})
+
+describe('an objective the bench can never show', () => {
+  const withWiring = (edit: (objective: Record<string, unknown>) => void) => {
+    const scenario = structuredClone(shippedScenario('raise-lower-commissioning'))
+    const index = scenario.objectives.findIndex((o) => o.id === 'raise-on')
+    edit(scenario.objectives[index] as unknown as Record<string, unknown>)
+    return { scenario, index }
+  }
+
+  it('is not reported for a shipped scenario full of wiring objectives', () => {
+    const scenario = shippedScenario('raise-lower-commissioning')
+    expect(scenario.objectives.filter((o) => o.kind === 'wiringCondition').length).toBeGreaterThan(3)
+    expect(impossibleObjectives(scenario)).toEqual([])
+    expect(impossibleObjectives(shippedScenario('potentiometer-reference'))).toEqual([])
+  })
+
+  it('reports a button to be held and released at the same moment', () => {
+    const { scenario, index } = withWiring((o) => {
+      const held = (o.while as { held: string[] }).held
+      o.while = { held, released: [...held] }
+    })
+    const problems = impossibleObjectives(scenario)
+    expect(problems).toEqual([
+      { path: ['objectives', index, 'while', 'released'], message: expect.any(String) },
+    ])
+    expect(problems[0].message).toMatch(/cannot be held and released at the same moment/)
+  })
+
+  it('reports a button held while nothing may be pressed', () => {
+    const { scenario, index } = withWiring((o) => {
+      o.while = { ...(o.while as object), nothingHeld: true }
+    })
+    expect(impossibleObjectives(scenario)).toEqual([
+      { path: ['objectives', index, 'while', 'nothingHeld'], message: expect.stringMatching(/drop one/) },
+    ])
+  })
+
+  it('reports ON or OFF asked of a terminal that is not a digital input, and not of one that is', () => {
+    const onAnalog = withWiring((o) => {
+      o.input = { point: 'drive.ai' }
+      o.expect = 'on'
+    })
+    expect(impossibleObjectives(onAnalog.scenario)).toEqual([
+      {
+        path: ['objectives', onAnalog.index, 'expect'],
+        message: expect.stringMatching(/Only a digital input/),
+      },
+    ])
+    const onInput = withWiring((o) => {
+      o.input = { point: 'drive.di3' }
+      o.expect = 'on'
+    })
+    expect(impossibleObjectives(onInput.scenario)).toEqual([])
+  })
+
+  it('reports a voltage window above the +24 V supply or below the common, and not one inside', () => {
+    // The control supply is 24 V (shared/model/circuit/constants.ts, common practice for drives).
+    const above = withWiring((o) => {
+      o.input = { point: 'drive.ai' }
+      o.expect = { minVolts: 30, maxVolts: 40 }
+    })
+    expect(impossibleObjectives(above.scenario)).toEqual([
+      {
+        path: ['objectives', above.index, 'expect', 'minVolts'],
+        message: expect.stringMatching(/24 V supply/),
+      },
+    ])
+    const below = withWiring((o) => {
+      o.input = { point: 'drive.ai' }
+      o.expect = { minVolts: -5, maxVolts: -1 }
+    })
+    expect(impossibleObjectives(below.scenario)).toEqual([
+      {
+        path: ['objectives', below.index, 'expect', 'maxVolts'],
+        message: expect.stringMatching(/below the common/),
+      },
+    ])
+    const inside = withWiring((o) => {
+      o.input = { point: 'drive.ai' }
+      o.expect = { minVolts: 23, maxVolts: 30 }
+    })
+    expect(impossibleObjectives(inside.scenario)).toEqual([])
+  })
+
+  it('stops the scenario from validating, the objective named in words', () => {
+    const { scenario, index } = withWiring((o) => {
+      o.input = { point: 'drive.ai' }
+      o.expect = 'off'
+    })
+    const problems = problemsOf(scenario)
+    expect(problems).toHaveLength(1)
+    expect(problems[0].place).toMatch(new RegExp(`^Objective ${index + 1} \\(Holding FASTER .*\\), expect$`))
   })
 })
 

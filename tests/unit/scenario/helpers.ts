@@ -35,6 +35,13 @@ export function benchScenario(objectives: Objective[], edit: (s: Scenario) => vo
   scenario.passMark = 0
   scenario.start.settings['raiseLower.memoryAtStop'] = 'keep'
   edit(scenario)
+  // The bench's hints (the conveyor's own, or a test's) go beside the first objective: a hint must help with one.
+  const listed = new Set(scenario.objectives.flatMap((o) => o.hints ?? []))
+  const loose = scenario.hints.map((h) => h.id).filter((id) => !listed.has(id))
+  if (loose.length > 0 && scenario.objectives.length > 0) {
+    const [first, ...rest] = scenario.objectives
+    scenario.objectives = [{ ...first, hints: [...(first.hints ?? []), ...loose] }, ...rest]
+  }
   const checked = checkScenario(scenario)
   if (!checked.ok) throw new Error(JSON.stringify(checked.problems))
   return checked.scenario

@@ -22,6 +22,8 @@ export interface AttemptFixture {
 
 const root = resolve(import.meta.dirname, '../../../..')
 export const ATTEMPTS_DIR = join(root, 'tests/fixtures/attempts')
+/** Each shipped scenario's reference solution, which the server stores with the scenario (issue 17). */
+export const REFERENCE_SOLUTIONS_DIR = join(root, 'scenarios/reference-solutions')
 
 export function fixtureFileName(script: Pick<AttemptScript, 'scenario' | 'name'>): string {
   return `${script.scenario}--${script.name}.json`
@@ -45,6 +47,11 @@ export function buildFixture(script: AttemptScript): AttemptFixture {
   }
 }
 
+/** `{ events }` as scenarios/reference-solutions/<key>.json holds it, one event per line. */
+export function serialiseReferenceSolution(events: AttemptEvent[]): string {
+  return `{\n  "events": [\n${events.map((e) => `    ${JSON.stringify(e)}`).join(',\n')}\n  ]\n}\n`
+}
+
 /** One event per line: diffs of a regenerated log stay readable. */
 export function serialiseFixture(fixture: AttemptFixture): string {
   const { events, ...head } = fixture
@@ -57,12 +64,18 @@ export function serialiseFixture(fixture: AttemptFixture): string {
 
 async function main(): Promise<void> {
   mkdirSync(ATTEMPTS_DIR, { recursive: true })
+  mkdirSync(REFERENCE_SOLUTIONS_DIR, { recursive: true })
+  // Written in the project's Prettier style so `npm run format` leaves the logs alone.
+  const write = async (file: string, text: string) =>
+    writeFileSync(file, await format(text, { ...((await resolveConfig(file)) ?? {}), filepath: file }))
   for (const script of ATTEMPT_SCRIPTS) {
     const fixture = buildFixture(script)
-    const file = join(ATTEMPTS_DIR, fixtureFileName(script))
-    // Written in the project's Prettier style so `npm run format` leaves the logs alone.
-    const options = (await resolveConfig(file)) ?? {}
-    writeFileSync(file, await format(serialiseFixture(fixture), { ...options, filepath: file }))
+    await write(join(ATTEMPTS_DIR, fixtureFileName(script)), serialiseFixture(fixture))
+    if (script.name === 'reference')
+      await write(
+        join(REFERENCE_SOLUTIONS_DIR, `${script.scenario}.json`),
+        serialiseReferenceSolution(fixture.events),
+      )
     console.log(
       `${fixtureFileName(script)}: ${fixture.events.length} events, ends at ${fixture.events.at(-1)?.t} ms`,
     )
