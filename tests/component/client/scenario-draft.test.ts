@@ -1,55 +1,72 @@
-// The scenario editor's live check: the shared checkScenario judges every edit, mapped to the fields.
+// The scenario editor's working copy: a whole document the forms edit, checked by the shared checkScenario.
 import { describe, expect, it } from 'vitest'
 import raiseLower from '../../../scenarios/raise-lower-commissioning.json'
-import { blankDocument, checkDraft, draftFrom } from '@/components/scenarios/scenarioDraft'
+import {
+  blankDocument,
+  checkDraft,
+  deviceUses,
+  documentToSave,
+  editorDocument,
+  idFromLabel,
+  keyFromTitle,
+  renumberFaultsAfterRemoval,
+} from '@/components/scenarios/scenarioDraft'
 
 describe('the scenario editor draft', () => {
   const shipped = () =>
-    draftFrom(raiseLower as Record<string, unknown>, raiseLower.id, raiseLower.version + 1)
+    editorDocument(
+      structuredClone(raiseLower) as Record<string, unknown>,
+      raiseLower.id,
+      raiseLower.version + 1,
+    )
 
   it('finds no problem in a shipped scenario opened for editing', () => {
     const check = checkDraft(shipped())
     expect(check.problems).toEqual([])
-    expect(check.scenario?.id).toBe(raiseLower.id)
     expect(check.scenario?.objectives).toHaveLength(raiseLower.objectives.length)
   })
 
-  it('puts a problem with the title under the title field', () => {
-    const check = checkDraft({ ...shipped(), title: '' })
-    expect(check.scenario).toBeNull()
-    expect(check.byField.title).toBeTruthy()
-    expect(check.problems.map((p) => p.path)).toContain('$.title')
+  it('fills in the parts a half-written draft lacks, so the forms can open it', () => {
+    const doc = editorDocument({ title: 'Half' }, 'half', 1)
+    expect(doc.start.devices).toEqual([])
+    expect(doc.start.power).toEqual({ on: false, locked: false })
+    expect(doc.objectives).toEqual([])
+    expect(doc.id).toBe('half')
   })
 
-  it('reports a setting key the catalogue does not know, placed in words for the screen', () => {
-    const draft = shipped()
-    const technical = JSON.parse(draft.technical)
-    technical.start.settings['speed.warp'] = 9
-    const check = checkDraft({ ...draft, technical: JSON.stringify(technical) })
-    expect(check.scenario).toBeNull()
-    expect(check.problems.some((p) => p.path.startsWith('$.start.settings'))).toBe(true)
-    // The JSON path stays on the problem for tools; the field's message names the place in words.
-    expect(check.byField.technical).toMatch(/^Starting setting “speed\.warp”: /)
-    expect(check.byField.technical).not.toContain('$.')
+  it('drops blank lines from text lists when saving', () => {
+    const doc = shipped()
+    doc.safetyNotes = ['Lock off first', '', '  ']
+    expect(documentToSave(doc).safetyNotes as string[]).toEqual(['Lock off first'])
   })
 
-  it('says when the technical part is not JSON, and keeps the text', () => {
-    const draft = { ...shipped(), technical: '{ "start": ' }
-    const check = checkDraft(draft)
-    expect(check.byField.technical).toMatch(/not valid JSON/)
-    expect(draft.technical).toBe('{ "start": ')
+  it('starts a new scenario with something to fill in, in words', () => {
+    const check = checkDraft(editorDocument(blankDocument(), 'night-shift-pump', 1))
+    expect(check.scenario).toBeNull()
+    expect(check.problems.map((p) => p.path)).toEqual(expect.arrayContaining(['$.title', '$.story']))
+    for (const p of check.problems) expect(p.place).not.toMatch(/\$|\[/)
   })
 
-  it('starts a new scenario with something to fill in, not something valid', () => {
-    const check = checkDraft(draftFrom(blankDocument(), 'night-shift-pump', 1))
-    expect(check.scenario).toBeNull()
-    expect(check.byField.title).toBeTruthy()
-    expect(check.byField.story).toBeTruthy()
-    // In words an instructor reads: no zod phrasing, no JSON paths.
-    for (const p of check.problems) {
-      expect(p.message).not.toMatch(/Too small|expected string|>=/)
-      expect(p.place).not.toMatch(/\$|\[/)
-    }
-    expect(check.byField.title).toBe('Write at least 3 characters')
+  it('makes ids from labels, unique and never a reserved name', () => {
+    expect(idFromLabel('Fan start', [])).toBe('fanStart')
+    expect(idFromLabel('Fan start', ['fanStart'])).toBe('fanStart2')
+    expect(idFromLabel('Motor', [])).toBe('motorDevice')
+    expect(idFromLabel('3 way', [], 'device')).toBe('device3Way')
+    expect(keyFromTitle('Night shift: pump #2')).toBe('night-shift-pump-2')
+  })
+
+  it('finds what refers to a device, and renumbers objectives when a fault goes', () => {
+    const doc = shipped()
+    const device = doc.start.devices[0]!
+    expect(deviceUses(doc, device.id).length).toBeGreaterThan(0)
+    expect(deviceUses(doc, 'nothingCalledThis')).toEqual([])
+    doc.faults = [{ kind: 'blownFuse' }, { kind: 'blownFuse' }]
+    doc.objectives = [
+      { id: 'a', kind: 'faultFoundAndCleared', title: 'Found it', weight: 1, fault: 1 },
+      { id: 'b', kind: 'faultFoundAndCleared', title: 'Found it', weight: 1, fault: 0 },
+    ]
+    doc.faults.splice(0, 1)
+    renumberFaultsAfterRemoval(doc, 0)
+    expect(doc.objectives.map((o) => ('fault' in o ? o.fault : 'none'))).toEqual([0, 'none'])
   })
 })
