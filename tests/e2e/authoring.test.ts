@@ -305,6 +305,7 @@ describe('authoring a troubleshooting exercise without JSON, then assigning and 
     await expect.poll(() => page.getByTestId('scenario-checker').textContent()).toMatch(/No problems found/)
     await shot(page, '3a-fault-and-hint', page.getByTestId('section-faults'))
     await shot(page, '3b-objectives', page.getByTestId('section-objectives'))
+    await shot(page, '3c-required-objective', page.getByTestId('objective-item').last())
     await noFileFormat(page, await draftIds())
     // The draft holds what the form chose, by the ids the author never saw.
     const { document } = await api<{ document: Scenario }>(
