@@ -454,7 +454,7 @@ export class PanelDriver {
     await this.page.mouse.click(a.x, a.y)
   }
 
-  private async drag(from: Vec, to: Vec) {
+  protected async drag(from: Vec, to: Vec) {
     const a = await this.pagePoint(from)
     const b = await this.pagePoint(to)
     await this.page.mouse.move(a.x, a.y)

@@ -126,6 +126,22 @@ describe('a draft on the panel', () => {
     wrapper.unmount()
   })
 
+  it('shows the first-run safety notice, as the simulator does, until it is acknowledged', async () => {
+    const notice = () => document.querySelector('[data-testid="safety-understood"]')
+    const first = await open(`/scenarios/${KEY}/draft/set-up`, getDraft)
+    await settle()
+    expect(notice()).not.toBeNull()
+    ;(notice() as HTMLElement).click()
+    await settle()
+    first.wrapper.unmount()
+    document.body.innerHTML = ''
+
+    const again = await open(`/scenarios/${KEY}/draft/reference`, getDraft)
+    await settle()
+    expect(notice()).toBeNull()
+    again.wrapper.unmount()
+  })
+
   it('set-up: refuses to save while a wire is being drawn, in words', async () => {
     const { wrapper, calls } = await open(`/scenarios/${KEY}/draft/set-up`, getDraft)
     wrapper.findComponent(PanelStage).vm.$emit('intent', { type: 'wire.start', from: 'drive.p24' })

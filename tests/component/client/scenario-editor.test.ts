@@ -83,7 +83,7 @@ describe('the scenario editor', () => {
   })
 
   it('adds a device with a label and keeps its id off the screen', async () => {
-    const { wrapper, store } = await mountEditor('/scenarios/new')
+    const { wrapper, store, router } = await mountEditor('/scenarios/new')
     await wrapper.get('[data-testid="add-device"]').trigger('click')
     await wrapper.get('[data-testid="device-label"] input').setValue('Fan start')
     await settle()
@@ -96,6 +96,9 @@ describe('the scenario editor', () => {
     expect(store.createDraft).toHaveBeenCalledTimes(1)
     const [key, document] = vi.mocked(store.createDraft).mock.calls[0]!
     expect(key).toBe('night-shift-pump')
+    // The first save moves the form to the draft's address without asking about unsaved changes.
+    expect(router.currentRoute.value.path).toBe('/scenarios/night-shift-pump/edit')
+    expect(window.document.body.textContent).not.toContain('Leave without saving?')
     expect((document.start as { devices: unknown[] }).devices).toEqual([
       { id: 'fanStart', kind: 'pushbutton', label: 'Fan start', contact: 'NO' },
     ])
