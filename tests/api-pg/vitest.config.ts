@@ -28,6 +28,8 @@ export default defineConfig({
           exclude: ['tests/api/database.test.ts'],
           // Two files at a time (Vitest's default on 2 cores is one): the database server works meanwhile.
           maxWorkers: 2,
+          // Projects with different worker counts must run as separate groups: these first, then scale.
+          sequence: { groupOrder: 0 },
           testTimeout: 30_000,
           hookTimeout: 60_000,
         },
@@ -37,6 +39,8 @@ export default defineConfig({
         test: {
           name: 'scale',
           root,
+          // After the api-pg files, one at a time: each file starts two app instances.
+          sequence: { groupOrder: 1 },
           environment: 'node',
           include: ['tests/scale/**/*.test.ts'],
           testTimeout: 60_000,
