@@ -158,11 +158,18 @@ describe('durable commits on SQLite', () => {
         await cp.getRepository(AuditEntryEntity).insert({ ...auditRow('big'), toValue: big })
       }
       // 60 × 200 KB = 12 MB written; with checkpoints the log is reused instead of growing past that.
-      await new Promise((r) => setTimeout(r, 600))
-      await cp.getRepository(AuditEntryEntity).insert(auditRow('after the checkpoint'))
-      const [{ busy, log, checkpointed }] = await cp.query('PRAGMA wal_checkpoint(PASSIVE)')
-      expect(busy).toBe(0)
-      expect(checkpointed).toBe(log)
+      // The checkpoint thread works in the background: on a busy machine (two test files at a time on two
+      // cores) it may still be at work, so ask again for up to 15 s rather than once after a fixed wait.
+      await expect
+        .poll(
+          async () => {
+            await cp.getRepository(AuditEntryEntity).insert(auditRow('after the checkpoint'))
+            const [{ busy, log, checkpointed }] = await cp.query('PRAGMA wal_checkpoint(PASSIVE)')
+            return { busy, complete: checkpointed === log }
+          },
+          { timeout: 15_000, interval: 300 },
+        )
+        .toEqual({ busy: 0, complete: true })
       // The server's own connection never checkpointed automatically (its threshold is 10,000 pages)…
       expect(await cp.query('PRAGMA wal_autocheckpoint')).toEqual([{ wal_autocheckpoint: 10000 }])
       // …and the database file holds the rows.
