@@ -74,8 +74,10 @@ describe('a draft run in the live-attempt machine', () => {
       const { actor } = startDraftRun(purpose)
       await waitFor(actor, (s) => s.matches('live'))
       actor.send({ type: 'RECORD', action: { type: 'lock.applied' }, t: 100 })
-      // The live grader answers once per GRADE_COALESCE_MS (400 ms).
-      await new Promise((r) => setTimeout(r, 600))
+      // The live grader answers once per GRADE_COALESCE_MS (400 ms); a loaded machine may take longer,
+      // so trying waits for its grade (up to 10 s) and setting up is looked at well after the first answer.
+      if (purpose === 'try') await waitFor(actor, (s) => s.context.grade !== null, { timeout: 10_000 })
+      else await new Promise((r) => setTimeout(r, 1000))
       const { grade: live, warnings } = actor.getSnapshot().context
       actor.stop()
       return { live, warnings }
