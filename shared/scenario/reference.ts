@@ -40,10 +40,13 @@ export function referenceResult(scenario: Scenario, events: readonly AttemptEven
   }
 }
 
-/** Why a result does not allow publishing, in words (null when it does). */
-export function referenceShortfall(result: ReferenceResult): string | null {
-  if (result.fullMarks) return null
-  if (result.problem) return result.problem
+/**
+ * What keeps a result short of full marks, one phrase each ("misses 1 objective: …", "has 2 unsafe
+ * moments"); empty for full marks. The server's refusal and the client's screens both word it from here.
+ */
+export function shortfallPhrases(result: ReferenceResult): string[] {
+  if (result.fullMarks) return []
+  if (result.problem) return [result.problem]
   const parts: string[] = []
   if (result.missed.length === 1) parts.push(`misses 1 objective: ${result.missed[0]}`)
   else if (result.missed.length > 1)
@@ -53,5 +56,12 @@ export function referenceShortfall(result: ReferenceResult): string | null {
   if (parts.length === 0 && result.pointsEarned < result.pointsPossible)
     parts.push(`earns ${result.pointsEarned} of ${result.pointsPossible} points (a hint was used)`)
   if (parts.length === 0) parts.push('does not pass')
-  return `The reference solution ${parts.join(' and ')}.`
+  return parts
+}
+
+/** Why a result does not allow publishing, in words (null when it does). */
+export function referenceShortfall(result: ReferenceResult): string | null {
+  if (result.fullMarks) return null
+  if (result.problem) return result.problem
+  return `The reference solution ${shortfallPhrases(result).join(' and ')}.`
 }

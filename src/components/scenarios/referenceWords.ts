@@ -1,20 +1,16 @@
 // The reference solution and the publish gate in words, for the draft card, the versions list and the
 // pack upload's results. Objective titles are the author's own words; nothing else reaches the screen.
 import type { ReferenceResult, ScenarioDraft } from '@shared/api'
+import { shortfallPhrases } from '@shared/scenario/reference'
 
 const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`
 
-/** How a reference solution fares on a document: "full marks", "scores 80: misses “…”". */
+/** How a reference solution fares on a document: "full marks", "scores 80 of 100; misses 1 objective: …". */
 export function referenceResultWords(result: ReferenceResult | null | undefined): string {
   if (!result) return 'not graded'
   if (result.problem) return `cannot be replayed: ${result.problem}`
   if (result.fullMarks) return 'full marks'
-  const parts: string[] = [`scores ${Math.round(result.score)} of 100`]
-  if (result.missed.length) parts.push(`misses ${result.missed.map((t) => `“${t}”`).join(', ')}`)
-  if (result.safetyViolations) parts.push(plural(result.safetyViolations, 'safety violation'))
-  if (!result.missed.length && !result.safetyViolations && result.pointsEarned < result.pointsPossible)
-    parts.push(`${result.pointsEarned} of ${result.pointsPossible} points (a hint or a cost took some)`)
-  return parts.join('; ')
+  return [`scores ${Math.round(result.score)} of 100`, ...shortfallPhrases(result)].join('; ')
 }
 
 /** Why "Publish" is refused now, in words; null when the draft can be published. */

@@ -108,7 +108,7 @@ describe('the draft card on the scenario page', () => {
       'Hint 1 (Start at the source): Enter a number',
     )
     expect(card.get('[data-testid="draft-reference"]').text()).toMatch(
-      /^Recorded .* by Tamsin Hale .*misses “Fan ran at speed”/,
+      /^Recorded .* by Tamsin Hale .*misses 1 objective: Fan ran at speed/,
     )
     expect(card.text()).not.toContain('$.')
     expect(card.get('[data-testid="publish-reason"]').text()).toContain('1 problem')
@@ -395,7 +395,7 @@ describe('the pack upload dialog', () => {
     expect(calls.map((c) => c.method + ' ' + path(c))).toEqual(['POST /api/scenarios/upload'])
     const results = document.body.querySelector('[data-testid="pack-results"]')!.textContent ?? ''
     expect(results).toContain('Night-shift pump')
-    expect(results).toContain('Published as version 3: its reference solution scores full marks')
+    expect(results).toContain('Published as version 3 (reference solution: full marks)')
     expect(results).toContain('Fan coasts to a stop')
     expect(results).toContain('Kept as a draft: it has no reference solution')
     expect(button('Done')).toBeTruthy()
