@@ -17,13 +17,25 @@ import { buildWorld, type World } from '../support/world'
 // Quick in `npm test`; `npm run test:soak` runs many more cases (FUZZ_RUNS).
 const RUNS = Number(process.env.FUZZ_RUNS ?? 20)
 
-/** Every row of every table, hashed, plus the files kept under DATA_DIR/uploads. */
-async function fingerprint(api: TestApi): Promise<string> {
-  const hash = createHash('sha256')
-  hash.update(JSON.stringify(await snapshotTables(api.dataSource)))
+const isScheduledOccurrence = (row: unknown) =>
+  String((row as { dedupeKey?: unknown }).dedupeKey ?? '').startsWith('schedule:')
+
+/**
+ * Every table's rows hashed one table at a time, plus the files kept under DATA_DIR/uploads: a failed
+ * comparison then names the table (or the folder) that changed.
+ */
+async function fingerprint(api: TestApi): Promise<Record<string, string>> {
+  const hashOf = (value: unknown) =>
+    createHash('sha256').update(JSON.stringify(value)).digest('hex').slice(0, 16)
+  const tables: Record<string, string> = {}
+  for (const { table, rows } of await snapshotTables(api.dataSource)) {
+    // Housekeeping runs by the clock, not by request: a run that spans the hourly upload sweep would
+    // otherwise see its queued occurrence run and the next one planned (seen in CI at 12:17).
+    tables[table] = hashOf(table === 'jobs' ? rows.filter((row) => !isScheduledOccurrence(row)) : rows)
+  }
   const uploads = join(api.dataDir, 'uploads')
-  hash.update(existsSync(uploads) ? readdirSync(uploads).sort().join(',') : '')
-  return hash.digest('hex')
+  const files = existsSync(uploads) ? readdirSync(uploads).sort() : []
+  return { ...tables, 'files in uploads': files.join(', ') }
 }
 
 function expectClearClientError(response: supertest.Response, context: unknown) {
@@ -181,7 +193,7 @@ const QUERY_ROUTES: QueryRoute[] = [
 describe('bad input on every route', () => {
   let api: TestApi
   let world: World
-  let before: string
+  let before: Record<string, string>
 
   beforeAll(async () => {
     api = await createTestApi()
@@ -192,7 +204,7 @@ describe('bad input on every route', () => {
   afterAll(async () => {
     // Nothing sent was valid, so nothing may have been stored, changed or mailed.
     await api.mail()
-    expect(await fingerprint(api)).toBe(before)
+    expect(await fingerprint(api)).toEqual(before)
     await api.close()
   })
 
@@ -208,7 +220,7 @@ describe('bad input on every route', () => {
         }),
         { numRuns: RUNS },
       )
-      expect(await fingerprint(api)).toBe(before)
+      expect(await fingerprint(api)).toEqual(before)
     })
   }
 
@@ -325,7 +337,7 @@ describe('bad input on every route', () => {
 describe('bad event logs on attempt submission', () => {
   let api: TestApi
   let world: World
-  let before: string
+  let before: Record<string, string>
   beforeAll(async () => {
     api = await createTestApi()
     world = await buildWorld(api)
@@ -334,7 +346,7 @@ describe('bad event logs on attempt submission', () => {
   })
   afterAll(async () => {
     await api.mail()
-    expect(await fingerprint(api)).toBe(before)
+    expect(await fingerprint(api)).toEqual(before)
     await api.close()
   })
 
@@ -422,7 +434,7 @@ describe('bad event logs on attempt submission', () => {
 describe('bad uploads', () => {
   let api: TestApi
   let world: World
-  let before: string
+  let before: Record<string, string>
   beforeAll(async () => {
     api = await createTestApi()
     world = await buildWorld(api)
@@ -431,7 +443,7 @@ describe('bad uploads', () => {
   })
   afterAll(async () => {
     await api.mail()
-    expect(await fingerprint(api)).toBe(before)
+    expect(await fingerprint(api)).toEqual(before)
     await api.close()
   })
 
