@@ -33,10 +33,13 @@ function text(value: string, style: TextStyleOptions, x: number, y: number, anch
   return t
 }
 
-/** What a lock's tag says, shortened to the tag's width (the accessible text has it in full). */
+/**
+ * What a lock's tag says, shortened to the tag's width (the accessible text has it in full). A lock the
+ * exercise starts with carries no written tag: it is the apprentice's own, so it says so.
+ */
 function lockTagLines(name: string | null, last?: string): string[] {
   const short = (v: string) => (v.length > 16 ? `${v.slice(0, 15)}…` : v)
-  return ['DO NOT OPERATE', name ? short(name) : '(no name)', last ?? '']
+  return ['DO NOT OPERATE', name ? short(name) : 'your own lock', last ?? '']
 }
 
 function box(g: Graphics, r: Rect, fill: number, edge: number, radius = 8) {

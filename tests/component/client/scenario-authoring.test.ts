@@ -72,6 +72,11 @@ describe('the draft card on the scenario page', () => {
     expect(versions).toContain('Version 2 (current)')
     expect(versions).toContain('Reference solution: full marks')
     expect(versions).toContain('No reference solution')
+    // Two ways onto the panel, told apart: the published version and the draft.
+    const tries = [...document.body.querySelectorAll('a, button')]
+      .map((e) => e.textContent?.trim() ?? '')
+      .filter((label) => label.startsWith('Try'))
+    expect(tries.sort()).toEqual(['Try the draft', 'Try version 2'])
   })
 
   it('lists the draft’s problems and a reference solution that misses an objective', async () => {

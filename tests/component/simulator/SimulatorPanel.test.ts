@@ -18,9 +18,20 @@ vi.mock('pixi.js/unsafe-eval', () => ({}))
 
 const scenario = scenarioSchema.parse(scenarioFile)
 // What the next mounted panel starts with (the level is what loadStart settled on).
-const starting: { scenario: typeof scenario; assistance: AssistanceLevel } = {
+interface StartingAssignment {
+  title: string
+  attemptLimit: number | null
+  attemptsUsed: number
+  hintsAllowed: boolean
+}
+const starting: {
+  scenario: typeof scenario
+  assistance: AssistanceLevel
+  assignment: StartingAssignment | null
+} = {
   scenario,
   assistance: 'standard',
+  assignment: null,
 }
 const key = attemptStorageKey('version-1')
 
@@ -34,7 +45,7 @@ vi.mock('@/simulator/services', () => ({
         scenario: starting.scenario,
         scenarioTitle: starting.scenario.title,
         scenarioVersionId: 'version-1',
-        assignment: null,
+        assignment: starting.assignment,
         assistance: starting.assistance,
         store,
         browser: local.copy ? { source: 'browser', ...local.copy } : null,
@@ -79,6 +90,7 @@ describe('the simulator panel', () => {
     localStorage.clear()
     starting.scenario = scenario
     starting.assistance = 'standard'
+    starting.assignment = null
   })
   afterEach(() => localStorage.clear())
 
@@ -215,6 +227,40 @@ describe('the simulator panel', () => {
       expect(wrapper.get('[data-testid="objectives"]').text()).toContain('not met yet')
       wrapper.unmount()
     })
+  })
+
+  it('says beside each hint which objectives it helps with, as the author attached it', async () => {
+    const wrapper = mountPanel()
+    await settle()
+    const hints = wrapper.findAll('[data-testid="hint"]')
+    expect(hints).toHaveLength(scenario.hints.length)
+    scenario.hints.forEach((hint, i) => {
+      const titles = scenario.objectives.filter((o) => o.hints?.includes(hint.id)).map((o) => o.title)
+      const caption = hints[i]!.find('p')
+      if (!titles.length) expect(caption.exists()).toBe(false)
+      else for (const title of titles) expect(caption.text()).toContain(`“${title}”`)
+    })
+    // The shipped scenario attaches its first hint to two objectives: both are named.
+    expect(hints[0]!.text()).toMatch(/^For “.+” and “.+”/)
+    wrapper.unmount()
+  })
+
+  it('names the scenario under an assignment only when the assignment is titled differently', async () => {
+    const assignment = { attemptLimit: null, attemptsUsed: 0, hintsAllowed: true }
+    starting.assignment = { ...assignment, title: scenario.title }
+    const same = mountPanel()
+    await settle()
+    expect(same.find('h1').text()).toBe(scenario.title)
+    expect(same.find('[data-testid="workspace-subtitle"]').exists()).toBe(false)
+    same.unmount()
+    localStorage.clear()
+
+    starting.assignment = { ...assignment, title: 'Week 3 practical' }
+    const renamed = mountPanel()
+    await settle()
+    expect(renamed.find('h1').text()).toBe('Week 3 practical')
+    expect(renamed.get('[data-testid="workspace-subtitle"]').text()).toBe(scenario.title)
+    renamed.unmount()
   })
 
   it('removes its keyboard listeners and the Pixi application on unmount, every time', async () => {
