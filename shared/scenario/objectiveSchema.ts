@@ -20,7 +20,9 @@ const common = {
 }
 
 const inputFunctionName = z.string().min(1)
-const point = z.string().regex(/^[a-zA-Z][a-zA-Z0-9_-]*\.[a-zA-Z0-9]+$/, 'must look like device.terminal')
+const point = z
+  .string()
+  .regex(/^[a-zA-Z][a-zA-Z0-9_-]*\.[a-zA-Z0-9]+$/, 'Not a terminal: choose one from the list')
 
 /** Which input a wiring condition looks at: the input(s) assigned to a function, or a fixed point. */
 export const inputSelectorSchema = z.union([

@@ -97,13 +97,14 @@ export function plainIssueMessage(issue: z.core.$ZodIssue): string {
       const min = Number(issue.minimum)
       if (issue.origin === 'string') return min <= 1 ? 'Fill this in' : `Write at least ${min} characters`
       if (issue.origin === 'array') return min <= 1 ? 'Add at least one' : `Add at least ${min}`
-      return `At least ${min}`
+      // A strict bound (zod's positive(), gt()) excludes the figure itself: "At least 0" would admit 0.
+      return issue.inclusive === false ? `More than ${min}` : `At least ${min}`
     }
     case 'too_big': {
       const max = Number(issue.maximum)
       if (issue.origin === 'string') return `At most ${max} characters`
       if (issue.origin === 'array') return `At most ${max}`
-      return `At most ${max}`
+      return issue.inclusive === false ? `Less than ${max}` : `At most ${max}`
     }
     case 'invalid_type':
       // zod leaves the input off its issues, but its message says what was received.

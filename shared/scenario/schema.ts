@@ -27,7 +27,7 @@ export const contactTypeSchema = z.enum(CONTACT_TYPES)
 /** A point is `drive.<terminal>` or `<deviceId>.<terminal>`; existence is checked by checkScenario. */
 export const pointIdSchema = z
   .string()
-  .regex(/^[a-zA-Z][a-zA-Z0-9_-]*\.[a-zA-Z0-9]+$/, 'must look like device.terminal')
+  .regex(/^[a-zA-Z][a-zA-Z0-9_-]*\.[a-zA-Z0-9]+$/, 'Not a terminal: choose one from the list')
 
 export const deviceSpecSchema = z.discriminatedUnion('kind', [
   z.strictObject({

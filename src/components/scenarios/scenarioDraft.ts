@@ -1,7 +1,7 @@
 // The scenario editor's working copy: the whole scenario document in one object, as the forms edit it,
 // checked live by the shared checkScenario. Also the words the forms use for the document's own parts
 // (wires, devices, faults, hints), so no id, key or enum value reaches the screen.
-import { POINT_LABELS, type SimState } from '@shared/model'
+import { DEVICE_TERMINALS, POINT_LABELS, type SimState } from '@shared/model'
 import { checkScenario, type Scenario, type ScenarioProblem } from '@shared/scenario'
 import { faultName, pointName, wireNumber } from '@shared/scenario/names'
 import type { ScenarioDevice, ScenarioFault, ScenarioWire } from '@shared/scenario/schema'
@@ -171,9 +171,24 @@ export const FAULT_KIND_WORDS: Record<ScenarioFault['kind'], string> = {
 }
 
 /** Drive terminals an input condition can look at, in words. */
-export const CONTROL_POINT_CHOICES = (
+const DRIVE_INPUT_CHOICES = (
   ['drive.di1', 'drive.di2', 'drive.di3', 'drive.di4', 'drive.di5', 'drive.di6', 'drive.ai'] as const
 ).map((value) => ({ value, title: `Terminal ${POINT_LABELS[value]}` }))
+
+/**
+ * Terminals a wiring objective may look at: the drive's inputs, then every terminal of the scenario's own
+ * devices, named as the panel labels them ("Fan run / stop terminal 14", "Stirrer speed wiper (W)").
+ */
+export function controlPointChoices(doc: EditorDocument): { value: string; title: string }[] {
+  const state = namingState(doc)
+  const deviceTerminals = doc.start.devices.flatMap((device) =>
+    DEVICE_TERMINALS[device.kind].map((terminal) => {
+      const value = `${device.id}.${terminal}`
+      return { value, title: pointName(value, state) }
+    }),
+  )
+  return [...DRIVE_INPUT_CHOICES, ...deviceTerminals]
+}
 
 /** What in the document refers to a device, in words (for the confirmation before removing it). */
 export function deviceUses(doc: EditorDocument, deviceId: string): string[] {

@@ -4,6 +4,7 @@ import raiseLower from '../../../scenarios/raise-lower-commissioning.json'
 import {
   blankDocument,
   checkDraft,
+  controlPointChoices,
   deviceUses,
   documentToSave,
   editorDocument,
@@ -68,5 +69,51 @@ describe('the scenario editor draft', () => {
     doc.faults.splice(0, 1)
     renumberFaultsAfterRemoval(doc, 0)
     expect(doc.objectives.map((o) => ('fault' in o ? o.fault : 'none'))).toEqual([0, 'none'])
+  })
+
+  it('offers a wiring objective the drive’s inputs and every terminal of the scenario’s own devices, in words', () => {
+    const doc = shipped()
+    const choices = controlPointChoices(doc)
+    const titles = choices.map((c) => c.title)
+    expect(titles.slice(0, 7)).toEqual([
+      'Terminal DI1',
+      'Terminal DI2',
+      'Terminal DI3',
+      'Terminal DI4',
+      'Terminal DI5',
+      'Terminal DI6',
+      'Terminal AI',
+    ])
+    // Two terminals for each of the three contact devices, each named as the panel labels it.
+    expect(choices).toHaveLength(7 + 2 * raiseLower.start.devices.length)
+    for (const device of raiseLower.start.devices) {
+      const own = titles.filter((t) => t.startsWith(`${device.label} terminal `))
+      expect(own, device.label).toHaveLength(2)
+    }
+    for (const title of titles) {
+      expect(title).not.toMatch(/panel does not have|runSwitch|raiseButton|lowerButton|\./)
+    }
+    // A voltage window at a device terminal passes the checks; ON/OFF there is refused in words.
+    const terminal = choices.find((c) => c.title.startsWith('Faster terminal'))!.value
+    const base = {
+      id: 'at-terminal',
+      title: 'Faster feeds 24 V',
+      weight: 5,
+      kind: 'wiringCondition' as const,
+    }
+    const window = { ...base, while: { held: ['raiseButton'] }, input: { point: terminal } }
+    doc.objectives.push({ ...window, expect: { minVolts: 20, maxVolts: 28 } } as never)
+    expect(checkDraft(doc).problems).toEqual([])
+    doc.objectives[doc.objectives.length - 1] = { ...window, expect: 'on' } as never
+    expect(
+      checkDraft(doc)
+        .problems.map((p) => p.message)
+        .join(' '),
+    ).toMatch(/Only a digital input reads ON or OFF/)
+    // None chosen yet: words, not the shape of an identifier.
+    doc.objectives[doc.objectives.length - 1] = { ...window, input: { point: '' }, expect: 'on' } as never
+    expect(checkDraft(doc).problems.map((p) => p.message)).toContain(
+      'Not a terminal: choose one from the list',
+    )
   })
 })

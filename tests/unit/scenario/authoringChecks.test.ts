@@ -9,6 +9,7 @@ import {
   tooManyInputFunctions,
   unattachedHints,
 } from '@shared/scenario/authoringChecks'
+import { z } from 'zod'
 import { parseJsonPath, plainIssueMessage, problemPlace } from '@shared/scenario/problemWords'
 import { shippedScenario } from './helpers'
 
@@ -268,9 +269,17 @@ describe('problems in words', () => {
         ...base,
         code: 'invalid_format',
         format: 'regex',
-        message: 'must look like device.terminal',
+        message: 'Not a terminal: choose one from the list',
       }),
-    ).toBe('must look like device.terminal')
+    ).toBe('Not a terminal: choose one from the list')
+  })
+
+  it('words a strict bound as strict: a weight of 0 is refused with "More than 0", not "At least 0"', () => {
+    const issueOf = (schema: z.ZodType, value: unknown) => schema.safeParse(value).error!.issues[0]!
+    expect(plainIssueMessage(issueOf(z.number().positive(), 0))).toBe('More than 0')
+    expect(plainIssueMessage(issueOf(z.number().min(0), -1))).toBe('At least 0')
+    expect(plainIssueMessage(issueOf(z.number().lt(10), 10))).toBe('Less than 10')
+    expect(plainIssueMessage(issueOf(z.number().max(10), 11))).toBe('At most 10')
   })
 
   it('places a schema problem in words with a plain message', () => {
