@@ -167,6 +167,14 @@ describe('the scenario editor', () => {
     expect(wrapper.text()).not.toMatch(/\$\.|\[\d+\]/)
   })
 
+  it('says on the objectives themselves, after a save attempt, that there must be at least one', async () => {
+    const { wrapper } = await mountEditor('/scenarios/new')
+    expect(wrapper.find('[data-testid="objectives-problem"]').exists()).toBe(false)
+    await wrapper.get('form').trigger('submit')
+    await settle()
+    expect(wrapper.get('[data-testid="objectives-problem"]').text()).toBe('Objectives: add at least one')
+  })
+
   it('saves the whole document as a draft, stays on the page and says so; the document passes the checks', async () => {
     const { wrapper, store, router } = await mountEditor('/scenarios/dead-control-circuit/edit')
     await wrapper.get('[data-testid="story-title"] input').setValue('The cold-store fan will not start again')

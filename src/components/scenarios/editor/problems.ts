@@ -9,6 +9,8 @@ export type FieldPath = readonly (string | number)[]
 export interface ProblemContext {
   /** The messages for a field (and anything inside it), once touched; [] before. */
   messagesAt(path: FieldPath): string[]
+  /** The messages about a list or section as a whole (not the items inside it), on a save attempt. */
+  messagesOn(path: FieldPath): string[]
   touch(path: FieldPath): void
   /** Show every problem at once (after a save attempt). */
   showAll: Ref<boolean>
@@ -34,6 +36,11 @@ export function provideProblems(problems: Ref<ScenarioProblem[]>): ProblemContex
       const at = jsonPath(path)
       if (!showAll.value && ![...touched].some((t) => within(t, at) || within(at, t))) return []
       return [...new Set(problems.value.filter((p) => within(p.path, at)).map((p) => p.message))]
+    },
+    messagesOn(path) {
+      const at = jsonPath(path)
+      if (!showAll.value && !touched.has(at)) return []
+      return [...new Set(problems.value.filter((p) => p.path === at).map((p) => p.message))]
     },
     touch(path) {
       touched.add(jsonPath(path))
