@@ -1,7 +1,7 @@
 // Authoring (issue 17): the one working draft of a scenario key, and the key's reference solution (the
 // author's recorded run that must score full marks before a version is published).
 import { EntitySchema, type EntitySchemaOptions } from 'typeorm'
-import { belongsTo, nullableUuid, text, timestamp, varchar } from './columns'
+import { belongsTo, nullableText, nullableUuid, text, timestamp, varchar } from './columns'
 
 export interface ScenarioDraftRow {
   key: string
@@ -12,6 +12,13 @@ export interface ScenarioDraftRow {
   createdAt: string
   updatedAt: string
   updatedById: string | null
+  /**
+   * The key's reference solution graded on this document, kept so reading drafts does not grade again
+   * (server/scenarios/reference-grade.ts): the result as JSON text, and a fingerprint of what was graded.
+   * Null until first graded; a fingerprint that no longer matches means grade again. Publishing never reads it.
+   */
+  referenceFingerprint?: string | null
+  referenceResult?: string | null
 }
 
 export const ScenarioDraftEntity = new EntitySchema<ScenarioDraftRow>({
@@ -24,6 +31,8 @@ export const ScenarioDraftEntity = new EntitySchema<ScenarioDraftRow>({
     createdAt: timestamp,
     updatedAt: timestamp,
     updatedById: nullableUuid,
+    referenceFingerprint: varchar(64, true),
+    referenceResult: nullableText,
   },
   relations: {
     updatedBy: belongsTo('User', 'updatedById', 'SET NULL', true),

@@ -12,6 +12,7 @@ import { SignOffWithdrawals1765600000000 } from './1765600000000-sign-off-withdr
 import { AssistanceLevels1765700000000 } from './1765700000000-assistance-levels'
 import { LiveClassroom1765800000000 } from './1765800000000-live-classroom'
 import { ScenarioAuthoring1765900000000 } from './1765900000000-scenario-authoring'
+import { DraftReferenceGrade1766000000000 } from './1766000000000-draft-reference-grade'
 
 export const migrations = [
   InitialSchema1764600000000,
@@ -27,4 +28,5 @@ export const migrations = [
   AssistanceLevels1765700000000,
   LiveClassroom1765800000000,
   ScenarioAuthoring1765900000000,
+  DraftReferenceGrade1766000000000,
 ]

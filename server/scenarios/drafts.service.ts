@@ -1,11 +1,11 @@
 // Authoring (issue 17; the rules are in shared/api/scenarioAuthoring.ts): one working draft per key, kept
-// even while it has problems; one reference solution per key, graded in the grading pool; publishing turns
-// a draft that passes every check and whose reference solution scores full marks into the next version.
+// even while it has problems; one reference solution per key, graded in the grading pool (the grade kept on
+// the draft for reading: reference-grade.ts); publishing turns a draft that passes every check and whose
+// reference solution scores full marks, graded again there and then, into the next version.
 import { In, type EntityManager } from 'typeorm'
 import {
   SCENARIO_DRAFT_MAX_BYTES,
   type CreateDraftRequest,
-  type ReferenceResult,
   type ScenarioDraft,
   type ScenarioDraftDocument,
   type ScenarioDraftSummary,
@@ -18,15 +18,16 @@ import type { Scenario } from '@shared/scenario/schema'
 import type { AppContext } from '../context'
 import {
   ScenarioDraftEntity,
+  ScenarioEntity,
   ScenarioReferenceSolutionEntity,
   UserEntity,
   type ScenarioDraftRow,
-  type ScenarioReferenceSolutionRow,
   type UserRow,
 } from '../entities'
 import { HttpError, notFound } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
 import { unreplayableLog } from '../infrastructure/grading/grading'
+import { draftReferenceResult, gradeReference, keepReferenceGrade } from './reference-grade'
 import { presentScenarioDetail } from './scenario.presenter'
 import { latestVersion, storeScenarioVersion } from './scenarios.service'
 
@@ -49,8 +50,6 @@ function assertDraftSize(document: ScenarioDraftDocument): void {
       `The draft is larger than ${SCENARIO_DRAFT_MAX_BYTES / 1024} KB; nothing was saved`,
     )
 }
-
-const nextVersionOf = async (db: Db, key: string) => ((await latestVersion(db, key))?.version ?? 0) + 1
 
 const findDraft = (db: Db, key: string) => db.getRepository(ScenarioDraftEntity).findOneBy({ key })
 const findReference = (db: Db, key: string) =>
@@ -81,14 +80,6 @@ function problemsInWords(problems: ScenarioProblem[]): string {
   return `The draft has ${count} to put right first: ${listed}${more}.`
 }
 
-async function gradeReference(
-  ctx: AppContext,
-  scenario: Scenario,
-  reference: ScenarioReferenceSolutionRow,
-): Promise<ReferenceResult> {
-  return ctx.grading.reference(JSON.stringify(scenario), reference.events)
-}
-
 async function namesOf(db: Db, ids: (string | null)[]): Promise<Map<string, string>> {
   const wanted = [...new Set(ids.filter((id): id is string => id !== null))]
   const users = wanted.length
@@ -97,50 +88,90 @@ async function namesOf(db: Db, ids: (string | null)[]): Promise<Map<string, stri
   return new Map(users.map((u) => [u.id, u.name]))
 }
 
-async function presentDraft(ctx: AppContext, row: ScenarioDraftRow): Promise<ScenarioDraft> {
+/** The newest version number of each key that has one. */
+async function latestVersionNumbers(db: Db, keys: string[]): Promise<Map<string, number>> {
+  if (keys.length === 0) return new Map()
+  const rows = await db
+    .getRepository(ScenarioEntity)
+    .createQueryBuilder('s')
+    .select('s.key', 'key')
+    .addSelect('MAX(s.version)', 'version')
+    .where('s.key IN (:...keys)', { keys })
+    .groupBy('s.key')
+    .getRawMany<{ key: string; version: number | string }>()
+  return new Map(rows.map((r) => [r.key, Number(r.version)]))
+}
+
+/**
+ * Drafts as the API gives them, read in a fixed number of queries whatever their count; each reference
+ * result comes from the grade kept on the draft unless the document or the run changed (reference-grade.ts).
+ */
+async function presentDrafts(ctx: AppContext, rows: ScenarioDraftRow[]): Promise<ScenarioDraft[]> {
   const db = ctx.dataSource
-  const document = JSON.parse(row.document) as ScenarioDraftDocument
-  const nextVersion = await nextVersionOf(db, row.key)
-  const { problems, scenario } = checkDraft(row)
-  const reference = await findReference(db, row.key)
-  const names = await namesOf(db, [row.updatedById, reference?.recordedById ?? null])
-  let referenceSummary: ScenarioDraft['reference'] = null
-  if (reference) {
-    const events = JSON.parse(reference.events) as AttemptEvent[]
-    referenceSummary = {
-      recordedAt: reference.recordedAt,
-      recordedByName: reference.recordedById ? (names.get(reference.recordedById) ?? null) : null,
-      actions: events.length,
-      durationMs: events.at(-1)?.t ?? 0,
-      result: scenario ? await gradeReference(ctx, scenario, reference) : null,
+  const keys = rows.map((r) => r.key)
+  const latest = await latestVersionNumbers(db, keys)
+  const solutions = keys.length
+    ? await db.getRepository(ScenarioReferenceSolutionEntity).findBy({ key: In(keys) })
+    : []
+  const solutionOf = new Map(solutions.map((s) => [s.key, s]))
+  const names = await namesOf(db, [
+    ...rows.map((r) => r.updatedById),
+    ...solutions.map((s) => s.recordedById),
+  ])
+  const nameOf = (id: string | null) => (id ? (names.get(id) ?? null) : null)
+  const drafts: ScenarioDraft[] = []
+  for (const row of rows) {
+    const document = JSON.parse(row.document) as ScenarioDraftDocument
+    const nextVersion = (latest.get(row.key) ?? 0) + 1
+    const { problems, scenario } = checkDraft(row)
+    const reference = solutionOf.get(row.key)
+    let referenceSummary: ScenarioDraft['reference'] = null
+    if (reference) {
+      const events = JSON.parse(reference.events) as AttemptEvent[]
+      referenceSummary = {
+        recordedAt: reference.recordedAt,
+        recordedByName: nameOf(reference.recordedById),
+        actions: events.length,
+        durationMs: events.at(-1)?.t ?? 0,
+        result: scenario ? await draftReferenceResult(ctx, row, scenario, reference.events) : null,
+      }
     }
+    drafts.push({
+      key: row.key,
+      title: typeof document.title === 'string' ? document.title : '',
+      document: draftDocument(document, row.key, nextVersion),
+      baseVersion: row.baseVersion,
+      nextVersion,
+      createdAt: row.createdAt,
+      updatedAt: row.updatedAt,
+      updatedByName: nameOf(row.updatedById),
+      problems,
+      reference: referenceSummary,
+      publishable: problems.length === 0 && referenceSummary?.result?.fullMarks === true,
+    })
   }
-  return {
-    key: row.key,
-    title: typeof document.title === 'string' ? document.title : '',
-    document: draftDocument(document, row.key, nextVersion),
-    baseVersion: row.baseVersion,
-    nextVersion,
-    createdAt: row.createdAt,
-    updatedAt: row.updatedAt,
-    updatedByName: row.updatedById ? (names.get(row.updatedById) ?? null) : null,
-    problems,
-    reference: referenceSummary,
-    publishable: problems.length === 0 && referenceSummary?.result?.fullMarks === true,
-  }
+  return drafts
+}
+
+async function presentDraft(ctx: AppContext, row: ScenarioDraftRow): Promise<ScenarioDraft> {
+  return (await presentDrafts(ctx, [row]))[0]!
 }
 
 export async function listDrafts(ctx: AppContext): Promise<ScenarioDraftSummary[]> {
   const rows = await ctx.dataSource
     .getRepository(ScenarioDraftEntity)
     .find({ order: { updatedAt: 'DESC', key: 'ASC' } })
-  const items: ScenarioDraftSummary[] = []
-  for (const row of rows) {
-    const { key, title, baseVersion, nextVersion, updatedAt, updatedByName, publishable } =
-      await presentDraft(ctx, row)
-    items.push({ key, title, baseVersion, nextVersion, updatedAt, updatedByName, publishable })
-  }
-  return items
+  return (await presentDrafts(ctx, rows)).map(
+    ({ key, title, baseVersion, nextVersion, updatedAt, updatedByName, publishable }) => ({
+      key,
+      title,
+      baseVersion,
+      nextVersion,
+      updatedAt,
+      updatedByName,
+      publishable,
+    }),
+  )
 }
 
 export async function getDraft(ctx: AppContext, key: string): Promise<ScenarioDraft> {
@@ -244,15 +275,22 @@ export async function recordReference(
   const { problems, scenario } = checkDraft(row)
   if (!scenario) throw new HttpError(409, 'draft_not_ready', problemsInWords(problems))
   const eventsJson = JSON.stringify(events)
-  const result = await ctx.grading.reference(JSON.stringify(scenario), eventsJson)
-  if (result.problem) throw unreplayableLog(result.problem)
-  await ctx.dataSource.getRepository(ScenarioReferenceSolutionEntity).save({
-    key,
-    events: eventsJson,
-    recordedAt: nowIso(),
-    recordedById: user.id,
+  const grade = await gradeReference(ctx, scenario, eventsJson)
+  if (grade.result.problem) throw unreplayableLog(grade.result.problem)
+  await ctx.dataSource.transaction(async (m) => {
+    await m.getRepository(ScenarioReferenceSolutionEntity).save({
+      key,
+      events: eventsJson,
+      recordedAt: nowIso(),
+      recordedById: user.id,
+    })
+    await keepReferenceGrade(m, key, grade)
   })
-  return presentDraft(ctx, row)
+  return presentDraft(ctx, {
+    ...row,
+    referenceFingerprint: grade.fingerprint,
+    referenceResult: JSON.stringify(grade.result),
+  })
 }
 
 /** The draft becomes the key's next version when it passes its checks and its reference run. */
@@ -267,7 +305,8 @@ export async function publishDraft(ctx: AppContext, user: UserRow, key: string):
       'reference_missing',
       'Record a reference solution first: publishing needs a run that scores full marks on this draft.',
     )
-  const result = await gradeReference(ctx, scenario, reference)
+  // Graded now, never taken from the grade kept for reading: what is published must have been graded.
+  const { result } = await gradeReference(ctx, scenario, reference.events)
   const shortfall = referenceShortfall(result)
   if (shortfall) throw new HttpError(409, 'reference_not_full', shortfall)
   const version = await ctx.dataSource.transaction(async (m) => {

@@ -1,6 +1,7 @@
 // Scenario packs (issue 17): export the newest version of some keys with their reference solutions; import a
 // pack (or, as before, bare documents) with everything validated and every solution re-graded before anything
 // is stored. All or nothing: one scenario with problems, or one solution short of full marks, refuses the pack.
+import type { EntityManager } from 'typeorm'
 import type { ZodType } from 'zod'
 import {
   SCENARIO_PACK_FORMAT,
@@ -14,7 +15,7 @@ import {
 import { SCENARIO_PACK_FIELD, SCENARIO_PACK_MAX_BYTES, scenarioPackSchema } from '@shared/api/scenarios'
 import { referenceShortfall } from '@shared/scenario/reference'
 import type { AppContext } from '../context'
-import { ScenarioReferenceSolutionEntity, type UserRow } from '../entities'
+import { ScenarioDraftEntity, ScenarioReferenceSolutionEntity, type UserRow } from '../entities'
 import { HttpError } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
 import { inTransactionWithUpload, uploadedText, type UploadKind } from '../infrastructure/storage/uploads'
@@ -117,8 +118,10 @@ export async function importPack(
     for (const [i, { document, referenceSolution }] of entries.entries()) {
       const base = { key: document.id, title: document.title, reference: results[i]! }
       if (!referenceSolution) {
+        const replaced = await hasDraft(manager, document.id)
         await replaceDraft(manager, document.id, document, user.id)
-        items.push({ ...base, outcome: 'draft', version: null, scenarioId: null })
+        const draftNote = replaced ? DRAFT_REPLACED : null
+        items.push({ ...base, outcome: 'draft', version: null, scenarioId: null, draftNote })
         continue
       }
       await manager.getRepository(ScenarioReferenceSolutionEntity).save({
@@ -127,9 +130,27 @@ export async function importPack(
         recordedAt: nowIso(),
         recordedById: user.id,
       })
-      const { row } = await storeScenarioVersion(manager, document, user.id, 'either', prefix(i), results[i])
-      items.push({ ...base, outcome: 'published', version: row.version, scenarioId: row.id })
+      const { row, draftMoved } = await storeScenarioVersion(
+        manager,
+        document,
+        user.id,
+        'either',
+        prefix(i),
+        results[i],
+      )
+      const draftNote = draftMoved ? draftMovedOnto(row.version) : null
+      items.push({ ...base, outcome: 'published', version: row.version, scenarioId: row.id, draftNote })
     }
     return items
   })
 }
+
+const hasDraft = (manager: EntityManager, key: string) =>
+  manager.getRepository(ScenarioDraftEntity).existsBy({ key })
+
+const DRAFT_REPLACED = 'It takes the place of the draft of this scenario that was in progress.'
+
+/** The draft stays someone's work; it is not merged, so say what publishing it would now undo. */
+const draftMovedOnto = (version: number) =>
+  `A draft of this scenario was in progress; it is kept and now builds on version ${version}. ` +
+  'Compare the two before publishing it: any changes this version brought are not in the draft.'

@@ -18,7 +18,13 @@ import { attemptLogSchema, type AttemptEvent } from '@shared/model/events'
 import { referenceResult } from '@shared/scenario/reference'
 import { scenarioSchema, type Scenario } from '@shared/scenario/schema'
 import type { AppContext } from '../context'
-import { ScenarioEntity, ScenarioReferenceSolutionEntity, type ScenarioRow, type UserRow } from '../entities'
+import {
+  ScenarioDraftEntity,
+  ScenarioEntity,
+  ScenarioReferenceSolutionEntity,
+  type ScenarioRow,
+  type UserRow,
+} from '../entities'
 import { HttpError, notFound } from '../http-error'
 import { nowIso } from '../infrastructure/clock'
 import {
@@ -42,7 +48,11 @@ export async function latestVersion(
   return manager.getRepository(ScenarioEntity).findOne({ where: { key }, order: { version: 'DESC' } })
 }
 
-/** Validates the document's meaning (beyond its shape) and stores it as the next version of its key. */
+/**
+ * Validates the document's meaning (beyond its shape) and stores it as the next version of its key. A draft
+ * of the key in progress is kept and moved onto the new version (`draftMoved`): it is then compared with,
+ * and publishes after, the version that is now the newest.
+ */
 export async function storeScenarioVersion(
   manager: EntityManager,
   document: Scenario,
@@ -50,7 +60,7 @@ export async function storeScenarioVersion(
   expect: 'new' | 'existing' | 'either',
   problemPathPrefix = '',
   referenceResult: ReferenceResult | null = null,
-): Promise<{ row: ScenarioRow; created: boolean }> {
+): Promise<{ row: ScenarioRow; created: boolean; draftMoved: boolean }> {
   checkScenarioDocument(document, problemPathPrefix)
   const previous = await latestVersion(manager, document.id)
   if (previous && expect === 'new') {
@@ -77,7 +87,17 @@ export async function storeScenarioVersion(
     referenceResult: referenceResult ? JSON.stringify(referenceResult) : null,
   }
   await manager.getRepository(ScenarioEntity).insert(row)
-  return { row, created: !previous }
+  return { row, created: !previous, draftMoved: await moveDraftOnto(manager, document.id, version) }
+}
+
+/** The key's draft, if any, now builds on `version`: its base and the number its document carries move on. */
+async function moveDraftOnto(manager: EntityManager, key: string, version: number): Promise<boolean> {
+  const drafts = manager.getRepository(ScenarioDraftEntity)
+  const draft = await drafts.findOneBy({ key })
+  if (!draft) return false
+  const document = { ...JSON.parse(draft.document), version: version + 1 }
+  await drafts.update({ key }, { baseVersion: version, document: JSON.stringify(document) })
+  return true
 }
 
 /**

@@ -5,10 +5,14 @@
 //   while it still has problems (the problems are computed on read and shown in words).
 // - "Try it" opens the draft on the panel as an apprentice would; nothing is stored or counted.
 // - "Record the reference solution" stores one run (an event log) against the key. It is graded
-//   against the draft as it is now whenever the draft is read.
+//   against the draft as it is now: the grade is kept with a fingerprint of the document and the run,
+//   and graded again when either changes (reading a list of drafts grades nothing unchanged).
 // - "Publish" turns the draft into the key's next version only when the draft passes every check and
-//   the reference solution scores full marks on it; the draft is then gone. The version keeps the
-//   result of its reference solution (every later version is re-graded against it at publish).
+//   the reference solution scores full marks on it (graded afresh, never the kept grade); the draft is
+//   then gone. The version keeps the result of its reference solution (every later version is re-graded
+//   against it at publish).
+// - A new version published another way (a pack) while a draft is in progress keeps the draft and
+//   moves it onto that version: "Draft of version N" and its comparison then name the newest version.
 // - Attempts and assignments keep pointing at the exact version they were made on.
 import { z } from 'zod'
 import { attemptLogSchema } from '../model/events'
@@ -144,7 +148,12 @@ export type ScenarioPackFile = z.infer<typeof scenarioPackFileSchema>
 export const exportPackQuerySchema = z.object({
   keys: z
     .string()
-    .transform((text) => text.split(',').map((k) => k.trim()).filter(Boolean))
+    .transform((text) =>
+      text
+        .split(',')
+        .map((k) => k.trim())
+        .filter(Boolean),
+    )
     .pipe(z.array(scenarioKeySchema).min(1).max(50)),
 })
 
@@ -152,6 +161,8 @@ export const exportPackQuerySchema = z.object({
  * What became of each uploaded scenario. A scenario whose solution scores full marks on it is
  * published as the key's next version; one without a solution is kept as a draft (record a solution,
  * then publish). A solution that does not score full marks refuses the whole pack (409, nothing kept).
+ * A draft of the key already in progress is kept when the pack publishes (it now builds on the new
+ * version) and replaced when the pack brings a draft; `draftNote` says which, in words.
  */
 export const packImportItemSchema = z.object({
   key: scenarioKeySchema,
@@ -162,6 +173,8 @@ export const packImportItemSchema = z.object({
   /** The version's id (outcome published). */
   scenarioId: idSchema.nullable(),
   reference: referenceResultSchema.nullable(),
+  /** What became of a draft of this key that was in progress, in words; null when there was none. */
+  draftNote: z.string().nullable(),
 })
 export type PackImportItem = z.infer<typeof packImportItemSchema>
 export const packImportResultSchema = z.object({ items: z.array(packImportItemSchema) })

@@ -3,6 +3,7 @@
 // their solutions re-graded, all or nothing. The rules: shared/api/scenarioAuthoring.ts.
 import { readFileSync } from 'node:fs'
 import supertest from 'supertest'
+import { In } from 'typeorm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import {
   SCENARIO_DRAFT_MAX_BYTES,
@@ -14,6 +15,7 @@ import {
   scenarioVersionWithReferenceSchema,
 } from '../../shared/api'
 import { ScenarioDraftEntity, ScenarioEntity, ScenarioReferenceSolutionEntity } from '../../server/entities'
+import { createGradingPool } from '../../server/infrastructure/grading/grading-pool'
 import { bearer, createTestApi, type TestApi, type TestUser } from '../support/api-harness'
 
 const shipped = (name: string) => JSON.parse(readFileSync(`scenarios/${name}.json`, 'utf8'))
@@ -309,9 +311,9 @@ describe('scenario authoring', () => {
         const response = await there.upload(JSON.stringify(pack))
         expect(response.status, response.text).toBe(201)
         const { items } = packImportResultSchema.parse(response.body)
-        expect(items.map((i) => [i.key, i.outcome, i.version, i.reference?.fullMarks])).toEqual([
-          ['stirrer-night', 'published', 1, true],
-          ['safe-isolation', 'published', 1, true],
+        expect(items.map((i) => [i.key, i.outcome, i.version, i.reference?.fullMarks, i.draftNote])).toEqual([
+          ['stirrer-night', 'published', 1, true, null],
+          ['safe-isolation', 'published', 1, true, null],
         ])
         const versions = (await there.get('/api/scenarios/stirrer-night/versions')).body.items
         expect(versions[0].reference.fullMarks).toBe(true)
@@ -336,10 +338,45 @@ describe('scenario authoring', () => {
           outcome: 'draft',
           version: null,
           reference: null,
+          draftNote: 'It takes the place of the draft of this scenario that was in progress.',
         }),
       ])
       const draft = await as.get('/api/scenarios/two-wire-run-stop/draft')
       expect(draft.body).toMatchObject({ title: 'Fan from the pack', baseVersion: 1, nextVersion: 2 })
+    })
+
+    it('keeps a draft in progress when a pack publishes its key, moved onto the new version', async () => {
+      const key = 'stirrer-night'
+      const started = await as.post(`/api/scenarios/${key}/draft`)
+      expect(started.body).toMatchObject({ baseVersion: 2, nextVersion: 3 })
+      await as.put(`/api/scenarios/${key}/draft`, {
+        document: { ...started.body.document, title: 'Stirrer D' },
+      })
+      const pack = (await as.get(`/api/scenarios/export?keys=${key}`)).body
+      pack.scenarios[0].document.title = 'Stirrer from the pack'
+
+      const response = await as.upload(JSON.stringify(pack))
+      expect(response.status, response.text).toBe(201)
+      const [item] = packImportResultSchema.parse(response.body).items
+      expect(item).toMatchObject({ key, outcome: 'published', version: 3 })
+      expect(item.draftNote).toBe(
+        'A draft of this scenario was in progress; it is kept and now builds on version 3. ' +
+          'Compare the two before publishing it: any changes this version brought are not in the draft.',
+      )
+      // The author's work is kept; what it is a draft of, and the number it would publish as, move on.
+      const draft = scenarioDraftSchema.parse((await as.get(`/api/scenarios/${key}/draft`)).body)
+      expect(draft).toMatchObject({ title: 'Stirrer D', baseVersion: 3, nextVersion: 4, publishable: true })
+      expect(draft.document.version).toBe(4)
+      const stored = await api.dataSource.getRepository(ScenarioDraftEntity).findOneByOrFail({ key })
+      expect(JSON.parse(stored.document).version).toBe(4)
+      // Publishing it then makes version 4 from the draft, after the pack's version 3.
+      const published = await as.post(`/api/scenarios/${key}/draft/publish`)
+      expect(published.status).toBe(201)
+      expect(published.body).toMatchObject({ version: 4, title: 'Stirrer D' })
+      expect((await versionsOf(key)).map((v: { title: string }) => v.title).slice(0, 2)).toEqual([
+        'Stirrer D',
+        'Stirrer from the pack',
+      ])
     })
 
     it('refuses the whole pack when one solution is short of full marks, naming that scenario', async () => {
@@ -390,5 +427,104 @@ describe('scenario authoring', () => {
         await ds.getRepository(ScenarioReferenceSolutionEntity).count(),
       ]
     }
+  })
+
+  describe('reading drafts grades only what changed since', () => {
+    const keys = [
+      'safe-isolation',
+      'two-wire-run-stop',
+      'three-wire-start-stop',
+      'fan-ramp-or-coast',
+      'potentiometer-reference',
+      'reference-memory',
+    ]
+    let own: TestApi
+    let author: ReturnType<typeof client>
+    /** Reference grades the grading pool has run, counted as each task ends. */
+    let graded = 0
+    beforeAll(async () => {
+      const grading = createGradingPool({
+        threads: 1,
+        onTask: (kind, _seconds, outcome) => {
+          if (kind === 'reference' && outcome === 'ok') graded++
+        },
+      })
+      own = await createTestApi({ grading })
+      author = client(own, await own.createUser('instructor'))
+    })
+    afterAll(() => own.close())
+
+    const drafts = () => own.dataSource.getRepository(ScenarioDraftEntity)
+    async function listed() {
+      const before = graded
+      const response = await author.get('/api/scenarios/drafts')
+      expect(response.status).toBe(200)
+      const { items } = scenarioDraftListSchema.parse(response.body)
+      const publishable = Object.fromEntries(items.map((d) => [d.key, d.publishable]))
+      return { graded: graded - before, publishable }
+    }
+
+    it('grades each draft once, then lists them from the grades kept', async () => {
+      for (const key of keys) expect((await author.post(`/api/scenarios/${key}/draft`)).status).toBe(201)
+      // Drafts kept before grades were (or whose grade was lost) are graded on the first listing only.
+      await drafts().update({ key: In(keys) }, { referenceFingerprint: null, referenceResult: null })
+      const first = await listed()
+      expect(first.graded).toBe(keys.length)
+      expect(first.publishable).toEqual(Object.fromEntries(keys.map((k) => [k, true])))
+      const second = await listed()
+      expect(second.graded).toBe(0)
+      expect(second.publishable).toEqual(first.publishable)
+    })
+
+    it('grades again only the draft whose document or solution changed, however it changed', async () => {
+      // The solution replaced behind the draft's back (as a pack does): short of full marks now.
+      await own.dataSource
+        .getRepository(ScenarioReferenceSolutionEntity)
+        .update(
+          { key: 'potentiometer-reference' },
+          { events: JSON.stringify(mistake('potentiometer-reference--mistake-low-end-not-wired')) },
+        )
+      // A document changed directly: an objective the shipped run does not meet.
+      const row = await drafts().findOneByOrFail({ key: 'fan-ramp-or-coast' })
+      const document = JSON.parse(row.document)
+      const speed = document.objectives.find((o: { kind: string }) => o.kind === 'speedHeld')
+      Object.assign(speed, { target: 30, title: 'Fan ran at 30 Hz (within 0.5 Hz) for 10 s' })
+      await drafts().update({ key: row.key }, { document: JSON.stringify(document) })
+
+      const after = await listed()
+      expect(after.graded).toBe(2)
+      expect(after.publishable).toMatchObject({
+        'potentiometer-reference': false,
+        'fan-ramp-or-coast': false,
+        'safe-isolation': true,
+      })
+      expect((await listed()).graded).toBe(0)
+      // A save through the API is graded as it is saved; listing after it grades nothing.
+      const saved = await author.put('/api/scenarios/safe-isolation/draft', {
+        document: { ...shipped('safe-isolation'), title: 'Safe isolation, night shift' },
+      })
+      expect(saved.body.publishable).toBe(true)
+      expect((await listed()).graded).toBe(0)
+    })
+
+    it('publishes only on a fresh grade, never on the grade kept for reading', async () => {
+      const key = 'potentiometer-reference'
+      const row = await drafts().findOneByOrFail({ key })
+      const kept = JSON.parse(row.referenceResult!)
+      expect(kept.fullMarks).toBe(false)
+      // A kept grade claiming full marks for this very document and run: the list believes it …
+      const claimed = { ...kept, fullMarks: true, passed: true, missed: [], score: 100 }
+      await drafts().update({ key }, { referenceResult: JSON.stringify(claimed) })
+      const list = await listed()
+      expect(list.graded).toBe(0)
+      expect(list.publishable[key]).toBe(true)
+      // … the publish gate does not.
+      const before = graded
+      const refused = await author.post(`/api/scenarios/${key}/draft/publish`)
+      expect(refused.status).toBe(409)
+      expect(refused.body.error.code).toBe('reference_not_full')
+      expect(graded - before).toBe(1)
+      expect(await own.dataSource.getRepository(ScenarioEntity).countBy({ key })).toBe(1)
+    })
   })
 })

@@ -385,6 +385,7 @@ describe('the pack upload dialog', () => {
             version: 3,
             scenarioId: '8f3a4b52-6c7d-4e8f-a091-a2b3c4d5e6f3',
             reference: fullMarks,
+            draftNote: 'A draft of this scenario was in progress; it is kept and now builds on version 3.',
           },
           {
             key: 'fan-coast',
@@ -393,6 +394,7 @@ describe('the pack upload dialog', () => {
             version: null,
             scenarioId: null,
             reference: null,
+            draftNote: null,
           },
         ],
       },
@@ -403,6 +405,13 @@ describe('the pack upload dialog', () => {
     expect(results).toContain('Published as version 3 (reference solution: full marks)')
     expect(results).toContain('Fan coasts to a stop')
     expect(results).toContain('Kept as a draft: it has no reference solution')
+    // What became of a draft already in progress is said under its scenario, and only there.
+    const notes = [...document.body.querySelectorAll('[data-testid="pack-draft-note"]')].map(
+      (n) => n.textContent,
+    )
+    expect(notes).toEqual([
+      'A draft of this scenario was in progress; it is kept and now builds on version 3.',
+    ])
     expect(button('Done')).toBeTruthy()
   })
 
