@@ -1,7 +1,7 @@
 // The scenario editor's working copy: the whole scenario document in one object, as the forms edit it,
 // checked live by the shared checkScenario. Also the words the forms use for the document's own parts
 // (wires, devices, faults, hints), so no id, key or enum value reaches the screen.
-import { POINT_LABELS, type SimState } from '@shared/model'
+import { DEVICE_TERMINALS, POINT_LABELS, type SimState } from '@shared/model'
 import { checkScenario, type Scenario, type ScenarioProblem } from '@shared/scenario'
 import { faultName, pointName, wireNumber } from '@shared/scenario/names'
 import type { ScenarioDevice, ScenarioFault, ScenarioWire } from '@shared/scenario/schema'
@@ -189,6 +189,47 @@ export function deviceUses(doc: EditorDocument, deviceId: string): string[] {
     if (JSON.stringify(o).includes(`"${deviceId}`)) uses.push(`objective ${i + 1}`)
   })
   return uses
+}
+
+/**
+ * Starting wires landed on terminals of `device` that a device of `kind` does not have, in words (a
+ * selector has a contact, a potentiometer two ends and a wiper).
+ */
+export function wiresLeftWithoutTerminal(
+  doc: EditorDocument,
+  device: ScenarioDevice,
+  kind: ScenarioDevice['kind'],
+): string[] {
+  const kept = new Set(DEVICE_TERMINALS[kind])
+  const prefix = `${device.id}.`
+  const lost = (point: string) => point.startsWith(prefix) && !kept.has(point.slice(prefix.length))
+  return doc.start.wires.flatMap((w, i) => (lost(w.from) || lost(w.to) ? [wireWords(doc, w, i)] : []))
+}
+
+// ---- The machine's name: the story's (what the apprentice reads) and the starting state's ----
+
+/** An empty machine part is left out, as the shipped scenarios do. */
+export function pruneMachine(doc: EditorDocument): void {
+  if (doc.start.machine && Object.keys(doc.start.machine).length === 0) delete doc.start.machine
+}
+
+export function setMachineName(doc: EditorDocument, name: string): void {
+  if (name.trim()) (doc.start.machine ??= {}).name = name
+  else if (doc.start.machine) {
+    delete doc.start.machine.name
+    pruneMachine(doc)
+  }
+}
+
+/**
+ * The machine as the story names it. The starting state's machine name follows it while the two are
+ * the same (or both still empty); once the author gives the name its own wording, it stays.
+ */
+export function setSiteMachine(doc: EditorDocument, machine: string): void {
+  const before = doc.site.machine
+  const name = doc.start.machine?.name
+  doc.site.machine = machine
+  if (name === before || (name === undefined && !before.trim())) setMachineName(doc, machine)
 }
 
 /** What refers to a fault (objectives point at faults by their place in the list). */
