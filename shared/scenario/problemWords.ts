@@ -2,6 +2,7 @@
 // at 40 Hz): the target …" rather than `$.objectives[2].target`. The JSON path stays on the problem for
 // tools and the API's field errors; screens show these words.
 import type { z } from 'zod'
+import type { MotorNameplate } from '../model/setup'
 
 /** The parts of a scenario file, named as the editor names them. */
 const TOP_LEVEL: Record<string, string> = {
@@ -27,6 +28,22 @@ const START_PARTS: Record<string, string> = {
   power: 'Starting power and lock',
   motor: 'Motor nameplate',
   machine: 'Driven machine',
+}
+
+/** The figures of a motor's rating plate, as the editor labels them. */
+export const NAMEPLATE_FIELD_WORDS: Record<keyof MotorNameplate, string> = {
+  serial: 'Serial number',
+  ratedVolts: 'Rated voltage',
+  ratedHz: 'Rated frequency',
+  ratedPower: 'Rated output',
+  powerUnit: 'Output given in',
+  fullLoadAmps: 'Full-load current',
+  powerFactor: 'Power factor (cos φ)',
+  efficiencyPercent: 'Efficiency',
+  connection: 'Winding connection',
+  ratedRpm: 'Rated speed',
+  duty: 'Duty',
+  insulationClass: 'Insulation class',
 }
 
 /** A field name inside an item, in words: `fromAtLeastHz` → "from at least hz", `wireId` → "wire". */
@@ -75,6 +92,10 @@ export function problemPlace(path: readonly PropertyKey[], document: unknown): s
       return [`${START_LISTS[second]} ${third + 1}${itemName(list[third])}`, ...words.slice(0, 1)].join(', ')
     }
     if (second === 'settings' && typeof third === 'string') return `Starting setting “${third}”`
+    if (second === 'motor' && typeof third === 'string' && third in NAMEPLATE_FIELD_WORDS) {
+      const figure = NAMEPLATE_FIELD_WORDS[third as keyof MotorNameplate]
+      return `${START_PARTS.motor}, ${figure.charAt(0).toLowerCase()}${figure.slice(1)}`
+    }
     if (typeof second === 'string' && second in START_PARTS) {
       const words = tail([third, ...rest].filter((p) => p !== undefined) as (string | number)[])
       return [START_PARTS[second], ...words.slice(0, 1)].join(', ')

@@ -206,6 +206,47 @@ export function deviceUses(doc: EditorDocument, deviceId: string): string[] {
   return uses
 }
 
+/**
+ * Starting wires landed on terminals of `device` that a device of `kind` does not have, in words (a
+ * selector has a contact, a potentiometer two ends and a wiper).
+ */
+export function wiresLeftWithoutTerminal(
+  doc: EditorDocument,
+  device: ScenarioDevice,
+  kind: ScenarioDevice['kind'],
+): string[] {
+  const kept = new Set(DEVICE_TERMINALS[kind])
+  const prefix = `${device.id}.`
+  const lost = (point: string) => point.startsWith(prefix) && !kept.has(point.slice(prefix.length))
+  return doc.start.wires.flatMap((w, i) => (lost(w.from) || lost(w.to) ? [wireWords(doc, w, i)] : []))
+}
+
+// ---- The machine's name: the story's (what the apprentice reads) and the starting state's ----
+
+/** An empty machine part is left out, as the shipped scenarios do. */
+export function pruneMachine(doc: EditorDocument): void {
+  if (doc.start.machine && Object.keys(doc.start.machine).length === 0) delete doc.start.machine
+}
+
+export function setMachineName(doc: EditorDocument, name: string): void {
+  if (name.trim()) (doc.start.machine ??= {}).name = name
+  else if (doc.start.machine) {
+    delete doc.start.machine.name
+    pruneMachine(doc)
+  }
+}
+
+/**
+ * The machine as the story names it. The starting state's machine name follows it while the two are
+ * the same (or both still empty); once the author gives the name its own wording, it stays.
+ */
+export function setSiteMachine(doc: EditorDocument, machine: string): void {
+  const before = doc.site.machine
+  const name = doc.start.machine?.name
+  doc.site.machine = machine
+  if (name === before || (name === undefined && !before.trim())) setMachineName(doc, machine)
+}
+
 /** What refers to a fault (objectives point at faults by their place in the list). */
 export function faultUses(doc: EditorDocument, index: number): string[] {
   return doc.objectives.flatMap((o, i) => ('fault' in o && o.fault === index ? [`objective ${i + 1}`] : []))

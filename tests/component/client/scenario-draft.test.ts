@@ -1,6 +1,10 @@
 // The scenario editor's working copy: a whole document the forms edit, checked by the shared checkScenario.
 import { describe, expect, it } from 'vitest'
 import raiseLower from '../../../scenarios/raise-lower-commissioning.json'
+import fanRampOrCoast from '../../../scenarios/fan-ramp-or-coast.json'
+import deadControl from '../../../scenarios/dead-control-circuit.json'
+import potentiometerReference from '../../../scenarios/potentiometer-reference.json'
+import { SHIPPED_SCENARIOS } from './shippedScenarios'
 import {
   blankDocument,
   checkDraft,
@@ -11,6 +15,9 @@ import {
   idFromLabel,
   keyFromTitle,
   renumberFaultsAfterRemoval,
+  setMachineName,
+  setSiteMachine,
+  wiresLeftWithoutTerminal,
 } from '@/components/scenarios/scenarioDraft'
 
 describe('the scenario editor draft', () => {
@@ -115,5 +122,61 @@ describe('the scenario editor draft', () => {
     expect(checkDraft(doc).problems.map((p) => p.message)).toContain(
       'Not a terminal: choose one from the list',
     )
+  })
+
+  it('gives back each shipped scenario unchanged when it is opened and saved without edits', () => {
+    expect(SHIPPED_SCENARIOS.length).toBeGreaterThan(5)
+    for (const scenario of SHIPPED_SCENARIOS) {
+      const opened = editorDocument(structuredClone(scenario), String(scenario.id), Number(scenario.version))
+      expect(checkDraft(opened).problems, String(scenario.id)).toEqual([])
+      const saved = JSON.parse(JSON.stringify(documentToSave(opened))) as unknown
+      expect(saved, String(scenario.id)).toStrictEqual(scenario)
+    }
+  })
+
+  it('keeps the machine’s name in step with the story’s machine while the two are the same', () => {
+    const fresh = editorDocument(blankDocument(), 'night-shift-pump', 1)
+    for (const text of ['K', 'Ki', 'Kiln fan KF-1']) setSiteMachine(fresh, text)
+    expect(fresh.start.machine).toEqual({ name: 'Kiln fan KF-1' })
+    // Emptied, the name goes with it, and the machine part too; typing again fills both again.
+    setSiteMachine(fresh, '')
+    expect(fresh.start.machine).toBeUndefined()
+    setSiteMachine(fresh, 'Kiln fan KF-2')
+    expect(fresh.start.machine?.name).toBe('Kiln fan KF-2')
+
+    const dead = editorDocument(structuredClone(deadControl), deadControl.id, deadControl.version)
+    setSiteMachine(dead, 'Freezer evaporator fan EV-7')
+    expect(dead.start.machine).toEqual({ ...deadControl.start.machine, name: 'Freezer evaporator fan EV-7' })
+  })
+
+  it('leaves a machine name worded apart from the story alone', () => {
+    const fan = editorDocument(structuredClone(fanRampOrCoast), fanRampOrCoast.id, fanRampOrCoast.version)
+    setSiteMachine(fan, 'Kiln exhaust fan EF-9 (large impeller)')
+    expect(fan.site.machine).toBe('Kiln exhaust fan EF-9 (large impeller)')
+    expect(fan.start.machine?.name).toBe('Kiln exhaust fan EF-9')
+    setMachineName(fan, '')
+    expect(fan.start.machine).toEqual({ ...fanRampOrCoast.start.machine, name: undefined })
+    expect(fan.start.machine && 'name' in fan.start.machine).toBe(false)
+  })
+
+  it('names the starting wires a device would lose by changing its kind', () => {
+    const doc = editorDocument(structuredClone(deadControl), deadControl.id, deadControl.version)
+    const runSwitch = doc.start.devices[0]!
+    expect(wiresLeftWithoutTerminal(doc, runSwitch, 'pushbutton')).toEqual([])
+    expect(wiresLeftWithoutTerminal(doc, runSwitch, 'potentiometer')).toEqual([
+      'W2 (blue) from +24 to Fan run / stop terminal 13',
+      'W3 (blue) from Fan run / stop terminal 14 to DI1',
+    ])
+    // A potentiometer's wiper wired to the analog input: a selector has no wiper.
+    const pot = editorDocument(
+      structuredClone(potentiometerReference),
+      potentiometerReference.id,
+      potentiometerReference.version,
+    )
+    const speedPot = pot.start.devices.find((d) => d.kind === 'potentiometer')!
+    pot.start.wires = [{ id: 'w1', from: 'drive.ai', to: `${speedPot.id}.wiper`, colour: 'whiteBlue' }]
+    expect(wiresLeftWithoutTerminal(pot, speedPot, 'selector')).toEqual([
+      `W1 (white/blue) from AI to ${speedPot.label} wiper (W)`,
+    ])
   })
 })

@@ -4,11 +4,13 @@ import { afterEach, describe, expect, it, vi } from 'vitest'
 import { flushPromises, mount, type VueWrapper } from '@vue/test-utils'
 import { VAutocomplete, VSelect, VTextField } from 'vuetify/components'
 import deadControl from '../../../scenarios/dead-control-circuit.json'
+import fanRampOrCoast from '../../../scenarios/fan-ramp-or-coast.json'
 import { checkScenario } from '@shared/scenario'
 import ScenarioEditorView from '@/views/ScenarioEditorView.vue'
 import { useScenariosStore } from '@/stores/scenarios'
 import { ApiError } from '@/api/errors'
 import { testPlugins } from './helpers'
+import { SHIPPED_SCENARIOS } from './shippedScenarios'
 
 async function settle() {
   await flushPromises()
@@ -210,5 +212,150 @@ describe('the scenario editor', () => {
     await settle()
     expect(router.currentRoute.value.path).toBe('/scenarios/dead-control-circuit/edit')
     expect(document.body.textContent).toContain('Leave without saving?')
+  })
+
+  it('gives back each shipped scenario unchanged when it is opened and saved without edits', async () => {
+    for (const scenario of SHIPPED_SCENARIOS) {
+      const { wrapper, store } = await mountEditor(`/scenarios/${String(scenario.id)}/edit`, (s) => {
+        s.getDraft = vi.fn(async (key: string) =>
+          draftReply(key, structuredClone(scenario), Number(scenario.version)),
+        ) as Store['getDraft']
+      })
+      expect(wrapper.text()).not.toContain('Unsaved changes')
+      await wrapper.get('form').trigger('submit')
+      await settle()
+      const [, saved] = vi.mocked(store.saveDraft).mock.calls[0]!
+      expect(JSON.parse(JSON.stringify(saved)), String(scenario.id)).toStrictEqual(scenario)
+      wrapper.unmount()
+      document.body.innerHTML = ''
+    }
+  }, 60_000)
+
+  it('names the machine once for a new scenario and keeps a short name the author gives it', async () => {
+    const { wrapper, store } = await mountEditor('/scenarios/new')
+    await wrapper.get('[data-testid="story-machine"] input').setValue('Kiln fan KF-1')
+    await settle()
+    expect(field(wrapper, "Machine's name")[0]!.props('modelValue')).toBe('Kiln fan KF-1')
+    await wrapper.get('[data-testid="machine-name"] input').setValue('Kiln fan')
+    await wrapper.get('[data-testid="story-machine"] input').setValue('Kiln fan KF-1 (belt drive)')
+    await wrapper.get('[data-testid="story-title"] input').setValue('Kiln fan restart')
+    await wrapper.get('form').trigger('submit')
+    await settle()
+    const [, document] = vi.mocked(store.createDraft).mock.calls[0]!
+    expect((document.site as { machine: string }).machine).toBe('Kiln fan KF-1 (belt drive)')
+    expect((document.start as { machine: unknown }).machine).toEqual({ name: 'Kiln fan' })
+  })
+
+  it('leaves a shipped scenario’s shorter machine name alone when the story’s machine changes', async () => {
+    const { wrapper, store } = await mountEditor('/scenarios/fan-ramp-or-coast/edit', (s) => {
+      s.getDraft = vi.fn(async (key: string) =>
+        draftReply(key, structuredClone(fanRampOrCoast), 3),
+      ) as Store['getDraft']
+    })
+    expect(field(wrapper, "Machine's name")[0]!.props('modelValue')).toBe('Kiln exhaust fan EF-9')
+    await wrapper
+      .get('[data-testid="story-machine"] input')
+      .setValue('Kiln exhaust fan EF-9 (heavy impeller)')
+    await wrapper.get('form').trigger('submit')
+    await settle()
+    const [, document] = vi.mocked(store.saveDraft).mock.calls[0]!
+    expect((document.start as { machine: { name: string } }).machine.name).toBe('Kiln exhaust fan EF-9')
+  })
+
+  it('edits the motor nameplate with units and bounds, and can fall back to the bench motor', async () => {
+    const { wrapper, store } = await mountEditor('/scenarios/dead-control-circuit/edit')
+    const plate = wrapper.get('[data-testid="motor-nameplate"]')
+    expect(field(wrapper, 'Rated speed')[0]!.props('suffix')).toBe('rpm')
+    expect(field(wrapper, 'Rated voltage')[0]!.props('hint')).toBe('At least 100 V, at most 690 V')
+    expect(field(wrapper, 'Rated output')[0]!.props('suffix')).toBe('kW')
+    const duty = selectLabelled(wrapper, 'Duty')[0]!
+    expect((duty.props('items') as { title: string }[])[0]!.title).toBe('S1 (continuous)')
+    expect(plate.text()).not.toMatch(/ratedRpm|efficiencyPercent|\bdelta\b/)
+
+    // A speed no 50 Hz motor runs at is refused in words on the field.
+    const speed = plate.findAll('input').find((i) => (i.element as HTMLInputElement).value === '1440')!
+    await speed.setValue('1600')
+    await speed.trigger('blur')
+    await settle()
+    expect(field(wrapper, 'Rated speed')[0]!.props('errorMessages')).toEqual([
+      expect.stringContaining('must be a little below a synchronous speed'),
+    ])
+    await speed.setValue('1450')
+    await settle()
+
+    // The bench motor: no plate in the document, its figures from the drive's settings shown in words.
+    await wrapper.get('[data-testid="motor-choice"] input[value="bench"]').setValue(true)
+    await settle()
+    expect(wrapper.find('[data-testid="motor-nameplate"]').exists()).toBe(false)
+    expect(wrapper.get('[data-testid="bench-motor"]').text()).toMatch(/400 V star, 50 Hz, [\d.]+ kW/)
+    await wrapper.get('form').trigger('submit')
+    await settle()
+    const [, onBench] = vi.mocked(store.saveDraft).mock.calls[0]!
+    expect('motor' in (onBench.start as object)).toBe(false)
+
+    // Choosing the plate again brings back the author's figures.
+    await wrapper.get('[data-testid="motor-choice"] input[value="own"]').setValue(true)
+    await wrapper.get('form').trigger('submit')
+    await settle()
+    const [, withPlate] = vi.mocked(store.saveDraft).mock.calls[1]!
+    expect((withPlate.start as { motor: unknown }).motor).toEqual({
+      ...deadControl.start.motor,
+      ratedRpm: 1450,
+    })
+    const check = checkScenario(withPlate)
+    expect(check.ok ? [] : check.problems).toEqual([])
+  })
+
+  it('starts an own nameplate that agrees with the drive’s settings, leaving only the serial to invent', async () => {
+    const { wrapper, store } = await mountEditor('/scenarios/new')
+    expect(wrapper.get('[data-testid="motor-choice"] input[value="bench"]').element).toHaveProperty(
+      'checked',
+      true,
+    )
+    await wrapper.get('[data-testid="motor-choice"] input[value="own"]').setValue(true)
+    await wrapper.get('[data-testid="story-title"] input').setValue('Night shift pump')
+    await wrapper.get('form').trigger('submit')
+    await settle()
+    expect(field(wrapper, 'Serial number')[0]!.props('errorMessages')).toEqual(['Fill this in'])
+    const [, document] = vi.mocked(store.createDraft).mock.calls[0]!
+    const check = checkScenario(document)
+    const motorProblems = check.ok ? [] : check.problems.filter((p) => p.path.startsWith('$.start.motor'))
+    expect(motorProblems.map((p) => p.path)).toEqual(['$.start.motor.serial'])
+  })
+
+  it('asks before a change of kind leaves wires on terminals the new kind lacks, naming them', async () => {
+    const { wrapper } = await mountEditor('/scenarios/dead-control-circuit/edit')
+    const kind = () => selectLabelled(wrapper, 'Kind')[0]!
+    await kind().setValue('potentiometer')
+    await settle()
+    const dialog = () => document.body.querySelector('[role="alertdialog"]')
+    expect(dialog()?.textContent).toContain('Make Fan run / stop a potentiometer?')
+    const listed = [...document.body.querySelectorAll('[data-testid="kind-change-wires"] li')].map(
+      (li) => li.textContent,
+    )
+    expect(listed).toEqual([
+      'W2 (blue) from +24 to Fan run / stop terminal 13',
+      'W3 (blue) from Fan run / stop terminal 14 to DI1',
+    ])
+    const button = (text: string) =>
+      [...document.body.querySelectorAll('button')].find((b) => b.textContent?.trim() === text)!
+    button('Cancel').click()
+    await settle()
+    expect(kind().props('modelValue')).toBe('selector')
+
+    await kind().setValue('potentiometer')
+    await settle()
+    button('Change it').click()
+    await settle()
+    expect(kind().props('modelValue')).toBe('potentiometer')
+  })
+
+  it('changes kind at once when every wire keeps its terminal', async () => {
+    const { wrapper } = await mountEditor('/scenarios/dead-control-circuit/edit')
+    await selectLabelled(wrapper, 'Kind')[0]!.setValue('pushbutton')
+    await settle()
+    expect(document.body.querySelector('[role="alertdialog"]')).toBeNull()
+    expect(selectLabelled(wrapper, 'Kind')[0]!.props('modelValue')).toBe('pushbutton')
+    expect(wrapper.get('[data-testid="device-item"]').text()).toContain('Push button')
   })
 })

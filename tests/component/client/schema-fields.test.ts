@@ -10,6 +10,13 @@ import {
   objectiveKindSchema,
   schemaFields,
 } from '@/components/scenarios/editor/schemaFields'
+import { motorNameplateSchema } from '@shared/model/setup'
+import { nameplateProblems } from '@shared/model/nameplate'
+import {
+  benchNameplate,
+  NAMEPLATE_CHOICE_WORDS,
+  NAMEPLATE_FIELDS,
+} from '@/components/scenarios/editor/nameplateFields'
 
 describe('schemaFields', () => {
   it('gives every objective kind its title and points, and leaves no field of any kind out', () => {
@@ -101,5 +108,69 @@ describe('schemaFields', () => {
     expect(objectiveSchema.safeParse({ ...speed, target: 40, tolerance: 1, holdSeconds: 5 }).success).toBe(
       true,
     )
+  })
+
+  it('reads a choice written as a union of literals', () => {
+    const { fields, unsupported } = schemaFields(
+      'made-up',
+      z.object({ hz: z.union([z.literal(50), z.literal(60)]) }),
+      { choices: { '50': '50 Hz', '60': '60 Hz' } },
+    )
+    expect(unsupported).toEqual([])
+    expect(fields).toEqual([
+      {
+        key: 'hz',
+        label: 'Hz',
+        optional: false,
+        type: 'choice',
+        choices: [
+          { value: 50, title: '50 Hz' },
+          { value: 60, title: '60 Hz' },
+        ],
+      },
+    ])
+  })
+})
+
+describe('the motor nameplate form', () => {
+  it('has a field for every figure on the plate, in words, with the schema’s bounds', () => {
+    expect(NAMEPLATE_FIELDS.map((f) => f.key)).toEqual(Object.keys(motorNameplateSchema.shape))
+    const volts = NAMEPLATE_FIELDS.find((f) => f.key === 'ratedVolts')
+    expect(volts).toMatchObject({ type: 'number', label: 'Rated voltage', min: 100, max: 690 })
+    const amps = NAMEPLATE_FIELDS.find((f) => f.key === 'fullLoadAmps')
+    expect(amps).toMatchObject({ type: 'number', min: 0, minExclusive: true, max: 1000 })
+    expect(NAMEPLATE_FIELDS.find((f) => f.key === 'insulationClass')).toMatchObject({
+      type: 'choice',
+      optional: true,
+    })
+    for (const field of NAMEPLATE_FIELDS) expect(field.label, field.key).not.toMatch(/[a-z][A-Z]/)
+  })
+
+  it('has words for every value a nameplate choice can take', () => {
+    const choices = NAMEPLATE_FIELDS.filter((f) => f.type === 'choice')
+    expect(choices.map((f) => f.key)).toEqual([
+      'ratedHz',
+      'powerUnit',
+      'connection',
+      'duty',
+      'insulationClass',
+    ])
+    for (const field of choices)
+      for (const choice of field.type === 'choice' ? field.choices : [])
+        expect(NAMEPLATE_CHOICE_WORDS[String(choice.value)], `${field.key} ${choice.value}`).toBeTruthy()
+  })
+
+  it('builds the bench motor’s plate from the starting settings, consistent with itself', () => {
+    const standard = benchNameplate({})
+    expect(nameplateProblems(standard)).toEqual([])
+    const sixty = benchNameplate({
+      'motor.ratedFrequency': 60,
+      'motor.ratedSpeed': 1750,
+      'motor.ratedVoltage': 460,
+    })
+    expect(sixty).toMatchObject({ ratedHz: 60, ratedRpm: 1750, ratedVolts: 460 })
+    expect(nameplateProblems(sixty)).toEqual([])
+    // A setting the drive would refuse is not used.
+    expect(benchNameplate({ 'motor.ratedVoltage': 'four hundred' }).ratedVolts).toBe(standard.ratedVolts)
   })
 })

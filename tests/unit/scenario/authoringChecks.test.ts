@@ -228,6 +228,8 @@ describe('problems in words', () => {
     expect(problemPlace(['start', 'settings', 'speed.max'], doc)).toBe('Starting setting “speed.max”')
     expect(problemPlace(['faults', 0, 'wireId'], doc)).toBe('Fault 1, wire')
     expect(problemPlace(['site', 'name'], doc)).toBe('Site')
+    expect(problemPlace(['start', 'motor', 'ratedRpm'], doc)).toBe('Motor nameplate, rated speed')
+    expect(problemPlace(['start', 'motor', 'fullLoadAmps'], doc)).toBe('Motor nameplate, full-load current')
     expect(problemPlace(['learningOutcomes', 2], doc)).toBe('Learning outcomes line 3')
   })
 

@@ -1,5 +1,5 @@
-// Turns an objective's zod schema into field descriptions the form renders, so a new objective kind
-// gets its form from its schema. Fields that need a picker (a setting, the scenario's devices, faults,
+// Turns an objective's zod schema (or another part's, such as the motor nameplate) into field
+// descriptions the form renders, so a new objective kind gets its form from its schema. Fields that need a picker (a setting, the scenario's devices, faults,
 // hints …) are marked by name in PICKERS; the form draws those with their own components.
 import { z } from 'zod'
 import { objectiveSchema, type ObjectiveKind } from '@shared/scenario/objectiveSchema'
@@ -106,8 +106,18 @@ export const CHOICE_WORDS: Record<string, string> = {
   off: 'OFF',
 }
 
-function fieldLabel(key: string): string {
-  return LABELS[key] ?? key.replace(/([a-z])([A-Z])/g, '$1 $2').replace(/^./, (c) => c.toUpperCase())
+/** Words for one schema's fields and choices, where the objective words above do not fit. */
+export interface FieldWords {
+  labels?: Record<string, string>
+  choices?: Record<string, string>
+}
+
+function fieldLabel(key: string, words: FieldWords): string {
+  return (
+    words.labels?.[key] ??
+    LABELS[key] ??
+    key.replace(/([a-z])([A-Z])/g, '$1 $2').replace(/^./, (c) => c.toUpperCase())
+  )
 }
 
 function numberBounds(schema: z.ZodNumber) {
@@ -120,10 +130,22 @@ function numberBounds(schema: z.ZodNumber) {
   return { min, max, minExclusive: exclusiveMin, integer: schema.isInt }
 }
 
-function describe(kind: string, key: string, raw: z.ZodType): FieldDescription | null {
+/** The values of a union made only of literals (`z.union([z.literal(50), z.literal(60)])`), else null. */
+function literalUnionValues(schema: z.ZodType): (string | number | boolean)[] | null {
+  if (!(schema instanceof z.ZodUnion)) return null
+  const options = schema.options as z.ZodType[]
+  if (!options.every((o) => o instanceof z.ZodLiteral)) return null
+  return options.flatMap((o) => [...(o as z.ZodLiteral).values] as (string | number | boolean)[])
+}
+
+function describe(kind: string, key: string, raw: z.ZodType, words: FieldWords): FieldDescription | null {
   const optional = raw instanceof z.ZodOptional
   const schema = (optional ? (raw as z.ZodOptional<z.ZodType>).unwrap() : raw) as z.ZodType
-  const base = { key, label: fieldLabel(key), optional }
+  const base = { key, label: fieldLabel(key, words), optional }
+  const choice = (v: string | number | boolean): Choice => ({
+    value: v,
+    title: words.choices?.[String(v)] ?? CHOICE_WORDS[String(v)] ?? String(v),
+  })
   const picker = PICKERS[`${kind}.${key}`] ?? PICKERS[key]
   if (picker) return { ...base, type: 'picker', picker }
   if (schema instanceof z.ZodString)
@@ -132,20 +154,14 @@ function describe(kind: string, key: string, raw: z.ZodType): FieldDescription |
   if (schema instanceof z.ZodBoolean) return { ...base, type: 'boolean' }
   if (schema instanceof z.ZodEnum) {
     const values = schema.options as (string | number)[]
-    return {
-      ...base,
-      type: 'choice',
-      choices: values.map((v) => ({ value: v, title: CHOICE_WORDS[String(v)] ?? String(v) })),
-    }
+    return { ...base, type: 'choice', choices: values.map(choice) }
   }
   if (schema instanceof z.ZodLiteral) {
     const values = [...schema.values] as (string | number | boolean)[]
-    return {
-      ...base,
-      type: 'choice',
-      choices: values.map((v) => ({ value: v, title: CHOICE_WORDS[String(v)] ?? String(v) })),
-    }
+    return { ...base, type: 'choice', choices: values.map(choice) }
   }
+  const literals = literalUnionValues(schema)
+  if (literals) return { ...base, type: 'choice', choices: literals.map(choice) }
   // A shape the form has no field for: the caller lists it as not yet in the form.
   return null
 }
@@ -154,12 +170,13 @@ function describe(kind: string, key: string, raw: z.ZodType): FieldDescription |
 export function schemaFields(
   kind: string,
   schema: z.ZodObject,
+  words: FieldWords = {},
 ): { fields: FieldDescription[]; unsupported: string[] } {
   const fields: FieldDescription[] = []
   const unsupported: string[] = []
   for (const [key, field] of Object.entries(schema.shape)) {
     if (HIDDEN.has(key)) continue
-    const described = describe(kind, key, field as z.ZodType)
+    const described = describe(kind, key, field as z.ZodType, words)
     if (described) fields.push(described)
     else unsupported.push(key)
   }
