@@ -216,7 +216,10 @@ function machineChanges(a: Doc, b: Doc): string[] {
       `Incoming supply: ${numberWords(was.lineVolts ?? 400, 'V')} → ${numberWords(now.lineVolts ?? 400, 'V')}`,
     )
   if (!same(was.motor, now.motor)) out.push('Motor nameplate changed')
-  if (!same(was.machine, now.machine)) out.push('Driven machine changed (its load or how it slows down)')
+  const { name: nameWas, ...loadWas } = asDoc(was.machine)
+  const { name: nameNow, ...loadNow } = asDoc(now.machine)
+  if (!same(nameWas, nameNow)) out.push(`Machine's name: ${quote(nameWas)} → ${quote(nameNow)}`)
+  if (!same(loadWas, loadNow)) out.push('Driven machine changed (its load or how it slows down)')
   if (!same(was.motorCable, now.motorCable)) out.push('How the motor cable is landed at the start changed')
   return out
 }

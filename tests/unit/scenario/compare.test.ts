@@ -89,6 +89,20 @@ describe('compareScenarios', () => {
     expectNoLeaks(changes, a, b)
   })
 
+  it('tells a renamed machine from a change to its load', () => {
+    const a = base()
+    const renamed = base()
+    renamed.start.machine = { ...a.start.machine!, name: 'Cold-store fan CF-2' }
+    expect(texts(compareScenarios(a, renamed))).toEqual([
+      `Machine's name: “${a.start.machine!.name}” → “Cold-store fan CF-2”`,
+    ])
+    const heavier = base()
+    heavier.start.machine = { ...a.start.machine!, loadFraction: 0.95 }
+    expect(texts(compareScenarios(a, heavier))).toEqual([
+      'Driven machine changed (its load or how it slows down)',
+    ])
+  })
+
   it('reports faults and hints added, removed and changed', () => {
     const a = base()
     const b = base()
