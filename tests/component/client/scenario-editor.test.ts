@@ -106,6 +106,25 @@ describe('the scenario editor', () => {
     ])
   })
 
+  it('undoes and redoes a change to the document from the save bar', async () => {
+    const { wrapper } = await mountEditor('/scenarios/dead-control-circuit/edit')
+    const devices = () => wrapper.findAll('[data-testid="device-item"]').length
+    const before = devices()
+    expect(wrapper.get('[data-testid="undo"]').attributes('disabled')).toBeDefined()
+    await wrapper.get('[data-testid="add-device"]').trigger('click')
+    await settle()
+    expect(devices()).toBe(before + 1)
+    await wrapper.get('[data-testid="undo"]').trigger('click')
+    await settle()
+    expect(devices()).toBe(before)
+    // Back where the draft was loaded: nothing unsaved.
+    expect(wrapper.text()).not.toContain('Unsaved changes')
+    await wrapper.get('[data-testid="redo"]').trigger('click')
+    await settle()
+    expect(devices()).toBe(before + 1)
+    expect(wrapper.text()).toContain('Unsaved changes')
+  })
+
   it('offers only the scenario’s own wires as the target of a broken-wire fault', async () => {
     const { wrapper } = await mountEditor('/scenarios/dead-control-circuit/edit')
     const wireSelects = selectLabelled(wrapper, 'Which wire')
