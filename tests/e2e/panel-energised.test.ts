@@ -30,6 +30,12 @@ describe('wiring on a live panel', () => {
     expect(await page.getByTestId('panel-canvas').boundingBox()).toEqual(before)
     await screenshot(page, 'panel-energised-02-bus-charged')
 
+    // The display goes dark as the bus runs down, and says so to a screen reader: let that happen first
+    // (time sped up), or its announcement can cover the selection's (seen once in CI).
+    await panel.setTimeSpeed(60)
+    await panel.waitFor((s) => s.includes('drive dark'), 60_000)
+    await panel.setTimeSpeed(1)
+
     // Select the first wire on the canvas and remove it with the Delete key.
     await panel.selectWire('drive.p24', 'runSwitch.a')
     await expect.poll(async () => page.getByTestId('announcer').textContent()).toMatch(/Wire W1 BU selected/)

@@ -125,6 +125,44 @@ describe('the scenario editor', () => {
     expect(wrapper.text()).toContain('Unsaved changes')
   })
 
+  it('proves dead on the usual pairs, or on pairs the author ticks, phase to earth included', async () => {
+    const { wrapper, store } = await mountEditor('/scenarios/dead-control-circuit/edit')
+    const item = wrapper
+      .findAll('[data-testid="objective-item"]')
+      .find((i) => i.text().includes('Absence of voltage proved'))!
+    await item.get('.v-expansion-panel-title').trigger('click')
+    await settle()
+    const pairs = () => item.get('[data-testid="probe-pairs"]')
+    expect(pairs().text()).toContain('The usual pairs: L1 – L2, L2 – L3, L1 – L3, DC+ – DC−')
+    const radios = pairs().findAll('input[type="radio"]')
+    await radios[1]!.setValue(true)
+    await settle()
+    // Choosing starts from the usual pairs, ticked; phase to earth is offered beside them.
+    const box = (label: string) =>
+      pairs()
+        .findAll('.v-checkbox')
+        .find((c) => c.text() === label)!
+        .get('input')
+    expect((box('L1 – L2').element as HTMLInputElement).checked).toBe(true)
+    expect((box('L1 – PE').element as HTMLInputElement).checked).toBe(false)
+    await box('L1 – PE').setValue(true)
+    await box('L2 – L3').setValue(false)
+    await settle()
+    await wrapper.get('form').trigger('submit')
+    await settle()
+    const [, document] = vi.mocked(store.saveDraft).mock.calls[0]!
+    const saved = (document.objectives as { kind: string; pairs?: string[][] }[]).find(
+      (o) => o.kind === 'absenceOfVoltageProved',
+    )!
+    expect(saved.pairs).toEqual([
+      ['drive.l1', 'drive.l2'],
+      ['drive.l1', 'drive.l3'],
+      ['drive.l1', 'drive.pe'],
+      ['drive.dcp', 'drive.dcn'],
+    ])
+    expect(wrapper.text()).not.toContain('drive.')
+  })
+
   it('offers only the scenario’s own wires as the target of a broken-wire fault', async () => {
     const { wrapper } = await mountEditor('/scenarios/dead-control-circuit/edit')
     const wireSelects = selectLabelled(wrapper, 'Which wire')

@@ -14,7 +14,7 @@ export type Picker =
   | 'deviceCondition' // which devices are held, released or set where
   | 'wiringExpect' // ON, OFF or a voltage window
   | 'diagnosisExpect' // a part and what is wrong with it
-  | 'probePairs' // pairs of terminals to prove dead (not yet in the form)
+  | 'probePairs' // pairs of terminals to prove dead
 
 export interface Choice {
   value: string | number | boolean
